@@ -1,0 +1,69 @@
+/**
+ * Evaluate every aperture of a stencil, with step-region thicknesses. O(n) in the number of
+ * apertures (times the number of step regions, which is small).
+ */
+import type { ApertureInput } from './aperture';
+import { checkAperture } from './aperture-validation';
+import { evaluateGeometry, type ApertureEvaluation } from './evaluate-aperture';
+import { apertureGeometry } from './geometry';
+import { apertureCentreUm } from './outline';
+import { checkStepRegions, thicknessAt, type StepRegion } from './step-regions';
+import { StencilInputError, type InputProblem } from './stencil-input-error';
+import type { PrintThresholds } from './thresholds';
+
+/** At most this many problems are reported at once; the rest are counted. */
+export const MAX_REPORTED_PROBLEMS = 100;
+
+/** One aperture's evaluation, tagged with its list index and names. */
+export interface StencilApertureResult extends ApertureEvaluation {
+	index: number;
+	refdes: string;
+	pad: string;
+}
+
+/** Stencil-wide settings for `evaluateStencil`. */
+export interface StencilSettings {
+	/** Base foil thickness, µm. */
+	thicknessUm: number;
+	thresholds: PrintThresholds;
+	stepRegions?: StepRegion[];
+}
+
+/**
+ * Evaluate all apertures of a stencil; each uses its local (step-region) thickness.
+ * @throws {StencilInputError} listing up to 100 problems when any aperture, the thickness or a
+ *   step region is invalid (all-or-nothing, so a report never silently skips apertures).
+ * @example evaluateStencil(apertures, { thicknessUm: 120, thresholds: resolveThresholds('laser-stainless') })
+ */
+export function evaluateStencil(
+	apertures: readonly ApertureInput[],
+	settings: StencilSettings
+): StencilApertureResult[] {
+	const regions = settings.stepRegions ?? [];
+	const problems: InputProblem[] = [];
+	if (!Number.isFinite(settings.thicknessUm) || settings.thicknessUm <= 0)
+		problems.push({
+			where: 'stencil',
+			field: 'thicknessUm',
+			message: `must be a finite number greater than 0 (got ${settings.thicknessUm})`
+		});
+	problems.push(...checkStepRegions(regions));
+	let extra = 0;
+	apertures.forEach((a, i) => {
+		const p = checkAperture(a, i);
+		if (problems.length + p.length <= MAX_REPORTED_PROBLEMS) problems.push(...p);
+		else extra += p.length;
+	});
+	if (extra > 0)
+		problems.push({ where: 'apertures', field: '*', message: `${extra} more problems not listed` });
+	if (problems.length > 0) throw new StencilInputError(problems);
+	return apertures.map((a, index) => {
+		const t = thicknessAt(apertureCentreUm(a), settings.thicknessUm, regions);
+		return {
+			index,
+			refdes: a.refdes,
+			pad: a.pad,
+			...evaluateGeometry(apertureGeometry(a, index), t, settings.thresholds)
+		};
+	});
+}

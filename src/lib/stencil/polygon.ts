@@ -1,0 +1,176 @@
+/**
+ * Plane-polygon helpers for polygonal apertures (µm). Pure functions on vertex lists; a vertex
+ * list is the outline in order, without the first vertex repeated at the end.
+ */
+import type { PointUm } from './aperture';
+
+/**
+ * Drop a closing vertex that repeats the first one (Gerber regions and many CAD exports close
+ * their contours that way). Returns a new array.
+ * @example openPolygon([[0,0],[1,0],[0,1],[0,0]]) // [[0,0],[1,0],[0,1]]
+ */
+export function openPolygon(vertices: readonly PointUm[]): PointUm[] {
+	const out = vertices.map((v) => [v[0], v[1]] as PointUm);
+	if (out.length > 1) {
+		const first = out[0];
+		const last = out[out.length - 1];
+		if (first[0] === last[0] && first[1] === last[1]) out.pop();
+	}
+	return out;
+}
+
+/**
+ * Signed shoelace area (positive for counter-clockwise order). Gauss's area formula.
+ * @example polygonSignedArea([[0,0],[2,0],[2,1],[0,1]]) // 2
+ */
+export function polygonSignedArea(vertices: readonly PointUm[]): number {
+	let twice = 0;
+	for (let i = 0, n = vertices.length; i < n; i++) {
+		const [x1, y1] = vertices[i];
+		const [x2, y2] = vertices[(i + 1) % n];
+		twice += x1 * y2 - x2 * y1;
+	}
+	return twice / 2;
+}
+
+/**
+ * Unsigned shoelace area in µm² (either vertex order).
+ * @example polygonAreaUm2([[0,0],[0,1],[2,1],[2,0]]) // 2
+ */
+export function polygonAreaUm2(vertices: readonly PointUm[]): number {
+	return Math.abs(polygonSignedArea(vertices));
+}
+
+/**
+ * Perimeter in µm: the sum of the edge lengths of the closed outline.
+ * @example polygonPerimeterUm([[0,0],[3,0],[3,4]]) // 12
+ */
+export function polygonPerimeterUm(vertices: readonly PointUm[]): number {
+	let sum = 0;
+	for (let i = 0, n = vertices.length; i < n; i++) {
+		const [x1, y1] = vertices[i];
+		const [x2, y2] = vertices[(i + 1) % n];
+		sum += Math.hypot(x2 - x1, y2 - y1);
+	}
+	return sum;
+}
+
+/**
+ * Area centroid of a simple polygon with non-zero area (standard first-moment formula).
+ * @throws {RangeError} when the area is zero.
+ * @example polygonCentroid([[0,0],[2,0],[2,2],[0,2]]) // [1, 1]
+ */
+export function polygonCentroid(vertices: readonly PointUm[]): PointUm {
+	const a = polygonSignedArea(vertices);
+	if (a === 0) throw new RangeError('polygon centroid: the polygon has zero area');
+	let cx = 0;
+	let cy = 0;
+	for (let i = 0, n = vertices.length; i < n; i++) {
+		const [x1, y1] = vertices[i];
+		const [x2, y2] = vertices[(i + 1) % n];
+		const cross = x1 * y2 - x2 * y1;
+		cx += (x1 + x2) * cross;
+		cy += (y1 + y2) * cross;
+	}
+	return [cx / (6 * a), cy / (6 * a)];
+}
+
+function cross(o: PointUm, a: PointUm, b: PointUm): number {
+	return (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
+}
+
+/**
+ * Convex hull by Andrew's monotone chain, counter-clockwise, collinear points removed.
+ * @example convexHull([[0,0],[1,1],[2,0],[1,0.2],[1,-1]]).length // 4
+ */
+export function convexHull(points: readonly PointUm[]): PointUm[] {
+	const pts = [...points].sort((p, q) => p[0] - q[0] || p[1] - q[1]);
+	if (pts.length < 3) return pts.map((p) => [p[0], p[1]] as PointUm);
+	const lower: PointUm[] = [];
+	for (const p of pts) {
+		while (lower.length >= 2 && cross(lower[lower.length - 2], lower[lower.length - 1], p) <= 0)
+			lower.pop();
+		lower.push(p);
+	}
+	const upper: PointUm[] = [];
+	for (let i = pts.length - 1; i >= 0; i--) {
+		const p = pts[i];
+		while (upper.length >= 2 && cross(upper[upper.length - 2], upper[upper.length - 1], p) <= 0)
+			upper.pop();
+		upper.push(p);
+	}
+	lower.pop();
+	upper.pop();
+	return lower.concat(upper).map((p) => [p[0], p[1]] as PointUm);
+}
+
+/**
+ * Minimum caliper width: the smallest distance between two parallel lines enclosing the
+ * polygon. The minimum is always attained with one line along a hull edge (Toussaint 1983,
+ * "Solving geometric problems with the rotating calipers"), so each hull edge is tried. For a
+ * non-convex polygon this is the width of its convex hull, an approximation of the narrowest
+ * opening (a thin tab on a wide pad is not detected).
+ * @example polygonMinWidthUm([[0,0],[10,0],[10,2],[0,2]]) // 2
+ */
+export function polygonMinWidthUm(vertices: readonly PointUm[]): number {
+	const hull = convexHull(vertices);
+	if (hull.length < 3) return 0;
+	let best = Infinity;
+	for (let i = 0, n = hull.length; i < n; i++) {
+		const a = hull[i];
+		const b = hull[(i + 1) % n];
+		const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+		let far = 0;
+		for (const p of hull) far = Math.max(far, Math.abs(cross(a, b, p)) / len);
+		best = Math.min(best, far);
+	}
+	return best;
+}
+
+function onSegment(a: PointUm, b: PointUm, p: PointUm): boolean {
+	return (
+		Math.min(a[0], b[0]) <= p[0] &&
+		p[0] <= Math.max(a[0], b[0]) &&
+		Math.min(a[1], b[1]) <= p[1] &&
+		p[1] <= Math.max(a[1], b[1])
+	);
+}
+
+function segmentsTouch(a: PointUm, b: PointUm, c: PointUm, d: PointUm): boolean {
+	const d1 = Math.sign(cross(c, d, a));
+	const d2 = Math.sign(cross(c, d, b));
+	const d3 = Math.sign(cross(a, b, c));
+	const d4 = Math.sign(cross(a, b, d));
+	if (d1 * d2 < 0 && d3 * d4 < 0) return true;
+	if (d1 === 0 && onSegment(c, d, a)) return true;
+	if (d2 === 0 && onSegment(c, d, b)) return true;
+	if (d3 === 0 && onSegment(a, b, c)) return true;
+	if (d4 === 0 && onSegment(a, b, d)) return true;
+	return false;
+}
+
+/**
+ * Find the first pair of edges that cross or touch, other than neighbours meeting at their
+ * shared vertex; a neighbour that doubles back along its predecessor also counts. O(n²),
+ * fine for pad outlines of tens of vertices. Edge i runs from vertex i to vertex i+1.
+ * @returns the two edge indices, or null when the polygon is simple.
+ * @example findSelfIntersection([[0,0],[2,2],[2,0],[0,2]]) // [0, 2]
+ */
+export function findSelfIntersection(vertices: readonly PointUm[]): [number, number] | null {
+	const n = vertices.length;
+	for (let i = 0; i < n; i++) {
+		const a = vertices[i];
+		const b = vertices[(i + 1) % n];
+		const c = vertices[(i + 2) % n];
+		// Neighbouring edges share vertex b; they overlap only if c turns straight back.
+		if (n > 2 && cross(a, b, c) === 0) {
+			const dot = (b[0] - a[0]) * (c[0] - b[0]) + (b[1] - a[1]) * (c[1] - b[1]);
+			if (dot < 0) return [i, (i + 1) % n];
+		}
+		for (let j = i + 2; j < n; j++) {
+			if (i === 0 && j === n - 1) continue; // last edge neighbours the first
+			if (segmentsTouch(a, b, vertices[j], vertices[(j + 1) % n])) return [i, j];
+		}
+	}
+	return null;
+}
