@@ -6,8 +6,9 @@ const config = {
 	preprocess: vitePreprocess(),
 	kit: {
 		adapter: adapter(),
-		// Form posts are checked against ORIGIN; API clients use Bearer tokens, not cookies.
-		csrf: { checkOrigin: true }
+		// instrumentation.server.ts runs before adapter-node reads its environment, which is how
+		// `node build` gets Rollbead's defaults for ORIGIN and BODY_SIZE_LIMIT.
+		experimental: { instrumentation: { server: true } }
 	}
 };
 

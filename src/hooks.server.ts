@@ -1,0 +1,94 @@
+import { json, redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { hasRole, pageRolesFor } from '$lib/access';
+import { authHandle } from '$lib/server/auth';
+import { getDb } from '$lib/server/db';
+import { apiPolicyFor, GENERAL_BODY_LIMIT_BYTES, UPLOAD_ROUTES } from '$lib/server/api-policy';
+import { forbidden, unauthorized } from '$lib/server/api';
+import { verifyApiToken } from '$lib/server/tokens';
+import { findActiveUser } from '$lib/server/users';
+import { startServices } from '$lib/server/startup';
+
+export const init: ServerInit = async () => {
+	await startServices();
+};
+
+const PUBLIC_PAGES = new Set(['/signin']);
+const TOKEN_ERRORS = {
+	malformed: 'The Bearer token is malformed.',
+	unknown: 'The Bearer token is not known.',
+	revoked: 'The Bearer token has been revoked.'
+} as const;
+
+const isApi = (path: string) => path === '/api' || path.startsWith('/api/');
+
+/** Work out who is calling: a Bearer token on /api/*, else the signed-in session. */
+const identify: Handle = async ({ event, resolve }) => {
+	event.locals.actor = null;
+	const path = event.url.pathname;
+	const authorization = event.request.headers.get('authorization');
+	if (authorization && isApi(path)) {
+		const match = /^Bearer\s+(\S+)\s*$/i.exec(authorization);
+		if (!match) {
+			return json({ error: 'Expected "Authorization: Bearer <token>".' }, { status: 401 });
+		}
+		const check = verifyApiToken(getDb(), match[1]);
+		if (!check.ok) return json({ error: TOKEN_ERRORS[check.reason] }, { status: 401 });
+		event.locals.actor = check.actor;
+		return resolve(event);
+	}
+	if (!path.startsWith('/auth/')) {
+		const session = await event.locals.auth();
+		const userId = Number(session?.user?.id);
+		const user = Number.isSafeInteger(userId) ? findActiveUser(getDb(), userId) : undefined;
+		if (user) {
+			event.locals.actor = { kind: 'user', id: user.id, email: user.email, name: user.name, role: user.role };
+		}
+	}
+	return resolve(event);
+};
+
+/** Refuse before the route runs: anonymous callers, wrong roles and oversized bodies. */
+const guard: Handle = async ({ event, resolve }) => {
+	const path = event.url.pathname;
+	const method = event.request.method;
+	const contentLength = Number(event.request.headers.get('content-length') ?? 0);
+	if (contentLength > GENERAL_BODY_LIMIT_BYTES && !UPLOAD_ROUTES.has(event.route.id ?? '')) {
+		const limitMb = GENERAL_BODY_LIMIT_BYTES / 1024 / 1024;
+		return json({ error: `The request body is larger than ${limitMb} MB.` }, { status: 413 });
+	}
+	if (path.startsWith('/auth/') || path.startsWith('/_app/')) return resolve(event);
+
+	const actor = event.locals.actor;
+	if (isApi(path)) {
+		if (!event.route.id) return json({ error: `No API route at ${path}.` }, { status: 404 });
+		const policy = apiPolicyFor(event.route.id, method);
+		if (policy === undefined) {
+			return json({ error: `${method} is not allowed on ${path}.` }, { status: 405 });
+		}
+		if (policy !== 'public') {
+			if (!actor) return unauthorized();
+			if (!hasRole(actor, policy)) return forbidden(actor);
+		}
+		return resolve(event);
+	}
+
+	if (PUBLIC_PAGES.has(path)) return resolve(event);
+	if (!actor) {
+		const back = path === '/' ? '' : `?redirectTo=${encodeURIComponent(path + event.url.search)}`;
+		redirect(303, `/signin${back}`);
+	}
+	if (!hasRole(actor, pageRolesFor(path)) && method !== 'GET' && method !== 'HEAD') {
+		// Page GETs fall through to (app)/+layout.server.ts, which shows a friendly refusal.
+		return new Response('Your role may not do this.', { status: 403 });
+	}
+	return resolve(event);
+};
+
+export const handle = sequence(authHandle, identify, guard);
+
+export const handleError: HandleServerError = ({ error, status, message }) => {
+	if (status === 404) return { message: 'This page does not exist.' };
+	console.error('[rollbead] unexpected error', error);
+	return { message: status >= 500 ? 'Something went wrong on our side; it has been logged.' : message };
+};

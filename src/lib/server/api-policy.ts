@@ -1,0 +1,29 @@
+import { ALL_ROLES, ADMIN_ONLY, ENGINEERING, type Role } from '$lib/access';
+
+export type HttpMethod = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+export type MethodPolicy = readonly Role[] | 'public';
+
+/**
+ * Who may call each JSON API route, keyed by SvelteKit route id and method. hooks.server.ts
+ * enforces it before the route runs and `apiRoute` checks it again; a method missing here is
+ * refused (fail closed). tests/unit/api-policy.test.ts checks every +server.ts against this table.
+ */
+export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>>> = {
+	'/api/health': { GET: 'public' },
+	'/api/me': { GET: ALL_ROLES },
+	'/api/users': { GET: ADMIN_ONLY },
+	'/api/lines': { GET: ALL_ROLES, POST: ENGINEERING },
+	'/api/products': { GET: ALL_ROLES, POST: ENGINEERING }
+};
+
+/** Routes that take large uploads: only these accept bodies above the general limit. */
+export const UPLOAD_ROUTES: ReadonlySet<string> = new Set<string>([]);
+
+/** Bodies on every other route stay small; a large form post is refused before it is read. */
+export const GENERAL_BODY_LIMIT_BYTES = 25 * 1024 * 1024;
+
+export function apiPolicyFor(routeId: string | null, method: string): MethodPolicy | undefined {
+	if (!routeId) return undefined;
+	const methodKey = (method === 'HEAD' ? 'GET' : method) as HttpMethod;
+	return API_POLICY[routeId]?.[methodKey];
+}

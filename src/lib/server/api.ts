@@ -1,0 +1,96 @@
+import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
+import { ZodError, type ZodType } from 'zod';
+import { hasRole, type Actor } from '$lib/access';
+import { apiPolicyFor } from './api-policy';
+
+/** An expected API failure with its status and JSON body. */
+export class ApiError extends Error {
+	constructor(
+		readonly status: number,
+		readonly body: Record<string, unknown>
+	) {
+		super(String(body.error ?? body.message ?? status));
+	}
+}
+
+export const unauthorized = () =>
+	json(
+		{ error: 'Sign-in required: send "Authorization: Bearer <token>" or use a signed-in session.' },
+		{ status: 401 }
+	);
+
+export const forbidden = (actor: Actor) =>
+	json({ error: `The role "${actor.role}" may not use this route.` }, { status: 403 });
+
+type Handler<A> = (event: RequestEvent, actor: A) => Response | Promise<Response>;
+
+function wrap<A extends Actor | null>(handler: Handler<A>, needsActor: boolean): RequestHandler {
+	return async (event) => {
+		const policy = apiPolicyFor(event.route.id, event.request.method);
+		if (policy === undefined) {
+			return json({ error: 'This route declares no access policy for that method.' }, { status: 405 });
+		}
+		const actor = event.locals.actor;
+		if (policy !== 'public' || needsActor) {
+			if (!actor) return unauthorized();
+			if (policy !== 'public' && !hasRole(actor, policy)) return forbidden(actor);
+		}
+		try {
+			return await handler(event, actor as A);
+		} catch (err) {
+			return errorResponse(err);
+		}
+	};
+}
+
+/** A JSON route for signed-in callers (session or token); roles come from API_POLICY. */
+export const apiRoute = (handler: Handler<Actor>) => wrap(handler, true);
+
+/** A JSON route that answers without credentials. */
+export const publicApiRoute = (handler: Handler<Actor | null>) => wrap(handler, false);
+
+/** Turn anything thrown by a handler into a JSON answer; unexpected errors are logged, not shown. */
+export function errorResponse(err: unknown): Response {
+	if (err instanceof ApiError) return json(err.body, { status: err.status });
+	if (err instanceof ZodError) return json(validationBody(err), { status: 400 });
+	if (isRedirect(err)) throw err;
+	if (isHttpError(err)) return json({ error: err.body.message }, { status: err.status });
+	if (err && typeof err === 'object' && 'status' in err && err.status === 413) {
+		return json({ error: String((err as { message?: unknown }).message) }, { status: 413 });
+	}
+	console.error('[api] unexpected error', err);
+	return json({ error: 'Internal error; it has been logged.' }, { status: 500 });
+}
+
+export function validationBody(err: ZodError) {
+	return {
+		error: 'The request has invalid fields.',
+		fields: err.issues.map((issue) => ({
+			field: issue.path.map(String).join('.') || '(body)',
+			message: issue.message
+		}))
+	};
+}
+
+/** Read a JSON body, answering 400 with a clear message when it is not JSON. */
+export async function readJson(request: Request): Promise<unknown> {
+	try {
+		return await request.json();
+	} catch {
+		throw new ApiError(400, { error: 'The request body is not valid JSON.' });
+	}
+}
+
+/** Parse and validate a JSON body against a zod schema (400 with field messages on failure). */
+export async function parseJsonBody<T>(request: Request, schema: ZodType<T>): Promise<T> {
+	const result = schema.safeParse(await readJson(request));
+	if (!result.success) throw result.error;
+	return result.data;
+}
+
+/** A route parameter that must be a positive integer id (404 otherwise). */
+export function idParam(value: string | undefined, what = 'item'): number {
+	const id = Number(value);
+	if (!Number.isSafeInteger(id) || id <= 0) throw new ApiError(404, { error: `No such ${what}.` });
+	return id;
+}

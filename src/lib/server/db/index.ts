@@ -1,0 +1,69 @@
+import Database from 'better-sqlite3';
+import { drizzle, type BetterSQLite3Database } from 'drizzle-orm/better-sqlite3';
+import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
+import { mkdirSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+import * as schema from './schema';
+
+export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
+
+/** Where the database lives: `DATABASE_URL` (a file path, optionally `file:`-prefixed). */
+export function databasePath(): string {
+	const url = process.env.DATABASE_URL?.trim() || 'data/rollbead.db';
+	return resolve(url.replace(/^file:/, ''));
+}
+
+/** Migrations ship beside the build in `drizzle/`; the working directory is the app root. */
+function migrationsFolder(): string {
+	return resolve(process.env.ROLLBEAD_MIGRATIONS_DIR ?? 'drizzle');
+}
+
+export class DatabaseOpenError extends Error {}
+
+/**
+ * Open a SQLite database with Rollbead's pragmas and apply pending migrations.
+ * WAL lets readers (charts) run while an import writes; the busy timeout makes a second writer
+ * wait instead of failing at once.
+ * @throws DatabaseOpenError with the path and the reason when the file cannot be opened.
+ */
+export function openDatabase(file: string = databasePath()): Db {
+	let sqlite: Database.Database;
+	try {
+		if (file !== ':memory:') mkdirSync(dirname(file), { recursive: true });
+		sqlite = new Database(file);
+		sqlite.pragma('journal_mode = WAL');
+		sqlite.pragma('foreign_keys = ON');
+		sqlite.pragma('busy_timeout = 5000');
+		sqlite.pragma('synchronous = NORMAL');
+	} catch (cause) {
+		throw new DatabaseOpenError(
+			`Cannot open the database at ${file}: ${(cause as Error).message}. ` +
+				'Check DATABASE_URL, the folder permissions and free disk space.',
+			{ cause }
+		);
+	}
+	const db = drizzle(sqlite, { schema }) as Db;
+	migrate(db, { migrationsFolder: migrationsFolder() });
+	return db;
+}
+
+let current: Db | undefined;
+
+/** The process-wide database, opened on first use (so `vite build` never touches it). */
+export function getDb(): Db {
+	current ??= openDatabase();
+	return current;
+}
+
+/** Close the database (tests and shutdown). */
+export function closeDb(): void {
+	current?.$client.close();
+	current = undefined;
+}
+
+/** Use a given database as the process-wide one (tests). */
+export function setDb(db: Db): void {
+	current = db;
+}
+
+export { schema };

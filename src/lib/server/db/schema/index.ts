@@ -1,0 +1,2 @@
+// Each feature keeps its tables in its own file; drizzle-kit reads them all through this index.
+export * from './foundation';

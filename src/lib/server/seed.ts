@@ -1,0 +1,49 @@
+import { sql } from 'drizzle-orm';
+import type { Db } from './db';
+import { lines, products, sites, users } from './db/schema';
+import { createUser } from './users';
+import type { Role } from '$lib/access';
+
+/**
+ * The demo scenario: Fenmoor Works, an invented contract manufacturer with three SMT lines.
+ * Every name here is made up. Passwords are printed in the README; change them on a real site.
+ */
+export const DEMO_USERS: { email: string; name: string; role: Role; password: string }[] = [
+	{ email: 'admin@fenmoor.example', name: 'Ada Quarrington', role: 'admin', password: 'demo-admin-pass' },
+	{ email: 'engineer@fenmoor.example', name: 'Bram Oakhollow', role: 'engineer', password: 'demo-engineer-pass' },
+	{ email: 'technician@fenmoor.example', name: 'Cleo Marrowby', role: 'technician', password: 'demo-technician-pass' },
+	{ email: 'quality@fenmoor.example', name: 'Dev Ashcombe', role: 'quality', password: 'demo-quality-pass' },
+	{ email: 'viewer@fenmoor.example', name: 'Esme Tarnfield', role: 'viewer', password: 'demo-viewer-pass' }
+];
+
+export const DEMO_LINES = [
+	{ code: 'SMT-1', name: 'Line 1 · fine pitch' },
+	{ code: 'SMT-2', name: 'Line 2 · high mix' },
+	{ code: 'SMT-3', name: 'Line 3 · prototypes' }
+];
+
+export const DEMO_PRODUCTS = [
+	{ code: 'PB-100', name: 'Pump controller board' },
+	{ code: 'SH-220', name: 'Sensor hub' },
+	{ code: 'LM-48', name: 'LED matrix driver' }
+];
+
+/** Seed only a database with no users at all; returns whether anything was added. */
+export async function seedDemoData(db: Db): Promise<boolean> {
+	const userCount = db.select({ n: sql<number>`count(*)` }).from(users).get()?.n ?? 0;
+	if (userCount > 0) return false;
+	const site = db
+		.insert(sites)
+		.values({ code: 'FMW', name: 'Fenmoor Works', timeZone: 'Europe/Berlin' })
+		.onConflictDoNothing()
+		.returning()
+		.get();
+	for (const line of DEMO_LINES) {
+		db.insert(lines).values({ ...line, siteId: site?.id ?? null }).onConflictDoNothing().run();
+	}
+	for (const product of DEMO_PRODUCTS) {
+		db.insert(products).values(product).onConflictDoNothing().run();
+	}
+	for (const user of DEMO_USERS) await createUser(db, user, null);
+	return true;
+}

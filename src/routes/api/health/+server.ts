@@ -1,0 +1,4 @@
+import { json } from '@sveltejs/kit';
+import { publicApiRoute } from '$lib/server/api';
+
+export const GET = publicApiRoute(() => json({ status: 'ok' }));

@@ -1,0 +1,48 @@
+import { fail, isRedirect, redirect } from '@sveltejs/kit';
+import { CredentialsSignin } from '@auth/sveltekit';
+import { signIn } from '$lib/server/auth';
+import { getDb } from '$lib/server/db';
+import { signInLockMinutes } from '$lib/server/users';
+import { signInSchema } from '$lib/schemas/users';
+import type { Actions, PageServerLoad } from './$types';
+
+/** Only same-site paths are followed after sign-in, never another host. */
+function safeRedirect(target: string | null): string {
+	return target && target.startsWith('/') && !target.startsWith('//') ? target : '/';
+}
+
+export const load: PageServerLoad = ({ locals, url }) => {
+	if (locals.actor) redirect(303, safeRedirect(url.searchParams.get('redirectTo')));
+	return { redirectTo: safeRedirect(url.searchParams.get('redirectTo')) };
+};
+
+export const actions = {
+	default: async (event) => {
+		// Auth.js reads the form itself, so validate a copy.
+		const form = await event.request.clone().formData();
+		const parsed = signInSchema.safeParse({ email: form.get('email'), password: form.get('password') });
+		const email = String(form.get('email') ?? '').slice(0, 254);
+		if (!parsed.success) {
+			const fields = Object.fromEntries(parsed.error.issues.map((i) => [i.path[0], i.message]));
+			return fail(400, { email, fields, error: null as string | null });
+		}
+		const lockMinutes = signInLockMinutes(getDb(), parsed.data.email, event.getClientAddress());
+		if (lockMinutes > 0) {
+			return fail(429, {
+				email,
+				fields: {},
+				error: `Too many failed attempts. Try again in ${lockMinutes} minute${lockMinutes === 1 ? '' : 's'}, or ask an administrator.`
+			});
+		}
+		try {
+			await signIn(event);
+		} catch (err) {
+			if (isRedirect(err)) throw err;
+			if (err instanceof CredentialsSignin) {
+				return fail(400, { email, fields: {}, error: 'Wrong e-mail or password.' });
+			}
+			throw err;
+		}
+		redirect(303, '/');
+	}
+} satisfies Actions;
