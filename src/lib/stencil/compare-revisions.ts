@@ -1,0 +1,189 @@
+/**
+ * Compare two stencil revisions aperture by aperture: what was added, removed or changed.
+ */
+import { effectiveShape, type ApertureInput } from './aperture';
+import { apertureGeometry } from './geometry';
+import { areaRatio, aspectRatio } from './area-ratio';
+import { apertureCentreUm } from './outline';
+import { StencilInputError, type InputProblem } from './stencil-input-error';
+
+/** Options of `compareRevisions`. */
+export interface CompareRevisionsOptions {
+	/** Foil thickness of the old and the new revision, µm (for the ratios of changed apertures). */
+	oldThicknessUm: number;
+	newThicknessUm: number;
+	/** Apertures without a refdes+pad match are paired when their centres are this close; default 50 µm. */
+	positionToleranceUm?: number;
+	/** Sizes and positions closer than this count as equal, µm; default 0.5 µm. */
+	sizeToleranceUm?: number;
+}
+
+/** The ratios and sizes of one side of a changed pair. */
+export interface RevisionSide {
+	index: number;
+	aperture: ApertureInput;
+	areaUm2: number;
+	minDimensionUm: number;
+	areaRatio: number;
+	aspectRatio: number;
+}
+
+/** A matched pair whose geometry differs; `fields` names what changed. */
+export interface ChangedAperture {
+	matchedBy: 'refdes-pad' | 'position';
+	fields: string[];
+	old: RevisionSide;
+	new: RevisionSide;
+}
+
+/** Result of `compareRevisions`. */
+export interface RevisionComparison {
+	added: { index: number; aperture: ApertureInput }[];
+	removed: { index: number; aperture: ApertureInput }[];
+	changed: ChangedAperture[];
+	unchangedCount: number;
+}
+
+const key = (a: ApertureInput) => `${a.refdes}\u0000${a.pad}`;
+
+function differences(a: ApertureInput, b: ApertureInput, tol: number): string[] {
+	const fields: string[] = [];
+	const near = (x?: number, y?: number) => (x ?? 0) === (y ?? 0) || Math.abs((x ?? 0) - (y ?? 0)) <= tol;
+	const sa = effectiveShape(a);
+	const sb = effectiveShape(b);
+	if (sa !== sb) fields.push('shape');
+	else if (sa === 'circle') {
+		if (!near(a.diameterUm, b.diameterUm)) fields.push('diameterUm');
+	} else if (sa === 'polygon') {
+		const va = a.verticesUm!;
+		const vb = b.verticesUm!;
+		if (va.length !== vb.length || va.some((p, i) => !near(p[0], vb[i][0]) || !near(p[1], vb[i][1])))
+			fields.push('verticesUm');
+	} else {
+		if (!near(a.lengthUm, b.lengthUm)) fields.push('lengthUm');
+		if (!near(a.widthUm, b.widthUm)) fields.push('widthUm');
+		if (!near(a.cornerRadiusUm, b.cornerRadiusUm)) fields.push('cornerRadiusUm');
+	}
+	const [ax, ay] = apertureCentreUm(a);
+	const [bx, by] = apertureCentreUm(b);
+	if (Math.hypot(ax - bx, ay - by) > tol) fields.push('position');
+	// A rectangle turned by 180° is the same opening; a polygon needs a full turn; a circle any.
+	const period = sa === 'polygon' ? 360 : 180;
+	const turn = (((a.rotationDeg - b.rotationDeg) % period) + period) % period;
+	if (sa !== 'circle' && Math.min(turn, period - turn) > 1e-6) fields.push('rotationDeg');
+	return fields;
+}
+
+function side(index: number, aperture: ApertureInput, thicknessUm: number): RevisionSide {
+	const g = apertureGeometry(aperture, index);
+	return {
+		index,
+		aperture,
+		areaUm2: g.areaUm2,
+		minDimensionUm: g.minDimensionUm,
+		areaRatio: areaRatio(g.areaUm2, g.perimeterUm, thicknessUm),
+		aspectRatio: aspectRatio(g.minDimensionUm, thicknessUm)
+	};
+}
+
+/**
+ * Match apertures of two revisions, first by refdes + pad (both non-empty; the first
+ * occurrence of a duplicate name), then the rest by nearest centre within the position
+ * tolerance. A pair is "changed" when its geometry differs (shape, size, position, rotation);
+ * a foil thickness change alone does not mark apertures changed (it is a stencil-level change).
+ * O(n) via hashing and a position grid.
+ * @throws {StencilInputError} for invalid apertures, thicknesses or tolerances.
+ * @example compareRevisions(revA, revB, { oldThicknessUm: 120, newThicknessUm: 100 }).changed.length
+ */
+export function compareRevisions(
+	oldApertures: readonly ApertureInput[],
+	newApertures: readonly ApertureInput[],
+	options: CompareRevisionsOptions
+): RevisionComparison {
+	const posTol = options.positionToleranceUm ?? 50;
+	const sizeTol = options.sizeToleranceUm ?? 0.5;
+	const problems: InputProblem[] = (
+		[
+			['oldThicknessUm', options.oldThicknessUm],
+			['newThicknessUm', options.newThicknessUm],
+			['positionToleranceUm', posTol]
+		] as const
+	)
+		.filter(([, v]) => !Number.isFinite(v) || v <= 0)
+		.map(([field, v]) => ({ where: 'revision comparison', field, message: `must be a finite number greater than 0 (got ${v})` }));
+	if (!Number.isFinite(sizeTol) || sizeTol < 0)
+		problems.push({ where: 'revision comparison', field: 'sizeToleranceUm', message: `must be a finite number ≥ 0 (got ${sizeTol})` });
+	if (problems.length > 0) throw new StencilInputError(problems);
+	oldApertures.forEach((a, i) => apertureGeometry(a, i));
+	newApertures.forEach((a, i) => apertureGeometry(a, i));
+
+	const pairs: [number, number, 'refdes-pad' | 'position'][] = [];
+	const oldUsed = new Array<boolean>(oldApertures.length).fill(false);
+	const newUsed = new Array<boolean>(newApertures.length).fill(false);
+	const byName = new Map<string, number>();
+	oldApertures.forEach((a, i) => {
+		if (a.refdes && a.pad && !byName.has(key(a))) byName.set(key(a), i);
+	});
+	newApertures.forEach((b, j) => {
+		if (!b.refdes || !b.pad) return;
+		const i = byName.get(key(b));
+		if (i !== undefined && !oldUsed[i]) {
+			oldUsed[i] = newUsed[j] = true;
+			pairs.push([i, j, 'refdes-pad']);
+		}
+	});
+
+	// Position matching of the leftovers: each new aperture takes the nearest free old one.
+	const grid = new Map<string, number[]>();
+	const oldCentres = oldApertures.map((a) => apertureCentreUm(a));
+	oldCentres.forEach(([x, y], i) => {
+		if (oldUsed[i]) return;
+		const k = `${Math.floor(x / posTol)},${Math.floor(y / posTol)}`;
+		const list = grid.get(k);
+		if (list) list.push(i);
+		else grid.set(k, [i]);
+	});
+	newApertures.forEach((b, j) => {
+		if (newUsed[j]) return;
+		const [x, y] = apertureCentreUm(b);
+		const gx = Math.floor(x / posTol);
+		const gy = Math.floor(y / posTol);
+		let best = -1;
+		let bestD = Infinity;
+		for (let dx = -1; dx <= 1; dx++)
+			for (let dy = -1; dy <= 1; dy++)
+				for (const i of grid.get(`${gx + dx},${gy + dy}`) ?? []) {
+					if (oldUsed[i]) continue;
+					const d = Math.hypot(oldCentres[i][0] - x, oldCentres[i][1] - y);
+					if (d <= posTol && d < bestD) {
+						best = i;
+						bestD = d;
+					}
+				}
+		if (best >= 0) {
+			oldUsed[best] = newUsed[j] = true;
+			pairs.push([best, j, 'position']);
+		}
+	});
+
+	const changed: ChangedAperture[] = [];
+	let unchangedCount = 0;
+	for (const [i, j, matchedBy] of pairs) {
+		const fields = differences(oldApertures[i], newApertures[j], sizeTol);
+		if (fields.length === 0) unchangedCount++;
+		else
+			changed.push({
+				matchedBy,
+				fields,
+				old: side(i, oldApertures[i], options.oldThicknessUm),
+				new: side(j, newApertures[j], options.newThicknessUm)
+			});
+	}
+	changed.sort((p, q) => p.new.index - q.new.index);
+	return {
+		added: newApertures.flatMap((aperture, index) => (newUsed[index] ? [] : [{ index, aperture }])),
+		removed: oldApertures.flatMap((aperture, index) => (oldUsed[index] ? [] : [{ index, aperture }])),
+		changed,
+		unchangedCount
+	};
+}

@@ -1,0 +1,91 @@
+/**
+ * Share of apertures that pass against foil thickness, and the recommended (thickest passing)
+ * foil, for the thickness chart.
+ */
+import type { ApertureInput } from './aperture';
+import { apertureGeometry } from './geometry';
+import { areaRatio, aspectRatio } from './area-ratio';
+import { meetsLimit } from './evaluate-aperture';
+import { StencilInputError } from './stencil-input-error';
+import type { PrintThresholds } from './thresholds';
+
+/**
+ * Usual foil thicknesses in µm (common practice, no source: 3 mil ≈ 75–80, 4 mil ≈ 100,
+ * 5 mil = 127, 6 mil ≈ 150, 8 mil ≈ 200, plus metric 110/120/130/180 foils).
+ */
+export const COMMON_FOIL_THICKNESSES_UM: readonly number[] = Object.freeze([
+	75, 80, 100, 110, 120, 127, 130, 150, 180, 200
+]);
+
+/** One point of the sweep chart. `passShare` is null when there are no apertures. */
+export interface ThicknessSweepPoint {
+	thicknessUm: number;
+	passing: number;
+	total: number;
+	passShare: number | null;
+}
+
+/** Options of `thicknessSweep`. */
+export interface ThicknessSweepOptions {
+	thresholds: PrintThresholds;
+	/** Foils to try, µm; default `COMMON_FOIL_THICKNESSES_UM`. Sorted ascending in the output. */
+	thicknessesUm?: readonly number[];
+	/** Share of apertures that must pass for a foil to be recommended, 0–1; default 1 (all). */
+	requiredPassShare?: number;
+}
+
+/** Sweep result: the chart series and the recommendation. */
+export interface ThicknessSweep {
+	series: ThicknessSweepPoint[];
+	requiredPassShare: number;
+	/** Thickest foil in the list whose pass share ≥ required; null when none qualifies. */
+	recommendedThicknessUm: number | null;
+}
+
+/**
+ * Pass share at each candidate foil thickness for a uniform foil (step regions are not applied:
+ * the question answered is "which single foil suits this board"). O(n × thicknesses).
+ * @throws {StencilInputError} for an invalid aperture, thickness or share.
+ * @example thicknessSweep(apertures, { thresholds: IPC_7525_THRESHOLDS }).recommendedThicknessUm // e.g. 120
+ */
+export function thicknessSweep(
+	apertures: readonly ApertureInput[],
+	options: ThicknessSweepOptions
+): ThicknessSweep {
+	const share = options.requiredPassShare ?? 1;
+	const list = [...(options.thicknessesUm ?? COMMON_FOIL_THICKNESSES_UM)];
+	const problems = list
+		.map((t, i) => ({ t, i }))
+		.filter(({ t }) => !Number.isFinite(t) || t <= 0)
+		.map(({ t, i }) => ({
+			where: 'thickness sweep',
+			field: `thicknessesUm[${i}]`,
+			message: `must be a finite number greater than 0 (got ${t})`
+		}));
+	if (!Number.isFinite(share) || share < 0 || share > 1)
+		problems.push({
+			where: 'thickness sweep',
+			field: 'requiredPassShare',
+			message: `must be between 0 and 1 (got ${share})`
+		});
+	if (problems.length > 0) throw new StencilInputError(problems);
+	const geometries = apertures.map((a, i) => apertureGeometry(a, i));
+	const { minAreaRatio, minAspectRatio } = options.thresholds;
+	const series = [...new Set(list)]
+		.sort((a, b) => a - b)
+		.map((thicknessUm) => {
+			let passing = 0;
+			for (const g of geometries)
+				if (
+					meetsLimit(areaRatio(g.areaUm2, g.perimeterUm, thicknessUm), minAreaRatio) &&
+					meetsLimit(aspectRatio(g.minDimensionUm, thicknessUm), minAspectRatio)
+				)
+					passing++;
+			const total = geometries.length;
+			return { thicknessUm, passing, total, passShare: total === 0 ? null : passing / total };
+		});
+	let recommended: number | null = null;
+	for (const p of series)
+		if (p.passShare !== null && p.passShare + 1e-12 >= share) recommended = p.thicknessUm;
+	return { series, requiredPassShare: share, recommendedThicknessUm: recommended };
+}
