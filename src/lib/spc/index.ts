@@ -1,0 +1,79 @@
+/**
+ * Public surface of the SPC engine, grouped by topic. Pure TypeScript: no framework,
+ * database or I/O imports; inputs are never mutated.
+ */
+
+// Errors
+export { SpcInputError } from './spc-input-error';
+
+// Distributions and numerics
+export { erf, erfc, normalCdf, normalPdf } from './normal-distribution';
+export { inverseNormalCdf } from './inverse-normal-cdf';
+export { logGamma, regularizedGammaP } from './gamma-functions';
+export { chiSquareCdf, chiSquareQuantile } from './chi-square-quantile';
+export { gaussLegendre } from './gauss-legendre';
+export { mean, range, sampleStandardDeviation, quantile } from './summary-statistics';
+
+// Chart constants
+export {
+	chartConstants,
+	chartConstantsTable,
+	c4,
+	standardDeviationFactors,
+	MIN_SUBGROUP_SIZE,
+	MAX_RANGE_SUBGROUP_SIZE,
+	type ChartConstants
+} from './chart-constants';
+
+// Control charts (Phase I limits, Phase II evaluation)
+export type {
+	ChartKind,
+	ChartLimits,
+	ChartPoint,
+	ControlChart,
+	ControlLimits,
+	LimitOptions
+} from './chart-types';
+export { xbarRChart, xbarRLimits, xbarRPoints, XBAR_R_MAX_SUBGROUP_SIZE, XBAR_MIN_SUBGROUPS } from './xbar-r-chart';
+export { xbarSChart, xbarSLimits, xbarSPoints } from './xbar-s-chart';
+export {
+	individualsChart,
+	individualsLimits,
+	individualsPoints,
+	INDIVIDUALS_MIN_VALUES
+} from './individuals-chart';
+export { betweenWithinChart, betweenWithinLimits, betweenWithinPoints } from './between-within-chart';
+export { buildChart, chartPoints, computeLimits } from './control-chart';
+export { evaluateChart, type ChartPart, type Violation } from './evaluate-chart';
+
+// Run rules and zones
+export {
+	detectRunRules,
+	RULE_IDS,
+	DEFAULT_RULES,
+	BEYOND_LIMIT_RULES,
+	RULE_DESCRIPTIONS,
+	type RuleId,
+	type RuleHit
+} from './run-rules';
+export { zoneBoundaries, zonePosition, type ZoneBoundaries } from './zones';
+
+// Capability
+export { processCapability, type CapabilityInput, type CapabilityResult } from './capability';
+export { cpConfidenceInterval, cpkConfidenceInterval, type Interval } from './capability-intervals';
+export { expectedOutOfSpec, type ExpectedOutOfSpec } from './expected-out-of-spec';
+export {
+	capabilityHistogram,
+	type CapabilityHistogram,
+	type HistogramBin,
+	type HistogramOptions
+} from './capability-histogram';
+export {
+	capabilityReading,
+	CAPABLE_MINIMUM,
+	HIGHLY_CAPABLE_MINIMUM,
+	type CapabilityLevel
+} from './capability-reading';
+
+// API core
+export { analyzeStudy, type AnalyzeOutcome, type AnalyzeResult, type FieldError } from './analyze';
