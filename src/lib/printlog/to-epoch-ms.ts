@@ -1,4 +1,4 @@
-import { PrintlogInputError } from './field-error';
+import { describeValue, PrintlogInputError } from './field-error';
 
 /** A point in time as the print log accepts it: a Date, epoch milliseconds or an ISO 8601 string. */
 export type Instant = Date | number | string;
@@ -25,7 +25,7 @@ export function toEpochMs(value: Instant, field: string): number {
 		throw new PrintlogInputError([
 			{
 				field,
-				message: `must be an ISO 8601 date or date-time with a time zone (got ${JSON.stringify(value instanceof Date ? 'Invalid Date' : value)})`
+				message: `must be an ISO 8601 date or date-time with a time zone (got ${describeValue(value)})`
 			}
 		]);
 	}
