@@ -1,4 +1,4 @@
-import { ALL_ROLES, ADMIN_ONLY, ENGINEERING, type Role } from '$lib/access';
+import { ALL_ROLES, ADMIN_ONLY, ENGINEERING, type Role } from '../access';
 
 export type HttpMethod = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 export type MethodPolicy = readonly Role[] | 'public';
