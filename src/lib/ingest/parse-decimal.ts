@@ -1,0 +1,71 @@
+/**
+ * Fast decimal reader for numeric cells, equal to `Number()` on the plain forms SPI exports use.
+ */
+
+// Powers of ten that are exact doubles (10^22 is the largest).
+const POW10 = [
+	1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
+	1e17, 1e18, 1e19, 1e20, 1e21, 1e22
+];
+
+/**
+ * Read a numeric cell: optional sign, digits, optional decimal mark and digits — the common case —
+ * by hand, else via `Number()` (exponents, padding, `+`). Empty or blank cells and non-finite
+ * results give NaN. With `decimalComma` the mark is `,` (and `.` is still accepted).
+ *
+ * Exactness: with at most 15 significant digits the digits form an exact integer m < 2^53, and
+ * m / 10^k (k ≤ 22) is one correctly rounded IEEE division of two exact values, which is the
+ * double nearest the decimal, i.e. what `Number()` returns (Clinger's fast path: W. D. Clinger,
+ * "How to Read Floating Point Numbers Accurately", PLDI 1990). Longer inputs use `Number()`.
+ * Reads `text` from `start` to `end` (exclusive) so cells need not be cut out of the line first.
+ * Faster than `Number()` and allocation-free on typical cells; used for every measure of every
+ * row.
+ * @example parseDecimal('-12.50', false) // -12.5
+ * @example parseDecimal('101,25', true) // 101.25
+ * @example parseDecimal('', false) // NaN
+ */
+export function parseDecimal(
+	text: string,
+	decimalComma: boolean,
+	start = 0,
+	end = text.length
+): number {
+	const n = end;
+	let i = start;
+	let negative = false;
+	if (n <= start) return NaN;
+	let c = text.charCodeAt(start);
+	if (c === 45) {
+		negative = true;
+		i = start + 1;
+	}
+	let mantissa = 0;
+	let digits = 0;
+	let fraction = -1; // digits after the mark, -1 = no mark seen
+	for (; i < n; i++) {
+		c = text.charCodeAt(i);
+		if (c >= 48 && c <= 57) {
+			mantissa = mantissa * 10 + (c - 48);
+			if (mantissa !== 0) digits++;
+			if (fraction >= 0) fraction++;
+		} else if ((c === 46 || (c === 44 && decimalComma)) && fraction < 0) {
+			fraction = 0;
+		} else {
+			return slowPath(text.slice(start, end), decimalComma);
+		}
+	}
+	const digitCount = i - start - (negative ? 1 : 0) - (fraction >= 0 ? 1 : 0);
+	if (digitCount === 0 || digits > 15 || fraction > 22) {
+		return slowPath(text.slice(start, end), decimalComma);
+	}
+	const value = fraction > 0 ? mantissa / POW10[fraction] : mantissa;
+	return negative ? -value : value;
+}
+
+function slowPath(text: string, decimalComma: boolean): number {
+	const t = decimalComma && text.indexOf(',') >= 0 ? text.replace(',', '.') : text;
+	if (t.trim() === '') return NaN;
+	const value = +t;
+	// value - value is 0 only for finite numbers (NaN and ±Infinity give NaN).
+	return value - value === 0 ? value : NaN;
+}

@@ -1,0 +1,704 @@
+import { toCubicMicrometres, toMicrometres } from '../units';
+import { createBoardAccumulator, type BoardAccumulator, type BoardAggregate } from './board-accumulator';
+import { FIELD_RANGES, MAX_TEXT_LENGTH, type CanonicalField } from './canonical-fields';
+import { detectDelimiter, type Delimiter } from './detect-delimiter';
+import { createIssueCollector, type IngestIssue } from './ingest-issue';
+import type { MappingProfile } from './mapping-profile';
+import { parseDecimal } from './parse-decimal';
+import { createTimestampParser } from './parse-timestamp';
+import { resolveHeader, type ResolvedHeader } from './resolve-header';
+import { scanFieldBounds, splitQuotedLine } from './split-delimited-line';
+import {
+	boardInspectionKey,
+	createSpiRowBatch,
+	trimSpiRowBatch,
+	type BoardHeader,
+	type SpiRowBatch
+} from './spi-row-batch';
+
+/** Options of `createSpiRowParser`. */
+export interface SpiRowParserOptions {
+	profile: MappingProfile;
+	/** Name of the uploaded/watched file (base name used for `serialFromFileName`). */
+	fileName: string;
+	/** Rows per emitted batch (default 8192). */
+	batchSize?: number;
+	/** Kept errors and warnings, each (default 100); all are counted. */
+	issueLimit?: number;
+}
+
+/** A board inspection with its figures over the accepted rows. */
+export interface BoardInspection extends BoardHeader {
+	aggregate: BoardAggregate;
+}
+
+/** Outcome of a whole file. */
+export interface SpiParseSummary {
+	/** True when the file may be committed: no file-level error, ≥ 1 accepted row, and either
+	 * no row errors or the profile skips bad rows. */
+	ok: boolean;
+	fileName: string;
+	/** Delimiter used (detected or from the profile); null when no header was read. */
+	delimiter: Delimiter | null;
+	/** Header as written (trimmed). */
+	header: string[];
+	/** Non-blank lines after the header (records). */
+	dataRows: number;
+	rowsAccepted: number;
+	rowsRejected: number;
+	/** Total errors found; `errors` keeps the first `issueLimit`. */
+	errorCount: number;
+	errors: IngestIssue[];
+	warningCount: number;
+	warnings: IngestIssue[];
+	/** Boards with aggregates, in order of first appearance (empty when the file is rejected). */
+	boards: BoardInspection[];
+}
+
+/** A push-driven parser for one file. */
+export interface SpiRowParser {
+	/** Feed the next piece of the file (bytes or text); returns the batches completed by it. */
+	push(chunk: Uint8Array | string): SpiRowBatch[];
+	/** Signal end of file; returns the last batches. Further pushes are ignored. */
+	end(): SpiRowBatch[];
+	/** Boards seen so far (append-only list; index = `BoardHeader.index`). */
+	boards(): readonly BoardHeader[];
+	/** Counts, issues and boards; final after `end()`. */
+	summary(): SpiParseSummary;
+}
+
+const DEFAULT_BATCH_SIZE = 8192;
+// A quoted field may span lines; past this the quote is surely unterminated.
+const MAX_RECORD_LINES = 50;
+const MAX_RECORD_CHARS = 65536;
+
+const RESULT_CODES = { pass: 0, warn: 1, fail: 2 } as const;
+
+/** Non-negative integer of 1–5 plain digits in text[start, end), spaces around allowed; else NaN. */
+function readIndex(text: string, start: number, end: number): number {
+	while (start < end && text.charCodeAt(start) === 32) start++;
+	while (end > start && text.charCodeAt(end - 1) === 32) end--;
+	if (end === start || end - start > 5) return NaN;
+	let value = 0;
+	for (let i = start; i < end; i++) {
+		const c = text.charCodeAt(i);
+		if (c < 48 || c > 57) return NaN;
+		value = value * 10 + (c - 48);
+	}
+	return value;
+}
+
+function baseName(fileName: string): string {
+	const cut = Math.max(fileName.lastIndexOf('/'), fileName.lastIndexOf('\\'));
+	return fileName.slice(cut + 1);
+}
+
+function rangeText(field: keyof typeof FIELD_RANGES, unit: string): string {
+	const r = FIELD_RANGES[field];
+	return `${r.min}–${r.max}${unit}`;
+}
+
+/**
+ * Create a streaming parser for one SPI export. Feed it chunks (`Uint8Array` bytes, decoded as
+ * strict UTF-8, or strings) in file order; it keeps only the unfinished line between chunks, so
+ * memory does not grow with file size (apart from one small record per board inspection).
+ *
+ * Per line: BOM and CR are dropped, blank lines skipped, lines without `"` split by `indexOf`
+ * (fast path) and lines with quotes by an RFC 4180 reader (a quoted field may span lines).
+ * The header is matched through the profile (`resolveHeader`); each row is checked for field
+ * count, numbers (`FIELD_RANGES`, after unit conversion to µm / µm³), timestamp, result word,
+ * non-empty serial / refdes / line / product, panel index as integer 0–65535, text ≤ 100 chars,
+ * and that line / product / stencil / print run agree within a board inspection (serial +
+ * time). Errors are `{ row, column, message }`, row = file line (header = 1; row 0 = the file
+ * as a whole: empty, not UTF-8 text, NUL bytes, file name, no data rows).
+ *
+ * Policies: `skip-row` imports the good rows; `reject-file` stops emitting batches at the first
+ * bad row but keeps validating to report errors, and `summary().ok` is false — the caller must
+ * roll back what it wrote from earlier batches (one transaction per file).
+ *
+ * @throws Error when the profile's timestamp pattern or time zone is invalid (validate
+ *   profiles with `mappingProfileSchema` first), or `batchSize` is not a positive integer.
+ * @example
+ * const parser = createSpiRowParser({ profile: CANONICAL_PROFILE, fileName: 'a.csv' });
+ * for await (const chunk of stream) for (const batch of parser.push(chunk)) write(batch);
+ * for (const batch of parser.end()) write(batch);
+ * parser.summary().ok // true
+ */
+export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
+	const { profile, fileName } = options;
+	const batchSize = options.batchSize ?? DEFAULT_BATCH_SIZE;
+	if (!Number.isInteger(batchSize) || batchSize < 1) {
+		throw new RangeError(`createSpiRowParser requires a positive integer batchSize, got ${batchSize}`);
+	}
+	const parseTime = createTimestampParser(profile.timestampFormat, profile.timeZone);
+	const errors = createIssueCollector(options.issueLimit);
+	const warnings = createIssueCollector(options.issueLimit);
+	const skipRows = profile.onBadRow === 'skip-row';
+	const decimalComma = profile.decimalComma;
+	const lengthFactor = toMicrometres(1, profile.lengthUnit);
+	const volumeFactor =
+		profile.volumeMode === 'absolute-mil3' ? toCubicMicrometres(1, 'mil') : 1;
+	// Absolute volume modes read volume_um3 and leave volume_pct to be derived later.
+	const volumePctOptional = profile.volumeMode !== 'percent';
+	const volumeUm3Optional = !volumePctOptional;
+
+	const resultByWord = new Map<string, 0 | 1 | 2>();
+	for (const kind of ['pass', 'warn', 'fail'] as const) {
+		for (const word of profile.resultWords[kind]) {
+			resultByWord.set(word.trim().toLowerCase(), RESULT_CODES[kind]);
+		}
+	}
+	const resultWordList = [...resultByWord.keys()].join(', ');
+	// Words as written in the profile plus lower/upper case, checked in place before any slicing.
+	const resultExact: [string, number][] = [];
+	for (const [word, code] of resultByWord) {
+		for (const form of new Set([word, word.toUpperCase(), word[0].toUpperCase() + word.slice(1)])) {
+			resultExact.push([form, code]);
+		}
+	}
+
+	// State
+	let fileFailed = false; // file-level error: nothing more is read
+	let rejected = false; // reject-file policy hit: validate only
+	let ended = false;
+	let decoder: TextDecoder | null = null;
+	let bytesSeen = 0;
+	let firstText = true;
+	let carry = '';
+	let lineNo = 0;
+	let pending = ''; // multi-line quoted record being assembled
+	let pendingStart = 0;
+	let pendingLines = 0;
+	let sawNonBlank = false;
+	let header: ResolvedHeader | null = null;
+	let headerCount = 0;
+	let delimiter: Delimiter | null = profile.delimiter === 'auto' ? null : profile.delimiter;
+	let dataRows = 0;
+	let rowsAccepted = 0;
+	let rowsRejected = 0;
+	let serialFromName: string | null = null;
+	let out: SpiRowBatch[] = [];
+	let batch = createSpiRowBatch(batchSize);
+	const boardList: BoardHeader[] = [];
+	const boardAccumulators: BoardAccumulator[] = [];
+	const boardByKey = new Map<string, number>();
+	// Cell boundaries of the current record; sized from the header (+1 to see extra fields).
+	let starts = new Int32Array(0);
+	let ends = new Int32Array(0);
+
+	// Column indices, set from the header.
+	let iSerial = -1;
+	let iTime = -1;
+	let iLine = -1;
+	let iProduct = -1;
+	let iPanel = -1;
+	let iRefdes = -1;
+	let iPad = -1;
+	let iVolume = -1;
+	let iArea = -1;
+	let iHeight = -1;
+	let iOffsetX = -1;
+	let iOffsetY = -1;
+	let iResult = -1;
+	let iVolumeUm3 = -1;
+	let iStencil = -1;
+	let iPrintRun = -1;
+
+	function fileError(message: string): void {
+		errors.add({ row: 0, column: null, message });
+		fileFailed = true;
+	}
+
+	if (profile.serialFromFileName) {
+		const name = baseName(fileName);
+		const match = new RegExp(profile.serialFromFileName.pattern).exec(name);
+		const serial = match?.[1]?.trim();
+		if (!serial) {
+			fileError(
+				`file name "${name}" does not match the serial pattern /${profile.serialFromFileName.pattern}/`
+			);
+		} else {
+			serialFromName = serial;
+		}
+	}
+
+	function flushBatch(): void {
+		if (batch.length > 0 || batch.newBoards.length > 0) {
+			out.push(trimSpiRowBatch(batch));
+			batch = createSpiRowBatch(batchSize);
+		}
+	}
+
+	function readHeader(record: string, sample: string): void {
+		if (delimiter === null) delimiter = detectDelimiter(sample);
+		const split =
+			record.indexOf('"') < 0 ? record.split(delimiter) : splitQuotedLine(record, delimiter).fields;
+		if (!split) {
+			errors.add({ row: lineNo, column: null, message: 'header line has an unterminated quote' });
+			fileFailed = true;
+			return;
+		}
+		header = resolveHeader(split, profile);
+		headerCount = split.length;
+		starts = new Int32Array(headerCount + 1);
+		ends = new Int32Array(headerCount + 1);
+		for (const w of header.warnings) warnings.add(w);
+		if (header.errors.length > 0) {
+			for (const e of header.errors) errors.add(e);
+			fileFailed = true;
+			return;
+		}
+		const ix = header.indices;
+		iSerial = serialFromName === null ? ix.board_serial : -1;
+		iTime = ix.inspected_at;
+		iLine = profile.constants?.line === undefined ? ix.line : -1;
+		iProduct = profile.constants?.product === undefined ? ix.product : -1;
+		iPanel = profile.constants?.panelIndex === undefined ? ix.panel_index : -1;
+		iRefdes = ix.refdes;
+		iPad = ix.pad;
+		iVolume = ix.volume_pct;
+		iArea = ix.area_pct;
+		iHeight = ix.height_um;
+		iOffsetX = ix.offset_x_um;
+		iOffsetY = ix.offset_y_um;
+		iResult = ix.result;
+		iVolumeUm3 = ix.volume_um3;
+		iStencil = ix.stencil;
+		iPrintRun = ix.print_run;
+	}
+
+	// Set by `bad` while one row is checked, so all its errors are reported, not just the first.
+	let rowHasError = false;
+	function bad(row: number, index: number, message: string): void {
+		rowHasError = true;
+		errors.add({ row, column: index >= 0 ? (header as ResolvedHeader).names[index] : null, message });
+	}
+
+	// The current record and its cell boundaries. Cells are read in place (no substring per
+	// cell): that keeps the garbage collector out of the hot loop.
+	let rec = '';
+	function cell(index: number): string {
+		return rec.slice(starts[index], ends[index]);
+	}
+
+	/** Whether cell `index` is exactly `known` (then `known` is reused instead of a new slice). */
+	function cellIs(index: number, known: string): boolean {
+		const start = starts[index];
+		return ends[index] - start === known.length && rec.startsWith(known, start);
+	}
+
+	function text(
+		row: number,
+		index: number,
+		field: CanonicalField,
+		required: boolean,
+		previous: string
+	): string {
+		if (previous !== '' && cellIs(index, previous)) return previous;
+		const value = cell(index).trim();
+		if (value.length > MAX_TEXT_LENGTH) {
+			bad(row, index, `${field} is longer than ${MAX_TEXT_LENGTH} characters`);
+		} else if (required && value === '') {
+			bad(row, index, `${field} is empty`);
+		}
+		return value;
+	}
+
+	function measure(
+		row: number,
+		index: number,
+		field: keyof typeof FIELD_RANGES,
+		factor: number,
+		unit: string,
+		optional: boolean
+	): number {
+		const value = parseDecimal(rec, decimalComma, starts[index], ends[index]);
+		if (value !== value) {
+			const raw = cell(index).trim();
+			if (optional && raw === '') return NaN;
+			bad(row, index, `${field} is not a number: "${raw}"`);
+			return NaN;
+		}
+		const scaled = factor === 1 ? value : value * factor;
+		const range = FIELD_RANGES[field];
+		if (scaled < range.min || scaled > range.max) {
+			bad(row, index, `${field} ${scaled} is outside ${rangeText(field, unit)}`);
+		}
+		return scaled;
+	}
+
+	function readResult(row: number): number {
+		for (let k = 0; k < resultExact.length; k++) {
+			if (cellIs(iResult, resultExact[k][0])) return resultExact[k][1];
+		}
+		const raw = cell(iResult).trim();
+		const code = resultByWord.get(raw.toLowerCase());
+		if (code !== undefined) return code;
+		bad(row, iResult, `unknown result "${raw}" (expected one of: ${resultWordList})`);
+		return -1;
+	}
+
+	// Values of the previous accepted row, reused when a cell repeats them (most cells do).
+	let lastSerial = '';
+	let lastTimeText = '';
+	let lastInspectedAtMs = NaN;
+	let lastBoardIndex = -1;
+	let lastLine = '';
+	let lastProduct = '';
+	let lastRefdes = '';
+	let lastStencil = '';
+	let lastPrintRun = '';
+
+	function readRecord(record: string, row: number): void {
+		dataRows++;
+		let n: number;
+		if (record.indexOf('"') < 0) {
+			rec = record;
+			n = scanFieldBounds(record, delimiter as string, starts, ends);
+		} else {
+			const split = splitQuotedLine(record, delimiter as string);
+			if (!split.fields) {
+				errors.add({ row, column: null, message: split.error });
+				rejectRow();
+				return;
+			}
+			// Rare path: rejoin the unquoted cells with NUL (never in a valid file) so the
+			// in-place readers below work unchanged.
+			rec = split.fields.join('\u0000');
+			n = scanFieldBounds(rec, '\u0000', starts, ends);
+		}
+		if (n !== headerCount) {
+			errors.add({
+				row,
+				column: null,
+				message:
+					n < headerCount
+						? `row has ${n} fields, header has ${headerCount} (cut-off line?)`
+						: `row has ${n} fields, header has ${headerCount}`
+			});
+			rejectRow();
+			return;
+		}
+		rowHasError = false;
+		const serial =
+			iSerial >= 0 ? text(row, iSerial, 'board_serial', true, lastSerial) : (serialFromName as string);
+		let inspectedAtMs = lastInspectedAtMs;
+		if (!cellIs(iTime, lastTimeText)) {
+			const timeText = cell(iTime);
+			inspectedAtMs = parseTime(timeText);
+			if (inspectedAtMs !== inspectedAtMs) {
+				bad(
+					row,
+					iTime,
+					`inspected_at is not a timestamp in format ${profile.timestampFormat}: "${timeText.trim()}"`
+				);
+			} else {
+				lastTimeText = timeText;
+				lastInspectedAtMs = inspectedAtMs;
+			}
+		}
+		const lineCode =
+			iLine >= 0 ? text(row, iLine, 'line', true, lastLine) : (profile.constants?.line as string);
+		const productCode =
+			iProduct >= 0
+				? text(row, iProduct, 'product', true, lastProduct)
+				: (profile.constants?.product as string);
+		let panelIndex = profile.constants?.panelIndex ?? 0;
+		if (iPanel >= 0) {
+			panelIndex = readIndex(rec, starts[iPanel], ends[iPanel]);
+			if (!(panelIndex <= FIELD_RANGES.panel_index.max)) {
+				bad(
+					row,
+					iPanel,
+					`panel_index must be an integer ${rangeText('panel_index', '')}: "${cell(iPanel).trim()}"`
+				);
+			}
+		}
+		const refdes = text(row, iRefdes, 'refdes', true, lastRefdes);
+		const pad = text(row, iPad, 'pad', false, '');
+		const volumePct =
+			iVolume >= 0 ? measure(row, iVolume, 'volume_pct', 1, ' %', volumePctOptional) : NaN;
+		const areaPct = measure(row, iArea, 'area_pct', 1, ' %', false);
+		const heightUm = measure(row, iHeight, 'height_um', lengthFactor, ' µm', false);
+		const offsetXUm = measure(row, iOffsetX, 'offset_x_um', lengthFactor, ' µm', false);
+		const offsetYUm = measure(row, iOffsetY, 'offset_y_um', lengthFactor, ' µm', false);
+		const volumeUm3 =
+			iVolumeUm3 >= 0
+				? measure(row, iVolumeUm3, 'volume_um3', volumeFactor, ' µm³', volumeUm3Optional)
+				: NaN;
+		const result = readResult(row);
+		const stencil = iStencil >= 0 ? text(row, iStencil, 'stencil', false, lastStencil) : '';
+		const printRun = iPrintRun >= 0 ? text(row, iPrintRun, 'print_run', false, lastPrintRun) : '';
+		if (rowHasError) {
+			rejectRow();
+			return;
+		}
+		lastLine = lineCode;
+		lastProduct = productCode;
+		lastRefdes = refdes;
+		lastStencil = stencil;
+		lastPrintRun = printRun;
+
+		// Group into board inspections; board-level fields must agree within one. Rows of a board
+		// are usually contiguous, so the last board is checked before building a map key.
+		let boardIndex: number | undefined;
+		if (serial === lastSerial && inspectedAtMs === lastInspectedAtMs && lastBoardIndex >= 0) {
+			boardIndex = lastBoardIndex;
+		} else {
+			boardIndex = boardByKey.get(boardInspectionKey(serial, inspectedAtMs));
+		}
+		if (boardIndex !== undefined) {
+			const b = boardList[boardIndex];
+			const of = `than earlier rows of board ${serial} inspected ${new Date(inspectedAtMs).toISOString()}`;
+			if (b.lineCode !== lineCode) bad(row, iLine, `line "${lineCode}" differs from "${b.lineCode}" ${of}`);
+			if (b.productCode !== productCode) {
+				bad(row, iProduct, `product "${productCode}" differs from "${b.productCode}" ${of}`);
+			}
+			if ((b.stencil ?? '') !== stencil) {
+				bad(row, iStencil, `stencil "${stencil}" differs from "${b.stencil ?? ''}" ${of}`);
+			}
+			if ((b.printRun ?? '') !== printRun) {
+				bad(row, iPrintRun, `print_run "${printRun}" differs from "${b.printRun ?? ''}" ${of}`);
+			}
+			if (rowHasError) {
+				rejectRow();
+				return;
+			}
+		}
+		rowsAccepted++;
+		if (rejected) return;
+		if (boardIndex === undefined) {
+			boardIndex = boardList.length;
+			const board: BoardHeader = {
+				index: boardIndex,
+				boardSerial: serial,
+				inspectedAtMs,
+				lineCode,
+				productCode,
+				stencil: stencil === '' ? null : stencil,
+				printRun: printRun === '' ? null : printRun,
+				firstLine: row
+			};
+			boardList.push(board);
+			boardAccumulators.push(createBoardAccumulator());
+			boardByKey.set(boardInspectionKey(serial, inspectedAtMs), boardIndex);
+			batch.newBoards.push(board);
+		}
+		lastSerial = serial;
+		lastBoardIndex = boardIndex;
+		boardAccumulators[boardIndex].addMeasures(
+			volumePct,
+			areaPct,
+			heightUm,
+			offsetXUm,
+			offsetYUm,
+			result as 0 | 1 | 2
+		);
+		const i = batch.length;
+		batch.line[i] = row;
+		batch.boardIndex[i] = boardIndex;
+		batch.panelIndex[i] = panelIndex;
+		batch.refdes[i] = refdes;
+		batch.pad[i] = pad;
+		batch.volumePct[i] = volumePct;
+		batch.areaPct[i] = areaPct;
+		batch.heightUm[i] = heightUm;
+		batch.offsetXUm[i] = offsetXUm;
+		batch.offsetYUm[i] = offsetYUm;
+		batch.volumeUm3[i] = volumeUm3;
+		batch.result[i] = result;
+		batch.length = i + 1;
+		if (batch.length === batchSize) flushBatch();
+	}
+
+	function rejectRow(): void {
+		rowsRejected++;
+		if (!skipRows && !rejected) {
+			rejected = true;
+			// Nothing more is handed out; the caller rolls back what it has.
+			batch = createSpiRowBatch(1);
+		}
+	}
+
+	/** Handle one physical line (without its line break). `sample` feeds delimiter detection. */
+	function handleLine(line: string, sample: string): void {
+		lineNo++;
+		if (pending !== '') {
+			pending += '\n' + line;
+			pendingLines++;
+			tryRecord(pending, pendingStart, sample);
+			return;
+		}
+		if (line.length === 0 || (line.charCodeAt(0) <= 32 && line.trim() === '')) return;
+		tryRecord(line, lineNo, sample);
+	}
+
+	function tryRecord(record: string, row: number, sample: string): void {
+		if (record.indexOf('"') >= 0) {
+			const d = delimiter ?? detectDelimiter(sample);
+			const split = splitQuotedLine(record, d);
+			if (split.unterminated && pendingLines < MAX_RECORD_LINES && record.length < MAX_RECORD_CHARS) {
+				if (pending === '') {
+					pendingStart = row;
+					pendingLines = 1;
+				}
+				pending = record;
+				return;
+			}
+		}
+		pending = '';
+		pendingLines = 0;
+		if (header === null) {
+			sawNonBlank = true;
+			readHeader(record, sample);
+		} else {
+			readRecord(record, row);
+		}
+	}
+
+	function processText(textChunk: string, final: boolean): void {
+		let data = carry + textChunk;
+		if (firstText && data.length > 0) {
+			firstText = false;
+			if (data.charCodeAt(0) === 0xfeff) data = data.slice(1);
+		}
+		if (data.indexOf('\u0000') >= 0) {
+			fileError('file is not text (it contains NUL bytes); is it a binary export?');
+			return;
+		}
+		let start = 0;
+		for (;;) {
+			if (fileFailed) return;
+			const nl = data.indexOf('\n', start);
+			if (nl < 0) break;
+			const end = nl > start && data.charCodeAt(nl - 1) === 13 ? nl - 1 : nl;
+			handleLine(data.slice(start, end), header === null ? data.slice(start, start + 16384) : '');
+			start = nl + 1;
+		}
+		carry = data.slice(start);
+		if (final && !fileFailed) {
+			if (carry.length > 0) {
+				const last = carry.endsWith('\r') ? carry.slice(0, -1) : carry;
+				carry = '';
+				handleLine(last, last);
+			}
+			if (pending !== '' && !fileFailed) {
+				errors.add({ row: pendingStart, column: null, message: 'unterminated quoted field at end of file' });
+				pending = '';
+				if (header === null) fileFailed = true;
+				else {
+					dataRows++;
+					rejectRow();
+				}
+			}
+		}
+	}
+
+	function decode(chunk: Uint8Array): string | null {
+		if (chunk.indexOf(0) >= 0) {
+			fileError(
+				`file is not text: NUL byte at byte ${bytesSeen + chunk.indexOf(0)}; is it a binary export?`
+			);
+			return null;
+		}
+		decoder ??= new TextDecoder('utf-8', { fatal: true, ignoreBOM: true });
+		try {
+			const textChunk = decoder.decode(chunk, { stream: true });
+			bytesSeen += chunk.length;
+			return textChunk;
+		} catch {
+			fileError(
+				`file is not valid UTF-8 text (bad bytes between byte ${bytesSeen} and ${bytesSeen + chunk.length}); save it as UTF-8`
+			);
+			return null;
+		}
+	}
+
+	function take(): SpiRowBatch[] {
+		const done = out;
+		out = [];
+		return done;
+	}
+
+	return {
+		push(chunk) {
+			if (ended || fileFailed) return take();
+			let textChunk: string | null;
+			if (typeof chunk === 'string') {
+				if (chunk.indexOf('\uFFFD') >= 0) {
+					fileError('file is not valid UTF-8 text (it contains replacement characters �)');
+					return take();
+				}
+				textChunk = chunk;
+			} else {
+				textChunk = decode(chunk);
+			}
+			if (textChunk !== null) processText(textChunk, false);
+			return take();
+		},
+		end() {
+			if (ended) return take();
+			ended = true;
+			if (!fileFailed) {
+				let tail = '';
+				if (decoder) {
+					try {
+						tail = decoder.decode();
+					} catch {
+						fileError('file is not valid UTF-8 text (it ends inside a multi-byte character)');
+					}
+				}
+				if (!fileFailed) processText(tail, true);
+			}
+			if (!fileFailed && !sawNonBlank) fileError('file is empty');
+			else if (!fileFailed && dataRows === 0) fileError('no data rows (the file has only a header)');
+			else if (!fileFailed && skipRows && rowsAccepted === 0) {
+				fileError(`no valid data rows (all ${rowsRejected} rejected)`);
+			}
+			if (!rejected && !fileFailed) flushBatch();
+			return take();
+		},
+		boards() {
+			return boardList;
+		},
+		summary() {
+			const ok = !fileFailed && !rejected && rowsAccepted > 0;
+			return {
+				ok,
+				fileName,
+				delimiter: header === null ? null : delimiter,
+				header: header === null ? [] : (header as ResolvedHeader).names,
+				dataRows,
+				rowsAccepted: rejected || fileFailed ? 0 : rowsAccepted,
+				rowsRejected,
+				errorCount: errors.count,
+				errors: errors.list(),
+				warningCount: warnings.count,
+				warnings: warnings.list(),
+				boards:
+					rejected || fileFailed
+						? []
+						: boardList.map((b, i) => ({ ...b, aggregate: boardAccumulators[i].finish() }))
+			};
+		}
+	};
+}
+
+/**
+ * Drive a parser from an async source of chunks (a Node `ReadStream`, a web `ReadableStream`
+ * iterated with `for await`, or an array of strings in tests), yielding each batch as soon as
+ * it is complete. Read `parser.summary()` after the loop.
+ * @example
+ * const parser = createSpiRowParser({ profile, fileName });
+ * for await (const batch of parseSpiStream(fs.createReadStream(path), parser)) insert(batch);
+ * parser.summary();
+ */
+export async function* parseSpiStream(
+	source: AsyncIterable<Uint8Array | string> | Iterable<Uint8Array | string>,
+	parser: SpiRowParser
+): AsyncGenerator<SpiRowBatch, void, void> {
+	for await (const chunk of source) {
+		for (const batch of parser.push(chunk)) yield batch;
+	}
+	for (const batch of parser.end()) yield batch;
+}
