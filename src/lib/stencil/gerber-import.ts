@@ -15,6 +15,7 @@ import { macroShapeOutline } from './gerber-macro-outline';
 import { nameGerberApertures } from './gerber-naming';
 import { classifyGerberParserWarning } from './gerber-parser-warning';
 import { standardApertureOutline } from './gerber-standard-outline';
+import { rewriteMacroUnaryMinus } from './gerber-unary-minus';
 import type {
 	GerberCommand,
 	GerberOutline,
@@ -273,7 +274,7 @@ export function importGerberPasteLayer(
 	parser.on('warning', (w) => parserWarnings.push(w));
 	let commands: GerberCommand[];
 	try {
-		commands = parser.parseSync(text.replace(/^\uFEFF/, ''));
+		commands = parser.parseSync(rewriteMacroUnaryMinus(text.replace(/^\uFEFF/, '')));
 	} catch (e) {
 		const reason = e instanceof Error ? e.message : String(e);
 		const message = /format undefined/.test(reason)
@@ -313,6 +314,8 @@ export function importGerberPasteLayer(
 	const tools = new Map<string, { line: number; standard: GerberOutlineResult | null }>();
 	const macros = new Set<string>();
 	let currentTool: string | null = null;
+	// After an undefined aperture is selected, its flashes are not reported again.
+	let selectionFailed = false;
 	let lastOp: 'int' | 'move' | 'flash' | null = null;
 	let doneLine = 0;
 	let draws = 0;
@@ -356,7 +359,11 @@ export function importGerberPasteLayer(
 				else if (!tools.has(code)) {
 					fail(line, `D${code}`, `aperture D${code} is not defined (no %ADD${code}…*% before it)`);
 					currentTool = null;
-				} else currentTool = code;
+					selectionFailed = true;
+				} else {
+					currentTool = code;
+					selectionFailed = false;
+				}
 			}
 		} else if (cmd.type === 'tool') {
 			requireUnits(`%ADD${cmd.code}`);
@@ -387,7 +394,7 @@ export function importGerberPasteLayer(
 			if (op === null) fail(line, 'coordinate', 'coordinates without D01/D02/D03 and no earlier operation');
 			if (op === 'flash') {
 				if (inRegion) fail(line, 'D03', 'flash inside a region (G36/G37)');
-				else if (currentTool === null) fail(line, 'D03', 'flash with no (valid) aperture selected');
+				else if (currentTool === null && !selectionFailed) fail(line, 'D03', 'flash with no aperture selected');
 			}
 			if (op === 'int' && !inRegion) {
 				draws++;
@@ -417,7 +424,8 @@ export function importGerberPasteLayer(
 		if (doneLine) break;
 	}
 
-	const lastLine = parser.line + 1;
+	// The last line with content: where a truncated file stops.
+	const lastLine = text.trimEnd().split('\n').length;
 	if (!units && !unitsReported) fail(1, 'units', 'units are not set; the file has no %MOMM*% or %MOIN*%');
 	if (!formatSeen) fail(1, 'format', 'the coordinate format statement (%FS…*%) is missing');
 	if (inRegion) fail(regionLine, 'G36', 'the region is never closed with G37');
