@@ -4,7 +4,7 @@
  */
 import type { ApertureInput } from './aperture';
 import { apertureGeometry, type ApertureGeometry } from './geometry';
-import { areaRatio, aspectRatio, depositVolumeUm3 } from './area-ratio';
+import { areaRatio, aspectRatio } from './area-ratio';
 import type { PrintThresholds } from './thresholds';
 import { StencilInputError } from './stencil-input-error';
 
@@ -44,7 +44,12 @@ export function meetsLimit(actual: number, required: number): boolean {
 	return actual + RATIO_COMPARISON_SLACK >= required;
 }
 
-function checkThresholds(thresholds: PrintThresholds): void {
+/**
+ * Throw when a threshold is not a finite number > 0.
+ * @throws {StencilInputError} naming each bad field.
+ * @example checkThresholds({ minAreaRatio: 0.66, minAspectRatio: 1.5 }) // no error
+ */
+export function checkThresholds(thresholds: PrintThresholds): void {
 	const bad = (['minAreaRatio', 'minAspectRatio'] as const).filter(
 		(k) => !Number.isFinite(thresholds[k]) || thresholds[k] <= 0
 	);
@@ -69,8 +74,23 @@ export function evaluateGeometry(
 	thresholds: PrintThresholds
 ): ApertureEvaluation {
 	checkThresholds(thresholds);
-	const ar = areaRatio(geometry.areaUm2, geometry.perimeterUm, thicknessUm);
-	const asp = aspectRatio(geometry.minDimensionUm, thicknessUm);
+	// Validate the numbers once here; the fast path below does no checks.
+	areaRatio(geometry.areaUm2, geometry.perimeterUm, thicknessUm);
+	aspectRatio(geometry.minDimensionUm, thicknessUm);
+	return evaluateValidGeometry(geometry, thicknessUm, thresholds);
+}
+
+/**
+ * `evaluateGeometry` without argument checks, for loops over already validated stencils.
+ * @example evaluateValidGeometry({ areaUm2: 200000, perimeterUm: 2400, minDimensionUm: 200 }, 100, IPC_7525_THRESHOLDS).areaRatio // 0.8333…
+ */
+export function evaluateValidGeometry(
+	geometry: ApertureGeometry,
+	thicknessUm: number,
+	thresholds: PrintThresholds
+): ApertureEvaluation {
+	const ar = geometry.areaUm2 / (geometry.perimeterUm * thicknessUm);
+	const asp = geometry.minDimensionUm / thicknessUm;
 	const reasons: ThresholdFailure[] = [];
 	if (!meetsLimit(ar, thresholds.minAreaRatio))
 		reasons.push({
@@ -95,7 +115,7 @@ export function evaluateGeometry(
 		minDimensionUm: geometry.minDimensionUm,
 		areaRatio: ar,
 		aspectRatio: asp,
-		volumeUm3: depositVolumeUm3(geometry.areaUm2, thicknessUm),
+		volumeUm3: geometry.areaUm2 * thicknessUm,
 		status: reasons.length === 0 ? 'pass' : 'fail',
 		reasons,
 		maxPassingThicknessUm: Math.min(

@@ -4,9 +4,9 @@
  */
 import type { ApertureInput } from './aperture';
 import { checkAperture } from './aperture-validation';
-import { evaluateGeometry, type ApertureEvaluation } from './evaluate-aperture';
-import { apertureGeometry } from './geometry';
-import { apertureCentreUm } from './outline';
+import { checkThresholds, evaluateValidGeometry, type ApertureEvaluation } from './evaluate-aperture';
+import { validApertureGeometry } from './geometry';
+import { validApertureCentreUm } from './outline';
 import { checkStepRegions, thicknessAt, type StepRegion } from './step-regions';
 import { StencilInputError, type InputProblem } from './stencil-input-error';
 import type { PrintThresholds } from './thresholds';
@@ -57,13 +57,25 @@ export function evaluateStencil(
 	if (extra > 0)
 		problems.push({ where: 'apertures', field: '*', message: `${extra} more problems not listed` });
 	if (problems.length > 0) throw new StencilInputError(problems);
+	checkThresholds(settings.thresholds);
 	return apertures.map((a, index) => {
-		const t = thicknessAt(apertureCentreUm(a), settings.thicknessUm, regions);
+		const t = thicknessAt(validApertureCentreUm(a), settings.thicknessUm, regions);
+		const e = evaluateValidGeometry(validApertureGeometry(a), t, settings.thresholds);
+		// Fields copied one by one: a fixed-shape literal is much cheaper than a spread at 20k rows.
 		return {
 			index,
 			refdes: a.refdes,
 			pad: a.pad,
-			...evaluateGeometry(apertureGeometry(a, index), t, settings.thresholds)
+			thicknessUm: e.thicknessUm,
+			areaUm2: e.areaUm2,
+			perimeterUm: e.perimeterUm,
+			minDimensionUm: e.minDimensionUm,
+			areaRatio: e.areaRatio,
+			aspectRatio: e.aspectRatio,
+			volumeUm3: e.volumeUm3,
+			status: e.status,
+			reasons: e.reasons,
+			maxPassingThicknessUm: e.maxPassingThicknessUm
 		};
 	});
 }

@@ -53,6 +53,15 @@ export function roundedRectanglePerimeterUm(
 export function apertureGeometry(aperture: ApertureInput, index?: number): ApertureGeometry {
 	const problems = checkAperture(aperture, index);
 	if (problems.length > 0) throw new StencilInputError(problems);
+	return validApertureGeometry(aperture);
+}
+
+/**
+ * `apertureGeometry` without validation: the fast path for whole stencils whose apertures
+ * have already passed `checkAperture`. Invalid input gives meaningless numbers, not an error.
+ * @example validApertureGeometry(circle300).minDimensionUm // 300
+ */
+export function validApertureGeometry(aperture: ApertureInput): ApertureGeometry {
 	switch (effectiveShape(aperture)) {
 		case 'circle': {
 			const d = aperture.diameterUm!;

@@ -126,8 +126,16 @@ export function apertureBoundsUm(aperture: ApertureInput): BoundsUm {
  * @example apertureCentreUm({ ...pad, shape: 'polygon', verticesUm: [[0,0],[2,0],[2,2],[0,2]], xUm: 10, yUm: 0, rotationDeg: 0 }) // [11, 1]
  */
 export function apertureCentreUm(aperture: ApertureInput): PointUm {
+	if (effectiveShape(aperture) === 'polygon') apertureGeometry(aperture);
+	return validApertureCentreUm(aperture);
+}
+
+/**
+ * `apertureCentreUm` without validation, for loops over already validated apertures.
+ * @example validApertureCentreUm(rect(10, 10, { xUm: 3, yUm: 4 })) // [3, 4]
+ */
+export function validApertureCentreUm(aperture: ApertureInput): PointUm {
 	if (effectiveShape(aperture) !== 'polygon') return [aperture.xUm, aperture.yUm];
-	apertureGeometry(aperture);
 	return placer(aperture)(polygonCentroid(openPolygon(aperture.verticesUm!)));
 }
 
