@@ -1,0 +1,64 @@
+import { describe, expect, it } from 'vitest';
+import { parseDecimal } from './parse-decimal';
+
+describe('parseDecimal', () => {
+	// The fast path must agree with Number(), the ECMAScript StringToNumber reference, bit for bit.
+	it.each([
+		'0',
+		'-0',
+		'1',
+		'101.25',
+		'-12.5',
+		'0.1',
+		'0.3',
+		'.5',
+		'5.',
+		'123456789012345',
+		'1234567890.12345',
+		'0.000000000000000000001',
+		'99.99',
+		'1.15',
+		'1e3',
+		' 42 ',
+		'+7',
+		'12345678901234567890'
+	])('%j equals Number()', (text) => {
+		expect(Object.is(parseDecimal(text, false), Number(text))).toBe(true);
+	});
+
+	it('agrees with Number() on 20 000 random 2-decimal values', () => {
+		// Deterministic LCG (Numerical Recipes constants) so a failure is reproducible.
+		let seed = 12345;
+		const mismatches: string[] = [];
+		for (let i = 0; i < 20000; i++) {
+			seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0;
+			const text = ((seed / 2 ** 32) * 4000 - 2000).toFixed(i % 4);
+			if (parseDecimal(text, false) !== Number(text)) mismatches.push(text);
+		}
+		expect(mismatches).toEqual([]);
+	});
+
+	it.each([
+		['101,25', 101.25],
+		['-0,5', -0.5],
+		['3.5', 3.5]
+	])('decimal comma %j → %d', (text, expected) => {
+		expect(parseDecimal(text, true)).toBe(expected);
+	});
+
+	it.each(['', '   ', '-', '.', 'abc', '1,5', '1.2.3', 'Infinity', '-Infinity', 'NaN', '1e400', '12a'])(
+		'%j is NaN (decimal point)',
+		(text) => {
+			expect(parseDecimal(text, false)).toBeNaN();
+		}
+	);
+
+	it.each(['1.234,5', '1,2,3', ','])('%j is NaN (decimal comma)', (text) => {
+		expect(parseDecimal(text, true)).toBeNaN();
+	});
+
+	it('reads a range of a longer string in place', () => {
+		expect(parseDecimal('a,101.5,b', false, 2, 7)).toBe(101.5);
+		expect(parseDecimal('a,,b', false, 2, 2)).toBeNaN();
+	});
+});
