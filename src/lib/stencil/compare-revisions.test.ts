@@ -1,0 +1,58 @@
+import { describe, it, expect } from 'vitest';
+import { compareRevisions } from './compare-revisions';
+import { circle, rect } from './test-fixtures';
+
+const revA = [
+	rect(1000, 200, { refdes: 'U1', pad: '1', xUm: 0, yUm: 0 }),
+	rect(1000, 200, { refdes: 'U1', pad: '2', xUm: 0, yUm: 400 }),
+	circle(300, { refdes: 'U2', pad: 'A1', xUm: 5000, yUm: 0 }),
+	rect(300, 280, { refdes: 'C1', pad: '1', xUm: 9000, yUm: 0 }),
+	rect(500, 500, { refdes: '', pad: '', xUm: 20000, yUm: 0 })
+];
+const revB = [
+	rect(1000, 180, { refdes: 'U1', pad: '1', xUm: 0, yUm: 0 }), // narrowed
+	rect(1000, 200, { refdes: 'U1', pad: '2', xUm: 0, yUm: 400, rotationDeg: 180 }), // same opening
+	circle(300, { refdes: 'U2', pad: 'A1', xUm: 5000, yUm: 0, rotationDeg: 45 }), // same
+	rect(500, 500, { refdes: '', pad: '', xUm: 20020, yUm: 0 }), // moved 20 µm, matched by position
+	rect(400, 400, { refdes: 'C9', pad: '1', xUm: 30000, yUm: 0 }) // new
+];
+
+describe('compareRevisions', () => {
+	const c = compareRevisions(revA, revB, { oldThicknessUm: 120, newThicknessUm: 100 });
+	it('added, removed and unchanged', () => {
+		expect(c.added.map((a) => a.aperture.refdes)).toEqual(['C9']);
+		expect(c.removed.map((a) => a.aperture.refdes)).toEqual(['C1']);
+		expect(c.unchangedCount).toBe(2);
+	});
+	it('changed pairs name the fields and carry both sides’ ratios at their own thickness', () => {
+		expect(c.changed.map((x) => [x.matchedBy, x.fields])).toEqual([
+			['refdes-pad', ['widthUm']],
+			['position', ['position']]
+		]);
+		const u1 = c.changed[0];
+		expect(u1.old.areaRatio).toBeCloseTo(200000 / (2400 * 120), 12);
+		expect(u1.new.areaRatio).toBeCloseTo(180000 / (2360 * 100), 12);
+		expect(u1.old.aspectRatio).toBeCloseTo(200 / 120, 12);
+		expect(u1.new.minDimensionUm).toBe(180);
+	});
+	it('identical revisions: everything unchanged', () => {
+		const same = compareRevisions(revA, revA, { oldThicknessUm: 120, newThicknessUm: 120 });
+		expect(same).toMatchObject({ added: [], removed: [], changed: [], unchangedCount: revA.length });
+	});
+	it('beyond the position tolerance an unnamed aperture is removed + added', () => {
+		const far = compareRevisions(revA.slice(4), [rect(500, 500, { refdes: '', pad: '', xUm: 20100 })], {
+			oldThicknessUm: 120,
+			newThicknessUm: 120,
+			positionToleranceUm: 50
+		});
+		expect([far.added.length, far.removed.length]).toEqual([1, 1]);
+	});
+	it('empty revisions', () => {
+		expect(compareRevisions([], revB, { oldThicknessUm: 1, newThicknessUm: 1 }).added).toHaveLength(5);
+		expect(compareRevisions(revA, [], { oldThicknessUm: 1, newThicknessUm: 1 }).removed).toHaveLength(5);
+	});
+	it('bad options and bad apertures throw clear errors', () => {
+		expect(() => compareRevisions(revA, revB, { oldThicknessUm: 0, newThicknessUm: 100 })).toThrow(/revision comparison, oldThicknessUm/);
+		expect(() => compareRevisions([rect(0, 1)], [], { oldThicknessUm: 1, newThicknessUm: 1 })).toThrow(/U1\.1, lengthUm/);
+	});
+});
