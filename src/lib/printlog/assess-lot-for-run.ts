@@ -53,7 +53,12 @@ export function assessLotForRun(
 	for (const key of ['warmUpMinutes', 'maxOnStencilMinutes', 'maxOutOfColdMinutes'] as const) {
 		const value = settings[key];
 		if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0) {
-			throw new PrintlogInputError([{ field: `settings.${key}`, message: `must be a number of minutes > 0 (got ${describeValue(value)})` }]);
+			throw new PrintlogInputError([
+				{
+					field: `settings.${key}`,
+					message: `must be a number of minutes > 0 (got ${describeValue(value)})`
+				}
+			]);
 		}
 	}
 	const refuse: LotReason[] = [];
@@ -64,7 +69,10 @@ export function assessLotForRun(
 	try {
 		expiresAtMs = lotExpiresAtMs(lot.expiresOn);
 	} catch {
-		refuse.push({ code: 'invalid-lot', message: `${lotName} has no readable expiry date (got ${describeValue(lot.expiresOn)})` });
+		refuse.push({
+			code: 'invalid-lot',
+			message: `${lotName} has no readable expiry date (got ${describeValue(lot.expiresOn)})`
+		});
 	}
 	if (expiresAtMs !== null && atMs >= expiresAtMs) {
 		refuse.push({ code: 'expired', message: `${lotName} expired (expiry ${lot.expiresOn})` });
@@ -73,36 +81,59 @@ export function assessLotForRun(
 	const replay = replayPasteEvents(events, atMs);
 	if (!replay.ok) {
 		const detail = replay.errors.map((e) => `${e.field}: ${e.message}`).join('; ');
-		refuse.push({ code: 'invalid-history', message: `${lotName} has an inconsistent handling log: ${detail}` });
+		refuse.push({
+			code: 'invalid-history',
+			message: `${lotName} has an inconsistent handling log: ${detail}`
+		});
 		return { refuse, warn };
 	}
 	const { timeline } = replay;
 	if (timeline.state === 'discarded') {
-		refuse.push({ code: 'discarded', message: `${lotName} was discarded at ${new Date(timeline.discardedAtMs ?? atMs).toISOString()}` });
+		const discardedAt = new Date(timeline.discardedAtMs ?? atMs).toISOString();
+		refuse.push({ code: 'discarded', message: `${lotName} was discarded at ${discardedAt}` });
 		return { refuse, warn };
 	}
 	if (timeline.state === 'cold-storage') {
+		const todo = `log it out and let it warm up for ${formatMinutes(settings.warmUpMinutes)} before opening`;
 		if (timeline.outOfColdPeriods.length === 0) {
-			warn.push({ code: 'never-out-of-cold-storage', message: `${lotName} was never logged out of cold storage: log it out and let it warm up for ${formatMinutes(settings.warmUpMinutes)} before opening` });
+			warn.push({
+				code: 'never-out-of-cold-storage',
+				message: `${lotName} was never logged out of cold storage: ${todo}`
+			});
 		} else {
-			warn.push({ code: 'back-in-cold-storage', message: `${lotName} was returned to cold storage: log it out and let it warm up for ${formatMinutes(settings.warmUpMinutes)} before opening` });
+			warn.push({
+				code: 'back-in-cold-storage',
+				message: `${lotName} was returned to cold storage: ${todo}`
+			});
 		}
 	} else {
 		const currentPeriod = timeline.outOfColdPeriods[timeline.outOfColdPeriods.length - 1];
 		const warmedMinutes = (atMs - currentPeriod.fromMs) / 60_000;
 		if (warmedMinutes < settings.warmUpMinutes) {
-			warn.push({ code: 'warming-up', message: `${lotName} is still warming up: ${formatMinutes(warmedMinutes)} of ${formatMinutes(settings.warmUpMinutes)} since it left cold storage` });
+			const progress = `${formatMinutes(warmedMinutes)} of ${formatMinutes(settings.warmUpMinutes)}`;
+			warn.push({
+				code: 'warming-up',
+				message: `${lotName} is still warming up: ${progress} since it left cold storage`
+			});
 		}
 	}
 	if (timeline.onStencilAtMs !== null) {
 		const onStencilMinutes = (atMs - timeline.onStencilAtMs) / 60_000;
 		if (onStencilMinutes > settings.maxOnStencilMinutes) {
-			warn.push({ code: 'over-time-on-stencil', message: `${lotName} has been on the stencil for ${formatMinutes(onStencilMinutes)}, over the ${formatMinutes(settings.maxOnStencilMinutes)} limit` });
+			const limit = formatMinutes(settings.maxOnStencilMinutes);
+			warn.push({
+				code: 'over-time-on-stencil',
+				message: `${lotName} has been on the stencil for ${formatMinutes(onStencilMinutes)}, over the ${limit} limit`
+			});
 		}
 	}
 	const outMinutes = minutesOutOfCold(timeline, atMs);
 	if (outMinutes > settings.maxOutOfColdMinutes) {
-		warn.push({ code: 'over-time-out-of-cold', message: `${lotName} has been out of cold storage for ${formatMinutes(outMinutes)} in total, over the ${formatMinutes(settings.maxOutOfColdMinutes)} limit` });
+		const limit = formatMinutes(settings.maxOutOfColdMinutes);
+		warn.push({
+			code: 'over-time-out-of-cold',
+			message: `${lotName} has been out of cold storage for ${formatMinutes(outMinutes)} in total, over the ${limit} limit`
+		});
 	}
 	return { refuse, warn };
 }

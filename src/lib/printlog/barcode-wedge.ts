@@ -18,7 +18,7 @@ export interface WedgeOptions {
 
 /** A wedge buffer: feed every key; a completed scan comes back from the terminating key. */
 export interface WedgeBuffer {
-	/** Feed one key (`KeyboardEvent.key`) at `timeMs`; returns the scanned code on a fast Enter, else null. */
+	/** Feed one key (`KeyboardEvent.key`) at `timeMs`: the code on a fast Enter, else null. */
 	key(key: string, timeMs: number): string | null;
 	/** Drop what has been collected (e.g. when the field loses focus). */
 	reset(): void;
@@ -39,7 +39,9 @@ export function createWedgeBuffer(options: WedgeOptions = {}): WedgeBuffer {
 	const minLength = options.minLength ?? 3;
 	const terminators = options.terminators ?? ['Enter'];
 	if (!Number.isFinite(maxInterKeyMs) || maxInterKeyMs <= 0) {
-		throw new RangeError(`maxInterKeyMs: must be a number of milliseconds > 0 (got ${maxInterKeyMs})`);
+		throw new RangeError(
+			`maxInterKeyMs: must be a number of milliseconds > 0 (got ${maxInterKeyMs})`
+		);
 	}
 	if (!Number.isInteger(minLength) || minLength < 1) {
 		throw new RangeError(`minLength: must be a whole number ≥ 1 (got ${minLength})`);
@@ -48,7 +50,10 @@ export function createWedgeBuffer(options: WedgeOptions = {}): WedgeBuffer {
 	let lastMs: number | null = null;
 
 	const isFast = (timeMs: number) =>
-		lastMs !== null && Number.isFinite(timeMs) && timeMs >= lastMs && timeMs - lastMs <= maxInterKeyMs;
+		lastMs !== null &&
+		Number.isFinite(timeMs) &&
+		timeMs >= lastMs &&
+		timeMs - lastMs <= maxInterKeyMs;
 
 	return {
 		key(key: string, timeMs: number): string | null {

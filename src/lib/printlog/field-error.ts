@@ -44,6 +44,8 @@ export class PrintlogInputError extends Error {
 export function describeValue(value: unknown): string {
 	if (value === undefined || value === null) return 'missing';
 	if (typeof value === 'number') return String(value);
-	if (value instanceof Date) return Number.isNaN(value.getTime()) ? 'Invalid Date' : value.toISOString();
+	if (value instanceof Date) {
+		return Number.isNaN(value.getTime()) ? 'Invalid Date' : value.toISOString();
+	}
 	return JSON.stringify(value);
 }

@@ -5,7 +5,12 @@
  */
 
 // Errors and time
-export { formatFieldError, describeValue, PrintlogInputError, type FieldError } from './field-error';
+export {
+	formatFieldError,
+	describeValue,
+	PrintlogInputError,
+	type FieldError
+} from './field-error';
 export { toEpochMs, type Instant } from './to-epoch-ms';
 
 // Parameter catalogue and recipe windows
@@ -37,7 +42,13 @@ export {
 	type BladeType,
 	type BoardSupport
 } from './parameters';
-export { WIPE_STEPS, parseWipeMode, wipeModeString, allWipeModes, type WipeStep } from './wipe-mode';
+export {
+	WIPE_STEPS,
+	parseWipeMode,
+	wipeModeString,
+	allWipeModes,
+	type WipeStep
+} from './wipe-mode';
 export {
 	validateWindow,
 	validateRecipe,
@@ -101,6 +112,11 @@ export {
 } from './stencil-tension';
 
 // Runs and scanning
-export { validateRunTimes, findOverlappingOpenRun, type RunTimes, type RunOnLine } from './run-times';
+export {
+	validateRunTimes,
+	findOverlappingOpenRun,
+	type RunTimes,
+	type RunOnLine
+} from './run-times';
 export { createWedgeBuffer, type WedgeBuffer, type WedgeOptions } from './barcode-wedge';
 export { matchScannedCode, normaliseScannedCode, type CodeCandidate } from './match-scanned-code';

@@ -55,14 +55,18 @@ export function matchScannedCode<C extends CodeCandidate>(
 ): { match: C | null; suggestions: C[] } {
 	const scanned = normaliseScannedCode(code);
 	if (scanned === '') return { match: null, suggestions: [] };
-	const normalised = candidates.map((candidate) => ({ candidate, key: normaliseScannedCode(candidate.code) }));
+	const normalised = candidates.map((candidate) => ({
+		candidate,
+		key: normaliseScannedCode(candidate.code)
+	}));
 	const exact = normalised.find((n) => n.key === scanned);
 	if (exact) return { match: exact.candidate, suggestions: [] };
 	const scored = normalised
 		.map((n) => {
 			const distance = editDistance(scanned, n.key);
 			const contains =
-				Math.min(scanned.length, n.key.length) >= 3 && (n.key.includes(scanned) || scanned.includes(n.key));
+				Math.min(scanned.length, n.key.length) >= 3 &&
+				(n.key.includes(scanned) || scanned.includes(n.key));
 			return { ...n, distance, close: distance <= 2 || contains };
 		})
 		.filter((n) => n.close && n.key !== '')

@@ -40,7 +40,7 @@ export interface NumericWindow {
 	max: number;
 }
 
-/** Hard bounds; `minExclusive` means the minimum itself is impossible (a speed of 0 prints nothing). */
+/** Hard bounds; `minExclusive`: the minimum itself is impossible (a speed of 0 prints nothing). */
 export interface PhysicalRange {
 	min: number;
 	max: number;
@@ -217,7 +217,13 @@ export const PRINT_STROKES = ['front-to-back', 'back-to-front', 'alternating'] a
 /** Squeegee blade material. */
 export const BLADE_TYPES = ['metal', 'polyurethane'] as const;
 /** How the board is supported under the stencil. */
-export const BOARD_SUPPORTS = ['pins', 'blocks', 'vacuum-fixture', 'dedicated-tooling', 'none'] as const;
+export const BOARD_SUPPORTS = [
+	'pins',
+	'blocks',
+	'vacuum-fixture',
+	'dedicated-tooling',
+	'none'
+] as const;
 
 /** A squeegee stroke direction. */
 export type PrintStroke = (typeof PRINT_STROKES)[number];
@@ -227,7 +233,12 @@ export type BladeType = (typeof BLADE_TYPES)[number];
 export type BoardSupport = (typeof BOARD_SUPPORTS)[number];
 
 /** Keys of the categorical parameters (wipe mode has its own module, see wipe-mode.ts). */
-export const CATEGORICAL_PARAMETER_KEYS = ['printStroke', 'bladeType', 'wipeMode', 'boardSupport'] as const;
+export const CATEGORICAL_PARAMETER_KEYS = [
+	'printStroke',
+	'bladeType',
+	'wipeMode',
+	'boardSupport'
+] as const;
 /** A categorical parameter key. */
 export type CategoricalParameterKey = (typeof CATEGORICAL_PARAMETER_KEYS)[number];
 

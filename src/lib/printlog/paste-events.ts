@@ -16,12 +16,18 @@
  * Timestamps must not go backwards; equal timestamps keep their listed order.
  */
 import type { FieldError } from './field-error';
-import { PrintlogInputError } from './field-error';
+import { describeValue, formatFieldError, PrintlogInputError } from './field-error';
 import type { Instant } from './to-epoch-ms';
 import { toEpochMs } from './to-epoch-ms';
 
 /** Handling events a technician logs against a paste lot. */
-export const PASTE_EVENTS = ['out-of-cold-storage', 'opened', 'on-stencil', 'returned', 'discarded'] as const;
+export const PASTE_EVENTS = [
+	'out-of-cold-storage',
+	'opened',
+	'on-stencil',
+	'returned',
+	'discarded'
+] as const;
 /** A paste handling event type. */
 export type PasteEventType = (typeof PASTE_EVENTS)[number];
 
@@ -71,17 +77,26 @@ export function pasteTransitionProblem(state: PasteState, event: PasteEventType)
 	if (state === 'discarded') return `the paste was discarded; no '${event}' can follow`;
 	if (event === 'returned') {
 		if (state === 'cold-storage') return 'the paste is already in cold storage';
-		return 'opened paste must not go back to cold storage: it has taken up moisture and a cold container draws condensation (handling guidance: do not re-refrigerate opened paste); use it within its limits or discard it';
+		return (
+			'opened paste must not go back to cold storage: it has taken up moisture and a cold ' +
+			'container draws condensation (handling guidance: do not re-refrigerate opened paste); ' +
+			'use it within its limits or discard it'
+		);
 	}
 	if (event === 'out-of-cold-storage') return 'the paste is already out of cold storage';
 	if (event === 'opened') {
 		if (state === 'cold-storage') {
-			return "cannot open paste that is still in cold storage: log 'out-of-cold-storage' first and let it warm up, or condensation forms inside";
+			return (
+				"cannot open paste that is still in cold storage: log 'out-of-cold-storage' first " +
+				'and let it warm up, or condensation forms inside'
+			);
 		}
 		return 'the container is already open';
 	}
 	if (event === 'on-stencil') {
-		if (state === 'cold-storage') return "the paste is in cold storage: take it out, let it warm up and open it first";
+		if (state === 'cold-storage') {
+			return 'the paste is in cold storage: take it out, let it warm up and open it first';
+		}
 		if (state === 'out-sealed') return "log 'opened' before putting the paste on the stencil";
 		return 'the paste is already on the stencil';
 	}
@@ -114,30 +129,45 @@ export function replayPasteEvents(
 			continue;
 		}
 		if (atMs < previousMs) {
-			errors.push({ field: `${where}.at`, message: `must not be before the previous event (${new Date(previousMs).toISOString()})` });
+			const previous = new Date(previousMs).toISOString();
+			errors.push({
+				field: `${where}.at`,
+				message: `must not be before the previous event (${previous})`
+			});
 			continue;
 		}
 		if (atMs > untilMs) break;
 		previousMs = atMs;
 		if (!(PASTE_EVENTS as readonly string[]).includes(entry.event)) {
-			errors.push({ field: `${where}.event`, message: `must be one of ${PASTE_EVENTS.join(', ')} (got ${JSON.stringify(entry.event)})` });
+			errors.push({
+				field: `${where}.event`,
+				message: `must be one of ${PASTE_EVENTS.join(', ')} (got ${describeValue(entry.event)})`
+			});
 			continue;
 		}
 		const event = entry.event as PasteEventType;
 		const next = nextPasteState(state, event);
 		if (!next) {
-			errors.push({ field: `${where}.event`, message: `'${event}' refused: ${pasteTransitionProblem(state, event)}` });
+			errors.push({
+				field: `${where}.event`,
+				message: `'${event}' refused: ${pasteTransitionProblem(state, event)}`
+			});
 			continue;
 		}
 		if (event === 'out-of-cold-storage') periods.push({ fromMs: atMs, toMs: null });
-		if (event === 'returned') periods[periods.length - 1] = { ...periods[periods.length - 1], toMs: atMs };
+		if (event === 'returned') {
+			periods[periods.length - 1] = { ...periods[periods.length - 1], toMs: atMs };
+		}
 		if (event === 'opened') openedAtMs = atMs;
 		if (event === 'on-stencil') onStencilAtMs = atMs;
 		if (event === 'discarded') discardedAtMs = atMs;
 		state = next;
 	}
 	if (errors.length > 0) return { ok: false, errors };
-	return { ok: true, timeline: { state, outOfColdPeriods: periods, openedAtMs, onStencilAtMs, discardedAtMs } };
+	return {
+		ok: true,
+		timeline: { state, outOfColdPeriods: periods, openedAtMs, onStencilAtMs, discardedAtMs }
+	};
 }
 
 /**
@@ -145,7 +175,10 @@ export function replayPasteEvents(
  * went back keeps the time it already spent out).
  * @example minutesOutOfCold({ outOfColdPeriods: [{ fromMs: 0, toMs: 3_600_000 }] } as PasteTimeline, 7_200_000) // 60
  */
-export function minutesOutOfCold(timeline: Pick<PasteTimeline, 'outOfColdPeriods'>, atMs: number): number {
+export function minutesOutOfCold(
+	timeline: Pick<PasteTimeline, 'outOfColdPeriods'>,
+	atMs: number
+): number {
 	let totalMs = 0;
 	for (const { fromMs, toMs } of timeline.outOfColdPeriods) {
 		const endMs = Math.min(toMs ?? atMs, atMs);
@@ -169,7 +202,11 @@ export function checkNextPasteEvent(
 ): { error: FieldError | null; warn: string[] } {
 	const replay = replayPasteEvents(history);
 	if (!replay.ok) {
-		return { error: { field: 'events', message: `the logged history is inconsistent: ${replay.errors.map((e) => `${e.field}: ${e.message}`).join('; ')}` }, warn: [] };
+		const detail = replay.errors.map(formatFieldError).join('; ');
+		return {
+			error: { field: 'events', message: `the logged history is inconsistent: ${detail}` },
+			warn: []
+		};
 	}
 	const candidate = replayPasteEvents([...history, next]);
 	if (!candidate.ok) {
@@ -183,7 +220,10 @@ export function checkNextPasteEvent(
 		const period = timeline.outOfColdPeriods[timeline.outOfColdPeriods.length - 1];
 		const warmedMinutes = (timeline.openedAtMs - period.fromMs) / 60_000;
 		if (warmedMinutes < settings.warmUpMinutes) {
-			warn.push(`opened after ${formatMinutes(warmedMinutes)} out of cold storage; the warm-up time is ${formatMinutes(settings.warmUpMinutes)}: condensation may form in the paste`);
+			const warmUp = formatMinutes(settings.warmUpMinutes);
+			warn.push(
+				`opened after ${formatMinutes(warmedMinutes)} out of cold storage; the warm-up time is ${warmUp}: condensation may form in the paste`
+			);
 		}
 	}
 	return { error: null, warn };

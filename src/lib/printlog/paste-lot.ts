@@ -69,10 +69,9 @@ const DATE_ONLY = /^\d{4}-\d{2}-\d{2}$/;
  * time allowed out of cold storage (otherwise every run would be warned).
  * @example resolvePasteHandling({ warmUpMinutes: 120 }).settings.warmUpMinutes // 120
  */
-export function resolvePasteHandling(overrides: Partial<Record<keyof PasteHandlingSettings, unknown>> = {}): {
-	settings: PasteHandlingSettings;
-	errors: FieldError[];
-} {
+export function resolvePasteHandling(
+	overrides: Partial<Record<keyof PasteHandlingSettings, unknown>> = {}
+): { settings: PasteHandlingSettings; errors: FieldError[] } {
 	const settings = { ...DEFAULT_PASTE_HANDLING } as PasteHandlingSettings;
 	const errors: FieldError[] = [];
 	for (const key of Object.keys(DEFAULT_PASTE_HANDLING) as (keyof PasteHandlingSettings)[]) {
@@ -117,7 +116,8 @@ export function validatePasteLot(lot: Partial<Record<keyof PasteLot, unknown>>):
 	const errors: FieldError[] = [];
 	const { lotNumber, alloy, powderType, fluxClass, containerGrams, receivedOn, expiresOn } = lot;
 	if (typeof lotNumber !== 'string' || lotNumber.trim() === '') {
-		errors.push({ field: 'lotNumber', message: `must not be blank (got ${describeValue(lotNumber)})` });
+		const message = `must not be blank (got ${describeValue(lotNumber)})`;
+		errors.push({ field: 'lotNumber', message });
 	}
 	if (typeof alloy !== 'string' || !ALLOY_PATTERN.test(alloy.trim())) {
 		errors.push({
@@ -125,7 +125,8 @@ export function validatePasteLot(lot: Partial<Record<keyof PasteLot, unknown>>):
 			message: `must be an alloy designation such as SAC305 or Sn63Pb37 (got ${describeValue(alloy)})`
 		});
 	}
-	if (typeof powderType !== 'number' || !Number.isInteger(powderType) || powderType < 1 || powderType > 8) {
+	const isPowderType = Number.isInteger(powderType) && Number(powderType) >= 1;
+	if (!isPowderType || Number(powderType) > 8) {
 		errors.push({
 			field: 'powderType',
 			message: `must be a J-STD-005 type, a whole number 1–8 (got ${describeValue(powderType)})`
@@ -140,32 +141,40 @@ export function validatePasteLot(lot: Partial<Record<keyof PasteLot, unknown>>):
 		}
 	}
 	if (containerGrams !== undefined && containerGrams !== null) {
-		if (typeof containerGrams !== 'number' || !Number.isFinite(containerGrams) || containerGrams <= 0) {
-			errors.push({ field: 'containerGrams', message: `must be a number of grams > 0 (got ${describeValue(containerGrams)})` });
+		if (!Number.isFinite(containerGrams) || Number(containerGrams) <= 0) {
+			const message = `must be a number of grams > 0 (got ${describeValue(containerGrams)})`;
+			errors.push({ field: 'containerGrams', message });
 		}
 	}
 	const expiresMs = dateField(expiresOn, 'expiresOn', true, errors);
 	const receivedMs = dateField(receivedOn, 'receivedOn', false, errors);
 	if (expiresMs !== null && receivedMs !== null && receivedMs > expiresMs) {
-		errors.push({ field: 'expiresOn', message: `must not be before receivedOn (${String(receivedOn)})` });
+		const message = `must not be before receivedOn (${String(receivedOn)})`;
+		errors.push({ field: 'expiresOn', message });
 	}
 	return errors;
 }
 
 /** Parse an optional/required date field, pushing an error instead of throwing. */
-function dateField(value: unknown, field: string, required: boolean, errors: FieldError[]): number | null {
+function dateField(
+	value: unknown,
+	field: string,
+	required: boolean,
+	errors: FieldError[]
+): number | null {
 	if (value === undefined || value === null || value === '') {
 		if (required) errors.push({ field, message: 'is required: an ISO date such as 2026-06-30' });
 		return null;
 	}
+	const message = `must be an ISO date such as 2026-06-30 (got ${describeValue(value)})`;
 	if (typeof value !== 'string') {
-		errors.push({ field, message: `must be an ISO date such as 2026-06-30 (got ${describeValue(value)})` });
+		errors.push({ field, message });
 		return null;
 	}
 	try {
 		return toEpochMs(value, field);
 	} catch {
-		errors.push({ field, message: `must be an ISO date such as 2026-06-30 (got ${describeValue(value)})` });
+		errors.push({ field, message });
 		return null;
 	}
 }

@@ -64,8 +64,9 @@ export interface CategoricalDeviation {
 export type Deviation = NumericDeviation | CategoricalDeviation;
 
 /** Allowed values per categorical key other than wipe mode (which is a set, see wipe-mode.ts). */
-const CATEGORY_VALUES: Readonly<Record<Exclude<CategoricalParameterKey, 'wipeMode'>, readonly string[]>> =
-	{ printStroke: PRINT_STROKES, bladeType: BLADE_TYPES, boardSupport: BOARD_SUPPORTS };
+const CATEGORY_VALUES: Readonly<
+	Record<Exclude<CategoricalParameterKey, 'wipeMode'>, readonly string[]>
+> = { printStroke: PRINT_STROKES, bladeType: BLADE_TYPES, boardSupport: BOARD_SUPPORTS };
 
 const AMBIENT_KEYS: readonly string[] = ['ambientTempC', 'relativeHumidityPct'];
 
@@ -79,8 +80,8 @@ export function normaliseCategorical(
 	raw: unknown,
 	field = `parameters.${key}`
 ): { ok: true; value: string } | { ok: false; error: FieldError } {
-	const text =
-		raw !== null && typeof raw === 'object' && 'value' in raw ? (raw as { value: unknown }).value : raw;
+	const wrapped = raw !== null && typeof raw === 'object' && 'value' in raw;
+	const text = wrapped ? (raw as { value: unknown }).value : raw;
 	if (key === 'wipeMode') {
 		const parsed = parseWipeMode(text, field);
 		return parsed.ok ? { ok: true, value: parsed.canonical } : parsed;
@@ -108,7 +109,8 @@ export function validateWindow(
 	prefix = `parameters.${key}`
 ): FieldError[] {
 	if (window === null || typeof window !== 'object') {
-		return [{ field: prefix, message: `must be a window { min, target, max } (got ${describeValue(window)})` }];
+		const message = `must be a window { min, target, max } (got ${describeValue(window)})`;
+		return [{ field: prefix, message }];
 	}
 	const w = window as Record<string, unknown>;
 	const errors: FieldError[] = [];
@@ -118,8 +120,12 @@ export function validateWindow(
 	}
 	if (errors.length > 0) return errors;
 	const { min, target, max } = w as unknown as NumericWindow;
-	if (target < min) errors.push({ field: `${prefix}.target`, message: `must be ≥ min (${min})` });
-	if (max < target) errors.push({ field: `${prefix}.max`, message: `must be ≥ target (${target})` });
+	if (target < min) {
+		errors.push({ field: `${prefix}.target`, message: `must be ≥ min (${min})` });
+	}
+	if (max < target) {
+		errors.push({ field: `${prefix}.max`, message: `must be ≥ target (${target})` });
+	}
 	return errors;
 }
 
@@ -143,13 +149,17 @@ export function validateRecipe(recipe: {
 	}
 	const parameters = recipe.parameters;
 	if (parameters === null || typeof parameters !== 'object') {
-		errors.push({ field: 'parameters', message: `must be an object (got ${describeValue(parameters)})` });
+		const message = `must be an object (got ${describeValue(parameters)})`;
+		errors.push({ field: 'parameters', message });
 		return errors;
 	}
 	const entries = parameters as Record<string, unknown>;
 	for (const key of REQUIRED_RECIPE_PARAMETERS) {
 		if (entries[key] === undefined) {
-			errors.push({ field: `parameters.${key}`, message: 'is required: give a window { min, target, max }' });
+			errors.push({
+				field: `parameters.${key}`,
+				message: 'is required: give a window { min, target, max }'
+			});
 		}
 	}
 	for (const [key, value] of Object.entries(entries)) {
@@ -303,7 +313,8 @@ export function describeDeviation(deviation: Deviation): string {
 	const spec = NUMERIC_PARAMETERS[deviation.parameter];
 	const unit = spec.unit === '°' || spec.unit === '%' ? spec.unit : ` ${spec.unit}`;
 	const show = (n: number) => n.toFixed(spec.decimals);
-	return `${spec.label} ${show(deviation.value)}${unit} is outside the recipe window ${show(deviation.min)}–${show(deviation.max)}${unit}`;
+	const window = `${show(deviation.min)}–${show(deviation.max)}${unit}`;
+	return `${spec.label} ${show(deviation.value)}${unit} is outside the recipe window ${window}`;
 }
 
 /**

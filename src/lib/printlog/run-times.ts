@@ -43,7 +43,8 @@ export function validateRunTimes(run: RunTimes): FieldError[] {
 		}
 	}
 	if (startMs !== null && endMs !== null && endMs < startMs) {
-		errors.push({ field: 'endedAt', message: `must not be before startedAt (${new Date(startMs).toISOString()})` });
+		const start = new Date(startMs).toISOString();
+		errors.push({ field: 'endedAt', message: `must not be before startedAt (${start})` });
 	}
 	return errors;
 }
@@ -66,7 +67,10 @@ export function findOverlappingOpenRun<R extends RunOnLine>(
 	excludeId?: string | number
 ): { run: R; message: string } | null {
 	const open = runs.find(
-		(run) => sameLine(run.line, line) && (run.endedAt === null || run.endedAt === undefined) && run.id !== excludeId
+		(run) =>
+			sameLine(run.line, line) &&
+			(run.endedAt === null || run.endedAt === undefined) &&
+			run.id !== excludeId
 	);
 	if (!open) return null;
 	let started: string;
@@ -78,6 +82,8 @@ export function findOverlappingOpenRun<R extends RunOnLine>(
 	const product = open.product ? ` (${open.product})` : '';
 	return {
 		run: open,
-		message: `line ${line.trim()} already has an open run: run ${open.id}${product}, started ${started}; close it first`
+		message:
+			`line ${line.trim()} already has an open run: run ${open.id}${product}, ` +
+			`started ${started}; close it first`
 	};
 }

@@ -7,9 +7,16 @@
  * - `quarantined`: held for an engineer's decision (damage, low tension, suspect prints);
  * - `retired`: scrapped or past use for good; final.
  */
+import { describeValue } from './field-error';
 
 /** Stencil states. */
-export const STENCIL_STATES = ['available', 'in-use', 'out-for-cleaning', 'quarantined', 'retired'] as const;
+export const STENCIL_STATES = [
+	'available',
+	'in-use',
+	'out-for-cleaning',
+	'quarantined',
+	'retired'
+] as const;
 /** A stencil state. */
 export type StencilState = (typeof STENCIL_STATES)[number];
 
@@ -29,7 +36,10 @@ export const STENCIL_LIFE_WARN_PCT = 90;
  * Why a stencil may not move from one state to another, or null when it may.
  * @example stencilTransitionProblem('retired', 'available') // 'a retired stencil cannot change state'
  */
-export function stencilTransitionProblem(from: StencilState, to: StencilState | string): string | null {
+export function stencilTransitionProblem(
+	from: StencilState,
+	to: StencilState | string
+): string | null {
 	if (!(STENCIL_STATES as readonly string[]).includes(to)) {
 		return `state must be one of ${STENCIL_STATES.join(', ')} (got ${JSON.stringify(to)})`;
 	}
@@ -52,7 +62,13 @@ export interface StencilForRun {
 
 /** One reason with a stable code for the UI. */
 export interface StencilReason {
-	code: 'retired' | 'out-for-cleaning' | 'quarantined' | 'past-rated-life' | 'near-rated-life' | 'invalid';
+	code:
+		| 'retired'
+		| 'out-for-cleaning'
+		| 'quarantined'
+		| 'past-rated-life'
+		| 'near-rated-life'
+		| 'invalid';
 	message: string;
 }
 
@@ -92,14 +108,17 @@ export function assessStencilForRun(
 		overridden: false
 	});
 	if (!(STENCIL_STATES as readonly string[]).includes(state)) {
-		return invalid(`${name}: state must be one of ${STENCIL_STATES.join(', ')} (got ${JSON.stringify(state)})`);
+		const states = STENCIL_STATES.join(', ');
+		return invalid(`${name}: state must be one of ${states} (got ${describeValue(state)})`);
 	}
-	if (typeof printCount !== 'number' || !Number.isInteger(printCount) || printCount < 0) {
-		return invalid(`${name}: printCount must be a whole number ≥ 0 (got ${String(printCount)})`);
+	if (!isWholeNumber(printCount) || printCount < 0) {
+		const got = describeValue(printCount);
+		return invalid(`${name}: printCount must be a whole number ≥ 0 (got ${got})`);
 	}
 	const hasLife = ratedLifePrints !== null && ratedLifePrints !== undefined;
-	if (hasLife && (typeof ratedLifePrints !== 'number' || !Number.isInteger(ratedLifePrints) || ratedLifePrints <= 0)) {
-		return invalid(`${name}: ratedLifePrints must be a whole number > 0 (got ${String(ratedLifePrints)})`);
+	if (hasLife && (!isWholeNumber(ratedLifePrints) || ratedLifePrints <= 0)) {
+		const got = describeValue(ratedLifePrints);
+		return invalid(`${name}: ratedLifePrints must be a whole number > 0 (got ${got})`);
 	}
 	const lifeUsedPct = hasLife ? (printCount / (ratedLifePrints as number)) * 100 : null;
 	const lifeText = hasLife ? `${printCount} of ${ratedLifePrints} prints` : '';
@@ -107,19 +126,33 @@ export function assessStencilForRun(
 	// Each refusal: its code, what is wrong, and what to do; the first applicable one wins.
 	let refusal: { code: StencilReason['code']; what: string; todo: string } | undefined;
 	let canOverride = false;
-	if (state === 'retired') refusal = { code: 'retired', what: `${name} is retired`, todo: 'use another stencil' };
-	else if (state === 'out-for-cleaning') {
-		refusal = { code: 'out-for-cleaning', what: `${name} is out for cleaning`, todo: 'log it back as available first' };
+	if (state === 'retired') {
+		refusal = { code: 'retired', what: `${name} is retired`, todo: 'use another stencil' };
+	} else if (state === 'out-for-cleaning') {
+		refusal = {
+			code: 'out-for-cleaning',
+			what: `${name} is out for cleaning`,
+			todo: 'log it back as available first'
+		};
 	} else if (state === 'quarantined') {
-		refusal = { code: 'quarantined', what: `${name} is quarantined`, todo: 'an engineer must release it or override with a reason' };
+		refusal = {
+			code: 'quarantined',
+			what: `${name} is quarantined`,
+			todo: 'an engineer must release it or override with a reason'
+		};
 		canOverride = true;
 	} else if (lifeUsedPct !== null && lifeUsedPct >= 100) {
-		refusal = { code: 'past-rated-life', what: `${name} has reached its rated life (${lifeText})`, todo: 'an engineer must override with a reason' };
+		refusal = {
+			code: 'past-rated-life',
+			what: `${name} has reached its rated life (${lifeText})`,
+			todo: 'an engineer must override with a reason'
+		};
 		canOverride = true;
 	}
 
 	let warn: StencilReason | undefined;
-	if (lifeUsedPct !== null && lifeUsedPct >= STENCIL_LIFE_WARN_PCT && refusal?.code !== 'past-rated-life') {
+	const nearLife = lifeUsedPct !== null && lifeUsedPct >= STENCIL_LIFE_WARN_PCT;
+	if (lifeUsedPct !== null && nearLife && refusal?.code !== 'past-rated-life') {
 		warn = {
 			code: lifeUsedPct >= 100 ? 'past-rated-life' : 'near-rated-life',
 			message: `${name} has used ${formatPct(lifeUsedPct)} % of its rated life (${lifeText})`
@@ -136,7 +169,18 @@ export function assessStencilForRun(
 		};
 	}
 	const refuse = refusal && { code: refusal.code, message: `${refusal.what}: ${refusal.todo}` };
-	return { ...(refuse && { refuse }), ...(warn && { warn }), lifeUsedPct, canOverride, overridden: false };
+	return {
+		...(refuse && { refuse }),
+		...(warn && { warn }),
+		lifeUsedPct,
+		canOverride,
+		overridden: false
+	};
+}
+
+/** True for a finite whole number (narrows the type). */
+function isWholeNumber(value: unknown): value is number {
+	return typeof value === 'number' && Number.isInteger(value);
 }
 
 /** Percent for messages: one decimal, trailing .0 dropped. */

@@ -31,7 +31,7 @@ describe('checkTensionReadings', () => {
 
 	it('refuses a bad minimum setting', () => {
 		expect(checkTensionReadings([40], { minTensionNPerCm: 0 }).errors.map(formatFieldError)).toEqual([
-			'minTensionNPerCm: must be a number from 0 to 100 N/cm (got 0)'
+			'minTensionNPerCm: must be > 0 and ≤ 100 N/cm (got 0)'
 		]);
 	});
 });

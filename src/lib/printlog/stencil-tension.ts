@@ -41,8 +41,11 @@ export function checkTensionReadings(
 ): TensionCheck {
 	const errors: FieldError[] = [];
 	const min = settings.minTensionNPerCm;
-	if (typeof min !== 'number' || !Number.isFinite(min) || min <= 0 || min > MAX_PLAUSIBLE_TENSION_N_PER_CM) {
-		errors.push({ field: 'minTensionNPerCm', message: `must be a number from 0 to ${MAX_PLAUSIBLE_TENSION_N_PER_CM} N/cm (got ${describeValue(min)})` });
+	if (!isPlausibleTension(min)) {
+		errors.push({
+			field: 'minTensionNPerCm',
+			message: `must be > 0 and ≤ ${MAX_PLAUSIBLE_TENSION_N_PER_CM} N/cm (got ${describeValue(min)})`
+		});
 	}
 	if (!Array.isArray(readingsNPerCm) || readingsNPerCm.length === 0) {
 		errors.push({ field: 'readings', message: 'must list at least one reading in N/cm' });
@@ -51,8 +54,11 @@ export function checkTensionReadings(
 	const valid: number[] = [];
 	const low: { index: number; valueNPerCm: number }[] = [];
 	readingsNPerCm.forEach((value, index) => {
-		if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0 || value > MAX_PLAUSIBLE_TENSION_N_PER_CM) {
-			errors.push({ field: `readings[${index}]`, message: `must be a tension in N/cm, > 0 and ≤ ${MAX_PLAUSIBLE_TENSION_N_PER_CM} (got ${describeValue(value)})` });
+		if (!isPlausibleTension(value)) {
+			errors.push({
+				field: `readings[${index}]`,
+				message: `must be a tension in N/cm, > 0 and ≤ ${MAX_PLAUSIBLE_TENSION_N_PER_CM} (got ${describeValue(value)})`
+			});
 			return;
 		}
 		valid.push(value);
@@ -61,4 +67,14 @@ export function checkTensionReadings(
 	const minimumNPerCm = valid.length > 0 ? Math.min(...valid) : null;
 	const meanNPerCm = valid.length > 0 ? valid.reduce((a, b) => a + b, 0) / valid.length : null;
 	return { errors, low, minimumNPerCm, meanNPerCm, pass: errors.length === 0 && low.length === 0 };
+}
+
+/** A finite tension > 0 and ≤ the plausibility limit (narrows the type). */
+function isPlausibleTension(value: unknown): value is number {
+	return (
+		typeof value === 'number' &&
+		Number.isFinite(value) &&
+		value > 0 &&
+		value <= MAX_PLAUSIBLE_TENSION_N_PER_CM
+	);
 }

@@ -1,9 +1,9 @@
 import { describeValue, PrintlogInputError } from './field-error';
 
-/** A point in time as the print log accepts it: a Date, epoch milliseconds or an ISO 8601 string. */
+/** A point in time as the print log accepts it: a Date, epoch ms or an ISO 8601 string. */
 export type Instant = Date | number | string;
 
-/** ISO 8601 date (`2026-03-01`) or date-time with `Z` or an offset (`2026-03-01T08:00:00+01:00`). */
+/** ISO 8601 date (`2026-03-01`) or date-time with `Z` or offset (`2026-03-01T08:00:00+01:00`). */
 const ISO_INSTANT =
 	/^\d{4}-\d{2}-\d{2}(?:T\d{2}:\d{2}(?::\d{2}(?:\.\d{1,3})?)?(?:Z|[+-]\d{2}:\d{2}))?$/i;
 
@@ -18,8 +18,7 @@ export function toEpochMs(value: Instant, field: string): number {
 	let ms: number;
 	if (value instanceof Date) ms = value.getTime();
 	else if (typeof value === 'number') ms = value;
-	else if (typeof value === 'string' && ISO_INSTANT.test(value.trim()) && isCalendarDate(value.trim()))
-		ms = Date.parse(value.trim());
+	else if (typeof value === 'string' && isIsoInstant(value.trim())) ms = Date.parse(value.trim());
 	else ms = Number.NaN;
 	if (!Number.isFinite(ms)) {
 		throw new PrintlogInputError([
@@ -32,9 +31,12 @@ export function toEpochMs(value: Instant, field: string): number {
 	return ms;
 }
 
-/** True when the leading `YYYY-MM-DD` is a real calendar day (Date.parse rolls 02-30 into March). */
-function isCalendarDate(text: string): boolean {
+/** ISO form with a zone, on a real calendar day (Date.parse would roll 02-30 into March). */
+function isIsoInstant(text: string): boolean {
+	if (!ISO_INSTANT.test(text)) return false;
 	const [year, month, day] = text.slice(0, 10).split('-').map(Number);
 	const date = new Date(Date.UTC(year, month - 1, day));
-	return date.getUTCFullYear() === year && date.getUTCMonth() === month - 1 && date.getUTCDate() === day;
+	return (
+		date.getUTCFullYear() === year && date.getUTCMonth() === month - 1 && date.getUTCDate() === day
+	);
 }

@@ -27,7 +27,8 @@ export type WipeModeParse =
  */
 export function parseWipeMode(text: unknown, field = 'wipeMode'): WipeModeParse {
 	if (typeof text !== 'string' || text.trim() === '') {
-		return { ok: false, error: { field, message: `must name at least one of wet, vacuum, dry (got ${describeValue(text)})` } };
+		const message = `must name at least one of wet, vacuum, dry (got ${describeValue(text)})`;
+		return { ok: false, error: { field, message } };
 	}
 	const parts = text
 		.trim()
@@ -36,13 +37,9 @@ export function parseWipeMode(text: unknown, field = 'wipeMode'): WipeModeParse 
 		.filter((part) => part !== '');
 	const unknown = parts.filter((part) => !(WIPE_STEPS as readonly string[]).includes(part));
 	if (unknown.length > 0 || parts.length === 0) {
-		return {
-			ok: false,
-			error: {
-				field,
-				message: `unknown wipe step ${unknown.map((u) => `'${u}'`).join(', ') || "''"} in ${JSON.stringify(text)}: use wet, vacuum, dry, e.g. 'wet-vacuum-dry'`
-			}
-		};
+		const listed = unknown.map((u) => `'${u}'`).join(', ') || "''";
+		const message = `unknown wipe step ${listed} in ${JSON.stringify(text)}: use wet, vacuum, dry, e.g. 'wet-vacuum-dry'`;
+		return { ok: false, error: { field, message } };
 	}
 	const steps = WIPE_STEPS.filter((step) => parts.includes(step));
 	return { ok: true, steps, canonical: steps.join('-') };

@@ -32,12 +32,15 @@ const code = z.string().trim().min(1, 'must not be blank').max(64, 'must be at m
 const text = z.string().trim().max(500, 'must be at most 500 characters');
 
 /** An instant with an explicit zone (`Z` or offset), as the tablet sends it. */
-const instant = z.iso.datetime({ offset: true, error: 'must be an ISO 8601 date-time with a time zone, e.g. 2026-03-02T08:00:00Z' });
+const instant = z.iso.datetime({
+	offset: true,
+	error: 'must be an ISO 8601 date-time with a time zone, e.g. 2026-03-02T08:00:00Z'
+});
 
 /** Push the print-log rule errors onto the zod context, paths relative to `base`. */
-function addFieldErrors(ctx: z.RefinementCtx, errors: readonly FieldError[], base: (string | number)[] = []) {
+function addFieldErrors(ctx: z.RefinementCtx, errors: readonly FieldError[]) {
 	for (const error of errors) {
-		ctx.addIssue({ code: 'custom', message: error.message, path: [...base, ...toPath(error.field)] });
+		ctx.addIssue({ code: 'custom', message: error.message, path: toPath(error.field) });
 	}
 }
 
@@ -53,7 +56,9 @@ function toPath(field: string): (string | number)[] {
 function windowSchema(key: WindowedParameterKey) {
 	return z
 		.strictObject({ min: z.number(), target: z.number(), max: z.number() })
-		.superRefine((window, ctx) => addFieldErrors(ctx, validateWindow(key, window, 'w').map(stripPrefix)));
+		.superRefine((window, ctx) => {
+			addFieldErrors(ctx, validateWindow(key, window, 'w').map(stripPrefix));
+		});
 }
 
 /** Drop the placeholder prefix `w.` used to get relative paths from validateWindow. */
@@ -81,7 +86,8 @@ function categoricalValue(key: CategoricalParameterKey) {
 
 /** Build a strict object with one optional entry per key. */
 function entries<K extends string, S extends z.ZodType>(keys: readonly K[], make: (key: K) => S) {
-	return Object.fromEntries(keys.map((key) => [key, make(key).optional()])) as { [P in K]: z.ZodOptional<S> };
+	const shape = Object.fromEntries(keys.map((key) => [key, make(key).optional()]));
+	return shape as { [P in K]: z.ZodOptional<S> };
 }
 
 /** `POST /api/recipes`: a window per numeric parameter, an expected value per categorical one. */
@@ -98,13 +104,20 @@ export const recipeSchema = z.strictObject({
 		.superRefine((parameters, ctx) => {
 			for (const key of REQUIRED_RECIPE_PARAMETERS) {
 				if (parameters[key] === undefined) {
-					ctx.addIssue({ code: 'custom', message: 'is required: give a window { min, target, max }', path: [key] });
+					ctx.addIssue({
+						code: 'custom',
+						message: 'is required: give a window { min, target, max }',
+						path: [key]
+					});
 				}
 			}
 		})
 });
 
-/** `POST /api/print-runs`. The route answers 201 `{ id, deviations }`, or 422 naming parameters whose deviation lacks a reason. */
+/**
+ * `POST /api/print-runs`. The route answers 201 `{ id, deviations }`, or 422 naming the
+ * parameters whose deviation lacks a reason (see deviationReasonErrors in $lib/printlog).
+ */
 export const printRunSchema = z.strictObject({
 	line: code,
 	product: code,
@@ -116,11 +129,24 @@ export const printRunSchema = z.strictObject({
 	}),
 	// partialRecord: a plain record with enum keys would demand a reason for every parameter.
 	deviationReasons: z
-		.partialRecord(z.enum([...NUMERIC_PARAMETER_KEYS, ...CATEGORICAL_PARAMETER_KEYS, 'ambientTempC', 'relativeHumidityPct']), text)
+		.partialRecord(
+			z.enum([
+				...NUMERIC_PARAMETER_KEYS,
+				...CATEGORICAL_PARAMETER_KEYS,
+				'ambientTempC',
+				'relativeHumidityPct'
+			]),
+			text
+		)
 		.optional(),
 	ambientTempC: actualValue('ambientTempC').optional(),
 	relativeHumidityPct: actualValue('relativeHumidityPct').optional(),
-	boardsPrinted: z.number().int('must be a whole number').min(0, 'must be ≥ 0').max(1_000_000, 'must be ≤ 1000000').optional(),
+	boardsPrinted: z
+		.number()
+		.int('must be a whole number')
+		.min(0, 'must be ≥ 0')
+		.max(1_000_000, 'must be ≤ 1000000')
+		.optional(),
 	startedAt: instant.optional(),
 	bladeCode: code.optional(),
 	overrideReason: text.optional()
@@ -171,9 +197,13 @@ export type PasteEventPayload = z.output<typeof pasteEventSchema>;
  */
 export function fieldErrorsFromZod(error: z.ZodError): FieldError[] {
 	return error.issues.map((issue) => ({
-		field: issue.path
-			.map((part, i) => (typeof part === 'number' ? `[${part}]` : `${i === 0 ? '' : '.'}${String(part)}`))
-			.join('') || '(body)',
+		field:
+			issue.path
+				.map((part, i) => {
+					if (typeof part === 'number') return `[${part}]`;
+					return `${i === 0 ? '' : '.'}${String(part)}`;
+				})
+				.join('') || '(body)',
 		message: issue.message
 	}));
 }
