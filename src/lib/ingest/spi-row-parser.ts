@@ -74,6 +74,40 @@ const MAX_RECORD_CHARS = 65536;
 
 const RESULT_CODES = { pass: 0, warn: 1, fail: 2 } as const;
 
+/**
+ * Offset of the first byte that breaks UTF-8 (RFC 3629 §4 syntax: no overlongs, no surrogates,
+ * ≤ U+10FFFF), or -1 when the bytes are valid up to a possibly cut-off final sequence.
+ */
+function firstInvalidUtf8Byte(bytes: Uint8Array): number {
+	let i = 0;
+	while (i < bytes.length) {
+		const b = bytes[i];
+		let need: number;
+		let lo = 0x80;
+		let hi = 0xbf;
+		if (b < 0x80) {
+			i++;
+			continue;
+		} else if (b >= 0xc2 && b <= 0xdf) need = 1;
+		else if (b >= 0xe0 && b <= 0xef) {
+			need = 2;
+			if (b === 0xe0) lo = 0xa0;
+			if (b === 0xed) hi = 0x9f;
+		} else if (b >= 0xf0 && b <= 0xf4) {
+			need = 3;
+			if (b === 0xf0) lo = 0x90;
+			if (b === 0xf4) hi = 0x8f;
+		} else return i;
+		for (let k = 1; k <= need; k++) {
+			if (i + k >= bytes.length) return -1;
+			const c = bytes[i + k];
+			if (c < (k === 1 ? lo : 0x80) || c > (k === 1 ? hi : 0xbf)) return i;
+		}
+		i += need + 1;
+	}
+	return -1;
+}
+
 /** Non-negative integer of 1–5 plain digits in text[start, end), spaces around allowed; else NaN. */
 function readIndex(text: string, start: number, end: number): number {
 	while (start < end && text.charCodeAt(start) === 32) start++;
@@ -95,7 +129,7 @@ function baseName(fileName: string): string {
 
 function rangeText(field: keyof typeof FIELD_RANGES, unit: string): string {
 	const r = FIELD_RANGES[field];
-	return `${r.min}–${r.max}${unit}`;
+	return `${r.min} to ${r.max}${unit}`;
 }
 
 /**
@@ -562,8 +596,11 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			firstText = false;
 			if (data.charCodeAt(0) === 0xfeff) data = data.slice(1);
 		}
-		if (data.indexOf('\u0000') >= 0) {
-			fileError('file is not text (it contains NUL bytes); is it a binary export?');
+		const nul = data.indexOf('\u0000');
+		if (nul >= 0) {
+			let line = lineNo + 1;
+			for (let i = 0; i < nul; i++) if (data.charCodeAt(i) === 10) line++;
+			fileError(`file is not text: NUL character on line ${line}; is it a binary export?`);
 			return;
 		}
 		let start = 0;
@@ -594,10 +631,19 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		}
 	}
 
+	/** 1-based file line of byte `offset` of `chunk` (for file-level encoding errors). */
+	function lineAtByte(chunk: Uint8Array, offset: number): number {
+		let line = lineNo + 1;
+		for (let i = 0; i < carry.length; i++) if (carry.charCodeAt(i) === 10) line++;
+		for (let i = 0; i < offset; i++) if (chunk[i] === 10) line++;
+		return line;
+	}
+
 	function decode(chunk: Uint8Array): string | null {
-		if (chunk.indexOf(0) >= 0) {
+		const nul = chunk.indexOf(0);
+		if (nul >= 0) {
 			fileError(
-				`file is not text: NUL byte at byte ${bytesSeen + chunk.indexOf(0)}; is it a binary export?`
+				`file is not text: NUL byte at byte ${bytesSeen + nul} (line ${lineAtByte(chunk, nul)}); is it a binary export?`
 			);
 			return null;
 		}
@@ -607,9 +653,13 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			bytesSeen += chunk.length;
 			return textChunk;
 		} catch {
-			fileError(
-				`file is not valid UTF-8 text (bad bytes between byte ${bytesSeen} and ${bytesSeen + chunk.length}); save it as UTF-8`
-			);
+			// Error path only: find the offending byte for the message.
+			const bad = firstInvalidUtf8Byte(chunk);
+			const where =
+				bad < 0
+					? `near byte ${bytesSeen}`
+					: `byte 0x${chunk[bad].toString(16).toUpperCase().padStart(2, '0')} at byte ${bytesSeen + bad}, line ${lineAtByte(chunk, bad)}`;
+			fileError(`file is not valid UTF-8 text (${where}); save or export it as UTF-8`);
 			return null;
 		}
 	}
@@ -625,8 +675,14 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			if (ended || fileFailed) return take();
 			let textChunk: string | null;
 			if (typeof chunk === 'string') {
-				if (chunk.indexOf('\uFFFD') >= 0) {
-					fileError('file is not valid UTF-8 text (it contains replacement characters �)');
+				const replacement = chunk.indexOf('\uFFFD');
+				if (replacement >= 0) {
+					let line = lineNo + 1;
+					const before = carry + chunk.slice(0, replacement);
+					for (let i = 0; i < before.length; i++) if (before.charCodeAt(i) === 10) line++;
+					fileError(
+						`file is not valid UTF-8 text (replacement character U+FFFD on line ${line}); it was decoded with the wrong encoding`
+					);
 					return take();
 				}
 				textChunk = chunk;
