@@ -30,7 +30,11 @@ export function assignRefdesFromCentroids(
 ): RefdesAssignment {
 	if (!Number.isFinite(maxDistanceUm) || maxDistanceUm <= 0)
 		throw new StencilInputError([
-			{ where: 'refdes assignment', field: 'maxDistanceUm', message: `must be a finite number greater than 0 (got ${maxDistanceUm})` }
+			{
+				where: 'refdes assignment',
+				field: 'maxDistanceUm',
+				message: `must be a finite number greater than 0 (got ${maxDistanceUm})`
+			}
 		]);
 	const cell = maxDistanceUm;
 	const grid = new Map<string, number[]>();

@@ -110,9 +110,17 @@ export function compareRevisions(
 		] as const
 	)
 		.filter(([, v]) => !Number.isFinite(v) || v <= 0)
-		.map(([field, v]) => ({ where: 'revision comparison', field, message: `must be a finite number greater than 0 (got ${v})` }));
+		.map(([field, v]) => ({
+			where: 'revision comparison',
+			field,
+			message: `must be a finite number greater than 0 (got ${v})`
+		}));
 	if (!Number.isFinite(sizeTol) || sizeTol < 0)
-		problems.push({ where: 'revision comparison', field: 'sizeToleranceUm', message: `must be a finite number ≥ 0 (got ${sizeTol})` });
+		problems.push({
+			where: 'revision comparison',
+			field: 'sizeToleranceUm',
+			message: `must be a finite number ≥ 0 (got ${sizeTol})`
+		});
 	if (problems.length > 0) throw new StencilInputError(problems);
 	oldApertures.forEach((a, i) => apertureGeometry(a, i));
 	newApertures.forEach((a, i) => apertureGeometry(a, i));

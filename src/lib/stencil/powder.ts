@@ -23,20 +23,39 @@ export interface PowderSize {
 	maxTenPercentSmallerThanUm: number;
 }
 
+function row(
+	type: PowderType,
+	noneLargerThanUm: number,
+	underOnePercentLargerThanUm: number,
+	mainRangeMinUm: number,
+	mainRangeMaxUm: number,
+	maxTenPercentSmallerThanUm: number
+): PowderSize {
+	return {
+		type,
+		noneLargerThanUm,
+		underOnePercentLargerThanUm,
+		mainRangeMinUm,
+		mainRangeMaxUm,
+		maxTenPercentSmallerThanUm
+	};
+}
+
 /**
  * J-STD-005 Table 3-2 as remembered (see the reference file: main ranges of Types 3–7 are
- * confirmed by trade sources; the other columns and Type 8 are from memory).
+ * confirmed by trade sources; Types 1, 2 and 8 and the other columns are from memory).
  */
 export const POWDER_SIZES: readonly PowderSize[] = Object.freeze([
-	{ type: 1, noneLargerThanUm: 160, underOnePercentLargerThanUm: 150, mainRangeMinUm: 75, mainRangeMaxUm: 150, maxTenPercentSmallerThanUm: 20 },
-	{ type: 2, noneLargerThanUm: 80, underOnePercentLargerThanUm: 75, mainRangeMinUm: 45, mainRangeMaxUm: 75, maxTenPercentSmallerThanUm: 20 },
-	{ type: 3, noneLargerThanUm: 50, underOnePercentLargerThanUm: 45, mainRangeMinUm: 25, mainRangeMaxUm: 45, maxTenPercentSmallerThanUm: 20 },
-	{ type: 4, noneLargerThanUm: 40, underOnePercentLargerThanUm: 38, mainRangeMinUm: 20, mainRangeMaxUm: 38, maxTenPercentSmallerThanUm: 20 },
-	{ type: 5, noneLargerThanUm: 30, underOnePercentLargerThanUm: 25, mainRangeMinUm: 15, mainRangeMaxUm: 25, maxTenPercentSmallerThanUm: 15 },
-	{ type: 6, noneLargerThanUm: 20, underOnePercentLargerThanUm: 15, mainRangeMinUm: 5, mainRangeMaxUm: 15, maxTenPercentSmallerThanUm: 5 },
-	{ type: 7, noneLargerThanUm: 15, underOnePercentLargerThanUm: 11, mainRangeMinUm: 2, mainRangeMaxUm: 11, maxTenPercentSmallerThanUm: 2 },
-	{ type: 8, noneLargerThanUm: 11, underOnePercentLargerThanUm: 10, mainRangeMinUm: 2, mainRangeMaxUm: 8, maxTenPercentSmallerThanUm: 2 }
-] as PowderSize[]);
+	// type, none larger than, < 1 % larger than, main range min–max, ≤ 10 % smaller than
+	row(1, 160, 150, 75, 150, 20),
+	row(2, 80, 75, 45, 75, 20),
+	row(3, 50, 45, 25, 45, 20),
+	row(4, 40, 38, 20, 38, 20),
+	row(5, 30, 25, 15, 25, 15),
+	row(6, 20, 15, 5, 15, 5),
+	row(7, 15, 11, 2, 11, 2),
+	row(8, 11, 10, 2, 8, 2)
+]);
 
 /** Five-ball rule (common practice): at least this many of the largest particles across. */
 export const DEFAULT_MIN_PARTICLES_ACROSS = 5;
@@ -47,9 +66,10 @@ export const DEFAULT_MIN_PARTICLES_ACROSS = 5;
  * @example largestParticleUm(4) // 38
  */
 export function largestParticleUm(type: PowderType): number {
-	const row = POWDER_SIZES.find((p) => p.type === type);
-	if (!row) throw new RangeError(`powder, type: unknown J-STD-005 type ${String(type)}; expected 1–8`);
-	return row.mainRangeMaxUm;
+	const found = POWDER_SIZES.find((p) => p.type === type);
+	if (!found)
+		throw new RangeError(`powder, type: unknown J-STD-005 type ${String(type)}; expected 1–8`);
+	return found.mainRangeMaxUm;
 }
 
 /**
@@ -95,7 +115,10 @@ export function powderWarnings(
 				label: apertureLabel(a, index),
 				minDimensionUm: d,
 				particlesAcross: across,
-				message: `${apertureLabel(a, index)}: only ${across.toFixed(2)} Type ${type} particles (${particle} µm) fit across ${d.toFixed(1)} µm; at least ${minParticlesAcross} are recommended`
+				message:
+					`${apertureLabel(a, index)}: only ${across.toFixed(2)} Type ${type} particles ` +
+					`(${particle} µm) fit across ${d.toFixed(1)} µm; ` +
+					`at least ${minParticlesAcross} are recommended`
 			});
 	});
 	return warnings;
@@ -146,7 +169,9 @@ export function suggestPowderType(
 		limitingLabel: label,
 		limitingMinDimensionUm: minDim,
 		message: fit
-			? `Type ${fit.type}: the narrowest opening, ${label} at ${minDim.toFixed(1)} µm, holds ${(minDim / fit.mainRangeMaxUm).toFixed(2)} particles of up to ${fit.mainRangeMaxUm} µm`
-			: `no J-STD-005 type fits: ${label} is only ${minDim.toFixed(1)} µm wide, below ${minParticlesAcross} × ${POWDER_SIZES[POWDER_SIZES.length - 1].mainRangeMaxUm} µm`
+			? `Type ${fit.type}: the narrowest opening, ${label} at ${minDim.toFixed(1)} µm, ` +
+				`holds ${(minDim / fit.mainRangeMaxUm).toFixed(2)} particles of up to ${fit.mainRangeMaxUm} µm`
+			: `no J-STD-005 type fits: ${label} is only ${minDim.toFixed(1)} µm wide, ` +
+				`below ${minParticlesAcross} × ${POWDER_SIZES[POWDER_SIZES.length - 1].mainRangeMaxUm} µm`
 	};
 }
