@@ -48,18 +48,22 @@ export interface AnalyzeResult {
 }
 
 /** Outcome of `analyzeStudy`: a result (HTTP 200) or field errors (HTTP 422). */
-export type AnalyzeOutcome = { ok: true; result: AnalyzeResult } | { ok: false; errors: FieldError[] };
+export type AnalyzeOutcome =
+	| { ok: true; result: AnalyzeResult }
+	| { ok: false; errors: FieldError[] };
 
 const CHART_NAMES = { 'xbar-r': 'X-bar/R', 'xbar-s': 'X-bar/S', 'i-mr': 'I-MR' } as const;
 
 function fieldPath(path: readonly PropertyKey[]): string {
-	return path.reduce<string>(
-		(acc, key) => (typeof key === 'number' ? `${acc}[${key}]` : acc ? `${acc}.${String(key)}` : String(key)),
-		''
-	) || 'body';
+	let out = '';
+	for (const key of path) {
+		if (typeof key === 'number') out += `[${key}]`;
+		else out += out ? `.${String(key)}` : String(key);
+	}
+	return out || 'body';
 }
 
-/** The data to chart: subgroups for X̄ charts, values for I-MR (single-value subgroups accepted). */
+/** The data to chart: subgroups for X̄ charts, values for I-MR (single-value subgroups too). */
 function chartData(req: SpcAnalyzeRequest): { data: number[][] | number[] } | FieldError {
 	const name = CHART_NAMES[req.chart];
 	if (req.chart === 'i-mr') {
@@ -75,7 +79,9 @@ function chartData(req: SpcAnalyzeRequest): { data: number[][] | number[] } | Fi
 	if (req.subgroups) return { data: req.subgroups };
 	return {
 		field: 'subgroups',
-		message: `is required for chart '${req.chart}' (${name} needs an array of subgroups; 'values' is for 'i-mr')`
+		message:
+			`is required for chart '${req.chart}' ` +
+			`(${name} needs an array of subgroups; 'values' is for 'i-mr')`
 	};
 }
 
@@ -86,7 +92,9 @@ function zeroVariationError(limits: ChartLimits, field: string): FieldError {
 			: `every subgroup ${limits.kind === 'xbar-s' ? 'standard deviation' : 'range'} is 0`;
 	return {
 		field,
-		message: `zero variation: ${what}, so the control limits collapse onto the centre line; check the gauge resolution or the data`
+		message:
+			`zero variation: ${what}, so the control limits collapse onto the centre line; ` +
+			'check the gauge resolution or the data'
 	};
 }
 
@@ -125,8 +133,8 @@ export function analyzeStudy(input: unknown): AnalyzeOutcome {
 	try {
 		chart = buildChart(req.chart, source.data);
 	} catch (e) {
-		if (e instanceof SpcInputError) return { ok: false, errors: [{ field: e.field, message: e.reason }, ...errors] };
-		throw e;
+		if (!(e instanceof SpcInputError)) throw e;
+		return { ok: false, errors: [{ field: e.field, message: e.reason }, ...errors] };
 	}
 	if (!(chart.limits.sigmaWithin > 0)) errors.push(zeroVariationError(chart.limits, dataField));
 	if (errors.length) return { ok: false, errors };
@@ -138,7 +146,9 @@ export function analyzeStudy(input: unknown): AnalyzeOutcome {
 		index: v.index,
 		points: v.points
 	}));
-	const values = Array.isArray(source.data[0]) ? (source.data as number[][]).flat() : (source.data as number[]);
+	const values = Array.isArray(source.data[0])
+		? (source.data as number[][]).flat()
+		: (source.data as number[]);
 	const cap = processCapability({
 		values,
 		sigmaWithin: chart.limits.sigmaWithin,

@@ -37,7 +37,8 @@ export function betweenWithinLimits(
 	points: readonly ChartPoint[],
 	options: LimitOptions = {}
 ): ChartLimits {
-	const within = points[0]?.size > XBAR_R_MAX_SUBGROUP_SIZE ? xbarSLimits(points, options) : xbarRLimits(points, options);
+	const large = points[0]?.size > XBAR_R_MAX_SUBGROUP_SIZE;
+	const within = large ? xbarSLimits(points, options) : xbarRLimits(points, options);
 	const k2 = chartConstants(2);
 	const mr = baselineMovingRangeMean(
 		points.map((p) => p.location),

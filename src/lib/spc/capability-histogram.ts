@@ -40,11 +40,16 @@ export interface HistogramOptions {
  * @throws SpcInputError for non-finite or fewer than 1 value.
  * @example capabilityHistogram([1, 2, 2, 3], { mean: 2, sigmaOverall: 0.8 }).bins.length
  */
-export function capabilityHistogram(values: readonly number[], options: HistogramOptions): CapabilityHistogram {
+export function capabilityHistogram(
+	values: readonly number[],
+	options: HistogramOptions
+): CapabilityHistogram {
 	const xs = validateValues(values, 'values', 1);
 	const n = xs.length;
 	const maxBins = options.maxBins ?? 60;
-	const specs = [options.lsl, options.usl].filter((v): v is number => typeof v === 'number' && Number.isFinite(v));
+	const specs = [options.lsl, options.usl].filter(
+		(v): v is number => typeof v === 'number' && Number.isFinite(v)
+	);
 	const dataLo = Math.min(...xs);
 	const dataHi = Math.max(...xs);
 	let lo = Math.min(dataLo, ...specs);

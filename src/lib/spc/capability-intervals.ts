@@ -26,7 +26,11 @@ function checkLevel(confidenceLevel: number, sampleSize: number, fn: string): vo
  * @throws RangeError for a level outside (0, 1) or n < 2.
  * @example cpkConfidenceInterval(0.625, 30) // { lower: ≈0.425, upper: ≈0.825 }
  */
-export function cpkConfidenceInterval(cpk: number, sampleSize: number, confidenceLevel = 0.95): Interval {
+export function cpkConfidenceInterval(
+	cpk: number,
+	sampleSize: number,
+	confidenceLevel = 0.95
+): Interval {
 	checkLevel(confidenceLevel, sampleSize, 'cpkConfidenceInterval');
 	const z = inverseNormalCdf(1 - (1 - confidenceLevel) / 2);
 	const half = z * Math.sqrt(1 / (9 * sampleSize) + (cpk * cpk) / (2 * (sampleSize - 1)));
@@ -41,7 +45,11 @@ export function cpkConfidenceInterval(cpk: number, sampleSize: number, confidenc
  * @throws RangeError for a level outside (0, 1) or n < 2.
  * @example cpConfidenceInterval(1, 30).lower // ≈ 0.7436
  */
-export function cpConfidenceInterval(cp: number, sampleSize: number, confidenceLevel = 0.95): Interval {
+export function cpConfidenceInterval(
+	cp: number,
+	sampleSize: number,
+	confidenceLevel = 0.95
+): Interval {
 	checkLevel(confidenceLevel, sampleSize, 'cpConfidenceInterval');
 	const alpha = 1 - confidenceLevel;
 	const df = sampleSize - 1;

@@ -1,7 +1,12 @@
 /** Verdict bands of a capability index. */
-export type CapabilityLevel = 'not-capable' | 'marginal' | 'capable' | 'highly-capable' | 'undefined';
+export type CapabilityLevel =
+	| 'not-capable'
+	| 'marginal'
+	| 'capable'
+	| 'highly-capable'
+	| 'undefined';
 
-/** Commonly quoted minimum Cpk for an existing process (common practice; customers set their own). */
+/** Common minimum Cpk for an existing process (common practice; customers set their own). */
 export const CAPABLE_MINIMUM = 1.33;
 /** Commonly asked for new or critical processes and initial studies (common practice). */
 export const HIGHLY_CAPABLE_MINIMUM = 1.67;
@@ -31,17 +36,17 @@ export function capabilityReading(
 	if (index >= CAPABLE_MINIMUM) {
 		return {
 			level: 'capable',
-			text: `${label} ${v} meets the common 1.33 minimum but not the 1.67 often asked for new processes.`
+			text: `${label} ${v} meets the common 1.33 minimum, not the 1.67 often asked for new processes.`
 		};
 	}
 	if (index >= 1) {
 		return {
 			level: 'marginal',
-			text: `${label} ${v} is below the common 1.33 minimum: the spread or centring leaves little margin.`
+			text: `${label} ${v} is below the common 1.33 minimum: spread or centring leave little margin.`
 		};
 	}
 	return {
 		level: 'not-capable',
-		text: `${label} ${v} is below 1.00: out-of-spec results are expected; reduce variation or re-centre.`
+		text: `${label} ${v} is below 1.00: out-of-spec parts expected; reduce spread or re-centre.`
 	};
 }

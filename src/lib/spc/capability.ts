@@ -61,7 +61,12 @@ interface Indices {
 	lower: number | null;
 }
 
-function indices(mu: number, sigma: number | null, lsl: number | null, usl: number | null): Indices {
+function indices(
+	mu: number,
+	sigma: number | null,
+	lsl: number | null,
+	usl: number | null
+): Indices {
 	if (sigma === null || !(sigma > 0)) return { p: null, pk: null, upper: null, lower: null };
 	const upper = usl === null ? null : finiteOrNull((usl - mu) / (3 * sigma));
 	const lower = lsl === null ? null : finiteOrNull((mu - lsl) / (3 * sigma));
@@ -110,11 +115,14 @@ export function processCapability(input: CapabilityInput): CapabilityResult {
 	} else if (lsl === null || usl === null) {
 		notes.push('One-sided specification: Cp and Pp are undefined; Cpk and Ppk use the given side.');
 	}
-	if (sigmaWithin === null) notes.push('Within-subgroup sigma unknown: Cp and Cpk not computed.');
-	else if (sigmaWithin <= 0) {
-		notes.push('Zero within-subgroup variation: Cp and Cpk are undefined (check gauge resolution).');
+	if (sigmaWithin === null) {
+		notes.push('Within-subgroup sigma unknown: Cp and Cpk not computed.');
+	} else if (sigmaWithin <= 0) {
+		notes.push('Zero within-subgroup variation: Cp and Cpk undefined (check gauge resolution).');
 	}
-	if (sigmaOverall <= 0) notes.push('Zero overall variation (all values equal): Pp and Ppk are undefined.');
+	if (sigmaOverall <= 0) {
+		notes.push('Zero overall variation (all values equal): Pp and Ppk are undefined.');
+	}
 
 	const within = indices(mu, sigmaWithin, lsl, usl);
 	const overall = indices(mu, sigmaOverall, lsl, usl);
@@ -123,7 +131,8 @@ export function processCapability(input: CapabilityInput): CapabilityResult {
 		const tau = Math.sqrt(sigmaOverall ** 2 + (mu - target) ** 2);
 		cpm = tau > 0 ? finiteOrNull((usl - lsl) / (6 * tau)) : null;
 	}
-	const ci = (v: number | null, f: typeof cpkConfidenceInterval) => (v === null ? null : f(v, n, level));
+	const ci = (v: number | null, f: typeof cpkConfidenceInterval) =>
+		v === null ? null : f(v, n, level);
 	const cpkReading = capabilityReading(within.pk, 'Cpk');
 	return {
 		n,
@@ -146,7 +155,8 @@ export function processCapability(input: CapabilityInput): CapabilityResult {
 		ppkInterval: ci(overall.pk, cpkConfidenceInterval),
 		expectedWithin:
 			lsl === null && usl === null ? null : expectedOutOfSpec(mu, sigmaWithin ?? 0, lsl, usl),
-		expectedOverall: lsl === null && usl === null ? null : expectedOutOfSpec(mu, sigmaOverall, lsl, usl),
+		expectedOverall:
+			lsl === null && usl === null ? null : expectedOutOfSpec(mu, sigmaOverall, lsl, usl),
 		reading: within.pk === null ? capabilityReading(overall.pk, 'Ppk') : cpkReading,
 		notes
 	};

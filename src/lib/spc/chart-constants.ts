@@ -111,7 +111,9 @@ function rangeSecondMoment(g: Grid, n: number): number {
  * @example c4(2) // √(2/π) = 0.7978845608028654
  */
 export function c4(n: number): number {
-	if (!Number.isInteger(n) || n < 2) throw new RangeError(`c4: n must be an integer ≥ 2, got ${n}`);
+	if (!Number.isInteger(n) || n < 2) {
+		throw new RangeError(`c4: n must be an integer ≥ 2, got ${n}`);
+	}
 	return Math.sqrt(2 / (n - 1)) * Math.exp(logGamma(n / 2) - logGamma((n - 1) / 2));
 }
 
@@ -121,7 +123,12 @@ export function c4(n: number): number {
  * @throws RangeError when n is not an integer ≥ 2.
  * @example standardDeviationFactors(5).B4 // ≈ 2.089
  */
-export function standardDeviationFactors(n: number): { c4: number; A3: number; B3: number; B4: number } {
+export function standardDeviationFactors(n: number): {
+	c4: number;
+	A3: number;
+	B3: number;
+	B4: number;
+} {
 	const c = c4(n);
 	const spread = (3 * Math.sqrt(1 - c * c)) / c;
 	return { c4: c, A3: 3 / (c * Math.sqrt(n)), B3: Math.max(0, 1 - spread), B4: 1 + spread };
@@ -143,7 +150,8 @@ export function chartConstants(n: number): ChartConstants {
 	if (hit) return hit;
 	if (!Number.isInteger(n) || n < MIN_SUBGROUP_SIZE || n > MAX_RANGE_SUBGROUP_SIZE) {
 		throw new RangeError(
-			`chartConstants: n must be an integer from ${MIN_SUBGROUP_SIZE} to ${MAX_RANGE_SUBGROUP_SIZE}, got ${n}`
+			`chartConstants: n must be an integer from ${MIN_SUBGROUP_SIZE} to ` +
+				`${MAX_RANGE_SUBGROUP_SIZE}, got ${n}`
 		);
 	}
 	grid ??= buildGrid();

@@ -25,7 +25,9 @@ export function chiSquareCdf(x: number, degreesOfFreedom: number): number {
 export function chiSquareQuantile(p: number, degreesOfFreedom: number): number {
 	const nu = degreesOfFreedom;
 	if (!(p > 0 && p < 1)) throw new RangeError(`chiSquareQuantile: p must be in (0, 1), got ${p}`);
-	if (!(nu > 0)) throw new RangeError(`chiSquareQuantile: degrees of freedom must be > 0, got ${nu}`);
+	if (!(nu > 0)) {
+		throw new RangeError(`chiSquareQuantile: degrees of freedom must be > 0, got ${nu}`);
+	}
 	const z = inverseNormalCdf(p);
 	const k = 2 / (9 * nu);
 	let x = nu * Math.pow(Math.max(1 - k + z * Math.sqrt(k), 0.01), 3);

@@ -51,7 +51,11 @@ export function computeLimits(
  * @throws SpcInputError as `chartPoints` and `computeLimits`.
  * @example buildChart('xbar-s', subgroups).limits.sigmaWithin
  */
-export function buildChart(kind: ChartKind, data: unknown, options: LimitOptions = {}): ControlChart {
+export function buildChart(
+	kind: ChartKind,
+	data: unknown,
+	options: LimitOptions = {}
+): ControlChart {
 	const points = chartPoints(kind, data);
 	return { points, limits: computeLimits(kind, points, options) };
 }

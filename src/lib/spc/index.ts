@@ -34,7 +34,13 @@ export type {
 	ControlLimits,
 	LimitOptions
 } from './chart-types';
-export { xbarRChart, xbarRLimits, xbarRPoints, XBAR_R_MAX_SUBGROUP_SIZE, XBAR_MIN_SUBGROUPS } from './xbar-r-chart';
+export {
+	xbarRChart,
+	xbarRLimits,
+	xbarRPoints,
+	XBAR_R_MAX_SUBGROUP_SIZE,
+	XBAR_MIN_SUBGROUPS
+} from './xbar-r-chart';
 export { xbarSChart, xbarSLimits, xbarSPoints } from './xbar-s-chart';
 export {
 	individualsChart,
@@ -42,7 +48,11 @@ export {
 	individualsPoints,
 	INDIVIDUALS_MIN_VALUES
 } from './individuals-chart';
-export { betweenWithinChart, betweenWithinLimits, betweenWithinPoints } from './between-within-chart';
+export {
+	betweenWithinChart,
+	betweenWithinLimits,
+	betweenWithinPoints
+} from './between-within-chart';
 export { buildChart, chartPoints, computeLimits } from './control-chart';
 export { evaluateChart, type ChartPart, type Violation } from './evaluate-chart';
 

@@ -70,100 +70,125 @@ export interface RuleHit {
 	points: number[];
 }
 
-interface Position {
-	side: -1 | 0 | 1;
-	level: number;
-	valid: boolean;
+/**
+ * Per-point facts computed once in O(N), so each rule is O(1) per point (a 1,000-point chart
+ * with all twelve rules takes well under a millisecond).
+ */
+interface SeriesFacts {
+	values: readonly number[];
+	valid: boolean[];
+	side: number[];
+	level: number[];
+	/** Length of the run of valid points on the same side ending here (0 on the CL). */
+	sameSide: number[];
+	/** Length of the run of valid Zone-C points ending here. */
+	zoneC: number[];
+	/** Length of the run of valid points beyond 1σ ending here. */
+	outsideC: number[];
+	/** Last index ≤ i above / below the centre line (−1 if none). */
+	lastAbove: number[];
+	lastBelow: number[];
+	/** Points in the strictly increasing / decreasing run ending here. */
+	rising: number[];
+	falling: number[];
+	/** Points in the alternating run ending here. */
+	alternating: number[];
 }
 
-type Detector = (values: readonly number[], pos: readonly Position[], e: number) => number[] | null;
+function seriesFacts(
+	values: readonly number[],
+	limits: ControlLimits,
+	lclClipped: boolean
+): SeriesFacts {
+	const zones = zoneBoundaries(limits, lclClipped);
+	const n = values.length;
+	const f: SeriesFacts = {
+		values,
+		valid: new Array(n),
+		side: new Array(n),
+		level: new Array(n),
+		sameSide: new Array(n),
+		zoneC: new Array(n),
+		outsideC: new Array(n),
+		lastAbove: new Array(n),
+		lastBelow: new Array(n),
+		rising: new Array(n),
+		falling: new Array(n),
+		alternating: new Array(n)
+	};
+	for (let i = 0; i < n; i++) {
+		const v = values[i];
+		const ok = Number.isFinite(v);
+		const { side, level } = zonePosition(v, zones);
+		const prevOk = i > 0 && f.valid[i - 1];
+		f.valid[i] = ok;
+		f.side[i] = side;
+		f.level[i] = level;
+		const continues = prevOk && f.side[i - 1] === side;
+		f.sameSide[i] = !ok || side === 0 ? 0 : continues ? f.sameSide[i - 1] + 1 : 1;
+		f.zoneC[i] = ok && level === 0 ? (i > 0 ? f.zoneC[i - 1] : 0) + 1 : 0;
+		f.outsideC[i] = ok && level >= 1 ? (i > 0 ? f.outsideC[i - 1] : 0) + 1 : 0;
+		f.lastAbove[i] = ok && side === 1 ? i : i > 0 ? f.lastAbove[i - 1] : -1;
+		f.lastBelow[i] = ok && side === -1 ? i : i > 0 ? f.lastBelow[i - 1] : -1;
+		const step = ok && prevOk ? Math.sign(v - values[i - 1]) : NaN;
+		const base = ok ? 1 : 0;
+		f.rising[i] = step === 1 ? f.rising[i - 1] + 1 : base;
+		f.falling[i] = step === -1 ? f.falling[i - 1] + 1 : base;
+		if (step === 1 || step === -1) {
+			const prevStep = f.alternating[i - 1] >= 2 ? Math.sign(values[i - 1] - values[i - 2]) : 0;
+			f.alternating[i] = prevStep === -step ? f.alternating[i - 1] + 1 : 2;
+		} else f.alternating[i] = base;
+	}
+	return f;
+}
+
+type Detector = (f: SeriesFacts, e: number) => number[] | null;
 
 function windowIndices(e: number, m: number): number[] {
 	return Array.from({ length: m }, (_, i) => e - m + 1 + i);
 }
 
-function allValid(pos: readonly Position[], e: number, m: number): boolean {
-	for (let j = e - m + 1; j <= e; j++) if (!pos[j].valid) return false;
-	return true;
-}
-
 /** k of the last m points beyond the `level` line on the same side, the last one included. */
 function kOfM(k: number, m: number, level: number): Detector {
-	return (_values, pos, e) => {
-		if (e < m - 1 || !allValid(pos, e, m)) return null;
-		const side = pos[e].side;
-		if (side === 0 || pos[e].level < level) return null;
-		const hits = windowIndices(e, m).filter((j) => pos[j].side === side && pos[j].level >= level);
+	return (f, e) => {
+		if (e < m - 1 || f.side[e] === 0 || f.level[e] < level || !f.valid[e]) return null;
+		const hits: number[] = [];
+		for (let j = e - m + 1; j <= e; j++) {
+			if (!f.valid[j]) return null;
+			if (f.side[j] === f.side[e] && f.level[j] >= level) hits.push(j);
+		}
 		return hits.length >= k ? hits : null;
 	};
 }
 
-function sameSide(m: number): Detector {
-	return (_values, pos, e) => {
-		if (e < m - 1 || !allValid(pos, e, m) || pos[e].side === 0) return null;
-		const idx = windowIndices(e, m);
-		return idx.every((j) => pos[j].side === pos[e].side) ? idx : null;
-	};
-}
-
-function trend(m: number): Detector {
-	return (values, pos, e) => {
-		if (e < m - 1 || !allValid(pos, e, m)) return null;
-		let up = true;
-		let down = true;
-		for (let j = e - m + 2; j <= e; j++) {
-			if (!(values[j] > values[j - 1])) up = false;
-			if (!(values[j] < values[j - 1])) down = false;
-		}
-		return up || down ? windowIndices(e, m) : null;
-	};
-}
-
-function alternating(m: number): Detector {
-	return (values, pos, e) => {
-		if (e < m - 1 || !allValid(pos, e, m)) return null;
-		let previous = 0;
-		for (let j = e - m + 2; j <= e; j++) {
-			const sign = Math.sign(values[j] - values[j - 1]);
-			if (sign === 0 || sign === previous) return null;
-			previous = sign;
-		}
-		return windowIndices(e, m);
-	};
-}
-
-function allInZoneC(m: number): Detector {
-	return (_values, pos, e) => {
-		if (e < m - 1 || !allValid(pos, e, m)) return null;
-		const idx = windowIndices(e, m);
-		return idx.every((j) => pos[j].level === 0) ? idx : null;
-	};
+/** The rule fires when the run counted in `run` reaches m points. */
+function runOf(m: number, run: (f: SeriesFacts) => number[]): Detector {
+	return (f, e) => (run(f)[e] >= m ? windowIndices(e, m) : null);
 }
 
 function noneInZoneCBothSides(m: number): Detector {
-	return (_values, pos, e) => {
-		if (e < m - 1 || !allValid(pos, e, m)) return null;
-		const idx = windowIndices(e, m);
-		if (!idx.every((j) => pos[j].level >= 1)) return null;
-		const sides = new Set(idx.map((j) => pos[j].side));
-		return sides.has(1) && sides.has(-1) ? idx : null;
-	};
+	return (f, e) =>
+		f.outsideC[e] >= m && f.lastAbove[e] > e - m && f.lastBelow[e] > e - m
+			? windowIndices(e, m)
+			: null;
 }
 
-const beyondLimits: Detector = (_values, pos, e) => (pos[e].valid && pos[e].level >= 3 ? [e] : null);
+const beyondLimits: Detector = (f, e) => (f.valid[e] && f.level[e] >= 3 ? [e] : null);
+const trend = (m: number): Detector => (f, e) =>
+	f.rising[e] >= m || f.falling[e] >= m ? windowIndices(e, m) : null;
 
 const DETECTORS: Record<RuleId, Detector> = {
 	'we-1': beyondLimits,
 	'we-2': kOfM(2, 3, 2),
 	'we-3': kOfM(4, 5, 1),
-	'we-4': sameSide(8),
+	'we-4': runOf(8, (f) => f.sameSide),
 	'nelson-1': beyondLimits,
-	'nelson-2': sameSide(9),
+	'nelson-2': runOf(9, (f) => f.sameSide),
 	'nelson-3': trend(6),
-	'nelson-4': alternating(14),
+	'nelson-4': runOf(14, (f) => f.alternating),
 	'nelson-5': kOfM(2, 3, 2),
 	'nelson-6': kOfM(4, 5, 1),
-	'nelson-7': allInZoneC(15),
+	'nelson-7': runOf(15, (f) => f.zoneC),
 	'nelson-8': noneInZoneCBothSides(8)
 };
 
@@ -174,7 +199,9 @@ const DETECTORS: Record<RuleId, Detector> = {
  * beyond-limit rules (see `evaluateChart`). Non-finite values never signal and break every
  * window that contains them. Output is ordered by index, then by the order of `rules`.
  * @throws RangeError for an unknown rule id.
- * @example detectRunRules([0, 4, 0], { lcl: -3, cl: 0, ucl: 3 }, ['we-1']) // [{ rule: 'we-1', index: 1, points: [1] }]
+ * @example
+ * detectRunRules([0, 4, 0], { lcl: -3, cl: 0, ucl: 3 }, ['we-1'])
+ * // [{ rule: 'we-1', index: 1, points: [1] }]
  */
 export function detectRunRules(
 	values: readonly number[],
@@ -182,8 +209,7 @@ export function detectRunRules(
 	rules: readonly RuleId[] = DEFAULT_RULES,
 	lclClipped = false
 ): RuleHit[] {
-	const zones = zoneBoundaries(limits, lclClipped);
-	const pos: Position[] = values.map((v) => ({ ...zonePosition(v, zones), valid: Number.isFinite(v) }));
+	const facts = seriesFacts(values, limits, lclClipped);
 	const unique = [...new Set(rules)];
 	const detectors = unique.map((rule) => {
 		const detect = DETECTORS[rule];
@@ -193,7 +219,7 @@ export function detectRunRules(
 	const hits: RuleHit[] = [];
 	for (let e = 0; e < values.length; e++) {
 		for (const { rule, detect } of detectors) {
-			const points = detect(values, pos, e);
+			const points = detect(facts, e);
 			if (points) hits.push({ rule, index: e, points });
 		}
 	}

@@ -36,7 +36,10 @@ export interface SubgroupRules {
  * Used by the X̄/R, X̄/S and between/within charts. Mixed sizes are refused with the first
  * offending subgroup index (variable-size limits are not supported).
  * @throws SpcInputError naming `subgroups`, `subgroups[i]` or `subgroups[i][j]`.
- * @example validateSubgroups([[1, 2], [3, 4]], 'subgroups', { chartName: 'X-bar/R', minSubgroups: 2, minSize: 2 })
+ * @example
+ * validateSubgroups([[1, 2], [3, 4]], 'subgroups', {
+ *   chartName: 'X-bar/R', minSubgroups: 2, minSize: 2
+ * })
  */
 export function validateSubgroups(
 	subgroups: unknown,
@@ -44,9 +47,13 @@ export function validateSubgroups(
 	rules: SubgroupRules
 ): number[][] {
 	if (!Array.isArray(subgroups)) throw new SpcInputError(field, 'expected an array of subgroups');
-	if (subgroups.length === 0) throw new SpcInputError(field, 'is empty; give at least one subgroup');
+	if (subgroups.length === 0) {
+		throw new SpcInputError(field, 'is empty; give at least one subgroup');
+	}
 	subgroups.forEach((g, i) => {
-		if (!Array.isArray(g)) throw new SpcInputError(`${field}[${i}]`, 'expected an array of numbers');
+		if (!Array.isArray(g)) {
+			throw new SpcInputError(`${field}[${i}]`, 'expected an array of numbers');
+		}
 		g.forEach((v, j) => checkFinite(v, `${field}[${i}][${j}]`));
 	});
 	const groups = subgroups as number[][];
@@ -55,20 +62,23 @@ export function validateSubgroups(
 		if (g.length !== size) {
 			throw new SpcInputError(
 				`${field}[${i}]`,
-				`has ${g.length} values but subgroup 0 has ${size}; ${rules.chartName} needs equal subgroup sizes`
+				`has ${g.length} values but subgroup 0 has ${size}; ` +
+					`${rules.chartName} needs equal subgroup sizes`
 			);
 		}
 	});
 	if (size < rules.minSize) {
 		throw new SpcInputError(
 			`${field}[0]`,
-			`subgroup size ${size} is below ${rules.minSize} for ${rules.chartName}${rules.tooSmallHint ? `; ${rules.tooSmallHint}` : ''}`
+			`subgroup size ${size} is below ${rules.minSize} for ${rules.chartName}` +
+				(rules.tooSmallHint ? `; ${rules.tooSmallHint}` : '')
 		);
 	}
 	if (rules.maxSize !== undefined && size > rules.maxSize) {
 		throw new SpcInputError(
 			`${field}[0]`,
-			`subgroup size ${size} is above ${rules.maxSize} for ${rules.chartName}${rules.tooLargeHint ? `; ${rules.tooLargeHint}` : ''}`
+			`subgroup size ${size} is above ${rules.maxSize} for ${rules.chartName}` +
+				(rules.tooLargeHint ? `; ${rules.tooLargeHint}` : '')
 		);
 	}
 	if (groups.length < rules.minSubgroups) {
@@ -110,7 +120,8 @@ export function baselineIndices(
 
 function checkFinite(v: unknown, field: string): void {
 	if (typeof v !== 'number') {
-		throw new SpcInputError(field, `is ${JSON.stringify(v) ?? String(v)}, expected a finite number`);
+		const shown = JSON.stringify(v) ?? String(v);
+		throw new SpcInputError(field, `is ${shown}, expected a finite number`);
 	}
 	if (!Number.isFinite(v)) throw new SpcInputError(field, `is ${v}, expected a finite number`);
 }

@@ -32,7 +32,10 @@ export function xbarRPoints(subgroups: unknown): ChartPoint[] {
  * @throws SpcInputError when `exclude` is out of range or leaves < 2 points.
  * @example xbarRLimits(xbarRPoints(data), { exclude: [4] })
  */
-export function xbarRLimits(points: readonly ChartPoint[], options: LimitOptions = {}): ChartLimits {
+export function xbarRLimits(
+	points: readonly ChartPoint[],
+	options: LimitOptions = {}
+): ChartLimits {
 	const n = commonSize(points);
 	const k = chartConstants(n);
 	const kept = baselineIndices(points.length, options.exclude, XBAR_MIN_SUBGROUPS);
@@ -41,7 +44,11 @@ export function xbarRLimits(points: readonly ChartPoint[], options: LimitOptions
 	return {
 		kind: 'xbar-r',
 		subgroupSize: n,
-		location: { lcl: grandMean - k.A2 * meanRange, cl: grandMean, ucl: grandMean + k.A2 * meanRange },
+		location: {
+			lcl: grandMean - k.A2 * meanRange,
+			cl: grandMean,
+			ucl: grandMean + k.A2 * meanRange
+		},
 		dispersion: { lcl: k.D3 * meanRange, cl: meanRange, ucl: k.D4 * meanRange },
 		sigmaWithin: meanRange / k.d2,
 		dispersionLclClipped: 1 - (3 * k.d3) / k.d2 < 0,

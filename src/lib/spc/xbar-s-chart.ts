@@ -32,7 +32,10 @@ export function xbarSPoints(subgroups: unknown): ChartPoint[] {
  * @throws SpcInputError when `exclude` is out of range or leaves < 2 points.
  * @example xbarSLimits(xbarSPoints(data)).dispersion.ucl
  */
-export function xbarSLimits(points: readonly ChartPoint[], options: LimitOptions = {}): ChartLimits {
+export function xbarSLimits(
+	points: readonly ChartPoint[],
+	options: LimitOptions = {}
+): ChartLimits {
 	const n = commonSize(points);
 	const f = standardDeviationFactors(n);
 	const kept = baselineIndices(points.length, options.exclude, XBAR_MIN_SUBGROUPS);

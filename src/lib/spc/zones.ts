@@ -41,9 +41,9 @@ export function zonePosition(
 ): { side: -1 | 0 | 1; level: 0 | 1 | 2 | 3 } {
 	if (!Number.isFinite(value) || value === zones.cl) return { side: 0, level: 0 };
 	if (value > zones.cl) {
-		const level = value > zones.upper[3] ? 3 : value > zones.upper[2] ? 2 : value > zones.upper[1] ? 1 : 0;
-		return { side: 1, level };
+		const u = zones.upper;
+		return { side: 1, level: value > u[3] ? 3 : value > u[2] ? 2 : value > u[1] ? 1 : 0 };
 	}
-	const level = value < zones.lower[3] ? 3 : value < zones.lower[2] ? 2 : value < zones.lower[1] ? 1 : 0;
-	return { side: -1, level };
+	const d = zones.lower;
+	return { side: -1, level: value < d[3] ? 3 : value < d[2] ? 2 : value < d[1] ? 1 : 0 };
 }
