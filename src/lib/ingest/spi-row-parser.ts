@@ -374,8 +374,10 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 
 	// Values of the previous accepted row, reused when a cell repeats them (most cells do).
 	let lastSerial = '';
-	let lastTimeText = '';
+	let lastTimeText = '\u0000'; // never a cell (NUL is refused), so the first row is parsed
 	let lastInspectedAtMs = NaN;
+	let lastBoardSerial = '';
+	let lastBoardMs = NaN;
 	let lastBoardIndex = -1;
 	let lastLine = '';
 	let lastProduct = '';
@@ -476,7 +478,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		// Group into board inspections; board-level fields must agree within one. Rows of a board
 		// are usually contiguous, so the last board is checked before building a map key.
 		let boardIndex: number | undefined;
-		if (serial === lastSerial && inspectedAtMs === lastInspectedAtMs && lastBoardIndex >= 0) {
+		if (serial === lastBoardSerial && inspectedAtMs === lastBoardMs) {
 			boardIndex = lastBoardIndex;
 		} else {
 			boardIndex = boardByKey.get(boardInspectionKey(serial, inspectedAtMs));
@@ -519,6 +521,8 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			batch.newBoards.push(board);
 		}
 		lastSerial = serial;
+		lastBoardSerial = serial;
+		lastBoardMs = inspectedAtMs;
 		lastBoardIndex = boardIndex;
 		boardAccumulators[boardIndex].addMeasures(
 			volumePct,
