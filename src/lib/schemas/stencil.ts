@@ -6,7 +6,11 @@
  */
 import { z } from 'zod';
 import type { ApertureInput } from '../stencil/aperture';
-import { checkAperture, MAX_APERTURE_DIMENSION_UM, MAX_POSITION_UM } from '../stencil/aperture-validation';
+import {
+	checkAperture,
+	MAX_APERTURE_DIMENSION_UM,
+	MAX_POSITION_UM
+} from '../stencil/aperture-validation';
 import { checkStepRegions } from '../stencil/step-regions';
 import { STENCIL_TECHNOLOGIES } from '../stencil/thresholds';
 
@@ -84,7 +88,8 @@ export const stepRegionSchema = z
 	})
 	.superRefine((r, ctx) => {
 		for (const p of checkStepRegions([r]))
-			if (p.field !== 'thicknessUm') ctx.addIssue({ code: 'custom', path: [p.field], message: p.message });
+			if (p.field !== 'thicknessUm')
+				ctx.addIssue({ code: 'custom', path: [p.field], message: p.message });
 	});
 
 /**
@@ -121,5 +126,8 @@ export function formatIssuePath(path: readonly PropertyKey[]): string {
  * @example schemaErrors(aperturesPayloadSchema.safeParse(body).error!)
  */
 export function schemaErrors(error: z.ZodError): { path: string; message: string }[] {
-	return error.issues.map((i) => ({ path: formatIssuePath(i.path) || '(body)', message: i.message }));
+	return error.issues.map((i) => ({
+		path: formatIssuePath(i.path) || '(body)',
+		message: i.message
+	}));
 }

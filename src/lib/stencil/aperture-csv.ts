@@ -10,7 +10,14 @@
 import { toMicrometres, type LengthUnit } from '../units';
 import type { ApertureInput, ApertureShape, PointUm } from './aperture';
 import { checkAperture } from './aperture-validation';
-import { MAX_CSV_ERRORS, csvError, parseNumberCell, readCsvRows, type CsvError, type CsvRow } from './csv-rows';
+import {
+	MAX_CSV_ERRORS,
+	csvError,
+	parseNumberCell,
+	readCsvRows,
+	type CsvError,
+	type CsvRow
+} from './csv-rows';
 
 /** Largest number of apertures accepted in one file. */
 export const MAX_APERTURES_PER_FILE = 50_000;
@@ -96,7 +103,11 @@ function verticesCell(row: CsvRow, errors: CsvError[], scale: number): Parsed<Po
 		const y = xy.length === 2 ? parseNumberCell(xy[1]) : null;
 		if (x === null || y === null) {
 			errors.push(
-				csvError(row.line, 'vertices', `vertex ${k + 1} must be two numbers "x y" (got ${JSON.stringify(parts[k])})`)
+				csvError(
+					row.line,
+					'vertices',
+					`vertex ${k + 1} must be two numbers "x y" (got ${JSON.stringify(parts[k])})`
+				)
 			);
 			return { ok: false };
 		}
@@ -115,7 +126,8 @@ function rowToAperture(row: CsvRow, unit: LengthUnit, errors: CsvError[]): Apert
 			csvError(
 				row.line,
 				'shape',
-				`unknown shape ${JSON.stringify(row.cells['shape'] ?? '')}; expected rectangle, rounded-rectangle, obround, circle or polygon`
+				`unknown shape ${JSON.stringify(row.cells['shape'] ?? '')}; ` +
+					'expected rectangle, rounded-rectangle, obround, circle or polygon'
 			)
 		);
 	}
@@ -174,7 +186,12 @@ export function parseApertureCsv(
 	if (missing.length > 0)
 		return {
 			errors: missing.map((c) =>
-				csvError(1, c, `required column "${c}" is missing from the header (found: ${table.header.filter(Boolean).join(', ')})`)
+				csvError(
+					1,
+					c,
+					`required column "${c}" is missing from the header ` +
+						`(found: ${table.header.filter(Boolean).join(', ')})`
+				)
 			)
 		};
 	const errors: CsvError[] = [];
@@ -185,6 +202,7 @@ export function parseApertureCsv(
 		if (errors.length >= MAX_CSV_ERRORS) break;
 	}
 	if (errors.length > 0) return { errors: errors.slice(0, MAX_CSV_ERRORS) };
-	if (apertures.length === 0) return { errors: [csvError(1, null, 'the file has a header but no aperture rows')] };
+	if (apertures.length === 0)
+		return { errors: [csvError(1, null, 'the file has a header but no aperture rows')] };
 	return { apertures };
 }

@@ -20,7 +20,11 @@ type Problems = InputProblem[];
 
 function checkFinite(value: unknown, where: string, field: string, problems: Problems): boolean {
 	if (typeof value !== 'number' || !Number.isFinite(value)) {
-		problems.push({ where, field, message: `must be a finite number (got ${describeValue(value)})` });
+		problems.push({
+			where,
+			field,
+			message: `must be a finite number (got ${describeValue(value)})`
+		});
 		return false;
 	}
 	return true;
@@ -37,7 +41,7 @@ function checkSize(value: unknown, where: string, field: string, problems: Probl
 		problems.push({
 			where,
 			field,
-			message: `${v} µm exceeds the ${MAX_APERTURE_DIMENSION_UM} µm (100 mm) limit; check the unit`
+			message: `${v} µm exceeds the ${MAX_APERTURE_DIMENSION_UM} µm (100 mm) limit; ` + 'check the unit'
 		});
 		return false;
 	}
@@ -63,11 +67,16 @@ function checkPolygon(vertices: unknown, where: string, problems: Problems): voi
 				message: `must be a pair of finite numbers [x, y] (got ${describeValue(v)})`
 			});
 			ok = false;
-		} else if (Math.abs(v[0]) > MAX_APERTURE_DIMENSION_UM || Math.abs(v[1]) > MAX_APERTURE_DIMENSION_UM) {
+		} else if (
+			Math.abs(v[0]) > MAX_APERTURE_DIMENSION_UM ||
+			Math.abs(v[1]) > MAX_APERTURE_DIMENSION_UM
+		) {
 			problems.push({
 				where,
 				field: `${field}[${k}]`,
-				message: `vertex lies more than ${MAX_APERTURE_DIMENSION_UM} µm from the aperture position; check the unit`
+				message:
+					`vertex lies more than ${MAX_APERTURE_DIMENSION_UM} µm from the aperture position; ` +
+					'check the unit'
 			});
 			ok = false;
 		}
@@ -75,7 +84,11 @@ function checkPolygon(vertices: unknown, where: string, problems: Problems): voi
 	if (!ok) return;
 	const pts = openPolygon(vertices as [number, number][]);
 	if (pts.length < 3) {
-		problems.push({ where, field, message: `a polygon needs at least 3 vertices (got ${pts.length})` });
+		problems.push({
+			where,
+			field,
+			message: `a polygon needs at least 3 vertices (got ${pts.length})`
+		});
 		return;
 	}
 	for (let k = 0; k < pts.length; k++) {
@@ -94,11 +107,14 @@ function checkPolygon(vertices: unknown, where: string, problems: Problems): voi
 		problems.push({
 			where,
 			field,
-			message: `the outline intersects itself (edges ${crossing[0]} and ${crossing[1]}, counting from 0)`
+			message:
+				`the outline intersects itself ` +
+				`(edges ${crossing[0]} and ${crossing[1]}, counting from 0)`
 		});
 		return;
 	}
-	if (polygonAreaUm2(pts) === 0) problems.push({ where, field, message: 'the polygon has zero area' });
+	if (polygonAreaUm2(pts) === 0)
+		problems.push({ where, field, message: 'the polygon has zero area' });
 }
 
 /**
@@ -119,13 +135,19 @@ export function checkAperture(aperture: ApertureInput, index?: number): InputPro
 	for (const field of ['xUm', 'yUm'] as const) {
 		const v = aperture[field];
 		if (Number.isFinite(v) && Math.abs(v) > MAX_POSITION_UM)
-			problems.push({ where, field, message: `${v} µm is beyond ±${MAX_POSITION_UM} µm; check the unit` });
+			problems.push({
+				where,
+				field,
+				message: `${v} µm is beyond ±${MAX_POSITION_UM} µm; check the unit`
+			});
 	}
 	if (!APERTURE_SHAPES.includes(aperture.shape)) {
 		problems.push({
 			where,
 			field: 'shape',
-			message: `unknown shape ${describeValue(aperture.shape)}; expected one of ${APERTURE_SHAPES.join(', ')}`
+			message:
+				`unknown shape ${describeValue(aperture.shape)}; ` +
+				`expected one of ${APERTURE_SHAPES.join(', ')}`
 		});
 		return problems;
 	}
@@ -138,10 +160,18 @@ export function checkAperture(aperture: ApertureInput, index?: number): InputPro
 		const okW = checkSize(aperture.widthUm, where, 'widthUm', problems);
 		const r = aperture.cornerRadiusUm;
 		if (aperture.shape === 'rounded-rectangle' && r === undefined) {
-			problems.push({ where, field: 'cornerRadiusUm', message: 'a rounded rectangle needs a corner radius' });
+			problems.push({
+				where,
+				field: 'cornerRadiusUm',
+				message: 'a rounded rectangle needs a corner radius'
+			});
 		} else if (r !== undefined && checkFinite(r, where, 'cornerRadiusUm', problems)) {
 			if (r < 0) {
-				problems.push({ where, field: 'cornerRadiusUm', message: `must not be negative (got ${r})` });
+				problems.push({
+					where,
+					field: 'cornerRadiusUm',
+					message: `must not be negative (got ${r})`
+				});
 			} else if (okL && okW) {
 				const half = Math.min(aperture.lengthUm!, aperture.widthUm!) / 2;
 				if (r > half)

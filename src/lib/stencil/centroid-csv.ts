@@ -47,7 +47,9 @@ export function parseCentroidCsv(
 	const missing = ['refdes', 'x', 'y'].filter((c) => !table.header.includes(c));
 	if (missing.length > 0)
 		return {
-			errors: missing.map((c) => csvError(1, c, `required column "${c}" is missing from the header`))
+			errors: missing.map((c) =>
+				csvError(1, c, `required column "${c}" is missing from the header`)
+			)
 		};
 	const errors: CsvError[] = [];
 	const centroids: ComponentCentroid[] = [];
@@ -57,12 +59,15 @@ export function parseCentroidCsv(
 		const refdes = row.cells['refdes'];
 		if (!refdes) errors.push(csvError(row.line, 'refdes', 'must not be empty'));
 		else if (firstLine.has(refdes))
-			errors.push(csvError(row.line, 'refdes', `${refdes} already appears on line ${firstLine.get(refdes)}`));
+			errors.push(
+				csvError(row.line, 'refdes', `${refdes} already appears on line ${firstLine.get(refdes)}`)
+			);
 		else firstLine.set(refdes, row.line);
 		const xy = (['x', 'y'] as const).map((c) => {
 			const raw = row.cells[c] ?? '';
 			const v = parseNumberCell(raw);
-			if (v === null) errors.push(csvError(row.line, c, `must be a number (got ${JSON.stringify(raw)})`));
+			if (v === null)
+				errors.push(csvError(row.line, c, `must be a number (got ${JSON.stringify(raw)})`));
 			return v;
 		});
 		if (refdes && xy[0] !== null && xy[1] !== null)

@@ -12,7 +12,7 @@ export interface CompareRevisionsOptions {
 	/** Foil thickness of the old and the new revision, µm (for the ratios of changed apertures). */
 	oldThicknessUm: number;
 	newThicknessUm: number;
-	/** Apertures without a refdes+pad match are paired when their centres are this close; default 50 µm. */
+	/** Unnamed or unmatched apertures pair up when their centres are this close; default 50 µm. */
 	positionToleranceUm?: number;
 	/** Sizes and positions closer than this count as equal, µm; default 0.5 µm. */
 	sizeToleranceUm?: number;
@@ -48,7 +48,7 @@ const key = (a: ApertureInput) => `${a.refdes}\u0000${a.pad}`;
 
 function differences(a: ApertureInput, b: ApertureInput, tol: number): string[] {
 	const fields: string[] = [];
-	const near = (x?: number, y?: number) => (x ?? 0) === (y ?? 0) || Math.abs((x ?? 0) - (y ?? 0)) <= tol;
+	const near = (x?: number, y?: number) => Math.abs((x ?? 0) - (y ?? 0)) <= tol;
 	const sa = effectiveShape(a);
 	const sb = effectiveShape(b);
 	if (sa !== sb) fields.push('shape');
@@ -57,7 +57,8 @@ function differences(a: ApertureInput, b: ApertureInput, tol: number): string[] 
 	} else if (sa === 'polygon') {
 		const va = a.verticesUm!;
 		const vb = b.verticesUm!;
-		if (va.length !== vb.length || va.some((p, i) => !near(p[0], vb[i][0]) || !near(p[1], vb[i][1])))
+		const same = (p: [number, number], i: number) => near(p[0], vb[i][0]) && near(p[1], vb[i][1]);
+		if (va.length !== vb.length || !va.every(same))
 			fields.push('verticesUm');
 	} else {
 		if (!near(a.lengthUm, b.lengthUm)) fields.push('lengthUm');
@@ -190,7 +191,9 @@ export function compareRevisions(
 	changed.sort((p, q) => p.new.index - q.new.index);
 	return {
 		added: newApertures.flatMap((aperture, index) => (newUsed[index] ? [] : [{ index, aperture }])),
-		removed: oldApertures.flatMap((aperture, index) => (oldUsed[index] ? [] : [{ index, aperture }])),
+		removed: oldApertures.flatMap((aperture, index) =>
+			oldUsed[index] ? [] : [{ index, aperture }]
+		),
 		changed,
 		unchangedCount
 	};

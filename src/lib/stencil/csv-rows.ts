@@ -6,7 +6,7 @@
 import Papa from 'papaparse';
 import { formatProblem } from './stencil-input-error';
 
-/** One CSV import error. `row` is the file line (header = 1); `column` is null for whole-row errors. */
+/** One CSV import error: `row` = file line (header = 1); `column` null for whole-row errors. */
 export interface CsvError {
 	row: number;
 	column: string | null;
@@ -28,7 +28,8 @@ export const MAX_CSV_ERRORS = 100;
  * @example csvError(5, 'width', 'must be a number') // { row: 5, column: 'width', message: 'line 5, width: must be a number' }
  */
 export function csvError(row: number, column: string | null, message: string): CsvError {
-	return { row, column, message: formatProblem({ where: `line ${row}`, field: column ?? 'row', message }) };
+	const text = formatProblem({ where: `line ${row}`, field: column ?? 'row', message });
+	return { row, column, message: text };
 }
 
 /**
@@ -95,17 +96,21 @@ export function readCsvRows(
 				if (name) record[name] = (cells[k] ?? '').trim();
 			});
 			if (cells.length > header.length && cells.slice(header.length).some((c) => c.trim() !== ''))
-				errors.push(csvError(line, null, `has ${cells.length} cells but the header has ${header.length} columns`));
+				errors.push(
+					csvError(line, null, `has ${cells.length} cells but the header has ${header.length} columns`)
+				);
 			rows.push({ line, cells: record });
 		}
 	});
 	if (header === null) return { errors: [csvError(1, null, 'the file is empty (no header row)')] };
 	const seen = new Set<string>();
 	for (const name of header as string[]) {
-		if (name && seen.has(name)) errors.push(csvError(headerLine, name, 'column appears twice in the header'));
+		if (name && seen.has(name))
+			errors.push(csvError(headerLine, name, 'column appears twice in the header'));
 		seen.add(name);
 	}
-	if (tooMany) errors.push(csvError(headerLine, null, `the file has more than ${maxRows} data rows`));
+	if (tooMany)
+		errors.push(csvError(headerLine, null, `the file has more than ${maxRows} data rows`));
 	if (errors.length > 0) return { errors: errors.slice(0, MAX_CSV_ERRORS) };
 	return { header: header as string[], rows };
 }

@@ -98,7 +98,9 @@ export function evaluateValidGeometry(
 			required: thresholds.minAreaRatio,
 			actual: ar,
 			shortBy: thresholds.minAreaRatio - ar,
-			message: `area ratio ${ar.toFixed(3)} is below the minimum ${thresholds.minAreaRatio} at ${thicknessUm} µm`
+			message:
+				`area ratio ${ar.toFixed(3)} is below the minimum ${thresholds.minAreaRatio} ` +
+				`at ${thicknessUm} µm`
 		});
 	if (!meetsLimit(asp, thresholds.minAspectRatio))
 		reasons.push({
@@ -106,7 +108,9 @@ export function evaluateValidGeometry(
 			required: thresholds.minAspectRatio,
 			actual: asp,
 			shortBy: thresholds.minAspectRatio - asp,
-			message: `aspect ratio ${asp.toFixed(3)} is below the minimum ${thresholds.minAspectRatio} at ${thicknessUm} µm`
+			message:
+				`aspect ratio ${asp.toFixed(3)} is below the minimum ${thresholds.minAspectRatio} ` +
+				`at ${thicknessUm} µm`
 		});
 	return {
 		thicknessUm,

@@ -4,7 +4,11 @@
  */
 import type { ApertureInput } from './aperture';
 import { checkAperture } from './aperture-validation';
-import { checkThresholds, evaluateValidGeometry, type ApertureEvaluation } from './evaluate-aperture';
+import {
+	checkThresholds,
+	evaluateValidGeometry,
+	type ApertureEvaluation
+} from './evaluate-aperture';
 import { validApertureGeometry } from './geometry';
 import { validApertureCentreUm } from './outline';
 import { checkStepRegions, thicknessAt, type StepRegion } from './step-regions';

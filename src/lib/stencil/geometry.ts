@@ -25,7 +25,11 @@ export interface ApertureGeometry {
  * disc πr²/4 (first principles). r = 0 is a rectangle, r = W/2 an obround.
  * @example roundedRectangleAreaUm2(1000, 200, 100) // 200000 - (4 - Math.PI) * 10000
  */
-export function roundedRectangleAreaUm2(lengthUm: number, widthUm: number, radiusUm: number): number {
+export function roundedRectangleAreaUm2(
+	lengthUm: number,
+	widthUm: number,
+	radiusUm: number
+): number {
 	return lengthUm * widthUm - (4 - Math.PI) * radiusUm * radiusUm;
 }
 

@@ -170,7 +170,8 @@ export function suggestPowderType(
 		limitingMinDimensionUm: minDim,
 		message: fit
 			? `Type ${fit.type}: the narrowest opening, ${label} at ${minDim.toFixed(1)} µm, ` +
-				`holds ${(minDim / fit.mainRangeMaxUm).toFixed(2)} particles of up to ${fit.mainRangeMaxUm} µm`
+				`holds ${(minDim / fit.mainRangeMaxUm).toFixed(2)} particles ` +
+				`of up to ${fit.mainRangeMaxUm} µm`
 			: `no J-STD-005 type fits: ${label} is only ${minDim.toFixed(1)} µm wide, ` +
 				`below ${minParticlesAcross} × ${POWDER_SIZES[POWDER_SIZES.length - 1].mainRangeMaxUm} µm`
 	};

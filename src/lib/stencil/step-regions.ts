@@ -26,15 +26,27 @@ export function checkStepRegions(regions: readonly StepRegion[]): InputProblem[]
 		let finite = true;
 		for (const field of ['xMinUm', 'yMinUm', 'xMaxUm', 'yMaxUm', 'thicknessUm'] as const) {
 			if (typeof r[field] !== 'number' || !Number.isFinite(r[field])) {
-				problems.push({ where, field, message: `must be a finite number (got ${String(r[field])})` });
+				problems.push({
+					where,
+					field,
+					message: `must be a finite number (got ${String(r[field])})`
+				});
 				finite = false;
 			}
 		}
 		if (!finite) return;
 		if (r.xMaxUm < r.xMinUm)
-			problems.push({ where, field: 'xMaxUm', message: `must not be less than xMinUm (${r.xMinUm})` });
+			problems.push({
+				where,
+				field: 'xMaxUm',
+				message: `must not be less than xMinUm (${r.xMinUm})`
+			});
 		if (r.yMaxUm < r.yMinUm)
-			problems.push({ where, field: 'yMaxUm', message: `must not be less than yMinUm (${r.yMinUm})` });
+			problems.push({
+				where,
+				field: 'yMaxUm',
+				message: `must not be less than yMinUm (${r.yMinUm})`
+			});
 		if (r.thicknessUm <= 0 || r.thicknessUm > 1000)
 			problems.push({
 				where,
@@ -59,7 +71,11 @@ export function localThickness(
 ): number {
 	if (!Number.isFinite(baseThicknessUm) || baseThicknessUm <= 0)
 		throw new StencilInputError([
-			{ where: 'stencil', field: 'thicknessUm', message: `must be greater than 0 (got ${baseThicknessUm})` }
+			{
+				where: 'stencil',
+				field: 'thicknessUm',
+				message: `must be greater than 0 (got ${baseThicknessUm})`
+			}
 		]);
 	const problems = checkStepRegions(stepRegions);
 	if (problems.length > 0) throw new StencilInputError(problems);

@@ -3,7 +3,7 @@
  */
 import { StencilInputError, type InputProblem } from './stencil-input-error';
 
-/** Stencil technologies the app knows. A step stencil is checked like a laser-cut one by default. */
+/** Stencil technologies. A step stencil is checked like a laser-cut one by default. */
 export type StencilTechnology = 'laser-stainless' | 'electroformed' | 'laser-nano-coated' | 'step';
 
 /** All technologies, for validation and select lists. */
@@ -47,7 +47,11 @@ export type SiteThresholdOverrides = Partial<Record<StencilTechnology, Partial<P
 function checkLimit(value: unknown, where: string, field: string, problems: InputProblem[]): void {
 	if (value === undefined) return;
 	if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0 || value > 10)
-		problems.push({ where, field, message: `must be a number greater than 0 and at most 10 (got ${String(value)})` });
+		problems.push({
+			where,
+			field,
+			message: `must be a number greater than 0 and at most 10 (got ${String(value)})`
+		});
 }
 
 /**
@@ -65,7 +69,9 @@ export function resolveThresholds(
 			{
 				where: 'stencil',
 				field: 'technology',
-				message: `unknown technology ${JSON.stringify(technology)}; expected one of ${STENCIL_TECHNOLOGIES.join(', ')}`
+				message:
+					`unknown technology ${JSON.stringify(technology)}; ` +
+					`expected one of ${STENCIL_TECHNOLOGIES.join(', ')}`
 			}
 		]);
 	const override = siteOverrides[technology] ?? {};
