@@ -21,14 +21,21 @@ const finiteNumber = z.number({
 /** Chart kinds accepted by the API. */
 export const SPC_API_CHARTS = ['xbar-r', 'xbar-s', 'i-mr'] as const;
 
+/** Chart kind of the request: `xbar-r`, `xbar-s` or `i-mr`. */
 export const spcChartSchema = z.enum(SPC_API_CHARTS, {
 	error: `must be one of: ${SPC_API_CHARTS.join(', ')}`
 });
 
+/** One run-rule id: `we-1`..`we-4`, `nelson-1`..`nelson-8`. */
 export const spcRuleSchema = z.enum(RULE_IDS, {
 	error: `must be one of: ${RULE_IDS.join(', ')}`
 });
 
+/**
+ * Body of `POST /api/spc/analyze`; numbers must be finite (NaN, Infinity and text are refused
+ * with the element path, e.g. `subgroups[3][1]`).
+ * @example spcAnalyzeRequestSchema.safeParse({ chart: 'i-mr', values: [1, 2, 3] })
+ */
 export const spcAnalyzeRequestSchema = z.object({
 	chart: spcChartSchema,
 	subgroups: z

@@ -74,6 +74,7 @@ describe('analyzeStudy: bad input gives field errors (HTTP 422)', () => {
 		['missing values for I-MR', { chart: 'i-mr', subgroups: [[1, 2], [3, 4]] }, 'values', /is required/],
 		['LSL ≥ USL', { chart: 'i-mr', values: [1, 2, 3], lsl: 5, usl: 4 }, 'lsl', /LSL 5 must be below USL 4/],
 		['zero variation (X-bar/R)', { chart: 'xbar-r', subgroups: [[2, 2], [3, 3]] }, 'subgroups', /zero variation: every subgroup range is 0/],
+		['overflowing magnitudes', { chart: 'i-mr', values: [1e308, -1e308, 1e308] }, 'values', /too large/],
 		['zero variation (I-MR)', { chart: 'i-mr', values: [4, 4, 4] }, 'values', /zero variation: all moving ranges are 0/]
 	])('%s', (_label, input, field, message) => {
 		const errs = errors(input);

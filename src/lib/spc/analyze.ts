@@ -136,7 +136,14 @@ export function analyzeStudy(input: unknown): AnalyzeOutcome {
 		if (!(e instanceof SpcInputError)) throw e;
 		return { ok: false, errors: [{ field: e.field, message: e.reason }, ...errors] };
 	}
-	if (!(chart.limits.sigmaWithin > 0)) errors.push(zeroVariationError(chart.limits, dataField));
+	const { location, dispersion, sigmaWithin } = chart.limits;
+	const numbers = [location.lcl, location.ucl, dispersion.ucl, sigmaWithin];
+	if (!numbers.every(Number.isFinite)) {
+		errors.push({
+			field: dataField,
+			message: 'values are too large in magnitude to compute finite control limits'
+		});
+	} else if (!(sigmaWithin > 0)) errors.push(zeroVariationError(chart.limits, dataField));
 	if (errors.length) return { ok: false, errors };
 
 	const rules = req.rules ?? DEFAULT_RULES;

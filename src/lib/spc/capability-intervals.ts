@@ -43,7 +43,7 @@ export function cpkConfidenceInterval(
  * Ĉp·√(χ²_{α/2}/(n−1)) ≤ Cp ≤ Ĉp·√(χ²_{1−α/2}/(n−1)), χ²_p the lower p-quantile.
  * Reference: Montgomery, Introduction to Statistical Quality Control, §8.3 (from memory).
  * @throws RangeError for a level outside (0, 1) or n < 2.
- * @example cpConfidenceInterval(1, 30).lower // ≈ 0.7436
+ * @example cpConfidenceInterval(1, 30).lower // √(16.047/29) ≈ 0.7439
  */
 export function cpConfidenceInterval(
 	cp: number,

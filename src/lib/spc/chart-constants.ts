@@ -25,8 +25,9 @@ export interface ChartConstants {
 	B4: number;
 }
 
-/** Smallest and largest subgroup size with range-based constants (the published table span). */
+/** Smallest subgroup size of any variables chart with subgroups. */
 export const MIN_SUBGROUP_SIZE = 2;
+/** Largest n of `chartConstants` (the span of the published tables); c4 has no limit. */
 export const MAX_RANGE_SUBGROUP_SIZE = 25;
 
 // Integration grids. x: trapezoidal rule on [−X_MAX, X_MAX] (spectrally accurate for these

@@ -25,7 +25,8 @@ export function individualsPoints(values: unknown): ChartPoint[] {
 /**
  * Mean of the moving ranges whose both ends are in the baseline (a moving range that
  * touches an excluded point is excluded too, so one bad value does not inflate MR̄).
- * Returns the mean and the number of ranges used.
+ * Returns the mean and the number of ranges used (mean 0 when there are none).
+ * @example baselineMovingRangeMean([1, 2, 10, 3, 4], [0, 1, 3, 4]) // { mean: 1, count: 2 }
  */
 export function baselineMovingRangeMean(
 	series: readonly number[],

@@ -66,7 +66,11 @@ export function xbarRChart(subgroups: unknown, options: LimitOptions = {}): Cont
 	return { points, limits: xbarRLimits(points, options) };
 }
 
-/** Subgroup size shared by all points; charts with frozen-size constants need it equal. */
+/**
+ * Subgroup size shared by all points; charts with fixed-size constants need it equal.
+ * @throws SpcInputError for no points or a point of another size.
+ * @example commonSize(xbarRPoints([[1, 2], [3, 4]])) // 2
+ */
 export function commonSize(points: readonly ChartPoint[]): number {
 	if (points.length === 0) throw new SpcInputError('points', 'is empty');
 	const n = points[0].size;
