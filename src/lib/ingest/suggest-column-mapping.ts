@@ -72,6 +72,29 @@ function dice(a: string, b: string): number {
 	return total === 0 ? 0 : (2 * shared) / total;
 }
 
+/**
+ * 1 − (optimal string alignment distance / longer length): edits, with swaps of adjacent
+ * letters counting once (Damerau), so "hieght" is close to "height". Spaces are ignored.
+ */
+function editSimilarity(a: string, b: string): number {
+	const x = a.replace(/ /g, '');
+	const y = b.replace(/ /g, '');
+	const longest = Math.max(x.length, y.length);
+	if (longest === 0) return 0;
+	const d: number[][] = Array.from({ length: x.length + 1 }, (_, i) => [i]);
+	for (let j = 1; j <= y.length; j++) d[0][j] = j;
+	for (let i = 1; i <= x.length; i++) {
+		for (let j = 1; j <= y.length; j++) {
+			const cost = x[i - 1] === y[j - 1] ? 0 : 1;
+			d[i][j] = Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + cost);
+			if (i > 1 && j > 1 && x[i - 1] === y[j - 2] && x[i - 2] === y[j - 1]) {
+				d[i][j] = Math.min(d[i][j], d[i - 2][j - 2] + 1);
+			}
+		}
+	}
+	return 1 - d[x.length][y.length] / longest;
+}
+
 function score(header: string, field: CanonicalField): number {
 	const h = normalise(header);
 	if (h === '') return 0;
@@ -83,7 +106,7 @@ function score(header: string, field: CanonicalField): number {
 	for (const name of names) {
 		const nameWords = name.split(' ');
 		if (nameWords.every((w) => words.has(w))) best = Math.max(best, 0.7 + 0.2 * (nameWords.length / words.size));
-		else best = Math.max(best, 0.8 * dice(h, name));
+		else best = Math.max(best, 0.8 * Math.max(dice(h, name), editSimilarity(h, name)));
 	}
 	// A % sign or a cubic unit decides between the two volume fields.
 	if (field === 'volume_pct' && /\b(um3|mil3)\b/.test(h)) best *= 0.5;
@@ -95,7 +118,8 @@ function score(header: string, field: CanonicalField): number {
  * Propose a canonical field for each header of an unknown export, e.g. `Volume(%)` →
  * `volume_pct`, `X Offset (mm)` → `offset_x_um` with `lengthUnitHint: 'mm'`. Scores every
  * header/field pair (exact name or synonym = 1, all words of a synonym present ≈ 0.7–0.9,
- * otherwise 0.8 × bigram Dice similarity) and assigns greedily, best score first, each header
+ * otherwise 0.8 × the better of bigram Dice similarity and edit similarity, which forgives
+ * typos like "Hieght") and assigns greedily, best score first, each header
  * and field once, keeping scores ≥ 0.55. O(headers × fields × synonyms).
  * Used by the mapping screen; the user always confirms.
  * @example suggestColumnMapping(['Serial', 'Volume(%)']).columns // { board_serial: 'Serial', volume_pct: 'Volume(%)' }
