@@ -89,6 +89,57 @@ describe('macroShapeOutline', () => {
 		expect(area).toBeGreaterThanOrEqual(exact - tol * 2 * Math.PI * 0.25);
 	});
 
+	/** The usual CAD rounded-rectangle macro: body outline, corner circles, side strips. */
+	function roundRectMacro(hl: number, hw: number, r: number, deg: number): GerberPadPrimitive[] {
+		const body = corners(2 * hl, 2 * hw, deg);
+		const strips: GerberPadPrimitive[] = body.map((p, i) => {
+			const q = body[(i + 1) % 4];
+			// A vector line of width 2r from corner p to corner q: its four corners.
+			const [dx, dy] = [q[0] - p[0], q[1] - p[1]];
+			const len = Math.hypot(dx, dy);
+			const [nx, ny] = [(-dy / len) * r, (dx / len) * r];
+			return {
+				type: 'poly',
+				points: [
+					[p[0] - nx, p[1] - ny],
+					[q[0] - nx, q[1] - ny],
+					[q[0] + nx, q[1] + ny],
+					[p[0] + nx, p[1] + ny]
+				]
+			};
+		});
+		return [
+			{ type: 'poly', points: body },
+			...body.map(([cx, cy]): GerberPadPrimitive => ({ type: 'circle', r, cx, cy })),
+			...strips
+		];
+	}
+
+	it('recognises a rounded-rectangle macro turned 30° as an exact rounded rectangle', () => {
+		// Body 0.8 × 0.4 with r = 0.1 on every side: 1.0 × 0.6, r 0.1 (first principles).
+		const result = macroShapeOutline(roundRectMacro(0.4, 0.2, 0.1, 30), tol);
+		if (!('outline' in result) || result.outline.kind !== 'rectangle') throw new Error('expected a rectangle');
+		expect(result.outline.length).toBeCloseTo(1, 9);
+		expect(result.outline.width).toBeCloseTo(0.6, 9);
+		expect(result.outline.cornerRadius).toBeCloseTo(0.1, 9);
+		expect(result.outline.rotationDeg).toBeCloseTo(30, 6);
+		expect(result.outline.cx).toBeCloseTo(0, 9);
+	});
+
+	it('gives a plain rectangle for a rounded-rectangle macro with radius 0', () => {
+		const result = macroShapeOutline(roundRectMacro(0.4, 0.2, 0, 0), tol);
+		expect(result).toMatchObject({ outline: { kind: 'rectangle', cornerRadius: 0 } });
+		if ('outline' in result && result.outline.kind === 'rectangle') {
+			expect(result.outline.length).toBeCloseTo(0.8, 9);
+			expect(result.outline.width).toBeCloseTo(0.4, 9);
+		}
+	});
+
+	it('skips corner circles on a body without side strips (notched, not convex)', () => {
+		const prims = roundRectMacro(0.4, 0.2, 0.1, 0).slice(0, 5);
+		expect(macroShapeOutline(prims, tol)).toMatchObject({ skipReason: expect.stringMatching(/non-convex/) });
+	});
+
 	it('treats a circle inside a larger circle as the larger circle', () => {
 		const result = macroShapeOutline(
 			[

@@ -6,7 +6,12 @@
  */
 import { convexHull } from './polygon';
 import { arcSegmentCount } from './gerber-path';
-import type { GerberOutlineResult, GerberPadPrimitive, GerberPoint } from './gerber-types';
+import type {
+	GerberOutline,
+	GerberOutlineResult,
+	GerberPadPrimitive,
+	GerberPoint
+} from './gerber-types';
 
 type Drawable = Extract<GerberPadPrimitive, { type: 'circle' | 'rect' | 'poly' }>;
 
@@ -70,6 +75,8 @@ function signedArea(points: readonly GerberPoint[]): number {
 }
 
 function circlePoints(cx: number, cy: number, r: number, tolerance: number): GerberPoint[] {
+	// A zero circle (e.g. a rounded-rectangle macro with radius 0) is just its centre.
+	if (!(r > 0)) return [[cx, cy]];
 	const n = Math.max(8, arcSegmentCount(r, 2 * Math.PI, tolerance));
 	const out: GerberPoint[] = [];
 	for (let k = 0; k < n; k++) {
@@ -157,14 +164,86 @@ function hullIsCovered(hull: readonly GerberPoint[], prims: readonly Drawable[],
 	return true;
 }
 
+type Rect = NonNullable<ReturnType<typeof rectangleFromCorners>>;
+
+function asRectangle(p: Drawable): Rect | null {
+	if (p.type === 'poly') return rectangleFromCorners(p.points);
+	if (p.type === 'rect' && !(p.r > 0)) {
+		return { cx: p.cx, cy: p.cy, length: p.width, width: p.height, rotationDeg: 0 };
+	}
+	return null;
+}
+
+/**
+ * Recognise the usual CAD rounded rectangle: a rectangle body with a circle of one radius r on
+ * each corner (plus, usually, side strips). When every primitive lies inside the rounded
+ * rectangle with inner box = body and radius r, and the union already fills its convex hull,
+ * the union is exactly that rounded rectangle (the hull of the four corner circles).
+ */
+function roundedRectangleOf(
+	prims: readonly Drawable[],
+	tolerance: number,
+	margin: number
+): Extract<GerberOutline, { kind: 'rectangle' }> | null {
+	const circles = prims.filter((p) => p.type === 'circle');
+	if (circles.length < 4) return null;
+	const r = circles[0].r;
+	if (!circles.every((c) => Math.abs(c.r - r) <= margin)) return null;
+	for (const body of prims.map(asRectangle)) {
+		if (!body) continue;
+		const a = (body.rotationDeg * Math.PI) / 180;
+		const [cos, sin] = [Math.cos(a), Math.sin(a)];
+		const [hl, hw] = [body.length / 2, body.width / 2];
+		// Local frame of the body: u along its length, v along its width.
+		const local = (q: GerberPoint) => {
+			const [dx, dy] = [q[0] - body.cx, q[1] - body.cy];
+			return [dx * cos + dy * sin, -dx * sin + dy * cos];
+		};
+		const corners = [
+			[-hl, -hw],
+			[hl, -hw],
+			[hl, hw],
+			[-hl, hw]
+		];
+		const onCorner = corners.every(([u, v]) =>
+			circles.some((c) => {
+				const [cu, cv] = local([c.cx, c.cy]);
+				return Math.hypot(cu - u, cv - v) <= margin;
+			})
+		);
+		if (!onCorner) continue;
+		const inside = prims
+			.flatMap((p) => boundaryPoints(p, tolerance))
+			.every((q) => {
+				const [u, v] = local(q);
+				const du = Math.max(Math.abs(u) - hl, 0);
+				const dv = Math.max(Math.abs(v) - hw, 0);
+				return Math.hypot(du, dv) <= r + margin;
+			});
+		if (!inside) continue;
+		return {
+			kind: 'rectangle',
+			length: body.length + 2 * r,
+			width: body.width + 2 * r,
+			cornerRadius: r,
+			cx: body.cx,
+			cy: body.cy,
+			rotationDeg: body.rotationDeg
+		};
+	}
+	return null;
+}
+
 /**
  * Outline of a macro aperture relative to its flash point, in file units, or the reason it is
  * skipped. Used by the Gerber importer for each flashed macro D-code.
  * - one circle → circle; one unrotated rect → rectangle; a four-corner rectangle polygon
  *   (rotated center line 21 or vector line 20) → rotated rectangle; other polygons → polygon;
- * - several dark primitives → their convex hull as a polygon, only if a 48×48 sample grid
- *   shows the hull is filled (true for rounded-rectangle macros made of circles, lines and an
- *   outline); otherwise skipped, as are clear (exposure-off), moiré and thermal primitives.
+ * - several dark primitives → their convex hull, only if a 48×48 sample grid shows the hull is
+ *   filled; a body rectangle with equal circles on its corners (the usual CAD rounded-rectangle
+ *   macro of outline 4, circles 1 and lines 20) → an exact rounded rectangle, any other convex
+ *   union → hull polygon; non-convex unions are skipped, as are clear (exposure-off), moiré and
+ *   thermal primitives.
  * Reference: Gerber Layer Format Specification (Ucamco), "Macro aperture primitives".
  * @param tolerance largest chord-to-arc deviation when circles are sampled, in file units.
  * @example macroShapeOutline([{ type: 'circle', r: 0.5, cx: 0, cy: 0 }], 0.0005)
@@ -213,10 +292,12 @@ export function macroShapeOutline(
 	const ys = hull.map((p) => p[1]);
 	const size = Math.hypot(Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys));
 	// Margin: chord sampling makes the hull lie a sagitta inside curved parts; allow that.
-	if (!hullIsCovered(hull, prims, Math.max(2 * tolerance, 1e-6 * size))) {
-		return {
-			skipReason: `combines ${prims.length} primitives into a non-convex shape, which is not supported (export it as a region instead)`
-		};
+	const margin = Math.max(2 * tolerance, 1e-6 * size);
+	if (!hullIsCovered(hull, prims, margin)) {
+		const what = `combines ${prims.length} primitives into a non-convex shape`;
+		return { skipReason: `${what}, which is not supported (export it as a region instead)` };
 	}
+	const rounded = roundedRectangleOf(prims, tolerance, margin);
+	if (rounded) return { outline: rounded };
 	return { outline: { kind: 'polygon', vertices: hull, cx: 0, cy: 0, rotationDeg: 0 } };
 }
