@@ -163,7 +163,8 @@ export function readGerberImage(
 				const code = String(v);
 				if (inRegion) fail(line, `D${code}`, 'aperture change inside a region (G36/G37)');
 				else if (!tools.has(code)) {
-					fail(line, `D${code}`, `aperture D${code} is not defined (no %ADD${code}…*% before it)`);
+					const message = `aperture D${code} is not defined (no %ADD${code}…*% before it)`;
+					fail(line, `D${code}`, message);
 					currentTool = null;
 					selectionFailed = true;
 				} else {
@@ -175,7 +176,11 @@ export function readGerberImage(
 			const what = `%ADD${cmd.code}`;
 			requireUnits(what);
 			const def = cmd.tool;
-			if (!def.params.every((p) => Number.isFinite(p))) {
+			const earlier = tools.get(cmd.code);
+			if (earlier) {
+				// Redefining a D-code would make earlier and later flashes ambiguous.
+				fail(line, what, `aperture D${cmd.code} is already defined at line ${earlier.line}`);
+			} else if (!def.params.every((p) => Number.isFinite(p))) {
 				fail(line, what, 'aperture parameters must be numbers');
 			} else if (STANDARD_SHAPES.includes(def.shape)) {
 				try {

@@ -221,6 +221,7 @@ describe('importGerberPasteLayer: bad files give an error with the line', () => 
 		{ name: 'aperture rotation (%LR)', text: good.replace('%LPD*%', '%LR45*%'), line: 7, message: /aperture transformations/ },
 		{ name: 'negative polygon size', text: good.replace('P,1.000000X6', 'P,-1X6'), line: 12, message: /polygon diameter must be a number ≥ 0/ },
 		{ name: 'polygon with 2 vertices', text: good.replace('X6X30', 'X2X30'), line: 12, message: /vertex count must be an integer from 3 to 12/ },
+		{ name: 'aperture defined twice', text: good.replace('%ADD13P', '%ADD10C,0.3*%\n%ADD13P'), line: 12, message: /aperture D10 is already defined at line 9/ },
 		{ name: 'flash with no aperture selected', text: `${header}%ADD10C,1*%\nX0Y0D03*\nM02*\n`, line: 4, message: /flash with no aperture selected/ }
 	];
 	for (const c of cases) {

@@ -17,7 +17,12 @@ import { macroShapeOutline } from './gerber-macro-outline';
 import { nameGerberApertures } from './gerber-naming';
 import { classifyGerberParserWarning } from './gerber-parser-warning';
 import { rewriteMacroUnaryMinus } from './gerber-unary-minus';
-import type { GerberCommand, GerberOutline, GerberOutlineResult, GerberUnits } from './gerber-types';
+import type {
+	GerberCommand,
+	GerberOutline,
+	GerberOutlineResult,
+	GerberUnits
+} from './gerber-types';
 
 /** Largest accepted file, 20 MiB of text (Gerber is ASCII, so characters = bytes). */
 export const GERBER_MAX_BYTES = 20 * 1024 * 1024;
@@ -85,10 +90,15 @@ function failure(errors: readonly GerberProblem[]): GerberImportFailure {
 	return { errors: [...sorted.slice(0, MAX_ERRORS), rest] };
 }
 
+/** Commands from gerber-parser with its warnings triaged into errors and warnings. */
+interface Parsed {
+	commands: GerberCommand[];
+	errors: GerberProblem[];
+	warnings: GerberProblem[];
+}
+
 /** Parse with gerber-parser; parser warnings are triaged into errors and warnings. */
-function parseGerber(
-	text: string
-): { commands: GerberCommand[]; errors: GerberProblem[]; warnings: GerberProblem[] } | GerberImportFailure {
+function parseGerber(text: string): Parsed | GerberImportFailure {
 	// The parser numbers lines from 0; everything here reports 1-based lines.
 	const parser = gerberParser({}) as unknown as SyncParser;
 	const parserWarnings: { message: string; line: number }[] = [];
@@ -111,8 +121,9 @@ function parseGerber(
 	const warnings: GerberProblem[] = [];
 	for (const w of parserWarnings) {
 		const action = classifyGerberParserWarning(w.message);
-		if (action.kind === 'error') errors.push(gerberProblem(w.line + 1, 'command', action.message));
-		if (action.kind === 'warning') warnings.push(gerberProblem(w.line + 1, 'parser', action.message));
+		const line = w.line + 1;
+		if (action.kind === 'error') errors.push(gerberProblem(line, 'command', action.message));
+		if (action.kind === 'warning') warnings.push(gerberProblem(line, 'parser', action.message));
 	}
 	return { commands, errors, warnings };
 }
@@ -148,7 +159,9 @@ function placeFlashes(image: GerberImage, f: number, tolerance: number, warnings
 	for (const [tool, s] of skipped) {
 		const definedAt = image.tools.get(tool)?.line ?? 0;
 		const reason = (outlines.get(tool) as { skipReason: string }).skipReason;
-		const message = `aperture D${tool} (defined at line ${definedAt}) ${reason}; ${s.count} flash(es) skipped`;
+		const message =
+			`aperture D${tool} (defined at line ${definedAt}) ${reason}; ` +
+			`${s.count} flash(es) skipped`;
 		warnings.push(gerberProblem(s.firstLine, `D${tool}`, message));
 	}
 	const flashesSkipped = [...skipped.values()].reduce((sum, s) => sum + s.count, 0);
@@ -213,7 +226,8 @@ function placeRegions(
  *   O → rounded rectangle (radius half the smaller side; a circle if both sides are equal),
  *   P → polygon (vertices of the unrotated polygon, `rotationDeg` = the P rotation).
  * - Flashes of macro apertures: see `macroShapeOutline` (one primitive → exact shape, rotated
- *   center/vector lines → rotated rectangle, several → verified convex hull polygon).
+ *   center/vector lines → rotated rectangle, the usual rounded-rectangle macro → exact rounded
+ *   rectangle, other convex combinations → convex hull polygon, non-convex → skipped).
  * - Regions (G36/G37): each contour becomes a polygon placed at its area centroid; arcs are cut
  *   into chords within `arcToleranceUm` (see `flattenGerberPath`).
  * - Step-repeat (%SR) copies are expanded. Draws (D01 outside a region), clear-polarity
@@ -225,7 +239,10 @@ function placeRegions(
  * undefined aperture or macro, flashes or aperture changes inside a region, an unclosed region,
  * incremental coordinates, a missing M02 (truncated file), no flashes or regions at all.
  *
- * Reference: Gerber Layer Format Specification (Ucamco), revision 2023.08 or any since 2013.
+ * Synchronous and CPU-bound: about 20 000 commands per second on the project machine (measured
+ * 25 000 flashes, 0.57 MB, in 1.8 s), so a file near the 20 MB limit can take about a minute.
+ *
+ * Reference: Gerber Layer Format Specification (Ucamco), revision 2022.02 or any since 2013.
  * @throws never; every problem is returned in `errors`.
  * @example
  * importGerberPasteLayer('%FSLAX26Y26*%\n%MOMM*%\n%ADD10R,1X0.5*%\nD10*\nX1000000Y0D03*\nM02*\n')
@@ -278,12 +295,15 @@ export function importGerberPasteLayer(
 		warnings.push(gerberProblem(0, '%LPC', `${clear.length} clear-polarity object(s) skipped`));
 	}
 	if (image.draws > 0) {
-		const message = `${image.draws} draw(s) outside regions skipped; a paste layer should hold only flashes and regions`;
+		const message =
+			`${image.draws} draw(s) outside regions skipped; ` +
+			'a paste layer should hold only flashes and regions';
 		warnings.push(gerberProblem(image.firstDrawLine, 'D01', message));
 	}
 	if (dark.length === 0) {
 		// The reasons are in the warnings; without apertures they become the errors.
-		const none = gerberProblem(0, 'content', 'no usable apertures: every flash and region was skipped');
+		const message = 'no usable apertures: every flash and region was skipped';
+		const none = gerberProblem(0, 'content', message);
 		return failure([none, ...warnings]);
 	}
 	return {

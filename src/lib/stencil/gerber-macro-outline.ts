@@ -114,7 +114,8 @@ function distanceToSegment(q: GerberPoint, a: GerberPoint, b: GerberPoint): numb
 	const dx = b[0] - a[0];
 	const dy = b[1] - a[1];
 	const len2 = dx * dx + dy * dy;
-	const t = len2 === 0 ? 0 : Math.max(0, Math.min(1, ((q[0] - a[0]) * dx + (q[1] - a[1]) * dy) / len2));
+	const along = len2 === 0 ? 0 : ((q[0] - a[0]) * dx + (q[1] - a[1]) * dy) / len2;
+	const t = Math.max(0, Math.min(1, along));
 	return Math.hypot(q[0] - a[0] - t * dx, q[1] - a[1] - t * dy);
 }
 
@@ -124,8 +125,10 @@ function insidePolygon(q: GerberPoint, poly: readonly GerberPoint[], margin: num
 		const a = poly[i];
 		const b = poly[j];
 		if (distanceToSegment(q, a, b) <= margin) return true;
-		if (a[1] > q[1] !== b[1] > q[1] && q[0] < ((b[0] - a[0]) * (q[1] - a[1])) / (b[1] - a[1]) + a[0]) {
-			inside = !inside;
+		// Ray casting to +x: count the edges that straddle the ray's height right of q.
+		if (a[1] > q[1] !== b[1] > q[1]) {
+			const xCross = ((b[0] - a[0]) * (q[1] - a[1])) / (b[1] - a[1]) + a[0];
+			if (q[0] < xCross) inside = !inside;
 		}
 	}
 	return inside;
@@ -147,7 +150,11 @@ function covers(p: Drawable, q: GerberPoint, margin: number): boolean {
  * True when every sample point of `hull` (a grid over its bounding box) lies in at least one
  * primitive, i.e. the primitives' union fills its convex hull (to within `margin`).
  */
-function hullIsCovered(hull: readonly GerberPoint[], prims: readonly Drawable[], margin: number): boolean {
+function hullIsCovered(
+	hull: readonly GerberPoint[],
+	prims: readonly Drawable[],
+	margin: number
+): boolean {
 	const xs = hull.map((p) => p[0]);
 	const ys = hull.map((p) => p[1]);
 	const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
@@ -259,7 +266,9 @@ export function macroShapeOutline(
 	if (shape.some((p) => p.type === 'layer' && p.polarity === 'clear')) {
 		return { skipReason: 'uses exposure-off primitives (cut-outs), which cannot be represented' };
 	}
-	const prims = shape.filter((p): p is Drawable => p.type === 'circle' || p.type === 'rect' || p.type === 'poly');
+	const prims = shape.filter(
+		(p): p is Drawable => p.type === 'circle' || p.type === 'rect' || p.type === 'poly'
+	);
 	if (prims.length === 0) return { skipReason: 'has no primitives' };
 	if (prims.length === 1) {
 		const p = prims[0];
@@ -270,9 +279,8 @@ export function macroShapeOutline(
 		if (p.type === 'rect') {
 			if (!(p.width > 0 && p.height > 0)) return { skipReason: 'has zero size' };
 			const cornerRadius = Math.min(p.r, p.width / 2, p.height / 2);
-			return {
-				outline: { kind: 'rectangle', length: p.width, width: p.height, cornerRadius, cx: p.cx, cy: p.cy, rotationDeg: 0 }
-			};
+			const { width: length, height: width, cx, cy } = p;
+			return { outline: { kind: 'rectangle', length, width, cornerRadius, cx, cy, rotationDeg: 0 } };
 		}
 		if (!p.points.every((q) => Number.isFinite(q[0]) && Number.isFinite(q[1]))) {
 			return { skipReason: 'has a primitive with non-numeric coordinates' };
@@ -280,7 +288,8 @@ export function macroShapeOutline(
 		if (signedArea(p.points) === 0) return { skipReason: 'has zero area' };
 		const rect = rectangleFromCorners(p.points);
 		if (rect) return { outline: { kind: 'rectangle', cornerRadius: 0, ...rect } };
-		return { outline: { kind: 'polygon', vertices: p.points.map((q) => [q[0], q[1]]), cx: 0, cy: 0, rotationDeg: 0 } };
+		const vertices = p.points.map((q): GerberPoint => [q[0], q[1]]);
+		return { outline: { kind: 'polygon', vertices, cx: 0, cy: 0, rotationDeg: 0 } };
 	}
 	const points = prims.flatMap((p) => boundaryPoints(p, tolerance));
 	if (!points.every((q) => Number.isFinite(q[0]) && Number.isFinite(q[1]))) {

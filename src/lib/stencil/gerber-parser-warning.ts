@@ -65,7 +65,8 @@ export function classifyGerberParserWarning(message: string): GerberWarningActio
 	}
 	const primitive = /^(.*) is an unrecognized primitive for a macro aperture$/.exec(message);
 	if (primitive) {
-		return { kind: 'error', message: `macro primitive code ${quote(primitive[1])} is not supported` };
+		const message = `macro primitive code ${quote(primitive[1])} is not supported`;
+		return { kind: 'error', message };
 	}
 	// The rest (deprecated forms, assumed zero suppression) are recoverable: pass them on.
 	return { kind: 'warning', message };

@@ -87,7 +87,8 @@ export function flattenGerberPath(
 	tolerance: number
 ): GerberContour[] {
 	if (!Number.isFinite(tolerance) || tolerance <= 0) {
-		throw new RangeError(`flattenGerberPath: tolerance must be a positive number (got ${tolerance})`);
+		const got = `(got ${tolerance})`;
+		throw new RangeError(`flattenGerberPath: tolerance must be a positive number ${got}`);
 	}
 	const contours: GerberPoint[][] = [];
 	let current: GerberPoint[] = [];

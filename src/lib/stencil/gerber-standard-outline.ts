@@ -68,10 +68,11 @@ export function standardApertureOutline(tool: GerberToolDefinition): GerberOutli
 			throw new RangeError(`polygon vertex count must be an integer from 3 to 12 (got ${n})`);
 		}
 		const rot = p[2] ?? 0;
-		if (!Number.isFinite(rot)) throw new RangeError(`polygon rotation must be a number (got ${rot})`);
-		result = {
-			outline: { kind: 'polygon', vertices: regularPolygonVertices(d, n), cx: 0, cy: 0, rotationDeg: rot }
-		};
+		if (!Number.isFinite(rot)) {
+			throw new RangeError(`polygon rotation must be a number (got ${rot})`);
+		}
+		const vertices = regularPolygonVertices(d, n);
+		result = { outline: { kind: 'polygon', vertices, cx: 0, cy: 0, rotationDeg: rot } };
 	} else {
 		throw new RangeError(`"${tool.shape}" is not a standard aperture (C, R, O or P)`);
 	}
@@ -79,6 +80,11 @@ export function standardApertureOutline(tool: GerberToolDefinition): GerberOutli
 		return { skipReason: 'has a hole; a paste aperture with a hole cannot be represented' };
 	}
 	const o = result.outline;
-	const zero = o.kind === 'circle' ? o.diameter === 0 : o.kind === 'rectangle' ? o.length * o.width === 0 : p[0] === 0;
+	const zero =
+		o.kind === 'circle'
+			? o.diameter === 0
+			: o.kind === 'rectangle'
+				? o.length * o.width === 0
+				: p[0] === 0;
 	return zero ? { skipReason: 'has zero size' } : result;
 }

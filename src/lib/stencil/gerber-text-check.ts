@@ -29,7 +29,9 @@ const mebibytes = (n: number) => (n / 1024 / 1024).toFixed(1);
  * // { line: 1, message: 'line 1, content: no "*"-terminated Gerber commands found; …' }
  */
 export function checkGerberText(text: unknown, maxBytes: number): GerberProblem | null {
-	if (typeof text !== 'string') return gerberProblem(0, 'input', `must be text (got ${typeof text})`);
+	if (typeof text !== 'string') {
+		return gerberProblem(0, 'input', `must be text (got ${typeof text})`);
+	}
 	if (text.length > maxBytes) {
 		const sizes = `${mebibytes(text.length)} MB is over the ${mebibytes(maxBytes)} MB limit`;
 		return gerberProblem(0, 'size', `${sizes} for a paste layer`);
