@@ -1,2 +1,4 @@
 // Each feature keeps its tables in its own file; drizzle-kit reads them all through this index.
 export * from './foundation';
+export * from './stencils';
+export * from './printlog';
