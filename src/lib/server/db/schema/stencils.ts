@@ -1,5 +1,13 @@
 import { sql } from 'drizzle-orm';
-import { index, integer, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import {
+	index,
+	integer,
+	real,
+	sqliteTable,
+	text,
+	uniqueIndex,
+	type AnySQLiteColumn
+} from 'drizzle-orm/sqlite-core';
 import { sites, users } from './foundation';
 
 /**
@@ -25,7 +33,11 @@ export const stencils = sqliteTable(
 		createdAt: integer('created_at', { mode: 'timestamp_ms' })
 			.notNull()
 			.default(sql`(unixepoch('subsec') * 1000)`),
-		createdByUserId: integer('created_by_user_id').references(() => users.id)
+		createdByUserId: integer('created_by_user_id').references(() => users.id),
+		/** The revision this one was started from (its apertures were copied), if any. */
+		basedOnStencilId: integer('based_on_stencil_id').references(
+			(): AnySQLiteColumn => stencils.id
+		)
 	},
 	(t) => [uniqueIndex('stencils_name_revision_idx').on(t.name, t.revision)]
 );
@@ -64,4 +76,34 @@ export const apertures = sqliteTable(
 		rotationDeg: real('rotation_deg').notNull().default(0)
 	},
 	(t) => [index('apertures_stencil_refdes_idx').on(t.stencilId, t.refdes, t.pad)]
+);
+
+/**
+ * One aperture import into a stencil (JSON, CSV, Gerber, a typed aperture or a revision copy):
+ * what came in, from where, and the warnings the engineer saw. Written in the same transaction
+ * as the apertures, so the record and the data never disagree.
+ */
+export const apertureImports = sqliteTable(
+	'aperture_imports',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		stencilId: integer('stencil_id')
+			.notNull()
+			.references(() => stencils.id),
+		/** json | csv | gerber | form | revision-copy */
+		source: text('source').notNull(),
+		fileName: text('file_name'),
+		/** Length unit of a CSV or Gerber file (um, mm, mil, inch); null for JSON (always µm). */
+		unit: text('unit'),
+		/** append | replace */
+		mode: text('mode').notNull(),
+		apertureCount: integer('aperture_count').notNull(),
+		warnings: text('warnings', { mode: 'json' }).$type<string[]>().notNull(),
+		createdAt: integer('created_at', { mode: 'timestamp_ms' })
+			.notNull()
+			.default(sql`(unixepoch('subsec') * 1000)`),
+		/** "user:12", "token:3" or "system", as in the audit log. */
+		createdBy: text('created_by').notNull()
+	},
+	(t) => [index('aperture_imports_stencil_idx').on(t.stencilId)]
 );
