@@ -57,7 +57,7 @@ test.describe('JSON API access', () => {
 
 		const notJson = await request.post('/api/lines', {
 			headers: { ...engineer, 'Content-Type': 'application/json' },
-			data: '{not json'
+			data: Buffer.from('{not json')
 		});
 		expect(notJson.status()).toBe(400);
 		expect(await notJson.json()).toEqual({ error: 'The request body is not valid JSON.' });
