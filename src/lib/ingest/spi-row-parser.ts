@@ -73,6 +73,14 @@ const MAX_RECORD_LINES = 50;
 const MAX_RECORD_CHARS = 65536;
 
 const RESULT_CODES = { pass: 0, warn: 1, fail: 2 } as const;
+const VOLUME_MIN = FIELD_RANGES.volume_pct.min;
+const VOLUME_MAX = FIELD_RANGES.volume_pct.max;
+const AREA_MIN = FIELD_RANGES.area_pct.min;
+const AREA_MAX = FIELD_RANGES.area_pct.max;
+const HEIGHT_MIN = FIELD_RANGES.height_um.min;
+const HEIGHT_MAX = FIELD_RANGES.height_um.max;
+const OFFSET_MIN = FIELD_RANGES.offset_x_um.min;
+const OFFSET_MAX = FIELD_RANGES.offset_x_um.max;
 
 /**
  * Offset of the first byte that breaks UTF-8 (RFC 3629 §4 syntax: no overlongs, no surrogates,
@@ -344,7 +352,9 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		field: keyof typeof FIELD_RANGES,
 		factor: number,
 		unit: string,
-		optional: boolean
+		optional: boolean,
+		min: number,
+		max: number
 	): number {
 		const value = parseDecimal(rec, decimalComma, starts[index], ends[index]);
 		if (value !== value) {
@@ -354,8 +364,8 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			return NaN;
 		}
 		const scaled = factor === 1 ? value : value * factor;
-		const range = FIELD_RANGES[field];
-		if (scaled < range.min || scaled > range.max) {
+		// Bounds come in as plain numbers: a keyed lookup here would run six times per row.
+		if (scaled < min || scaled > max) {
 			bad(row, index, `${field} ${scaled} is outside ${rangeText(field, unit)}`);
 		}
 		return scaled;
@@ -385,10 +395,32 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 	let lastStencil = '';
 	let lastPrintRun = '';
 
-	function readRecord(record: string, row: number): void {
+	// Error path only (building the message costs a Date and several strings).
+	function reportBoardConflict(
+		row: number,
+		b: BoardHeader,
+		lineCode: string,
+		productCode: string,
+		stencil: string,
+		printRun: string
+	): void {
+		const of = `than earlier rows of board ${b.boardSerial} inspected ${new Date(b.inspectedAtMs).toISOString()}`;
+		if (b.lineCode !== lineCode) bad(row, iLine, `line "${lineCode}" differs from "${b.lineCode}" ${of}`);
+		if (b.productCode !== productCode) {
+			bad(row, iProduct, `product "${productCode}" differs from "${b.productCode}" ${of}`);
+		}
+		if ((b.stencil ?? '') !== stencil) {
+			bad(row, iStencil, `stencil "${stencil}" differs from "${b.stencil ?? ''}" ${of}`);
+		}
+		if ((b.printRun ?? '') !== printRun) {
+			bad(row, iPrintRun, `print_run "${printRun}" differs from "${b.printRun ?? ''}" ${of}`);
+		}
+	}
+
+	function readRecord(record: string, row: number, quoted: boolean): void {
 		dataRows++;
 		let n: number;
-		if (record.indexOf('"') < 0) {
+		if (!quoted) {
 			rec = record;
 			n = scanFieldBounds(record, delimiter as string, starts, ends);
 		} else {
@@ -451,16 +483,18 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			}
 		}
 		const refdes = text(row, iRefdes, 'refdes', true, lastRefdes);
-		const pad = text(row, iPad, 'pad', false, '');
+		const pad = ends[iPad] - starts[iPad] === 1 ? cell(iPad) : text(row, iPad, 'pad', false, '');
 		const volumePct =
-			iVolume >= 0 ? measure(row, iVolume, 'volume_pct', 1, ' %', volumePctOptional) : NaN;
-		const areaPct = measure(row, iArea, 'area_pct', 1, ' %', false);
-		const heightUm = measure(row, iHeight, 'height_um', lengthFactor, ' µm', false);
-		const offsetXUm = measure(row, iOffsetX, 'offset_x_um', lengthFactor, ' µm', false);
-		const offsetYUm = measure(row, iOffsetY, 'offset_y_um', lengthFactor, ' µm', false);
+			iVolume >= 0
+				? measure(row, iVolume, 'volume_pct', 1, ' %', volumePctOptional, VOLUME_MIN, VOLUME_MAX)
+				: NaN;
+		const areaPct = measure(row, iArea, 'area_pct', 1, ' %', false, AREA_MIN, AREA_MAX);
+		const heightUm = measure(row, iHeight, 'height_um', lengthFactor, ' µm', false, HEIGHT_MIN, HEIGHT_MAX);
+		const offsetXUm = measure(row, iOffsetX, 'offset_x_um', lengthFactor, ' µm', false, OFFSET_MIN, OFFSET_MAX);
+		const offsetYUm = measure(row, iOffsetY, 'offset_y_um', lengthFactor, ' µm', false, OFFSET_MIN, OFFSET_MAX);
 		const volumeUm3 =
 			iVolumeUm3 >= 0
-				? measure(row, iVolumeUm3, 'volume_um3', volumeFactor, ' µm³', volumeUm3Optional)
+				? measure(row, iVolumeUm3, 'volume_um3', volumeFactor, ' µm³', volumeUm3Optional, 0, FIELD_RANGES.volume_um3.max)
 				: NaN;
 		const result = readResult(row);
 		const stencil = iStencil >= 0 ? text(row, iStencil, 'stencil', false, lastStencil) : '';
@@ -485,16 +519,13 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		}
 		if (boardIndex !== undefined) {
 			const b = boardList[boardIndex];
-			const of = `than earlier rows of board ${serial} inspected ${new Date(inspectedAtMs).toISOString()}`;
-			if (b.lineCode !== lineCode) bad(row, iLine, `line "${lineCode}" differs from "${b.lineCode}" ${of}`);
-			if (b.productCode !== productCode) {
-				bad(row, iProduct, `product "${productCode}" differs from "${b.productCode}" ${of}`);
-			}
-			if ((b.stencil ?? '') !== stencil) {
-				bad(row, iStencil, `stencil "${stencil}" differs from "${b.stencil ?? ''}" ${of}`);
-			}
-			if ((b.printRun ?? '') !== printRun) {
-				bad(row, iPrintRun, `print_run "${printRun}" differs from "${b.printRun ?? ''}" ${of}`);
+			if (
+				b.lineCode !== lineCode ||
+				b.productCode !== productCode ||
+				(b.stencil ?? '') !== stencil ||
+				(b.printRun ?? '') !== printRun
+			) {
+				reportBoardConflict(row, b, lineCode, productCode, stencil, printRun);
 			}
 			if (rowHasError) {
 				rejectRow();
@@ -572,7 +603,8 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 	}
 
 	function tryRecord(record: string, row: number, sample: string): void {
-		if (record.indexOf('"') >= 0) {
+		const quoted = record.indexOf('"') >= 0;
+		if (quoted) {
 			const d = delimiter ?? detectDelimiter(sample);
 			const split = splitQuotedLine(record, d);
 			if (split.unterminated && pendingLines < MAX_RECORD_LINES && record.length < MAX_RECORD_CHARS) {
@@ -590,7 +622,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			sawNonBlank = true;
 			readHeader(record, sample);
 		} else {
-			readRecord(record, row);
+			readRecord(record, row, quoted);
 		}
 	}
 
@@ -599,13 +631,6 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		if (firstText && data.length > 0) {
 			firstText = false;
 			if (data.charCodeAt(0) === 0xfeff) data = data.slice(1);
-		}
-		const nul = data.indexOf('\u0000');
-		if (nul >= 0) {
-			let line = lineNo + 1;
-			for (let i = 0; i < nul; i++) if (data.charCodeAt(i) === 10) line++;
-			fileError(`file is not text: NUL character on line ${line}; is it a binary export?`);
-			return;
 		}
 		let start = 0;
 		for (;;) {
@@ -687,6 +712,14 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 					fileError(
 						`file is not valid UTF-8 text (replacement character U+FFFD on line ${line}); it was decoded with the wrong encoding`
 					);
+					return take();
+				}
+				const nul = chunk.indexOf('\u0000');
+				if (nul >= 0) {
+					let line = lineNo + 1;
+					const before = carry + chunk.slice(0, nul);
+					for (let i = 0; i < before.length; i++) if (before.charCodeAt(i) === 10) line++;
+					fileError(`file is not text: NUL character on line ${line}; is it a binary export?`);
 					return take();
 				}
 				textChunk = chunk;
