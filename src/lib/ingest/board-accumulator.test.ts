@@ -11,7 +11,14 @@ import {
 } from './board-accumulator';
 
 const CODES: Record<string, ResultCode> = { pass: 0, warn: 1, fail: 2 };
-type CheckStats = { count: number; mean: number; sd: number | null; min: number; max: number; range: number };
+type CheckStats = {
+	count: number;
+	mean: number;
+	sd: number | null;
+	min: number;
+	max: number;
+	range: number;
+};
 
 function rowsOf(serial: keyof typeof check.rows): AggregatableRow[] {
 	return check.rows[serial].map((r) => ({ ...r, result: CODES[r.result] }));
@@ -79,7 +86,7 @@ describe('createBoardAccumulator against simple-statistics', () => {
 			heightUm: 100 + next() * 40,
 			offsetXUm: next() * 60 - 30,
 			offsetYUm: next() * 60 - 30,
-			result: (Math.floor(next() * 3) as ResultCode)
+			result: Math.floor(next() * 3) as ResultCode
 		}));
 		const acc = createBoardAccumulator();
 		rows.forEach((r) => acc.add(r));
@@ -122,10 +129,26 @@ describe('edge cases', () => {
 		result: 0
 	});
 	it.each([
-		{ name: 'empty', values: [], expected: { count: 0, mean: null, sd: null, min: null, max: null, range: null } },
-		{ name: 'n = 1', values: [101.5], expected: { count: 1, mean: 101.5, sd: null, min: 101.5, max: 101.5, range: 0 } },
-		{ name: 'zero spread', values: [100, 100, 100], expected: { count: 3, mean: 100, sd: 0, min: 100, max: 100, range: 0 } },
-		{ name: 'NaN skipped', values: [NaN, 98, NaN, 102], expected: { count: 2, mean: 100, sd: Math.sqrt(8), min: 98, max: 102, range: 4 } }
+		{
+			name: 'empty',
+			values: [],
+			expected: { count: 0, mean: null, sd: null, min: null, max: null, range: null }
+		},
+		{
+			name: 'n = 1',
+			values: [101.5],
+			expected: { count: 1, mean: 101.5, sd: null, min: 101.5, max: 101.5, range: 0 }
+		},
+		{
+			name: 'zero spread',
+			values: [100, 100, 100],
+			expected: { count: 3, mean: 100, sd: 0, min: 100, max: 100, range: 0 }
+		},
+		{
+			name: 'NaN skipped',
+			values: [NaN, 98, NaN, 102],
+			expected: { count: 2, mean: 100, sd: Math.sqrt(8), min: 98, max: 102, range: 4 }
+		}
 	])('$name', ({ values, expected }) => {
 		const acc = createBoardAccumulator();
 		values.forEach((v) => acc.add(row(v)));

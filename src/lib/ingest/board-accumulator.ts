@@ -103,7 +103,8 @@ function summarise(s: AccumulatorState): BoardAggregate {
 
 function mergeStates(a: AccumulatorState, b: AccumulatorState): AccumulatorState {
 	const measures = {} as Record<AggregatedMeasure, MeasureState>;
-	for (const m of AGGREGATED_MEASURES) measures[m] = mergeMeasureStates(a.measures[m], b.measures[m]);
+	for (const m of AGGREGATED_MEASURES)
+		measures[m] = mergeMeasureStates(a.measures[m], b.measures[m]);
 	return {
 		rows: a.rows + b.rows,
 		measures,

@@ -5,7 +5,11 @@ import { previewSample } from './preview-sample';
 describe('detectDelimiter', () => {
 	it.each([
 		['comma', 'a,b,c\n1,2,3\n4,5,6', ','],
-		['semicolon with decimal commas', 'serial;volume;height\nRB-1;101,5;0,12\nRB-2;99,25;0,13', ';'],
+		[
+			'semicolon with decimal commas',
+			'serial;volume;height\nRB-1;101,5;0,12\nRB-2;99,25;0,13',
+			';'
+		],
 		['semicolon, decimal commas in every row and none in the header', 'a;b\n1,5;2,5\n3,5;4,5', ';'],
 		['tab', 'a\tb\tc\n1\t2\t3', '\t'],
 		['tab with decimal commas', 'a\tb\n1,5\t2', '\t'],
@@ -44,7 +48,12 @@ describe('previewSample', () => {
 	});
 
 	it('empty text gives an empty preview', () => {
-		expect(previewSample('', 5)).toEqual({ delimiter: ',', decimalCommaLikely: false, header: [], rows: [] });
+		expect(previewSample('', 5)).toEqual({
+			delimiter: ',',
+			decimalCommaLikely: false,
+			header: [],
+			rows: []
+		});
 	});
 
 	it('comma files never claim a decimal comma', () => {
@@ -52,6 +61,8 @@ describe('previewSample', () => {
 	});
 
 	it('rejects a bad row count', () => {
-		expect(() => previewSample('a', -1)).toThrow('previewSample requires a non-negative integer row count, got -1');
+		expect(() => previewSample('a', -1)).toThrow(
+			'previewSample requires a non-negative integer row count, got -1'
+		);
 	});
 });

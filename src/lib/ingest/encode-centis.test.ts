@@ -27,7 +27,8 @@ describe('encodeCentis / decodeCentis', () => {
 		for (let k = -500000; k <= 500000; k++) {
 			const text = (k / 100).toFixed(2);
 			const value = Number(text);
-			if (decodeCentis(encodeCentis(value)) !== value || encodeCentis(value) !== k) failures.push(text);
+			if (decodeCentis(encodeCentis(value)) !== value || encodeCentis(value) !== k)
+				failures.push(text);
 		}
 		expect(failures).toEqual([]);
 	});

@@ -19,7 +19,8 @@ export interface IngestIssue {
  * @example formatIngestIssue({ row: 1, column: null, message: 'file is empty' }) // 'row 1: file is empty'
  */
 export function formatIngestIssue(issue: IngestIssue): string {
-	const where = issue.column === null ? `row ${issue.row}` : `row ${issue.row}, column "${issue.column}"`;
+	const where =
+		issue.column === null ? `row ${issue.row}` : `row ${issue.row}, column "${issue.column}"`;
 	return `${where}: ${issue.message}`;
 }
 
@@ -48,7 +49,9 @@ export const DEFAULT_ISSUE_LIMIT = 100;
  */
 export function createIssueCollector(limit: number = DEFAULT_ISSUE_LIMIT): IssueCollector {
 	if (!Number.isInteger(limit) || limit < 0) {
-		throw new RangeError(`createIssueCollector requires a non-negative integer limit, got ${limit}`);
+		throw new RangeError(
+			`createIssueCollector requires a non-negative integer limit, got ${limit}`
+		);
 	}
 	const kept: IngestIssue[] = [];
 	let count = 0;

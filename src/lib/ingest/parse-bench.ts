@@ -95,7 +95,9 @@ function run(): void {
 		const cpuSeconds = (cpu.user + cpu.system) / 1e6;
 		const summary = parser.summary();
 		if (!summary.ok || summary.rowsAccepted !== rows) {
-			throw new Error(`bench file did not parse cleanly: ${JSON.stringify(summary.errors.slice(0, 3))}`);
+			throw new Error(
+				`bench file did not parse cleanly: ${JSON.stringify(summary.errors.slice(0, 3))}`
+			);
 		}
 		console.log(
 			`round ${round}: Rollbead parser ${rows} rows, ${(bytes / 1e6).toFixed(1)} MB, ${batches} batches, ` +

@@ -46,12 +46,22 @@ describe('parseDecimal', () => {
 		expect(parseDecimal(text, true)).toBe(expected);
 	});
 
-	it.each(['', '   ', '-', '.', 'abc', '1,5', '1.2.3', 'Infinity', '-Infinity', 'NaN', '1e400', '12a'])(
-		'%j is NaN (decimal point)',
-		(text) => {
-			expect(parseDecimal(text, false)).toBeNaN();
-		}
-	);
+	it.each([
+		'',
+		'   ',
+		'-',
+		'.',
+		'abc',
+		'1,5',
+		'1.2.3',
+		'Infinity',
+		'-Infinity',
+		'NaN',
+		'1e400',
+		'12a'
+	])('%j is NaN (decimal point)', (text) => {
+		expect(parseDecimal(text, false)).toBeNaN();
+	});
 
 	it.each(['1.234,5', '1,2,3', ','])('%j is NaN (decimal comma)', (text) => {
 		expect(parseDecimal(text, true)).toBeNaN();

@@ -140,7 +140,15 @@ function readDigits(text: string, at: number, min: number, max: number): number 
 }
 
 function readWithOps(ops: Op[], text: string): ParsedTimestamp | null {
-	const t: LocalDateTime = { year: 0, month: 0, day: 0, hour: 0, minute: 0, second: 0, millisecond: 0 };
+	const t: LocalDateTime = {
+		year: 0,
+		month: 0,
+		day: 0,
+		hour: 0,
+		minute: 0,
+		second: 0,
+		millisecond: 0
+	};
 	let offsetMinutes: number | null = null;
 	let pm: boolean | null = null;
 	let hour12 = -1;

@@ -7,9 +7,21 @@ import { requiredFieldsFor, resolveHeader } from './resolve-header';
 describe('requiredFieldsFor', () => {
 	it.each([
 		['canonical', {}, [...REQUIRED_FIELDS]],
-		['serial from file name', { serialFromFileName: { pattern: '(.*)' } }, REQUIRED_FIELDS.filter((f) => f !== 'board_serial')],
-		['constants', { constants: { line: 'L1', product: 'P', panelIndex: 0 } }, REQUIRED_FIELDS.filter((f) => !['line', 'product', 'panel_index'].includes(f))],
-		['absolute volume', { volumeMode: 'absolute-um3' as const }, [...REQUIRED_FIELDS.filter((f) => f !== 'volume_pct'), 'volume_um3']]
+		[
+			'serial from file name',
+			{ serialFromFileName: { pattern: '(.*)' } },
+			REQUIRED_FIELDS.filter((f) => f !== 'board_serial')
+		],
+		[
+			'constants',
+			{ constants: { line: 'L1', product: 'P', panelIndex: 0 } },
+			REQUIRED_FIELDS.filter((f) => !['line', 'product', 'panel_index'].includes(f))
+		],
+		[
+			'absolute volume',
+			{ volumeMode: 'absolute-um3' as const },
+			[...REQUIRED_FIELDS.filter((f) => f !== 'volume_pct'), 'volume_um3']
+		]
 	])('%s', (_name, change, expected) => {
 		expect(requiredFieldsFor({ ...CANONICAL_PROFILE, ...change })).toEqual(expected);
 	});
@@ -42,7 +54,10 @@ describe('resolveHeader', () => {
 describe('ingest issues', () => {
 	it.each([
 		[{ row: 0, column: null, message: 'file is empty' }, 'row 0: file is empty'],
-		[{ row: 7, column: 'height_um', message: 'height_um 2500 is outside 0 to 2000 µm' }, 'row 7, column "height_um": height_um 2500 is outside 0 to 2000 µm']
+		[
+			{ row: 7, column: 'height_um', message: 'height_um 2500 is outside 0 to 2000 µm' },
+			'row 7, column "height_um": height_um 2500 is outside 0 to 2000 µm'
+		]
 	])('formats %j', (issue, text) => {
 		expect(formatIngestIssue(issue)).toBe(text);
 	});
@@ -58,6 +73,8 @@ describe('ingest issues', () => {
 		const c = createIssueCollector(0);
 		c.add({ row: 1, column: null, message: 'x' });
 		expect([c.count, c.list().length]).toEqual([1, 0]);
-		expect(() => createIssueCollector(-1)).toThrow('createIssueCollector requires a non-negative integer limit, got -1');
+		expect(() => createIssueCollector(-1)).toThrow(
+			'createIssueCollector requires a non-negative integer limit, got -1'
+		);
 	});
 });

@@ -54,7 +54,10 @@ const normaliseName = (name: string) => name.trim().toLowerCase();
  * Used once per file, on its first non-blank line.
  * @example resolveHeader(['refdes'], CANONICAL_PROFILE).errors.length // 12 (the other required columns)
  */
-export function resolveHeader(headerFields: readonly string[], profile: MappingProfile): ResolvedHeader {
+export function resolveHeader(
+	headerFields: readonly string[],
+	profile: MappingProfile
+): ResolvedHeader {
 	const names = headerFields.map((h) => h.trim());
 	const lower = names.map(normaliseName);
 	const required = new Set(requiredFieldsFor(profile));
@@ -80,7 +83,11 @@ export function resolveHeader(headerFields: readonly string[], profile: MappingP
 		}
 		used.add(index);
 		if (lower.indexOf(source, index + 1) >= 0) {
-			errors.push({ row: 1, column: names[index], message: `column "${names[index]}" appears more than once` });
+			errors.push({
+				row: 1,
+				column: names[index],
+				message: `column "${names[index]}" appears more than once`
+			});
 		}
 	}
 	const warnings: IngestIssue[] = [];
@@ -89,7 +96,8 @@ export function resolveHeader(headerFields: readonly string[], profile: MappingP
 		warnings.push({
 			row: 1,
 			column: name,
-			message: name === '' ? `column ${i + 1} has no name; ignored` : `unknown column "${name}" ignored`
+			message:
+				name === '' ? `column ${i + 1} has no name; ignored` : `unknown column "${name}" ignored`
 		});
 	});
 	return { indices, names, errors, warnings };

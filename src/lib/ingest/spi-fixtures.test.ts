@@ -23,14 +23,22 @@ interface Parsed {
 	rows: SpiRow[];
 }
 
-function parse(name: string, profile: MappingProfile = CANONICAL_PROFILE, chunkSize = Infinity): Parsed {
+function parse(
+	name: string,
+	profile: MappingProfile = CANONICAL_PROFILE,
+	chunkSize = Infinity
+): Parsed {
 	const parser = createSpiRowParser({ profile, fileName: name, batchSize: 4 });
 	const bytes = bytesOf(name);
 	const batches = [];
 	const step = Math.min(chunkSize, Math.max(bytes.length, 1));
-	for (let i = 0; i < bytes.length; i += step) batches.push(...parser.push(bytes.subarray(i, i + step)));
+	for (let i = 0; i < bytes.length; i += step)
+		batches.push(...parser.push(bytes.subarray(i, i + step)));
 	batches.push(...parser.end());
-	return { summary: parser.summary(), rows: batches.flatMap((b) => batchToRows(b, parser.boards())) };
+	return {
+		summary: parser.summary(),
+		rows: batches.flatMap((b) => batchToRows(b, parser.boards()))
+	};
 }
 
 /** Parse whole and in 1-, 3- and 7-byte chunks; all must agree. */
@@ -56,7 +64,9 @@ describe('good canonical file', () => {
 			expect(summary.delimiter).toBe(',');
 			expect(summary.header[0]).toBe('board_serial'); // BOM removed
 			expect(summary.rowsAccepted).toBe(6);
-			expect(rows.map((r) => [r.line, r.boardSerial, r.refdes, r.pad, r.panelIndex, r.result])).toEqual([
+			expect(
+				rows.map((r) => [r.line, r.boardSerial, r.refdes, r.pad, r.panelIndex, r.result])
+			).toEqual([
 				[2, 'RB-TESTBOARD-0001', 'C1', '1', 0, 0],
 				[3, 'RB-TESTBOARD-0001', 'C1', '2', 0, 0],
 				[4, 'RB-TESTBOARD-0001', 'R7', '1', 1, 2], // FAIL, upper case
@@ -82,7 +92,9 @@ describe('good canonical file', () => {
 			});
 			// 08:00:20+01:00 is 07:00:20 UTC.
 			expect(iso(rows[3].inspectedAtMs)).toBe('2026-03-02T07:00:20.000Z');
-			expect(summary.boards.map((b) => [b.index, b.boardSerial, b.firstLine, b.aggregate.rows])).toEqual([
+			expect(
+				summary.boards.map((b) => [b.index, b.boardSerial, b.firstLine, b.aggregate.rows])
+			).toEqual([
 				[0, 'RB-TESTBOARD-0001', 2, 3],
 				[1, 'RB-TESTBOARD-0002', 5, 3]
 			]);
@@ -99,7 +111,10 @@ describe('good canonical file', () => {
 
 	it('stores every value exactly as centis (≤ 2 decimals in the file)', () => {
 		const { rows } = parse('good-canonical.csv');
-		const text = readFileSync(new URL('good-canonical.csv', dir), 'utf8').trim().split('\n').slice(1);
+		const text = readFileSync(new URL('good-canonical.csv', dir), 'utf8')
+			.trim()
+			.split('\n')
+			.slice(1);
 		rows.forEach((row, i) => {
 			const cells = text[i].split(',');
 			expect(encodeCentis(row.volumePct) / 100).toBe(Number(cells[7]));
@@ -197,7 +212,10 @@ describe('broken files', () => {
 	});
 
 	it('non-numeric.csv with skip-row keeps the one good row', () => {
-		const { summary, rows } = parseAllWays('non-numeric.csv', { ...CANONICAL_PROFILE, onBadRow: 'skip-row' });
+		const { summary, rows } = parseAllWays('non-numeric.csv', {
+			...CANONICAL_PROFILE,
+			onBadRow: 'skip-row'
+		});
 		expect(summary.errors).toEqual(nonNumericErrors);
 		expect(summary.ok).toBe(true);
 		expect(summary.rowsAccepted).toBe(1);
@@ -228,14 +246,19 @@ describe('broken files', () => {
 		const { summary } = parse('binary-garbage.csv');
 		// Bytes 89 50 4E 47 0D 0A 1A 0A 00 …: the NUL is byte 8, after two line feeds.
 		expect(summary.errors).toEqual([
-			{ row: 0, column: null, message: 'file is not text: NUL byte at byte 8 (line 3); is it a binary export?' }
+			{
+				row: 0,
+				column: null,
+				message: 'file is not text: NUL byte at byte 8 (line 3); is it a binary export?'
+			}
 		]);
 		// Fed byte by byte the lone 0x89 (a UTF-8 continuation byte) is caught first.
 		expect(parse('binary-garbage.csv', CANONICAL_PROFILE, 1).summary.errors).toEqual([
 			{
 				row: 0,
 				column: null,
-				message: 'file is not valid UTF-8 text (byte 0x89 at byte 0, line 1); save or export it as UTF-8'
+				message:
+					'file is not valid UTF-8 text (byte 0x89 at byte 0, line 1); save or export it as UTF-8'
 			}
 		]);
 	});
@@ -247,7 +270,8 @@ describe('broken files', () => {
 			{
 				row: 0,
 				column: null,
-				message: 'file is not valid UTF-8 text (byte 0xB5 at byte 21, line 1); save or export it as UTF-8'
+				message:
+					'file is not valid UTF-8 text (byte 0xB5 at byte 21, line 1); save or export it as UTF-8'
 			}
 		]);
 	});
@@ -283,7 +307,9 @@ describe('layout variations', () => {
 		const { summary, rows } = parseAllWays('example-x1-semicolon.csv', profile);
 		expect(summary.errors).toEqual([]);
 		expect(summary.delimiter).toBe(';');
-		expect(rows.map((r) => [r.boardSerial, r.lineCode, r.productCode, r.panelIndex, r.refdes, r.result])).toEqual([
+		expect(
+			rows.map((r) => [r.boardSerial, r.lineCode, r.productCode, r.panelIndex, r.refdes, r.result])
+		).toEqual([
 			['RB-TESTBOARD-0011', 'L2', 'PB-100', 1, 'C1', 0],
 			['RB-TESTBOARD-0011', 'L2', 'PB-100', 1, 'C1', 0],
 			['RB-TESTBOARD-0011', 'L2', 'PB-100', 2, 'R7', 2],
@@ -308,7 +334,9 @@ describe('layout variations', () => {
 		const { summary, rows } = parseAllWays('RB-TESTBOARD-0021_20260308.tsv', profile);
 		expect(summary.errors).toEqual([]);
 		expect(summary.delimiter).toBe('\t');
-		expect(summary.boards.map((b) => [b.boardSerial, b.lineCode, b.productCode, iso(b.inspectedAtMs)])).toEqual([
+		expect(
+			summary.boards.map((b) => [b.boardSerial, b.lineCode, b.productCode, iso(b.inspectedAtMs)])
+		).toEqual([
 			// 01:30 EST (UTC−5), before the 02:00 switch on 8 Mar 2026.
 			['RB-TESTBOARD-0021', 'L3', 'PB-200', '2026-03-08T06:30:00.000Z']
 		]);
@@ -340,7 +368,8 @@ describe('layout variations', () => {
 			{
 				row: 0,
 				column: null,
-				message: 'file name "board.tsv" does not match the serial pattern /^(RB-[A-Z]+-\\d{4})_\\d{8}\\.tsv$/'
+				message:
+					'file name "board.tsv" does not match the serial pattern /^(RB-[A-Z]+-\\d{4})_\\d{8}\\.tsv$/'
 			}
 		]);
 	});

@@ -127,7 +127,10 @@ export function batchToRows(batch: SpiRowBatch, boards: readonly BoardHeader[]):
 	const rows: SpiRow[] = [];
 	for (let i = 0; i < batch.length; i++) {
 		const board = boards[batch.boardIndex[i]];
-		if (!board) throw new Error(`batch row ${i} (line ${batch.line[i]}) points to unknown board ${batch.boardIndex[i]}`);
+		if (!board)
+			throw new Error(
+				`batch row ${i} (line ${batch.line[i]}) points to unknown board ${batch.boardIndex[i]}`
+			);
 		const row: SpiRow = {
 			line: batch.line[i],
 			boardSerial: board.boardSerial,

@@ -13,7 +13,12 @@ const row = (serial: string, time: string, refdes: string, extra = 'L1,PB-100,0'
 function run(text: string, profile: MappingProfile = CANONICAL_PROFILE, batchSize = 8192) {
 	const parser = createSpiRowParser({ profile, fileName: 'memory.csv', batchSize });
 	const batches: SpiRowBatch[] = [...parser.push(text), ...parser.end()];
-	return { parser, batches, summary: parser.summary(), rows: batches.flatMap((b) => batchToRows(b, parser.boards())) };
+	return {
+		parser,
+		batches,
+		summary: parser.summary(),
+		rows: batches.flatMap((b) => batchToRows(b, parser.boards()))
+	};
 }
 
 describe('board grouping', () => {
@@ -27,16 +32,28 @@ describe('board grouping', () => {
 			row('RB-B', T1, 'C2')
 		].join('\n');
 		const { summary, rows } = run(text);
-		expect(summary.boards.map((b) => [b.boardSerial, b.inspectedAtMs, b.aggregate.rows, b.firstLine])).toEqual([
+		expect(
+			summary.boards.map((b) => [b.boardSerial, b.inspectedAtMs, b.aggregate.rows, b.firstLine])
+		).toEqual([
 			['RB-A', Date.UTC(2026, 2, 2, 8), 2, 2],
 			['RB-B', Date.UTC(2026, 2, 2, 8), 2, 3],
 			['RB-A', Date.UTC(2026, 2, 2, 8, 0, 20), 1, 5]
 		]);
-		expect(rows.map((r) => `${r.boardSerial}/${r.refdes}`)).toEqual(['RB-A/C1', 'RB-B/C1', 'RB-A/C2', 'RB-A/C1', 'RB-B/C2']);
+		expect(rows.map((r) => `${r.boardSerial}/${r.refdes}`)).toEqual([
+			'RB-A/C1',
+			'RB-B/C1',
+			'RB-A/C2',
+			'RB-A/C1',
+			'RB-B/C2'
+		]);
 	});
 
 	it('the same instant written with different offsets is one board', () => {
-		const text = [HEADER, row('RB-A', '2026-03-02T09:00:00+01:00', 'C1'), row('RB-A', T1, 'C2')].join('\n');
+		const text = [
+			HEADER,
+			row('RB-A', '2026-03-02T09:00:00+01:00', 'C1'),
+			row('RB-A', T1, 'C2')
+		].join('\n');
 		expect(run(text).summary.boards).toHaveLength(1);
 	});
 
@@ -56,7 +73,11 @@ describe('batches', () => {
 		const lines = [HEADER];
 		for (let i = 0; i < 5; i++) lines.push(row('RB-A', T1, `C${i}`));
 		for (let i = 0; i < 2; i++) lines.push(row('RB-B', T1, `C${i}`));
-		const parser = createSpiRowParser({ profile: CANONICAL_PROFILE, fileName: 'x.csv', batchSize: 3 });
+		const parser = createSpiRowParser({
+			profile: CANONICAL_PROFILE,
+			fileName: 'x.csv',
+			batchSize: 3
+		});
 		const during = parser.push(lines.join('\n') + '\n');
 		const after = parser.end();
 		expect(during.map((b) => b.length)).toEqual([3, 3]);
@@ -91,14 +112,64 @@ describe('batches', () => {
 
 describe('row checks', () => {
 	it.each([
-		['blank lines are skipped, line numbers stay physical', `${HEADER}\n\n${row('RB-A', T1, 'C1')}\n   \n${row('RB-A', T1, 'bad')},x\n`, [{ row: 5, column: null, message: 'row has 14 fields, header has 13' }]],
-		['unterminated quote at end of file', `${HEADER}\n${row('RB-A', T1, 'C1')}\n"RB-A,${T1}`, [{ row: 3, column: null, message: 'unterminated quoted field at end of file' }]],
-		['text after a closing quote', `${HEADER}\n"RB-A"x,${T1},L1,PB-100,0,C1,1,100,100,120,0,0,pass`, [{ row: 2, column: null, message: 'text after closing quote in field 1' }]],
-		['over-long text', `${HEADER}\n${row('RB-A', T1, 'C'.repeat(101))}`, [{ row: 2, column: 'refdes', message: 'refdes is longer than 100 characters' }]],
-		['panel index too large', `${HEADER}\n${row('RB-A', T1, 'C1', 'L1,PB-100,65536')}`, [{ row: 2, column: 'panel_index', message: 'panel_index must be an integer 0 to 65535: "65536"' }]],
-		['panel index not an integer', `${HEADER}\n${row('RB-A', T1, 'C1', 'L1,PB-100,1.5')}`, [{ row: 2, column: 'panel_index', message: 'panel_index must be an integer 0 to 65535: "1.5"' }]],
-		['empty timestamp on the first row', `${HEADER}\n${row('RB-A', '', 'C1')}`, [{ row: 2, column: 'inspected_at', message: 'inspected_at is not a timestamp in format iso: ""' }]],
-		['empty line code', `${HEADER}\n${row('RB-A', T1, 'C1', ',PB-100,0')}`, [{ row: 2, column: 'line', message: 'line is empty' }]]
+		[
+			'blank lines are skipped, line numbers stay physical',
+			`${HEADER}\n\n${row('RB-A', T1, 'C1')}\n   \n${row('RB-A', T1, 'bad')},x\n`,
+			[{ row: 5, column: null, message: 'row has 14 fields, header has 13' }]
+		],
+		[
+			'unterminated quote at end of file',
+			`${HEADER}\n${row('RB-A', T1, 'C1')}\n"RB-A,${T1}`,
+			[{ row: 3, column: null, message: 'unterminated quoted field at end of file' }]
+		],
+		[
+			'text after a closing quote',
+			`${HEADER}\n"RB-A"x,${T1},L1,PB-100,0,C1,1,100,100,120,0,0,pass`,
+			[{ row: 2, column: null, message: 'text after closing quote in field 1' }]
+		],
+		[
+			'over-long text',
+			`${HEADER}\n${row('RB-A', T1, 'C'.repeat(101))}`,
+			[{ row: 2, column: 'refdes', message: 'refdes is longer than 100 characters' }]
+		],
+		[
+			'panel index too large',
+			`${HEADER}\n${row('RB-A', T1, 'C1', 'L1,PB-100,65536')}`,
+			[
+				{
+					row: 2,
+					column: 'panel_index',
+					message: 'panel_index must be an integer 0 to 65535: "65536"'
+				}
+			]
+		],
+		[
+			'panel index not an integer',
+			`${HEADER}\n${row('RB-A', T1, 'C1', 'L1,PB-100,1.5')}`,
+			[
+				{
+					row: 2,
+					column: 'panel_index',
+					message: 'panel_index must be an integer 0 to 65535: "1.5"'
+				}
+			]
+		],
+		[
+			'empty timestamp on the first row',
+			`${HEADER}\n${row('RB-A', '', 'C1')}`,
+			[
+				{
+					row: 2,
+					column: 'inspected_at',
+					message: 'inspected_at is not a timestamp in format iso: ""'
+				}
+			]
+		],
+		[
+			'empty line code',
+			`${HEADER}\n${row('RB-A', T1, 'C1', ',PB-100,0')}`,
+			[{ row: 2, column: 'line', message: 'line is empty' }]
+		]
 	])('%s', (_name, text, errors) => {
 		expect(run(text).summary.errors).toEqual(errors);
 	});
@@ -119,7 +190,11 @@ describe('row checks', () => {
 		for (let i = 0; i < 60; i++) lines.push('x');
 		lines.push(row('RB-B', T1, 'C1'));
 		const { summary } = run(lines.join('\n'), { ...CANONICAL_PROFILE, onBadRow: 'skip-row' });
-		expect(summary.errors[0]).toEqual({ row: 2, column: null, message: 'unterminated quoted field (field 1)' });
+		expect(summary.errors[0]).toEqual({
+			row: 2,
+			column: null,
+			message: 'unterminated quoted field (field 1)'
+		});
 		expect(summary.rowsAccepted).toBe(1);
 	});
 
@@ -139,11 +214,22 @@ describe('row checks', () => {
 			onBadRow: 'skip-row'
 		});
 		expect(summary.ok).toBe(false);
-		expect(summary.errors[1]).toEqual({ row: 0, column: null, message: 'no valid data rows (all 1 rejected)' });
+		expect(summary.errors[1]).toEqual({
+			row: 0,
+			column: null,
+			message: 'no valid data rows (all 1 rejected)'
+		});
 	});
 
 	it('reject-file stops handing out batches at the first bad row but reports later errors', () => {
-		const lines = [HEADER, row('RB-A', T1, 'C1'), row('RB-A', T1, 'C2'), row('RB-A', T1, 'C3').replace('pass', '??'), row('RB-A', T1, 'C4'), row('RB-A', T1, 'C5').replace(',120,', ',-1,')];
+		const lines = [
+			HEADER,
+			row('RB-A', T1, 'C1'),
+			row('RB-A', T1, 'C2'),
+			row('RB-A', T1, 'C3').replace('pass', '??'),
+			row('RB-A', T1, 'C4'),
+			row('RB-A', T1, 'C5').replace(',120,', ',-1,')
+		];
 		const { summary, batches } = run(lines.join('\n'), CANONICAL_PROFILE, 2);
 		expect(batches.map((b) => b.length)).toEqual([2]); // handed out before the error; caller rolls back
 		expect(summary.ok).toBe(false);
@@ -156,7 +242,9 @@ describe('row checks', () => {
 
 	it('a duplicated column is a header error', () => {
 		const { summary } = run(`${HEADER},refdes\n`);
-		expect(summary.errors).toEqual([{ row: 1, column: 'refdes', message: 'column "refdes" appears more than once' }]);
+		expect(summary.errors).toEqual([
+			{ row: 1, column: 'refdes', message: 'column "refdes" appears more than once' }
+		]);
 	});
 
 	it('a string chunk with U+FFFD (decoded with the wrong charset) is a file-level error', () => {
@@ -165,7 +253,8 @@ describe('row checks', () => {
 			{
 				row: 0,
 				column: null,
-				message: 'file is not valid UTF-8 text (replacement character U+FFFD on line 2); it was decoded with the wrong encoding'
+				message:
+					'file is not valid UTF-8 text (replacement character U+FFFD on line 2); it was decoded with the wrong encoding'
 			}
 		]);
 	});
@@ -183,13 +272,14 @@ describe('row checks', () => {
 
 describe('profiles', () => {
 	it('rejects a bad batch size', () => {
-		expect(() => createSpiRowParser({ profile: CANONICAL_PROFILE, fileName: 'x', batchSize: 0 })).toThrow(
-			'createSpiRowParser requires a positive integer batchSize, got 0'
-		);
+		expect(() =>
+			createSpiRowParser({ profile: CANONICAL_PROFILE, fileName: 'x', batchSize: 0 })
+		).toThrow('createSpiRowParser requires a positive integer batchSize, got 0');
 	});
 
 	it('uses constants for line, product and panel index when the export lacks them', () => {
-		const text = 'board_serial,inspected_at,refdes,pad,volume_pct,area_pct,height_um,offset_x_um,offset_y_um,result\nRB-A,2026-03-02 09:00:00,C1,1,100,100,120,0,0,OK';
+		const text =
+			'board_serial,inspected_at,refdes,pad,volume_pct,area_pct,height_um,offset_x_um,offset_y_um,result\nRB-A,2026-03-02 09:00:00,C1,1,100,100,120,0,0,OK';
 		const profile: MappingProfile = {
 			...CANONICAL_PROFILE,
 			timeZone: 'Europe/Berlin',
@@ -198,12 +288,18 @@ describe('profiles', () => {
 		};
 		const { rows, summary } = run(text, profile);
 		expect(summary.errors).toEqual([]);
-		expect(rows[0]).toMatchObject({ lineCode: 'L9', productCode: 'PB-300', panelIndex: 3, result: 0 });
+		expect(rows[0]).toMatchObject({
+			lineCode: 'L9',
+			productCode: 'PB-300',
+			panelIndex: 3,
+			result: 0
+		});
 		expect(new Date(rows[0].inspectedAtMs).toISOString()).toBe('2026-03-02T08:00:00.000Z');
 	});
 
 	it('maps columns by profile names, case-insensitively', () => {
-		const text = 'SN;Time;Line;Prog;Arr;Ref;Pin;Vol;Area;H;DX;DY;Res\nRB-A;2026-03-02T08:00:00Z;L1;PB-100;0;C1;1;99,5;100;120;0;0;pass';
+		const text =
+			'SN;Time;Line;Prog;Arr;Ref;Pin;Vol;Area;H;DX;DY;Res\nRB-A;2026-03-02T08:00:00Z;L1;PB-100;0;C1;1;99,5;100;120;0;0;pass';
 		const profile: MappingProfile = {
 			...CANONICAL_PROFILE,
 			decimalComma: true,
@@ -229,7 +325,10 @@ describe('profiles', () => {
 	});
 
 	it('names the profile header in a missing-column error', () => {
-		const { summary } = run(HEADER.replace('height_um', 'h'), { ...CANONICAL_PROFILE, columns: { height_um: 'Height(um)' } });
+		const { summary } = run(HEADER.replace('height_um', 'h'), {
+			...CANONICAL_PROFILE,
+			columns: { height_um: 'Height(um)' }
+		});
 		expect(summary.errors).toContainEqual({
 			row: 1,
 			column: 'Height(um)',

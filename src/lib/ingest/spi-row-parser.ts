@@ -1,5 +1,9 @@
 import { toCubicMicrometres, toMicrometres } from '../units';
-import { createBoardAccumulator, type BoardAccumulator, type BoardAggregate } from './board-accumulator';
+import {
+	createBoardAccumulator,
+	type BoardAccumulator,
+	type BoardAggregate
+} from './board-accumulator';
 import { FIELD_RANGES, MAX_TEXT_LENGTH, type CanonicalField } from './canonical-fields';
 import { detectDelimiter, type Delimiter } from './detect-delimiter';
 import { createIssueCollector, type IngestIssue } from './ingest-issue';
@@ -170,7 +174,9 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 	const { profile, fileName } = options;
 	const batchSize = options.batchSize ?? DEFAULT_BATCH_SIZE;
 	if (!Number.isInteger(batchSize) || batchSize < 1) {
-		throw new RangeError(`createSpiRowParser requires a positive integer batchSize, got ${batchSize}`);
+		throw new RangeError(
+			`createSpiRowParser requires a positive integer batchSize, got ${batchSize}`
+		);
 	}
 	const parseTime = createTimestampParser(profile.timestampFormat, profile.timeZone);
 	const errors = createIssueCollector(options.issueLimit);
@@ -178,8 +184,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 	const skipRows = profile.onBadRow === 'skip-row';
 	const decimalComma = profile.decimalComma;
 	const lengthFactor = toMicrometres(1, profile.lengthUnit);
-	const volumeFactor =
-		profile.volumeMode === 'absolute-mil3' ? toCubicMicrometres(1, 'mil') : 1;
+	const volumeFactor = profile.volumeMode === 'absolute-mil3' ? toCubicMicrometres(1, 'mil') : 1;
 	// Absolute volume modes read volume_um3 and leave volume_pct to be derived later.
 	const volumePctOptional = profile.volumeMode !== 'percent';
 	const volumeUm3Optional = !volumePctOptional;
@@ -313,7 +318,11 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 	let rowHasError = false;
 	function bad(row: number, index: number, message: string): void {
 		rowHasError = true;
-		errors.add({ row, column: index >= 0 ? (header as ResolvedHeader).names[index] : null, message });
+		errors.add({
+			row,
+			column: index >= 0 ? (header as ResolvedHeader).names[index] : null,
+			message
+		});
 	}
 
 	// The current record and its cell boundaries. Cells are read in place (no substring per
@@ -405,7 +414,8 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		printRun: string
 	): void {
 		const of = `than earlier rows of board ${b.boardSerial} inspected ${new Date(b.inspectedAtMs).toISOString()}`;
-		if (b.lineCode !== lineCode) bad(row, iLine, `line "${lineCode}" differs from "${b.lineCode}" ${of}`);
+		if (b.lineCode !== lineCode)
+			bad(row, iLine, `line "${lineCode}" differs from "${b.lineCode}" ${of}`);
 		if (b.productCode !== productCode) {
 			bad(row, iProduct, `product "${productCode}" differs from "${b.productCode}" ${of}`);
 		}
@@ -449,7 +459,9 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		}
 		rowHasError = false;
 		const serial =
-			iSerial >= 0 ? text(row, iSerial, 'board_serial', true, lastSerial) : (serialFromName as string);
+			iSerial >= 0
+				? text(row, iSerial, 'board_serial', true, lastSerial)
+				: (serialFromName as string);
 		let inspectedAtMs = lastInspectedAtMs;
 		if (!cellIs(iTime, lastTimeText)) {
 			const timeText = cell(iTime);
@@ -489,12 +501,48 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 				? measure(row, iVolume, 'volume_pct', 1, ' %', volumePctOptional, VOLUME_MIN, VOLUME_MAX)
 				: NaN;
 		const areaPct = measure(row, iArea, 'area_pct', 1, ' %', false, AREA_MIN, AREA_MAX);
-		const heightUm = measure(row, iHeight, 'height_um', lengthFactor, ' µm', false, HEIGHT_MIN, HEIGHT_MAX);
-		const offsetXUm = measure(row, iOffsetX, 'offset_x_um', lengthFactor, ' µm', false, OFFSET_MIN, OFFSET_MAX);
-		const offsetYUm = measure(row, iOffsetY, 'offset_y_um', lengthFactor, ' µm', false, OFFSET_MIN, OFFSET_MAX);
+		const heightUm = measure(
+			row,
+			iHeight,
+			'height_um',
+			lengthFactor,
+			' µm',
+			false,
+			HEIGHT_MIN,
+			HEIGHT_MAX
+		);
+		const offsetXUm = measure(
+			row,
+			iOffsetX,
+			'offset_x_um',
+			lengthFactor,
+			' µm',
+			false,
+			OFFSET_MIN,
+			OFFSET_MAX
+		);
+		const offsetYUm = measure(
+			row,
+			iOffsetY,
+			'offset_y_um',
+			lengthFactor,
+			' µm',
+			false,
+			OFFSET_MIN,
+			OFFSET_MAX
+		);
 		const volumeUm3 =
 			iVolumeUm3 >= 0
-				? measure(row, iVolumeUm3, 'volume_um3', volumeFactor, ' µm³', volumeUm3Optional, 0, FIELD_RANGES.volume_um3.max)
+				? measure(
+						row,
+						iVolumeUm3,
+						'volume_um3',
+						volumeFactor,
+						' µm³',
+						volumeUm3Optional,
+						0,
+						FIELD_RANGES.volume_um3.max
+					)
 				: NaN;
 		const result = readResult(row);
 		const stencil = iStencil >= 0 ? text(row, iStencil, 'stencil', false, lastStencil) : '';
@@ -607,7 +655,11 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		if (quoted) {
 			const d = delimiter ?? detectDelimiter(sample);
 			const split = splitQuotedLine(record, d);
-			if (split.unterminated && pendingLines < MAX_RECORD_LINES && record.length < MAX_RECORD_CHARS) {
+			if (
+				split.unterminated &&
+				pendingLines < MAX_RECORD_LINES &&
+				record.length < MAX_RECORD_CHARS
+			) {
 				if (pending === '') {
 					pendingStart = row;
 					pendingLines = 1;
@@ -649,7 +701,11 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 				handleLine(last, last);
 			}
 			if (pending !== '' && !fileFailed) {
-				errors.add({ row: pendingStart, column: null, message: 'unterminated quoted field at end of file' });
+				errors.add({
+					row: pendingStart,
+					column: null,
+					message: 'unterminated quoted field at end of file'
+				});
 				pending = '';
 				if (header === null) fileFailed = true;
 				else {
@@ -744,7 +800,8 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 				if (!fileFailed) processText(tail, true);
 			}
 			if (!fileFailed && !sawNonBlank) fileError('file is empty');
-			else if (!fileFailed && dataRows === 0) fileError('no data rows (the file has only a header)');
+			else if (!fileFailed && dataRows === 0)
+				fileError('no data rows (the file has only a header)');
 			else if (!fileFailed && skipRows && rowsAccepted === 0) {
 				fileError(`no valid data rows (all ${rowsRejected} rejected)`);
 			}

@@ -13,7 +13,20 @@ describe('suggestColumnMapping', () => {
 	});
 
 	it('maps the invented Example X1 layout (tests/fixtures/spi/example-x1.profile.json)', () => {
-		const headers = ['Barcode', 'Date', 'Program', 'Array', 'Component', 'Pin', 'Volume(%)', 'Area(%)', 'Height(mm)', 'X Shift(mm)', 'Y Shift(mm)', 'Judgement'];
+		const headers = [
+			'Barcode',
+			'Date',
+			'Program',
+			'Array',
+			'Component',
+			'Pin',
+			'Volume(%)',
+			'Area(%)',
+			'Height(mm)',
+			'X Shift(mm)',
+			'Y Shift(mm)',
+			'Judgement'
+		];
 		const s = suggestColumnMapping(headers);
 		expect(s.columns).toEqual({
 			board_serial: 'Barcode',
@@ -75,6 +88,11 @@ describe('suggestColumnMapping', () => {
 	});
 
 	it('empty input', () => {
-		expect(suggestColumnMapping([])).toEqual({ columns: {}, confidence: {}, unmatched: [], lengthUnitHint: null });
+		expect(suggestColumnMapping([])).toEqual({
+			columns: {},
+			confidence: {},
+			unmatched: [],
+			lengthUnitHint: null
+		});
 	});
 });

@@ -16,20 +16,137 @@ export interface ColumnMappingSuggestion {
 // Known names per field, already in normalised form (see normalise). Rollbead's own list of
 // everyday words for these quantities, not taken from any product's export.
 const SYNONYMS: Record<CanonicalField, string[]> = {
-	board_serial: ['board serial', 'serial', 'serial number', 'sn', 'barcode', 'board id', 'pcb id', 'pcb serial', 'board barcode', 'board sn'],
-	inspected_at: ['inspected at', 'timestamp', 'time', 'date time', 'datetime', 'inspection time', 'inspection date', 'date', 'time stamp', 'measured at'],
+	board_serial: [
+		'board serial',
+		'serial',
+		'serial number',
+		'sn',
+		'barcode',
+		'board id',
+		'pcb id',
+		'pcb serial',
+		'board barcode',
+		'board sn'
+	],
+	inspected_at: [
+		'inspected at',
+		'timestamp',
+		'time',
+		'date time',
+		'datetime',
+		'inspection time',
+		'inspection date',
+		'date',
+		'time stamp',
+		'measured at'
+	],
 	line: ['line', 'line name', 'line id', 'smt line', 'line code'],
-	product: ['product', 'product code', 'program', 'program name', 'recipe', 'job', 'assembly', 'board name', 'model'],
-	panel_index: ['panel index', 'panel', 'array', 'array index', 'board index', 'block', 'circuit', 'panel no', 'array no', 'sub board'],
-	refdes: ['refdes', 'ref des', 'reference', 'designator', 'component', 'comp', 'part', 'location', 'reference designator', 'comp name', 'component name'],
+	product: [
+		'product',
+		'product code',
+		'program',
+		'program name',
+		'recipe',
+		'job',
+		'assembly',
+		'board name',
+		'model'
+	],
+	panel_index: [
+		'panel index',
+		'panel',
+		'array',
+		'array index',
+		'board index',
+		'block',
+		'circuit',
+		'panel no',
+		'array no',
+		'sub board'
+	],
+	refdes: [
+		'refdes',
+		'ref des',
+		'reference',
+		'designator',
+		'component',
+		'comp',
+		'part',
+		'location',
+		'reference designator',
+		'comp name',
+		'component name'
+	],
 	pad: ['pad', 'pin', 'pad id', 'pad name', 'pad no', 'pin no', 'pin name', 'pad number'],
-	volume_pct: ['volume pct', 'volume', 'vol pct', 'vol', 'volume percent', 'volume ratio', 'vol ratio', 'transfer efficiency', 'te'],
+	volume_pct: [
+		'volume pct',
+		'volume',
+		'vol pct',
+		'vol',
+		'volume percent',
+		'volume ratio',
+		'vol ratio',
+		'transfer efficiency',
+		'te'
+	],
 	area_pct: ['area pct', 'area', 'area percent', 'area ratio'],
-	height_um: ['height um', 'height', 'height mm', 'height mil', 'thickness', 'paste height', 'avg height', 'average height', 'mean height'],
-	offset_x_um: ['offset x um', 'offset x', 'x offset', 'shift x', 'x shift', 'dx', 'delta x', 'pos x', 'position x', 'offset x mm', 'offset x mil'],
-	offset_y_um: ['offset y um', 'offset y', 'y offset', 'shift y', 'y shift', 'dy', 'delta y', 'pos y', 'position y', 'offset y mm', 'offset y mil'],
-	result: ['result', 'judgement', 'judgment', 'status', 'pass fail', 'verdict', 'decision', 'ok ng', 'outcome'],
-	volume_um3: ['volume um3', 'vol um3', 'volume abs', 'absolute volume', 'volume um 3', 'volume mil3', 'vol mil3'],
+	height_um: [
+		'height um',
+		'height',
+		'height mm',
+		'height mil',
+		'thickness',
+		'paste height',
+		'avg height',
+		'average height',
+		'mean height'
+	],
+	offset_x_um: [
+		'offset x um',
+		'offset x',
+		'x offset',
+		'shift x',
+		'x shift',
+		'dx',
+		'delta x',
+		'pos x',
+		'position x',
+		'offset x mm',
+		'offset x mil'
+	],
+	offset_y_um: [
+		'offset y um',
+		'offset y',
+		'y offset',
+		'shift y',
+		'y shift',
+		'dy',
+		'delta y',
+		'pos y',
+		'position y',
+		'offset y mm',
+		'offset y mil'
+	],
+	result: [
+		'result',
+		'judgement',
+		'judgment',
+		'status',
+		'pass fail',
+		'verdict',
+		'decision',
+		'ok ng',
+		'outcome'
+	],
+	volume_um3: [
+		'volume um3',
+		'vol um3',
+		'volume abs',
+		'absolute volume',
+		'volume um 3',
+		'volume mil3',
+		'vol mil3'
+	],
 	stencil: ['stencil', 'stencil id', 'stencil name', 'stencil serial', 'foil'],
 	print_run: ['print run', 'run', 'run id', 'lot', 'batch', 'work order']
 };
@@ -105,7 +222,8 @@ function score(header: string, field: CanonicalField): number {
 	let best = 0;
 	for (const name of names) {
 		const nameWords = name.split(' ');
-		if (nameWords.every((w) => words.has(w))) best = Math.max(best, 0.7 + 0.2 * (nameWords.length / words.size));
+		if (nameWords.every((w) => words.has(w)))
+			best = Math.max(best, 0.7 + 0.2 * (nameWords.length / words.size));
 		else best = Math.max(best, 0.8 * Math.max(dice(h, name), editSimilarity(h, name)));
 	}
 	// A % sign or a cubic unit decides between the two volume fields.

@@ -36,7 +36,10 @@ describe('zonedTimeToUtc around DST changes (reference/ingest/dst-transitions.js
 	);
 
 	it('keeps milliseconds', () => {
-		const ms = zonedTimeToUtc({ ...local('2026-07-01 12:00:00'), millisecond: 250 }, 'Europe/Berlin');
+		const ms = zonedTimeToUtc(
+			{ ...local('2026-07-01 12:00:00'), millisecond: 250 },
+			'Europe/Berlin'
+		);
 		expect(new Date(ms).toISOString()).toBe('2026-07-01T10:00:00.250Z');
 	});
 

@@ -29,19 +29,42 @@ describe('mappingProfileSchema', () => {
 	});
 
 	it.each([
-		[{ timeZone: 'Mars/Olympus' }, 'timeZone: unknown time zone (use an IANA name like Europe/Berlin)'],
+		[
+			{ timeZone: 'Mars/Olympus' },
+			'timeZone: unknown time zone (use an IANA name like Europe/Berlin)'
+		],
 		[{ timestampFormat: 'HH:mm' }, 'timestampFormat: timestamp pattern "HH:mm" lacks YYYY'],
-		[{ serialFromFileName: { pattern: '^RB-\\d+' } }, 'serialFromFileName.pattern: serial pattern must be a valid regular expression with exactly one (capture group)'],
-		[{ serialFromFileName: { pattern: '^(RB)-(\\d+)' } }, 'serialFromFileName.pattern: serial pattern must be a valid regular expression with exactly one (capture group)'],
-		[{ serialFromFileName: { pattern: '(unclosed' } }, 'serialFromFileName.pattern: serial pattern must be a valid regular expression with exactly one (capture group)'],
-		[{ resultWords: { pass: ['OK'], warn: ['ok'], fail: ['NG'] } }, 'resultWords.warn: result word "ok" is also listed under pass'],
+		[
+			{ serialFromFileName: { pattern: '^RB-\\d+' } },
+			'serialFromFileName.pattern: serial pattern must be a valid regular expression with exactly one (capture group)'
+		],
+		[
+			{ serialFromFileName: { pattern: '^(RB)-(\\d+)' } },
+			'serialFromFileName.pattern: serial pattern must be a valid regular expression with exactly one (capture group)'
+		],
+		[
+			{ serialFromFileName: { pattern: '(unclosed' } },
+			'serialFromFileName.pattern: serial pattern must be a valid regular expression with exactly one (capture group)'
+		],
+		[
+			{ resultWords: { pass: ['OK'], warn: ['ok'], fail: ['NG'] } },
+			'resultWords.warn: result word "ok" is also listed under pass'
+		],
 		[{ columns: { height: 'H' } }, 'columns: Unrecognized key: "height"'],
-		[{ constants: { panelIndex: -1 } }, 'constants.panelIndex: Too small: expected number to be >=0']
+		[
+			{ constants: { panelIndex: -1 } },
+			'constants.panelIndex: Too small: expected number to be >=0'
+		]
 	])('refuses %j', (change, message) => {
 		expect(messages({ ...CANONICAL_PROFILE, ...change })).toEqual([message]);
 	});
 
 	it('accepts a non-capturing group next to the one capture group', () => {
-		expect(messages({ ...CANONICAL_PROFILE, serialFromFileName: { pattern: '^(?:SPI_)?(RB-\\d+)\\.csv$' } })).toEqual([]);
+		expect(
+			messages({
+				...CANONICAL_PROFILE,
+				serialFromFileName: { pattern: '^(?:SPI_)?(RB-\\d+)\\.csv$' }
+			})
+		).toEqual([]);
 	});
 });

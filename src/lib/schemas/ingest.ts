@@ -11,10 +11,9 @@ import { isValidTimeZone } from '../ingest/zoned-time-to-utc';
 
 const headerName = z.string().trim().min(1, { error: 'column name is empty' }).max(120);
 
-const columnsShape = Object.fromEntries(CANONICAL_FIELDS.map((f) => [f, headerName.optional()])) as Record<
-	CanonicalField,
-	z.ZodOptional<typeof headerName>
->;
+const columnsShape = Object.fromEntries(
+	CANONICAL_FIELDS.map((f) => [f, headerName.optional()])
+) as Record<CanonicalField, z.ZodOptional<typeof headerName>>;
 
 const words = z.array(z.string().trim().min(1, { error: 'result word is empty' }).max(40)).max(20);
 
@@ -57,7 +56,9 @@ export const mappingProfileSchema: z.ZodType<MappingProfile> = z
 		timeZone: z
 			.string()
 			.trim()
-			.refine(isValidTimeZone, { error: 'unknown time zone (use an IANA name like Europe/Berlin)' }),
+			.refine(isValidTimeZone, {
+				error: 'unknown time zone (use an IANA name like Europe/Berlin)'
+			}),
 		resultWords: z.object({ pass: words.min(1), warn: words, fail: words.min(1) }),
 		serialFromFileName: z
 			.object({
@@ -66,7 +67,8 @@ export const mappingProfileSchema: z.ZodType<MappingProfile> = z
 					.min(1)
 					.max(200)
 					.refine((p) => captureGroups(p) === 1, {
-						error: 'serial pattern must be a valid regular expression with exactly one (capture group)'
+						error:
+							'serial pattern must be a valid regular expression with exactly one (capture group)'
 					})
 			})
 			.optional(),
