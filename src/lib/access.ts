@@ -19,6 +19,8 @@ export const ENGINEERING: readonly Role[] = ['engineer', 'admin'];
 export const PRINT_LOGGERS: readonly Role[] = ['technician', 'engineer', 'admin'];
 export const INSPECTION_IMPORTERS: readonly Role[] = ['quality', 'engineer', 'admin'];
 export const ADMIN_ONLY: readonly Role[] = ['admin'];
+/** Who configures charts, freezes limits and acknowledges signals; everyone else reads. */
+export const SPC_EDITORS: readonly Role[] = ['quality', 'engineer', 'admin'];
 
 export function isRole(value: unknown): value is Role {
 	return typeof value === 'string' && (ROLES as readonly string[]).includes(value);
@@ -41,7 +43,8 @@ export const SECTIONS: readonly Section[] = [
 	{ href: '/admin/users', label: 'People', roles: ADMIN_ONLY, icon: 'users' },
 	{ href: '/admin/tokens', label: 'API tokens', roles: ADMIN_ONLY, icon: 'key' },
 	{ href: '/admin/outbox', label: 'Mail outbox', roles: ADMIN_ONLY, icon: 'mail' },
-	{ href: '/factory', label: 'Lines & products', roles: ALL_ROLES, icon: 'factory' }
+	{ href: '/factory', label: 'Lines & products', roles: ALL_ROLES, icon: 'factory' },
+	{ href: '/study', label: 'Ad-hoc study', roles: ALL_ROLES, icon: 'calculator' }
 ];
 
 /**

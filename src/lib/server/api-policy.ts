@@ -13,7 +13,8 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/me': { GET: ALL_ROLES },
 	'/api/users': { GET: ADMIN_ONLY },
 	'/api/lines': { GET: ALL_ROLES, POST: ENGINEERING },
-	'/api/products': { GET: ALL_ROLES, POST: ENGINEERING }
+	'/api/products': { GET: ALL_ROLES, POST: ENGINEERING },
+	'/api/spc/analyze': { POST: ALL_ROLES }
 };
 
 /** Routes that take large uploads: only these accept bodies above the general limit. */

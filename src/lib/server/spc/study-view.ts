@@ -1,0 +1,85 @@
+import {
+	analyzeStudy,
+	buildChart,
+	capabilityHistogram,
+	DEFAULT_RULES,
+	evaluateChart,
+	processCapability,
+	type AnalyzeResult,
+	type FieldError,
+	type RuleId
+} from '$lib/spc';
+import type { SpcAnalyzeRequest } from '$lib/schemas/spc';
+import type { CapabilityView, ChartView } from './view-types';
+
+const TITLES = { 'xbar-r': 'X̄/R', 'xbar-s': 'X̄/S', 'i-mr': 'I-MR' } as const;
+
+/** Everything the ad-hoc study page shows: the API answer plus points and histogram. */
+export type StudyOutcome =
+	| { ok: true; result: AnalyzeResult; chart: ChartView; capability: CapabilityView }
+	| { ok: false; errors: FieldError[] };
+
+/**
+ * The ad-hoc study: `analyzeStudy` (the same validation and numbers as
+ * `POST /api/spc/analyze`), plus the points and histogram the page draws. Nothing is stored.
+ * @example studyView({ chart: 'i-mr', values: [1, 2, 4, 3] })
+ */
+export function studyView(request: SpcAnalyzeRequest, unit = ''): StudyOutcome {
+	const outcome = analyzeStudy(request);
+	if (!outcome.ok) return outcome;
+	const data =
+		request.chart === 'i-mr'
+			? (request.values ?? (request.subgroups ?? []).map((g) => g[0]))
+			: (request.subgroups ?? []);
+	// Validated by analyzeStudy above, so building again cannot throw.
+	const built = buildChart(request.chart, data);
+	const rules: RuleId[] = [...(request.rules ?? DEFAULT_RULES)];
+	const values = (data as (number | number[])[]).flat();
+	const lsl = request.lsl ?? null;
+	const usl = request.usl ?? null;
+	const target = request.target ?? null;
+	const cap = processCapability({
+		values,
+		sigmaWithin: built.limits.sigmaWithin,
+		lsl,
+		usl,
+		target,
+		mean: built.limits.location.cl
+	});
+	return {
+		ok: true,
+		result: outcome.result,
+		chart: {
+			kind: request.chart,
+			title: `${TITLES[request.chart]} study`,
+			unit,
+			points: built.points.map((p, index) => ({
+				...p,
+				index,
+				label: request.chart === 'i-mr' ? `value ${index + 1}` : `subgroup ${index + 1}`,
+				boardId: null,
+				at: null,
+				excluded: false
+			})),
+			limits: built.limits,
+			violations: evaluateChart(built.points, built.limits, rules),
+			rules,
+			phase: 'I',
+			limitsVersion: null
+		},
+		capability: {
+			result: cap,
+			histogram: capabilityHistogram(values, {
+				mean: cap.mean,
+				sigmaOverall: cap.sigmaOverall,
+				sigmaWithin: cap.sigmaWithin,
+				lsl,
+				usl
+			}),
+			lsl,
+			usl,
+			target,
+			message: null
+		}
+	};
+}
