@@ -2,3 +2,4 @@
 export * from './foundation';
 export * from './stencils';
 export * from './printlog';
+export * from './spc';
