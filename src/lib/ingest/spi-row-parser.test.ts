@@ -277,6 +277,15 @@ describe('profiles', () => {
 		).toThrow('createSpiRowParser requires a positive integer batchSize, got 0');
 	});
 
+	it('rejects an unknown time zone at creation, not mid-file', () => {
+		expect(() =>
+			createSpiRowParser({
+				profile: { ...CANONICAL_PROFILE, timeZone: 'Mars/Olympus' },
+				fileName: 'x'
+			})
+		).toThrow('createSpiRowParser: unknown time zone "Mars/Olympus"');
+	});
+
 	it('uses constants for line, product and panel index when the export lacks them', () => {
 		const text =
 			'board_serial,inspected_at,refdes,pad,volume_pct,area_pct,height_um,offset_x_um,offset_y_um,result\nRB-A,2026-03-02 09:00:00,C1,1,100,100,120,0,0,OK';
@@ -334,5 +343,53 @@ describe('profiles', () => {
 			column: 'Height(um)',
 			message: 'required column "Height(um)" (for height_um) is missing'
 		});
+	});
+});
+
+describe('robustness', () => {
+	it('never throws on mutated or random input (seeded, 300 cases)', () => {
+		const good = [
+			HEADER,
+			row('RB-A', T1, 'C1'),
+			row('RB-A', T1, 'C2'),
+			row('RB-B', T2, '"C,3"')
+		].join('\r\n');
+		const alphabet = ',;\t"\r\n \uFEFF0123456789.-+eE:TZabc\u00e9\u00b5';
+		let seed = 99;
+		const next = (n: number) => {
+			seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0;
+			return seed % n;
+		};
+		for (let k = 0; k < 300; k++) {
+			const chars = good.split('');
+			for (let m = next(12); m >= 0; m--) {
+				const at = next(chars.length);
+				const op = next(3);
+				if (op === 0) chars.splice(at, 1);
+				else if (op === 1) chars.splice(at, 0, alphabet[next(alphabet.length)]);
+				else chars[at] = alphabet[next(alphabet.length)];
+			}
+			const text = chars.join('');
+			for (const profile of [
+				CANONICAL_PROFILE,
+				{ ...CANONICAL_PROFILE, onBadRow: 'skip-row' as const }
+			]) {
+				const parser = createSpiRowParser({ profile, fileName: 'fuzz.csv', batchSize: 2 });
+				const bytes = new TextEncoder().encode(text);
+				const step = 1 + next(17);
+				let rows = 0;
+				for (let i = 0; i < bytes.length; i += step) {
+					for (const b of parser.push(bytes.subarray(i, i + step))) rows += b.length;
+				}
+				for (const b of parser.end()) rows += b.length;
+				const s = parser.summary();
+				// Every data row is accepted or rejected (unless reading stopped); ok ⇒ all handed out.
+				if (s.errors.every((e) => e.row > 0) && s.rowsAccepted + s.rowsRejected !== s.dataRows) {
+					throw new Error(`inconsistent counts for ${JSON.stringify(text)}: ${JSON.stringify(s)}`);
+				}
+				if (s.ok) expect(rows).toBe(s.rowsAccepted);
+				expect(s.errors.length).toBeLessThanOrEqual(100);
+			}
+		}
 	});
 });

@@ -10,6 +10,7 @@ import { createIssueCollector, type IngestIssue } from './ingest-issue';
 import type { MappingProfile } from './mapping-profile';
 import { parseDecimal } from './parse-decimal';
 import { createTimestampParser } from './parse-timestamp';
+import { isValidTimeZone } from './zoned-time-to-utc';
 import { resolveHeader, type ResolvedHeader } from './resolve-header';
 import { scanFieldBounds, splitQuotedLine } from './split-delimited-line';
 import {
@@ -48,7 +49,10 @@ export interface SpiParseSummary {
 	header: string[];
 	/** Non-blank lines after the header (records). */
 	dataRows: number;
+	/** Rows that passed every check (imported only when `ok`). */
 	rowsAccepted: number;
+	/** Rows with at least one error. `rowsAccepted + rowsRejected = dataRows` unless a
+	 * file-level error stopped reading. */
 	rowsRejected: number;
 	/** Total errors found; `errors` keeps the first `issueLimit`. */
 	errorCount: number;
@@ -159,11 +163,13 @@ function rangeText(field: keyof typeof FIELD_RANGES, unit: string): string {
  * as a whole: empty, not UTF-8 text, NUL bytes, file name, no data rows).
  *
  * Policies: `skip-row` imports the good rows; `reject-file` stops emitting batches at the first
- * bad row but keeps validating to report errors, and `summary().ok` is false — the caller must
- * roll back what it wrote from earlier batches (one transaction per file).
+ * bad row but keeps validating to report errors. Whenever `summary().ok` is false after `end()`
+ * (bad row under `reject-file`, or a file-level error found late, e.g. invalid bytes near the
+ * end), the caller must roll back what it wrote from earlier batches (one transaction per file).
  *
- * @throws Error when the profile's timestamp pattern or time zone is invalid (validate
- *   profiles with `mappingProfileSchema` first), or `batchSize` is not a positive integer.
+ * @throws Error when the profile's timestamp pattern, time zone or serial pattern is invalid
+ *   (validate profiles with `mappingProfileSchema` first), or `batchSize` is not a positive
+ *   integer. Never throws on file content: that becomes errors in `summary()`.
  * @example
  * const parser = createSpiRowParser({ profile: CANONICAL_PROFILE, fileName: 'a.csv' });
  * for await (const chunk of stream) for (const batch of parser.push(chunk)) write(batch);
@@ -177,6 +183,10 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		throw new RangeError(
 			`createSpiRowParser requires a positive integer batchSize, got ${batchSize}`
 		);
+	}
+	// Fail at creation, not on the first row without an offset.
+	if (!isValidTimeZone(profile.timeZone)) {
+		throw new RangeError(`createSpiRowParser: unknown time zone "${profile.timeZone}"`);
 	}
 	const parseTime = createTimestampParser(profile.timestampFormat, profile.timeZone);
 	const errors = createIssueCollector(options.issueLimit);
@@ -196,9 +206,10 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		}
 	}
 	const resultWordList = [...resultByWord.keys()].join(', ');
-	// Words as written in the profile plus lower/upper case, checked in place before any slicing.
+	// Each word in lower, upper and capitalised case, compared in place before any slicing.
 	const resultExact: [string, number][] = [];
 	for (const [word, code] of resultByWord) {
+		if (word === '') continue;
 		for (const form of new Set([word, word.toUpperCase(), word[0].toUpperCase() + word.slice(1)])) {
 			resultExact.push([form, code]);
 		}
@@ -495,7 +506,10 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			}
 		}
 		const refdes = text(row, iRefdes, 'refdes', true, lastRefdes);
-		const pad = ends[iPad] - starts[iPad] === 1 ? cell(iPad) : text(row, iPad, 'pad', false, '');
+		const pad =
+			ends[iPad] - starts[iPad] === 1 && rec.charCodeAt(starts[iPad]) > 32
+				? cell(iPad) // one visible character: V8 hands out a cached string, no allocation
+				: text(row, iPad, 'pad', false, '');
 		const volumePct =
 			iVolume >= 0
 				? measure(row, iVolume, 'volume_pct', 1, ' %', volumePctOptional, VOLUME_MIN, VOLUME_MAX)
@@ -819,7 +833,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 				delimiter: header === null ? null : delimiter,
 				header: header === null ? [] : (header as ResolvedHeader).names,
 				dataRows,
-				rowsAccepted: rejected || fileFailed ? 0 : rowsAccepted,
+				rowsAccepted,
 				rowsRejected,
 				errorCount: errors.count,
 				errors: errors.list(),
