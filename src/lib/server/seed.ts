@@ -3,6 +3,7 @@ import type { Db } from './db';
 import { lines, products, sites, users } from './db/schema';
 import { createUser } from './users';
 import { DEMO_USERS } from './demo-accounts';
+import { seedDemoStencils } from './stencils/demo';
 
 /** The demo scenario: Fenmoor Works, an invented contract manufacturer with three SMT lines. */
 export const DEMO_LINES = [
@@ -34,5 +35,6 @@ export async function seedDemoData(db: Db): Promise<boolean> {
 		db.insert(products).values(product).onConflictDoNothing().run();
 	}
 	for (const user of DEMO_USERS) await createUser(db, user, null);
+	seedDemoStencils(db);
 	return true;
 }

@@ -1,0 +1,88 @@
+import type { Db } from '../db';
+import {
+	COMMON_FOIL_THICKNESSES_UM,
+	evaluateStencil,
+	suggestPowderType,
+	summarizeStencil,
+	thicknessSweep,
+	type PowderSuggestion,
+	type PrintThresholds,
+	type StencilSummary,
+	type ThicknessSweep,
+	type ThresholdFailure
+} from '$lib/stencil';
+import { loadApertures, type StoredAperture } from './apertures';
+import { getStencil, type StencilRecord } from './stencils';
+import { siteThresholds } from './thresholds';
+
+/** One aperture with its figures, as `GET /api/stencils/{id}/apertures` answers (unrounded). */
+export type EvaluatedAperture = StoredAperture & {
+	thicknessUm: number;
+	areaUm2: number;
+	perimeterUm: number;
+	minDimensionUm: number;
+	areaRatio: number;
+	aspectRatio: number;
+	volumeUm3: number;
+	maxPassingThicknessUm: number;
+	status: 'pass' | 'fail';
+	reasons: ThresholdFailure[];
+};
+
+/** A stencil with everything the design check shows. */
+export interface StencilCheck {
+	stencil: StencilRecord;
+	thresholds: PrintThresholds;
+	apertures: EvaluatedAperture[];
+	summary: StencilSummary;
+}
+
+/**
+ * Load a stencil and evaluate every aperture against the site thresholds for its technology,
+ * with step regions applied (evaluated on read, so a threshold change shows at once).
+ * @throws StencilNotFoundError.
+ */
+export function checkStoredStencil(db: Db, stencilId: number): StencilCheck {
+	const stencil = getStencil(db, stencilId);
+	const thresholds = siteThresholds(db)[stencil.technology];
+	const stored = loadApertures(db, stencilId);
+	const results = evaluateStencil(stored, {
+		thicknessUm: stencil.thicknessUm,
+		thresholds,
+		stepRegions: stencil.stepRegions
+	});
+	const evaluated = stored.map((a, i) => {
+		const e = results[i];
+		return Object.assign(a, {
+			thicknessUm: e.thicknessUm,
+			areaUm2: e.areaUm2,
+			perimeterUm: e.perimeterUm,
+			minDimensionUm: e.minDimensionUm,
+			areaRatio: e.areaRatio,
+			aspectRatio: e.aspectRatio,
+			volumeUm3: e.volumeUm3,
+			maxPassingThicknessUm: e.maxPassingThicknessUm,
+			status: e.status,
+			reasons: e.reasons
+		});
+	});
+	return { stencil, thresholds, apertures: evaluated, summary: summarizeStencil(results) };
+}
+
+/** The stencil-wide advice: thickness sweep and powder type. */
+export interface StencilAdvice {
+	sweep: ThicknessSweep;
+	powder: PowderSuggestion;
+}
+
+/**
+ * Thickness sweep over the common foils (with the stencil's own thickness added) and the
+ * coarsest J-STD-005 powder type that fits the narrowest opening (five-ball rule, common practice).
+ */
+export function stencilAdvice(check: StencilCheck): StencilAdvice {
+	const thicknessesUm = [...COMMON_FOIL_THICKNESSES_UM, check.stencil.thicknessUm];
+	return {
+		sweep: thicknessSweep(check.apertures, { thresholds: check.thresholds, thicknessesUm }),
+		powder: suggestPowderType(check.apertures)
+	};
+}

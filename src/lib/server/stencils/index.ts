@@ -1,0 +1,8 @@
+/** Stencil design check, server side: stencils, apertures, imports, site thresholds, evaluation. */
+export * from './stencils';
+export * from './apertures';
+export * from './thresholds';
+export * from './evaluation';
+export * from './upload';
+export * from './compare';
+export * from './demo';
