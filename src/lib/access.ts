@@ -44,6 +44,10 @@ export const SECTIONS: readonly Section[] = [
 	{ href: '/admin/tokens', label: 'API tokens', roles: ADMIN_ONLY, icon: 'key' },
 	{ href: '/admin/outbox', label: 'Mail outbox', roles: ADMIN_ONLY, icon: 'mail' },
 	{ href: '/factory', label: 'Lines & products', roles: ALL_ROLES, icon: 'factory' },
+	{ href: '/runs', label: 'Print runs', roles: ALL_ROLES, icon: 'clipboard-list' },
+	{ href: '/recipes', label: 'Recipes', roles: ALL_ROLES, icon: 'sliders-horizontal' },
+	{ href: '/paste', label: 'Paste lots', roles: ALL_ROLES, icon: 'package' },
+	{ href: '/stencil-life', label: 'Stencil life', roles: ALL_ROLES, icon: 'layers' },
 	{ href: '/study', label: 'Ad-hoc study', roles: ALL_ROLES, icon: 'calculator' }
 ];
 
@@ -52,7 +56,9 @@ export const SECTIONS: readonly Section[] = [
  * prefix wins; anything not listed is open to every signed-in role.
  */
 export const PAGE_POLICY: readonly { prefix: string; roles: readonly Role[] }[] = [
-	{ prefix: '/admin', roles: ADMIN_ONLY }
+	{ prefix: '/admin', roles: ADMIN_ONLY },
+	{ prefix: '/runs/new', roles: PRINT_LOGGERS },
+	{ prefix: '/recipes/edit', roles: ENGINEERING }
 ];
 
 export function pageRolesFor(pathname: string): readonly Role[] {

@@ -14,6 +14,9 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/users': { GET: ADMIN_ONLY },
 	'/api/lines': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/products': { GET: ALL_ROLES, POST: ENGINEERING },
+	'/api/stencils': { GET: ALL_ROLES, POST: ENGINEERING },
+	'/api/stencils/[id]': { GET: ALL_ROLES },
+	'/api/stencils/[id]/apertures': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/spc/analyze': { POST: ALL_ROLES }
 };
 

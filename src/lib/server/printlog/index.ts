@@ -9,3 +9,4 @@ export * from './paste-lots';
 export * from './stencil-life';
 export * from './print-runs';
 export * from './trends';
+export { printlogApiRoute, queryObject } from './api-route';

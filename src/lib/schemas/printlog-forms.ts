@@ -1,0 +1,100 @@
+/**
+ * Zod schemas for the print-log requests beyond the core payloads in ./printlog: ending and
+ * correcting runs, stencil life entries and the run list filters. Client-safe.
+ */
+import { z } from 'zod';
+import { STENCIL_STATES } from '../printlog/stencil-life';
+import { printRunSchema } from './printlog';
+
+const instant = z.iso.datetime({
+	offset: true,
+	error: 'must be an ISO 8601 date-time with a time zone, e.g. 2026-03-02T08:00:00Z'
+});
+const boards = z
+	.number()
+	.int('must be a whole number')
+	.min(0, 'must be ≥ 0')
+	.max(1_000_000, 'must be ≤ 1000000');
+const note = z.string().trim().max(500, 'must be at most 500 characters');
+
+/** `POST /api/print-runs/{id}/end`: both optional (end now, keep the board count). */
+export const endRunSchema = z.strictObject({
+	endedAt: instant.optional(),
+	boardsPrinted: boards.optional()
+});
+
+/** `POST /api/print-runs/{id}/corrections`: the reason and the fields that change. */
+export const correctRunSchema = z.strictObject({
+	reason: z.string().trim().min(1, 'say why the run is corrected').max(500),
+	parameters: printRunSchema.shape.parameters.optional(),
+	deviationReasons: printRunSchema.shape.deviationReasons,
+	ambientTempC: printRunSchema.shape.ambientTempC.nullable(),
+	relativeHumidityPct: printRunSchema.shape.relativeHumidityPct.nullable(),
+	boardsPrinted: boards.optional(),
+	startedAt: instant.optional(),
+	endedAt: instant.nullable().optional(),
+	bladeCode: z.string().trim().max(64).nullable().optional()
+});
+
+/** A stencil state change. */
+export const stencilStateSchema = z.object({
+	toState: z.enum(STENCIL_STATES, { error: `must be one of ${STENCIL_STATES.join(', ')}` }),
+	note: note.default('')
+});
+
+/** Tension readings typed as a list: "38, 36.5 37" (N/cm). */
+export const tensionFormSchema = z.object({
+	readings: z
+		.string()
+		.trim()
+		.min(1, 'give at least one reading in N/cm')
+		.max(500)
+		.refine((text) => parseReadings(text).every(Number.isFinite), {
+			message: 'readings must be numbers in N/cm separated by commas or spaces, e.g. 38, 36.5, 37'
+		}),
+	note: note.default('')
+});
+
+/** Split a typed list of readings (comma, semicolon or space separated). */
+export function parseReadings(text: string): number[] {
+	return text
+		.split(/[\s,;]+/)
+		.filter((part) => part !== '')
+		.map(Number);
+}
+
+/** A cleaning or inspection entry. */
+export const stencilCareSchema = z.object({
+	kind: z.enum(['cleaning', 'inspection']),
+	detail: z.string().trim().min(1, 'is required').max(200),
+	note: note.default('')
+});
+
+/** A date filter: an ISO date (`2026-03-02`) or date-time with a zone. */
+const dateFilter = z
+	.string()
+	.trim()
+	.refine((text) => /^\d{4}-\d{2}-\d{2}$/.test(text) || z.iso.datetime({ offset: true }).safeParse(text).success, {
+		message: 'must be an ISO date (2026-03-02) or date-time with a zone'
+	});
+
+/** Query of `GET /api/print-runs` and the run list page. Blank values mean "any". */
+export const runFiltersSchema = z.object({
+	line: z.string().trim().max(64).optional(),
+	product: z.string().trim().max(64).optional(),
+	stencil: z.string().trim().max(64).optional(),
+	lot: z.string().trim().max(64).optional(),
+	from: dateFilter.optional(),
+	to: dateFilter.optional(),
+	open: z.enum(['true', 'false']).optional(),
+	limit: z.coerce.number().int().min(1).max(5000).optional()
+});
+
+/** Parsed run filters as dates: a bare `to` date includes that whole day (UTC). */
+export function runFilterDates(filters: { from?: string; to?: string }): { from?: Date; to?: Date } {
+	const day = /^\d{4}-\d{2}-\d{2}$/;
+	const from = filters.from ? new Date(Date.parse(filters.from)) : undefined;
+	let to = filters.to ? new Date(Date.parse(filters.to)) : undefined;
+	if (to && day.test(filters.to!)) to = new Date(to.getTime() + 86_400_000 - 1);
+	return { from, to };
+}

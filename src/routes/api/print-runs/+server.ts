@@ -1,0 +1,23 @@
+import { json } from '@sveltejs/kit';
+import { parseJsonBody } from '$lib/server/api';
+import { getDb } from '$lib/server/db';
+import { listRuns, printlogApiRoute, queryObject, startRun } from '$lib/server/printlog';
+import { printRunSchema } from '$lib/schemas/printlog';
+import { runFilterDates, runFiltersSchema } from '$lib/schemas/printlog-forms';
+
+/** Runs, newest first, filtered by line, product, stencil, lot and start date. */
+export const GET = printlogApiRoute(({ url }) => {
+	const filters = runFiltersSchema.parse(queryObject(url));
+	const runs = listRuns(getDb(), {
+		...filters,
+		...runFilterDates(filters),
+		open: filters.open === undefined ? undefined : filters.open === 'true'
+	});
+	return json({ runs });
+});
+
+/** Log (start) a run: 201 { id, deviations, warnings }; 422 naming what is refused. */
+export const POST = printlogApiRoute(async ({ request }, actor) => {
+	const input = await parseJsonBody(request, printRunSchema);
+	return json(startRun(getDb(), input, actor), { status: 201 });
+});

@@ -1,0 +1,20 @@
+import { json } from '@sveltejs/kit';
+import { ApiError, idParam } from '$lib/server/api';
+import { getDb } from '$lib/server/db';
+import { endRun, printlogApiRoute } from '$lib/server/printlog';
+import { endRunSchema } from '$lib/schemas/printlog-forms';
+
+/** End an open run; the body is optional: { endedAt?, boardsPrinted? }. */
+export const POST = printlogApiRoute(async ({ params, request }, actor) => {
+	const id = idParam(params.id, 'print run');
+	const text = await request.text();
+	let body: unknown = {};
+	if (text.trim() !== '') {
+		try {
+			body = JSON.parse(text);
+		} catch {
+			throw new ApiError(400, { error: 'The request body is not valid JSON.' });
+		}
+	}
+	return json(endRun(getDb(), id, endRunSchema.parse(body), actor));
+});
