@@ -1,4 +1,4 @@
-import { ALL_ROLES, ADMIN_ONLY, ENGINEERING, type Role } from '../access';
+import { ALL_ROLES, ADMIN_ONLY, ENGINEERING, PRINT_LOGGERS, type Role } from '../access';
 
 export type HttpMethod = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 export type MethodPolicy = readonly Role[] | 'public';
@@ -14,6 +14,15 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/users': { GET: ADMIN_ONLY },
 	'/api/lines': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/products': { GET: ALL_ROLES, POST: ENGINEERING },
+	'/api/recipes': { GET: ALL_ROLES, POST: ENGINEERING },
+	'/api/print-runs': { GET: ALL_ROLES, POST: PRINT_LOGGERS },
+	'/api/print-runs/trends': { GET: ALL_ROLES },
+	'/api/print-runs/[id]': { GET: ALL_ROLES },
+	'/api/print-runs/[id]/end': { POST: PRINT_LOGGERS },
+	'/api/print-runs/[id]/corrections': { POST: PRINT_LOGGERS },
+	'/api/paste-lots': { GET: ALL_ROLES, POST: PRINT_LOGGERS },
+	'/api/paste-lots/[id]': { GET: ALL_ROLES },
+	'/api/paste-lots/[id]/events': { POST: PRINT_LOGGERS },
 	'/api/stencils': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/stencils/[id]': { GET: ALL_ROLES },
 	'/api/stencils/[id]/apertures': { GET: ALL_ROLES, POST: ENGINEERING },
