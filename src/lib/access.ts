@@ -48,6 +48,7 @@ export const SECTIONS: readonly Section[] = [
 	{ href: '/recipes', label: 'Recipes', roles: ALL_ROLES, icon: 'sliders-horizontal' },
 	{ href: '/paste', label: 'Paste lots', roles: ALL_ROLES, icon: 'package' },
 	{ href: '/stencil-life', label: 'Stencil life', roles: ALL_ROLES, icon: 'layers' },
+	{ href: '/stencils', label: 'Stencils', roles: ALL_ROLES, icon: 'layers' },
 	{ href: '/study', label: 'Ad-hoc study', roles: ALL_ROLES, icon: 'calculator' }
 ];
 

@@ -6,3 +6,4 @@ export * from './evaluation';
 export * from './upload';
 export * from './compare';
 export * from './demo';
+export * from './api-errors';

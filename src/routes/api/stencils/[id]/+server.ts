@@ -1,0 +1,27 @@
+import { json } from '@sveltejs/kit';
+import { apiRoute, idParam } from '$lib/server/api';
+import { getDb } from '$lib/server/db';
+import {
+	checkStoredStencil,
+	listImports,
+	stencilAdvice,
+	withStencilErrors
+} from '$lib/server/stencils';
+
+/** The stencil with its thresholds, summary, thickness sweep, powder advice and import history. */
+export const GET = apiRoute(async ({ params }) => {
+	const id = idParam(params.id, 'stencil');
+	return withStencilErrors(() => {
+		const db = getDb();
+		const check = checkStoredStencil(db, id);
+		const advice = stencilAdvice(check);
+		return json({
+			...check.stencil,
+			thresholds: check.thresholds,
+			summary: check.summary,
+			thicknessSweep: advice.sweep,
+			powder: advice.powder,
+			imports: listImports(db, id)
+		});
+	});
+});

@@ -1,0 +1,107 @@
+import { json } from '@sveltejs/kit';
+import { ApiError, apiRoute, idParam, readJson } from '$lib/server/api';
+import { getDb } from '$lib/server/db';
+import {
+	checkStoredStencil,
+	getStencil,
+	importApertures,
+	parseApertureUpload,
+	withStencilErrors,
+	type ImportMode
+} from '$lib/server/stencils';
+import { aperturesPayloadSchema, formatIssuePath } from '$lib/schemas/stencil';
+
+/** Every aperture with its figures (unrounded): `{ "apertures": [...] }`. */
+export const GET = apiRoute(async ({ params }) => {
+	const id = idParam(params.id, 'stencil');
+	return withStencilErrors(() => json({ apertures: checkStoredStencil(getDb(), id).apertures }));
+});
+
+function modeOf(value: unknown): ImportMode {
+	if (value === undefined || value === null || value === '' || value === 'append') return 'append';
+	if (value === 'replace') return 'replace';
+	throw new ApiError(400, {
+		error: 'The request has invalid fields.',
+		fields: [{ field: 'mode', message: `must be "append" or "replace" (got ${JSON.stringify(value)})` }]
+	});
+}
+
+const textField = (form: FormData, name: string) => {
+	const v = form.get(name);
+	return typeof v === 'string' && v.trim() !== '' ? v.trim() : null;
+};
+
+/**
+ * Import apertures: JSON `{ "apertures": [...], "mode"? }` or multipart `file` (our CSV layout or
+ * a Gerber paste layer) with `unit` (CSV), `mode`, optional `centroids` file, `centroidUnit`,
+ * `centroidRadiusUm`, `format`. All or nothing; 201 with the import summary.
+ */
+export const POST = apiRoute(async ({ params, request }, actor) => {
+	const id = idParam(params.id, 'stencil');
+	const db = getDb();
+	await withStencilErrors(() => getStencil(db, id));
+	const type = request.headers.get('content-type') ?? '';
+	if (type.includes('multipart/form-data')) {
+		let form: FormData;
+		try {
+			form = await request.formData();
+		} catch {
+			throw new ApiError(400, { error: 'The multipart body could not be read.' });
+		}
+		const file = form.get('file');
+		if (!(file instanceof File) || file.size === 0)
+			throw new ApiError(400, {
+				error: 'The request has invalid fields.',
+				fields: [{ field: 'file', message: 'a non-empty CSV or Gerber file is required' }]
+			});
+		const mode = modeOf(form.get('mode'));
+		const centroids = form.get('centroids');
+		const radius = textField(form, 'centroidRadiusUm');
+		const parsed = parseApertureUpload({
+			fileName: file.name,
+			text: await file.text(),
+			byteLength: file.size,
+			format: textField(form, 'format'),
+			unit: textField(form, 'unit'),
+			centroids:
+				centroids instanceof File && centroids.size > 0
+					? { fileName: centroids.name, text: await centroids.text(), byteLength: centroids.size }
+					: null,
+			centroidUnit: textField(form, 'centroidUnit'),
+			centroidRadiusUm: radius === null ? null : Number(radius)
+		});
+		if (!parsed.ok)
+			throw new ApiError(parsed.status, { error: parsed.error, errors: parsed.errors });
+		const summary = await withStencilErrors(() =>
+			importApertures(
+				db,
+				id,
+				parsed.apertures,
+				{
+					source: parsed.format,
+					mode,
+					fileName: file.name,
+					unit: parsed.unit,
+					warnings: parsed.warnings
+				},
+				actor
+			)
+		);
+		return json(summary, { status: 201 });
+	}
+	const body = await readJson(request);
+	const mode = modeOf((body as { mode?: unknown } | null)?.mode);
+	const result = aperturesPayloadSchema.safeParse(body);
+	if (!result.success)
+		throw new ApiError(400, {
+			error: 'The request has invalid fields.',
+			fields: result.error.issues.slice(0, 100).map((i) => ({
+				field: formatIssuePath(i.path) || '(body)',
+				message: i.message
+			}))
+		});
+	const summary = await withStencilErrors(() =>
+		importApertures(db, id, result.data.apertures, { source: 'json', mode }, actor)
+	);
+	return json(summary, { status: 201 });
+});
