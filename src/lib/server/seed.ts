@@ -4,6 +4,7 @@ import { lines, products, sites, users } from './db/schema';
 import { createUser } from './users';
 import { DEMO_USERS } from './demo-accounts';
 import { seedDemoStencils } from './stencils/demo';
+import { seedDemoPrintlog } from './printlog/demo';
 
 /** The demo scenario: Fenmoor Works, an invented contract manufacturer with three SMT lines. */
 export const DEMO_LINES = [
@@ -36,5 +37,6 @@ export async function seedDemoData(db: Db): Promise<boolean> {
 	}
 	for (const user of DEMO_USERS) await createUser(db, user, null);
 	seedDemoStencils(db);
+	seedDemoPrintlog(db);
 	return true;
 }

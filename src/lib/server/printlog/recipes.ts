@@ -46,7 +46,7 @@ const asVersion = (row: { parameters: Record<string, unknown> } & Omit<RecipeVer
 /** The newest version of every recipe, by line then product. */
 export function listCurrentRecipes(db: Db): RecipeVersion[] {
 	const newest = db
-		.select({ id: sql<number>`max(${printRecipes.id})`.as('id') })
+		.select({ id: sql<number>`max(${printRecipes.id})`.as('newest_id') })
 		.from(printRecipes)
 		.groupBy(printRecipes.lineId, printRecipes.productId)
 		.as('newest');

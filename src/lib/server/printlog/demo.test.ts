@@ -1,0 +1,33 @@
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { openTestDatabase } from '../testing';
+import type { Db } from '../db';
+import { seedDemoData } from '../seed';
+import { getPasteLot, listCurrentRecipes, listRuns, listStencilLife, runTrends } from './index';
+
+let db: Db;
+let close: () => void;
+beforeEach(() => ({ db, close } = openTestDatabase()));
+afterEach(() => close());
+
+describe('print-log demo data', () => {
+	it('seeds recipes, lots in every situation and two weeks of runs on the demo stencil', async () => {
+		await seedDemoData(db);
+		expect(listCurrentRecipes(db).map((r) => `${r.line}/${r.product} v${r.version}`)).toEqual([
+			'SMT-1/PB-100 v1',
+			'SMT-2/SH-220 v1',
+			'SMT-3/LM-48 v1'
+		]);
+		expect(getPasteLot(db, 'PL-2026-0398')).toMatchObject({ leadBearing: true, state: 'cold-storage' });
+		expect(getPasteLot(db, 'PL-2025-0977')!.assessment.refuse[0].code).toBe('expired');
+		const ready = getPasteLot(db, 'PL-2026-0412')!;
+		expect(ready.assessment).toEqual({ refuse: [], warn: [] });
+		const runs = listRuns(db, { line: 'SMT-1' });
+		expect(runs).toHaveLength(14);
+		expect(runs.every((r) => r.endedAt && r.stencil === 'ST-PB100')).toBe(true);
+		expect(runs.filter((r) => r.deviations.some((d) => d.reason))).toHaveLength(1);
+		const stencil = listStencilLife(db).find((s) => s.id === runs[0].stencilId)!;
+		expect(stencil.printCount).toBe(runs.reduce((sum, r) => sum + r.boardsPrinted, 0));
+		const trends = runTrends(db, { line: 'SMT-1', product: 'PB-100' });
+		expect(trends.parameters.find((p) => p.key === 'squeegeeSpeedMmS')!.points).toHaveLength(14);
+	}, 30_000);
+});

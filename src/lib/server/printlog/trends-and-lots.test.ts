@@ -1,0 +1,118 @@
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { printRunSchema, pasteLotSchema } from '$lib/schemas/printlog';
+import { openTestDatabase } from '../testing';
+import type { Db } from '../db';
+import { endRun, startRun } from './print-runs';
+import { addPasteEvent, createPasteLot, getPasteLot } from './paste-lots';
+import { changeStencilState, getStencilLife, recordTension, stencilEventLog } from './stencil-life';
+import { runTrends } from './trends';
+import { PrintlogRequestError } from './request-error';
+import { runPayload, seedPrintlogFixture } from './test-fixtures';
+
+let db: Db;
+let close: () => void;
+let fx: ReturnType<typeof seedPrintlogFixture>;
+beforeEach(() => {
+	({ db, close } = openTestDatabase());
+	fx = seedPrintlogFixture(db);
+});
+afterEach(() => close());
+
+const T0 = Date.parse('2026-03-02T08:00:00Z');
+
+function status(fn: () => unknown): number {
+	try {
+		fn();
+	} catch (error) {
+		if (error instanceof PrintlogRequestError) return error.status;
+		throw error;
+	}
+	return 200;
+}
+
+describe('trends', () => {
+	it('I-MR limits of the logged speeds match a hand derivation (NIST/SEMATECH §6.3.2.2)', () => {
+		// Speeds 40, 44, 42: moving ranges 4 and 2, MR̄ = 3, σ̂ = MR̄/d2 with d2(2) = 2/√π
+		// (first principles: mean range of two standard normals), centre 42, UCL = 42 + 3σ̂.
+		const speeds = [40, 44, 42];
+		speeds.forEach((speed, i) => {
+			const payload = runPayload({ parameters: { ...runPayload().parameters, squeegeeSpeedMmS: speed } });
+			const { id } = startRun(db, printRunSchema.parse(payload), fx.actors.technician, T0 + i * 7_200_000);
+			endRun(db, id, { boardsPrinted: 10 }, fx.actors.technician, T0 + i * 7_200_000 + 3_600_000);
+		});
+		const trends = runTrends(db, { line: 'L1', product: 'P1' });
+		const speed = trends.parameters.find((p) => p.key === 'squeegeeSpeedMmS')!;
+		expect(speed.points.map((p) => p.value)).toEqual(speeds);
+		expect(speed.points.map((p) => p.movingRange)).toEqual([null, 4, 2]);
+		const sigma = 3 / (2 / Math.sqrt(Math.PI));
+		expect(speed.limits!.individuals.cl).toBeCloseTo(42, 12);
+		expect(speed.limits!.individuals.ucl).toBeCloseTo(42 + 3 * sigma, 9);
+		expect(speed.limits!.individuals.lcl).toBeCloseTo(42 - 3 * sigma, 9);
+		// D4(2) = 1 + 3·d3/d2 ≈ 3.267 (Montgomery, Appendix VI).
+		expect(speed.limits!.movingRange.ucl).toBeCloseTo(3.267 * 3, 2);
+		expect(speed.window).toEqual({ min: 20, target: 40, max: 100 });
+		expect(trends.parameters.map((p) => p.key)).not.toContain('printGapMm');
+	});
+
+	it('one run gives points but no limits; unknown codes are 422', () => {
+		startRun(db, printRunSchema.parse(runPayload()), fx.actors.technician, T0);
+		const angle = runTrends(db, { line: 'L1', product: 'P1' }).parameters[0];
+		expect(angle.points).toHaveLength(1);
+		expect(angle.limits).toBeNull();
+		expect(status(() => runTrends(db, { line: 'X', product: 'P1' }))).toBe(422);
+	});
+});
+
+describe('paste lots', () => {
+	const lot = (extra: Record<string, unknown> = {}) =>
+		pasteLotSchema.parse({ lotNumber: 'PL-1', alloy: 'Sn63Pb37', powderType: 3, expiresOn: '2099-01-31', ...extra });
+
+	it('keeps data-sheet handling settings, defaults the rest, flags lead and refuses duplicates', () => {
+		const created = createPasteLot(db, lot({ warmUpMinutes: 120 }), fx.actors.technician, T0);
+		expect(created.handling).toEqual({ warmUpMinutes: 120, maxOnStencilMinutes: 480, maxOutOfColdMinutes: 1440 });
+		expect(created.leadBearing).toBe(true);
+		expect(created.state).toBe('cold-storage');
+		expect(status(() => createPasteLot(db, lot(), fx.actors.technician, T0))).toBe(409);
+	});
+
+	it('events follow the state machine; opened paste never goes back to cold storage', () => {
+		createPasteLot(db, lot(), fx.actors.technician, T0);
+		const open = () => addPasteEvent(db, 'PL-1', { event: 'opened', at: '2026-03-02T07:00:00Z' }, fx.actors.technician, T0);
+		expect(status(open)).toBe(422);
+		addPasteEvent(db, 'PL-1', { event: 'out-of-cold-storage', at: '2026-03-02T03:00:00Z' }, fx.actors.technician, T0);
+		const opened = open();
+		expect(opened.warnings).toEqual([]);
+		expect(opened.lot.state).toBe('opened');
+		expect(
+			status(() => addPasteEvent(db, 'PL-1', { event: 'returned' }, fx.actors.technician, T0))
+		).toBe(422);
+		expect(status(() => addPasteEvent(db, 'NOPE', { event: 'opened' }, fx.actors.technician, T0))).toBe(404);
+		expect(getPasteLot(db, 'pl-1')!.events.map((e) => e.event)).toEqual(['out-of-cold-storage', 'opened']);
+	});
+
+	it('opening before the 4 h warm-up is allowed with a warning', () => {
+		createPasteLot(db, lot(), fx.actors.technician, T0);
+		addPasteEvent(db, 'PL-1', { event: 'out-of-cold-storage', at: '2026-03-02T06:00:00Z' }, fx.actors.technician, T0);
+		const { warnings } = addPasteEvent(db, 'PL-1', { event: 'opened', at: '2026-03-02T07:00:00Z' }, fx.actors.technician, T0);
+		expect(warnings[0]).toContain('opened after 1 h out of cold storage; the warm-up time is 4 h');
+	});
+});
+
+describe('stencil life', () => {
+	it('state changes are logged; only an engineer releases a quarantined stencil', () => {
+		const id = fx.stencilIds.quarantined;
+		expect(status(() => changeStencilState(db, id, { toState: 'available' }, fx.actors.technician))).toBe(422);
+		changeStencilState(db, id, { toState: 'available', note: 'inspected' }, fx.actors.engineer);
+		expect(getStencilLife(db, id)!.state).toBe('available');
+		expect(status(() => changeStencilState(db, id, { toState: 'quarantined' }, fx.actors.technician))).toBe(422);
+		expect(stencilEventLog(db, id)[0]).toMatchObject({ kind: 'state', fromState: 'quarantined', toState: 'available' });
+	});
+
+	it('tension readings: implausible ones are refused, low ones kept and reported (35 N/cm default)', () => {
+		const id = fx.stencilIds.good;
+		expect(status(() => recordTension(db, id, { readingsNPerCm: [38, 350] }, fx.actors.technician))).toBe(422);
+		const check = recordTension(db, id, { readingsNPerCm: [38, 34.5, 40] }, fx.actors.technician);
+		expect(check.low).toEqual([{ index: 1, valueNPerCm: 34.5 }]);
+		expect(getStencilLife(db, id)!.lastTension).toMatchObject({ minimumNPerCm: 34.5, pass: false });
+	});
+});
