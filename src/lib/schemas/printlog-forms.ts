@@ -5,6 +5,12 @@
 import { z } from 'zod';
 import { STENCIL_STATES } from '../printlog/stencil-life';
 import { printRunSchema } from './printlog';
+import {
+	AMBIENT_PARAMETER_KEYS,
+	CATEGORICAL_PARAMETER_KEYS,
+	NUMERIC_PARAMETER_KEYS
+} from '../printlog/parameters';
+import type { FieldError } from '../printlog/field-error';
 
 const instant = z.iso.datetime({
 	offset: true,
@@ -97,4 +103,95 @@ export function runFilterDates(filters: { from?: string; to?: string }): { from?
 	let to = filters.to ? new Date(Date.parse(filters.to)) : undefined;
 	if (to && day.test(filters.to!)) to = new Date(to.getTime() + 86_400_000 - 1);
 	return { from, to };
+}
+// ---- The run form: flat fields so it posts as a plain HTML form (works without JavaScript) ----
+
+
+const optionalNumber = z.number({ error: 'must be a number' }).optional();
+const flatText = z.string().trim().max(500, 'must be at most 500 characters').default('');
+
+/** Every key a run records a value for, in form order. */
+export const RUN_VALUE_KEYS = [
+	...NUMERIC_PARAMETER_KEYS,
+	...CATEGORICAL_PARAMETER_KEYS,
+	...AMBIENT_PARAMETER_KEYS
+] as const;
+
+/** Name of the reason field of a parameter in the flat form. */
+export const reasonField = (key: string) => `reason_${key}`;
+
+/** The run form: identifiers, one field per parameter, one reason per parameter. */
+export const runFormSchema = z.object({
+	line: z.string().trim().min(1, 'choose a line'),
+	product: z.string().trim().min(1, 'choose a product'),
+	stencil: z.string().trim().min(1, 'scan or type the stencil name').max(64),
+	pasteLot: z.string().trim().min(1, 'scan or type the paste lot number').max(64),
+	bladeCode: z.string().trim().max(64).default(''),
+	boardsPrinted: z.number().int('must be a whole number').min(0).max(1_000_000).optional(),
+	overrideReason: flatText,
+	...(Object.fromEntries(NUMERIC_PARAMETER_KEYS.map((k) => [k, optionalNumber])) as Record<
+		(typeof NUMERIC_PARAMETER_KEYS)[number],
+		typeof optionalNumber
+	>),
+	...(Object.fromEntries(AMBIENT_PARAMETER_KEYS.map((k) => [k, optionalNumber])) as Record<
+		(typeof AMBIENT_PARAMETER_KEYS)[number],
+		typeof optionalNumber
+	>),
+	...(Object.fromEntries(CATEGORICAL_PARAMETER_KEYS.map((k) => [k, flatText])) as Record<
+		(typeof CATEGORICAL_PARAMETER_KEYS)[number],
+		typeof flatText
+	>),
+	...(Object.fromEntries(RUN_VALUE_KEYS.map((k) => [reasonField(k), flatText])) as Record<
+		`reason_${(typeof RUN_VALUE_KEYS)[number]}`,
+		typeof flatText
+	>)
+});
+
+/** Parsed run form. */
+export type RunForm = z.output<typeof runFormSchema>;
+
+/** The API payload (input of printRunSchema) a run form stands for; blank values left out. */
+export function runFormToPayload(form: RunForm): Record<string, unknown> {
+	const values = form as unknown as Record<string, unknown>;
+	const parameters: Record<string, unknown> = {};
+	for (const key of [...NUMERIC_PARAMETER_KEYS, ...CATEGORICAL_PARAMETER_KEYS]) {
+		const value = values[key];
+		if (value !== undefined && value !== '' && value !== null) parameters[key] = value;
+	}
+	const reasons: Record<string, string> = {};
+	for (const key of RUN_VALUE_KEYS) {
+		const reason = values[reasonField(key)];
+		if (typeof reason === 'string' && reason.trim()) reasons[key] = reason.trim();
+	}
+	return {
+		line: form.line,
+		product: form.product,
+		stencil: form.stencil,
+		pasteLot: form.pasteLot,
+		parameters,
+		...(Object.keys(reasons).length && { deviationReasons: reasons }),
+		...(form.ambientTempC !== undefined && { ambientTempC: form.ambientTempC }),
+		...(form.relativeHumidityPct !== undefined && { relativeHumidityPct: form.relativeHumidityPct }),
+		...(form.boardsPrinted !== undefined && { boardsPrinted: form.boardsPrinted }),
+		...(form.bladeCode && { bladeCode: form.bladeCode }),
+		...(form.overrideReason && { overrideReason: form.overrideReason })
+	};
+}
+
+/**
+ * The flat form field a payload error belongs to: `parameters.x` → `x`,
+ * `deviationReasons.x` → `reason_x`; top-level fields keep their name.
+ * @example runFormField('deviationReasons.squeegeeAngleDeg') // 'reason_squeegeeAngleDeg'
+ */
+export function runFormField(field: string): string {
+	if (field.startsWith('parameters.')) return field.slice('parameters.'.length).split('.')[0];
+	if (field.startsWith('deviationReasons.')) return reasonField(field.slice('deviationReasons.'.length));
+	return field.split('.')[0];
+}
+
+/** Group payload errors by flat form field. */
+export function runFormErrors(errors: readonly FieldError[]): Record<string, string[]> {
+	const grouped: Record<string, string[]> = {};
+	for (const error of errors) (grouped[runFormField(error.field)] ??= []).push(error.message);
+	return grouped;
 }
