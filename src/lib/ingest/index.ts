@@ -69,6 +69,9 @@ export {
 	type Disambiguation
 } from './zoned-time-to-utc';
 
+// Numbers
+export { parseDecimal } from './parse-decimal';
+
 // Storage and aggregates
 export { encodeCentis, decodeCentis } from './encode-centis';
 export {

@@ -3,7 +3,9 @@
  * in memory (≈ 90 MB as UTF-8), feeds them to `createSpiRowParser` in 64 KiB byte chunks as a
  * file stream would, and prints rows/s (wall clock, and per CPU-second, which is steadier when
  * other jobs share the machine). Target: ≥ 600 000 rows/s for parse + validate.
- * Run: `npx tsx src/lib/ingest/parse-bench.ts [rows]`.
+ * Run: `npx tsx src/lib/ingest/parse-bench.ts [rows]`; with
+ * `node --expose-gc --import tsx src/lib/ingest/parse-bench.ts` it also prints the heap the
+ * parser still holds after `end()` (should stay small: boards only, not the file).
  */
 import { createSpiRowParser } from './spi-row-parser';
 import { CANONICAL_PROFILE } from './mapping-profile';
@@ -83,6 +85,9 @@ function run(): void {
 	const chunks = generateChunks(rows);
 	const bytes = chunks.reduce((s, c) => s + c.length, 0);
 	for (let round = 1; round <= 3; round++) {
+		const gc = (globalThis as { gc?: () => void }).gc;
+		gc?.();
+		const heapBefore = process.memoryUsage().heapUsed;
 		const parser = createSpiRowParser({ profile: CANONICAL_PROFILE, fileName: 'bench.csv' });
 		let batches = 0;
 		const t0 = performance.now();
@@ -104,6 +109,13 @@ function run(): void {
 				`${seconds.toFixed(2)} s wall, ${Math.round(rows / seconds).toLocaleString('en-US')} rows/s; ` +
 				`${cpuSeconds.toFixed(2)} s CPU, ${Math.round(rows / cpuSeconds).toLocaleString('en-US')} rows/CPU-s`
 		);
+		if (gc && round === 1) {
+			// What the parser still holds after end() (boards, aggregates), batches dropped. Only
+			// the first round is measured: later rounds start from a heap V8 has already sized.
+			gc();
+			const retainedMb = (process.memoryUsage().heapUsed - heapBefore) / 1e6;
+			console.log(`round ${round}: parser retains ${retainedMb.toFixed(1)} MB after end()`);
+		}
 		const c0 = process.cpuUsage();
 		const naiveRows = naiveBaseline(chunks);
 		const c = process.cpuUsage(c0);

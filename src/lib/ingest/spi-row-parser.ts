@@ -6,7 +6,7 @@ import {
 } from './board-accumulator';
 import { FIELD_RANGES, MAX_TEXT_LENGTH, type CanonicalField } from './canonical-fields';
 import { detectDelimiter, type Delimiter } from './detect-delimiter';
-import { createIssueCollector, type IngestIssue } from './ingest-issue';
+import { createIssueCollector, DEFAULT_ISSUE_LIMIT, type IngestIssue } from './ingest-issue';
 import type { MappingProfile } from './mapping-profile';
 import { parseDecimal } from './parse-decimal';
 import { createTimestampParser } from './parse-timestamp';
@@ -89,6 +89,16 @@ const HEIGHT_MIN = FIELD_RANGES.height_um.min;
 const HEIGHT_MAX = FIELD_RANGES.height_um.max;
 const OFFSET_MIN = FIELD_RANGES.offset_x_um.min;
 const OFFSET_MAX = FIELD_RANGES.offset_x_um.max;
+
+/**
+ * A copy of `s` that does not share memory with the string it was cut from. V8 represents
+ * `slice` results of 13+ characters as views on the parent (here a 64 KiB chunk), so a board
+ * serial kept to the end would pin its whole chunk and memory would grow with file size.
+ * Concatenating then slicing forces a fresh flat string.
+ */
+function detach(s: string): string {
+	return s.length < 13 ? s : (' ' + s).slice(1);
+}
 
 /**
  * Offset of the first byte that breaks UTF-8 (RFC 3629 §4 syntax: no overlongs, no surrogates,
@@ -189,8 +199,9 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		throw new RangeError(`createSpiRowParser: unknown time zone "${profile.timeZone}"`);
 	}
 	const parseTime = createTimestampParser(profile.timestampFormat, profile.timeZone);
-	const errors = createIssueCollector(options.issueLimit);
-	const warnings = createIssueCollector(options.issueLimit);
+	const issueLimit = options.issueLimit ?? DEFAULT_ISSUE_LIMIT;
+	const errors = createIssueCollector(issueLimit);
+	const warnings = createIssueCollector(issueLimit);
 	const skipRows = profile.onBadRow === 'skip-row';
 	const decimalComma = profile.decimalComma;
 	const lengthFactor = toMicrometres(1, profile.lengthUnit);
@@ -332,7 +343,8 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		errors.add({
 			row,
 			column: index >= 0 ? (header as ResolvedHeader).names[index] : null,
-			message
+			// Kept messages must not pin the chunk their quoted cell came from.
+			message: errors.count < issueLimit ? detach(message) : message
 		});
 	}
 
@@ -438,14 +450,24 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		}
 	}
 
-	function readRecord(record: string, row: number, quoted: boolean): void {
+	/**
+	 * Check one record and add it to the batch. Unquoted records are read in place from
+	 * `source[from, to)` (usually the whole decoded chunk); quoted ones come as their own string.
+	 */
+	function readRecord(
+		source: string,
+		from: number,
+		to: number,
+		row: number,
+		quoted: boolean
+	): void {
 		dataRows++;
 		let n: number;
 		if (!quoted) {
-			rec = record;
-			n = scanFieldBounds(record, delimiter as string, starts, ends);
+			rec = source;
+			n = scanFieldBounds(source, delimiter as string, starts, ends, from, to);
 		} else {
-			const split = splitQuotedLine(record, delimiter as string);
+			const split = splitQuotedLine(source.slice(from, to), delimiter as string);
 			if (!split.fields) {
 				errors.add({ row, column: null, message: split.error });
 				rejectRow();
@@ -598,19 +620,20 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		if (rejected) return;
 		if (boardIndex === undefined) {
 			boardIndex = boardList.length;
+			// Board fields live until the end of the file: copy them off the chunk they were cut from.
 			const board: BoardHeader = {
 				index: boardIndex,
-				boardSerial: serial,
+				boardSerial: detach(serial),
 				inspectedAtMs,
-				lineCode,
-				productCode,
-				stencil: stencil === '' ? null : stencil,
-				printRun: printRun === '' ? null : printRun,
+				lineCode: detach(lineCode),
+				productCode: detach(productCode),
+				stencil: stencil === '' ? null : detach(stencil),
+				printRun: printRun === '' ? null : detach(printRun),
 				firstLine: row
 			};
 			boardList.push(board);
 			boardAccumulators.push(createBoardAccumulator());
-			boardByKey.set(boardInspectionKey(serial, inspectedAtMs), boardIndex);
+			boardByKey.set(boardInspectionKey(board.boardSerial, inspectedAtMs), boardIndex);
 			batch.newBoards.push(board);
 		}
 		lastSerial = serial;
@@ -651,17 +674,35 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		}
 	}
 
-	/** Handle one physical line (without its line break). `sample` feeds delimiter detection. */
-	function handleLine(line: string, sample: string): void {
+	// Position of the next '"' in the current text (-1: none left), so each line's quote test
+	// does not rescan the rest of the chunk.
+	let quoteAt = -1;
+	let quoteFrom = Infinity;
+
+	/** Handle one physical line, `data[start, end)` without its line break. */
+	function handleLine(data: string, start: number, end: number): void {
 		lineNo++;
 		if (pending !== '') {
-			pending += '\n' + line;
+			pending += '\n' + data.slice(start, end);
 			pendingLines++;
-			tryRecord(pending, pendingStart, sample);
+			tryRecord(pending, pendingStart, pending);
 			return;
 		}
-		if (line.length === 0 || (line.charCodeAt(0) <= 32 && line.trim() === '')) return;
-		tryRecord(line, lineNo, sample);
+		if (end === start) return;
+		if (data.charCodeAt(start) <= 32 && data.slice(start, end).trim() === '') return;
+		if (start < quoteFrom || (quoteAt >= 0 && quoteAt < start)) {
+			quoteAt = data.indexOf('"', start);
+			quoteFrom = start;
+		}
+		if (header !== null && (quoteAt < 0 || quoteAt >= end)) {
+			readRecord(data, start, end, lineNo, false); // hot path: no quote, no slicing
+			return;
+		}
+		tryRecord(
+			data.slice(start, end),
+			lineNo,
+			header === null ? data.slice(start, start + 16384) : ''
+		);
 	}
 
 	function tryRecord(record: string, row: number, sample: string): void {
@@ -688,7 +729,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			sawNonBlank = true;
 			readHeader(record, sample);
 		} else {
-			readRecord(record, row, quoted);
+			readRecord(record, 0, record.length, row, quoted);
 		}
 	}
 
@@ -699,12 +740,14 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			if (data.charCodeAt(0) === 0xfeff) data = data.slice(1);
 		}
 		let start = 0;
+		quoteAt = -1;
+		quoteFrom = Infinity; // new text: quote position unknown
 		for (;;) {
 			if (fileFailed) return;
 			const nl = data.indexOf('\n', start);
 			if (nl < 0) break;
 			const end = nl > start && data.charCodeAt(nl - 1) === 13 ? nl - 1 : nl;
-			handleLine(data.slice(start, end), header === null ? data.slice(start, start + 16384) : '');
+			handleLine(data, start, end);
 			start = nl + 1;
 		}
 		carry = data.slice(start);
@@ -712,7 +755,9 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			if (carry.length > 0) {
 				const last = carry.endsWith('\r') ? carry.slice(0, -1) : carry;
 				carry = '';
-				handleLine(last, last);
+				quoteAt = -1;
+				quoteFrom = Infinity;
+				handleLine(last, 0, last.length);
 			}
 			if (pending !== '' && !fileFailed) {
 				errors.add({

@@ -12,8 +12,9 @@ export type SplitResult =
 /**
  * Find the field boundaries of a record without quote characters: field i is
  * `line.slice(starts[i], ends[i])`. Writes at most `starts.length` boundaries (reused arrays,
- * no allocation) and returns the true field count, which may be larger. Used on the hot path
- * for every unquoted line; cells are then read in place.
+ * no allocation) and returns the true field count, which may be larger. `from`/`to` select one
+ * line of a larger text, so lines need not be cut out either. Used on the hot path for every
+ * unquoted line; cells are then read in place.
  * @example
  * const s = new Int32Array(8), e = new Int32Array(8);
  * scanFieldBounds('a,bb,,c', ',', s, e) // 4; s = [0,2,5,6], e = [1,4,5,7]
@@ -22,14 +23,17 @@ export function scanFieldBounds(
 	line: string,
 	delimiter: string,
 	starts: Int32Array,
-	ends: Int32Array
+	ends: Int32Array,
+	from = 0,
+	to = line.length
 ): number {
 	const capacity = starts.length;
 	let count = 0;
-	let start = 0;
+	let start = from;
 	for (;;) {
-		const next = line.indexOf(delimiter, start);
-		const end = next < 0 ? line.length : next;
+		let next = line.indexOf(delimiter, start);
+		if (next >= to) next = -1;
+		const end = next < 0 ? to : next;
 		if (count < capacity) {
 			starts[count] = start;
 			ends[count] = end;
