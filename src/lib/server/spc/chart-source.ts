@@ -1,0 +1,105 @@
+import { and, asc, desc, eq, inArray } from 'drizzle-orm';
+import type { Db } from '../db';
+import { lines, printRuns, spcCharacteristics } from '../db/schema';
+import { isSpiMeasure } from './measures';
+
+/** One subgroup of a characteristic's data, oldest first, with what the chart shows about it. */
+export interface SourceSubgroup {
+	/** Stable key: "run:12" (print log) or "board:88" (SPI); exclusions and signals use it. */
+	key: string;
+	label: string;
+	boardId: number | null;
+	boardIds: number[];
+	at: Date | null;
+	values: number[];
+}
+
+export type CharacteristicRow = typeof spcCharacteristics.$inferSelect;
+
+/** Values per plotted point: n for consecutive subgroups, else 1 (print log) or the pads. */
+export const valuesPerPoint = (c: CharacteristicRow) =>
+	c.subgroupMode === 'consecutive' ? Math.max(1, c.subgroupSize) : 1;
+
+/**
+ * Hook for SPI-measure data: set by the SPI feature's adapter (`registerSpiSource`), so this
+ * module does not depend on its tables before they exist.
+ */
+export type SpiSource = (
+	db: Db,
+	c: CharacteristicRow,
+	limitSubgroups: number
+) => SourceSubgroup[];
+let spiSource: SpiSource | null = null;
+export function registerSpiSource(source: SpiSource | null): void {
+	spiSource = source;
+}
+export const hasSpiSource = () => spiSource !== null;
+
+function printParameterValue(run: { parameters: Record<string, unknown>; ambientTempC: number | null; relativeHumidityPct: number | null }, key: string): number | null {
+	const raw = run.parameters?.[key] ?? (key === 'ambientTempC' ? run.ambientTempC : key === 'relativeHumidityPct' ? run.relativeHumidityPct : null);
+	const v = typeof raw === 'number' ? raw : typeof raw === 'string' && raw.trim() ? Number(raw) : NaN;
+	return Number.isFinite(v) ? v : null;
+}
+
+/**
+ * The newest `limitSubgroups` subgroups of a characteristic, oldest first. Print parameters: one
+ * value per run (runs without the parameter are skipped), grouped n at a time for consecutive
+ * subgroups (an incomplete newest group waits). SPI measures: through the registered source.
+ * @example loadSubgroups(db, characteristic, 200).map((s) => s.values)
+ */
+export function loadSubgroups(db: Db, c: CharacteristicRow, limitSubgroups = 200): SourceSubgroup[] {
+	if (isSpiMeasure(c.measure)) return spiSource ? spiSource(db, c, limitSubgroups) : [];
+	const key = c.parameterKey ?? '';
+	const per = valuesPerPoint(c);
+	const where = and(
+		eq(printRuns.productId, c.productId),
+		c.lineIds.length ? inArray(printRuns.lineId, c.lineIds) : undefined
+	);
+	// Over-read a little: some runs may lack the parameter.
+	const rows = db
+		.select({
+			id: printRuns.id,
+			parameters: printRuns.parameters,
+			ambientTempC: printRuns.ambientTempC,
+			relativeHumidityPct: printRuns.relativeHumidityPct,
+			startedAt: printRuns.startedAt,
+			lineCode: lines.code
+		})
+		.from(printRuns)
+		.innerJoin(lines, eq(lines.id, printRuns.lineId))
+		.where(where)
+		.orderBy(desc(printRuns.startedAt), desc(printRuns.id))
+		.limit(Math.min(200_000, limitSubgroups * per * 2 + 50))
+		.all()
+		.reverse();
+	const usable = rows
+		.map((r) => ({ ...r, value: printParameterValue(r, key) }))
+		.filter((r): r is typeof r & { value: number } => r.value !== null);
+	const out: SourceSubgroup[] = [];
+	const full = usable.length - (usable.length % per);
+	for (let i = 0; i < full; i += per) {
+		const group = usable.slice(i, i + per);
+		const first = group[0];
+		const last = group[group.length - 1];
+		out.push({
+			key: `run:${first.id}`,
+			label: per === 1 ? `run ${first.id} · ${first.lineCode}` : `runs ${first.id}–${last.id} · ${first.lineCode}`,
+			boardId: null,
+			boardIds: [],
+			at: last.startedAt,
+			values: group.map((g) => g.value)
+		});
+	}
+	return out.slice(-limitSubgroups);
+}
+
+/** Characteristics whose data a print run of this product and line feeds (for evaluation). */
+export function characteristicsFor(db: Db, productId: number, lineId: number | null): CharacteristicRow[] {
+	return db
+		.select()
+		.from(spcCharacteristics)
+		.where(and(eq(spcCharacteristics.productId, productId), eq(spcCharacteristics.active, true)))
+		.orderBy(asc(spcCharacteristics.id))
+		.all()
+		.filter((c) => lineId === null || c.lineIds.length === 0 || c.lineIds.includes(lineId));
+}

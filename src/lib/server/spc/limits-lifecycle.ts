@@ -1,0 +1,127 @@
+import { and, eq } from 'drizzle-orm';
+import { chartPoints, SpcInputError, type ChartKind } from '$lib/spc';
+import type { Actor } from '$lib/access';
+import type { Db } from '../db';
+import { spcExclusions, spcLimitVersions } from '../db/schema';
+import { recordAudit } from '../audit';
+import { loadSubgroups } from './chart-source';
+import {
+	engineData,
+	getCharacteristic,
+	latestLimitVersion,
+	listExclusions,
+	phaseOneLimits,
+	type LimitVersionSummary
+} from './chart-service';
+
+/** A refused lifecycle step, with the field and the reason (HTTP 422 / form error). */
+export class LimitsError extends Error {
+	constructor(
+		readonly field: string,
+		message: string
+	) {
+		super(message);
+	}
+}
+
+/** Options of `freezeLimits`: the Phase I baseline period and a note for the history. */
+export interface FreezeOptions {
+	baselineFrom?: Date | null;
+	baselineTo?: Date | null;
+	note?: string;
+	/** Newest subgroups considered (as on the chart page); default 200. */
+	limit?: number;
+}
+
+/**
+ * Phase I → II: compute limits from the baseline (period, minus excluded points) and store them
+ * as the next numbered version (audited). New data is then judged against them; a later
+ * recalculation stores another version, never changing this one.
+ * @throws LimitsError when there is too little data or no variation.
+ */
+export function freezeLimits(db: Db, id: number, options: FreezeOptions, actor: Actor | null): LimitVersionSummary {
+	const c = getCharacteristic(db, id);
+	const subgroups = loadSubgroups(db, c, Math.max(1, Math.min(5000, options.limit ?? 200)));
+	const exclusions = listExclusions(db, id);
+	const excludedKeys = new Set(exclusions.map((e) => e.key));
+	const kind = c.chartKind as ChartKind;
+	let limits;
+	try {
+		const points = chartPoints(kind, engineData(kind, subgroups));
+		limits = phaseOneLimits(c, subgroups, points, excludedKeys, options.baselineFrom, options.baselineTo);
+	} catch (e) {
+		if (!(e instanceof SpcInputError)) throw e;
+		throw new LimitsError('baseline', `Cannot compute limits from this baseline: ${e.field}: ${e.reason}.`);
+	}
+	if (!(limits.sigmaWithin > 0) || !Number.isFinite(limits.location.ucl)) {
+		throw new LimitsError('baseline', 'Zero variation in the baseline: the limits would collapse onto the centre line.');
+	}
+	const used = limits.baselineIndices.map((i) => subgroups[i]);
+	const times = used.map((s) => s.at?.getTime()).filter((t): t is number => t !== undefined);
+	const excluded = exclusions.filter((e) => subgroups.some((s) => s.key === e.key));
+	const row = db.transaction((tx) => {
+		const next = (latestLimitVersion(tx as unknown as Db, id)?.version ?? 0) + 1;
+		const inserted = tx
+			.insert(spcLimitVersions)
+			.values({
+				characteristicId: id,
+				version: next,
+				limits: limits as unknown as Record<string, unknown>,
+				baselineFrom: times.length ? new Date(Math.min(...times)) : null,
+				baselineTo: times.length ? new Date(Math.max(...times)) : null,
+				baselinePoints: used.length,
+				excluded,
+				note: (options.note ?? '').slice(0, 500),
+				createdByUserId: actor?.kind === 'user' ? actor.id : null
+			})
+			.returning()
+			.get();
+		recordAudit(tx, actor, {
+			action: next === 1 ? 'freeze-limits' : 'recalculate-limits',
+			entity: 'spc-characteristic',
+			entityId: id,
+			after: { version: next, limits: { ...limits }, baselinePoints: used.length, excluded }
+		});
+		return inserted;
+	});
+	return {
+		id: row.id,
+		version: row.version,
+		createdAt: row.createdAt,
+		createdBy: actor?.name ?? null,
+		baselinePoints: row.baselinePoints,
+		baselineFrom: row.baselineFrom,
+		baselineTo: row.baselineTo,
+		excluded: row.excluded,
+		note: row.note,
+		limits
+	};
+}
+
+/**
+ * Leave a point out of the next baseline, with the reason (audited).
+ * @throws LimitsError without a reason.
+ */
+export function excludePoint(db: Db, id: number, pointKey: string, reason: string, actor: Actor | null): void {
+	getCharacteristic(db, id);
+	const why = reason.trim();
+	if (!why) throw new LimitsError('reason', 'Say why the point is excluded (the assignable cause).');
+	if (!/^(run|board):\d+$/.test(pointKey)) throw new LimitsError('pointKey', `"${pointKey}" is not a point of this chart.`);
+	db.transaction((tx) => {
+		tx.insert(spcExclusions)
+			.values({ characteristicId: id, pointKey, reason: why.slice(0, 500), createdByUserId: actor?.kind === 'user' ? actor.id : null })
+			.onConflictDoUpdate({ target: [spcExclusions.characteristicId, spcExclusions.pointKey], set: { reason: why.slice(0, 500) } })
+			.run();
+		recordAudit(tx, actor, { action: 'exclude-point', entity: 'spc-characteristic', entityId: id, after: { pointKey, reason: why } });
+	});
+}
+
+/** Put an excluded point back into the baseline (audited). */
+export function includePoint(db: Db, id: number, pointKey: string, actor: Actor | null): void {
+	db.transaction((tx) => {
+		tx.delete(spcExclusions)
+			.where(and(eq(spcExclusions.characteristicId, id), eq(spcExclusions.pointKey, pointKey)))
+			.run();
+		recordAudit(tx, actor, { action: 'include-point', entity: 'spc-characteristic', entityId: id, after: { pointKey } });
+	});
+}

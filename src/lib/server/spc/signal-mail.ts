@@ -1,0 +1,144 @@
+import { and, asc, eq, gte, inArray, like, or } from 'drizzle-orm';
+import { RULE_DESCRIPTIONS, type RuleId } from '$lib/spc';
+import { formatDateTime } from '$lib/format';
+import type { Db } from '../db';
+import { mailOutbox, spcMailQueue, spcSignals, users } from '../db/schema';
+import { sendMail } from '../mail';
+import { characteristicsByIds, type CharacteristicSummary } from './chart-service';
+import { listFollowers } from './characteristics';
+import type { SignalRow } from './signals';
+
+/** Mails about signals to one person within this window before further ones wait for a digest. */
+export const DIGEST_WINDOW_MS = 5 * 60 * 1000;
+/** Individual signal mails per person per window; more become one digest. */
+export const DIGEST_THRESHOLD = 3;
+
+const origin = () => (process.env.ORIGIN ?? '').replace(/\/$/, '');
+
+function ruleText(rule: string): string {
+	return RULE_DESCRIPTIONS[rule as RuleId] ?? rule;
+}
+
+function describeSignal(s: SignalRow, c: CharacteristicSummary | undefined): string {
+	const value = s.value == null ? '' : ` value ${Number(s.value.toPrecision(6))}${c?.unit ? ' ' + c.unit : ''}`;
+	const when = s.pointAt ? ` at ${formatDateTime(s.pointAt)} UTC` : '';
+	return `- ${s.rule} (${ruleText(s.rule)}) on the ${s.chartPart} chart: point ${s.pointKey}${value}${when}; ${s.pointKeys.length} point(s) in the pattern`;
+}
+
+function chartLine(c: CharacteristicSummary | undefined, id: number): string {
+	if (!c) return `Chart #${id}`;
+	const where = c.lineCodes.length ? c.lineCodes.join(', ') : 'all lines';
+	return `${c.name} · ${c.productCode} · ${where}`;
+}
+
+function recentSignalMails(db: Db, email: string, since: Date): number {
+	return db
+		.select({ id: mailOutbox.id })
+		.from(mailOutbox)
+		.where(
+			and(
+				or(eq(mailOutbox.kind, 'signal'), eq(mailOutbox.kind, 'signal-digest')),
+				gte(mailOutbox.createdAt, since),
+				like(mailOutbox.toAddresses, `%${email}%`)
+			)
+		)
+		.all().length;
+}
+
+let timer: ReturnType<typeof setTimeout> | null = null;
+function scheduleFlush(db: Db): void {
+	if (timer) return;
+	timer = setTimeout(() => {
+		timer = null;
+		void flushDigests(db).catch((e) => console.error('[spc] digest mail failed', e));
+	}, DIGEST_WINDOW_MS + 1000);
+	timer.unref?.();
+}
+
+/**
+ * Mail the followers of each chart about new signal runs: one mail per chart per evaluation
+ * (listing its new runs), or, once a person had DIGEST_THRESHOLD signal mails within
+ * DIGEST_WINDOW_MS, the runs wait and go out together as one digest when the window ends.
+ * @returns outbox ids of the mails sent now.
+ */
+export async function notifyFollowers(db: Db, runStarts: SignalRow[], now = new Date()): Promise<number[]> {
+	const sent: number[] = [];
+	if (runStarts.length === 0) return sent;
+	const byChart = new Map<number, SignalRow[]>();
+	for (const s of runStarts) byChart.set(s.characteristicId, [...(byChart.get(s.characteristicId) ?? []), s]);
+	const chars = new Map(characteristicsByIds(db, [...byChart.keys()]).map((c) => [c.id, c]));
+	const since = new Date(now.getTime() - DIGEST_WINDOW_MS);
+	for (const [chartId, signals] of byChart) {
+		const c = chars.get(chartId);
+		for (const follower of listFollowers(db, chartId)) {
+			const queued = db.select({ id: spcMailQueue.id }).from(spcMailQueue).where(eq(spcMailQueue.userId, follower.userId)).get();
+			if (queued || recentSignalMails(db, follower.email, since) >= DIGEST_THRESHOLD) {
+				for (const s of signals) db.insert(spcMailQueue).values({ userId: follower.userId, signalId: s.id, createdAt: now }).run();
+				scheduleFlush(db);
+				continue;
+			}
+			const subject = `[Rollbead] ${signals.length === 1 ? 'Signal' : `${signals.length} signals`} on ${c?.name ?? `chart #${chartId}`}: ${ruleText(signals[0].rule)}`;
+			const text = [
+				`New run-rule signal${signals.length === 1 ? '' : 's'} on ${chartLine(c, chartId)}:`,
+				'',
+				...signals.map((s) => describeSignal(s, c)),
+				'',
+				`Open the chart: ${origin()}/charts/${chartId}`,
+				`Acknowledge with the cause and action: ${origin()}/signals?status=open&chart=${chartId}`,
+				'',
+				'You get this because you follow this chart in Rollbead.'
+			].join('\n');
+			sent.push(await sendMail(db, { to: [follower.email], subject, text, kind: 'signal' }));
+		}
+	}
+	return sent;
+}
+
+/**
+ * Send one digest per person whose queued signal runs waited at least DIGEST_WINDOW_MS
+ * (or all queued ones with `force`). Called on a timer and before each evaluation.
+ * @returns outbox ids of the digests sent.
+ */
+export async function flushDigests(db: Db, now = new Date(), force = false): Promise<number[]> {
+	const queued = db
+		.select({ q: spcMailQueue, s: spcSignals, email: users.email, active: users.active })
+		.from(spcMailQueue)
+		.innerJoin(spcSignals, eq(spcSignals.id, spcMailQueue.signalId))
+		.innerJoin(users, eq(users.id, spcMailQueue.userId))
+		.orderBy(asc(spcMailQueue.id))
+		.all();
+	const byUser = new Map<number, typeof queued>();
+	for (const row of queued) byUser.set(row.q.userId, [...(byUser.get(row.q.userId) ?? []), row]);
+	const sent: number[] = [];
+	for (const [userId, rows] of byUser) {
+		const oldest = rows[0].q.createdAt.getTime();
+		if (!force && now.getTime() - oldest < DIGEST_WINDOW_MS) continue;
+		const ids = rows.map((r) => r.q.id);
+		if (rows[0].active) {
+			const chars = new Map(characteristicsByIds(db, [...new Set(rows.map((r) => r.s.characteristicId))]).map((c) => [c.id, c]));
+			const byChart = new Map<number, SignalRow[]>();
+			for (const r of rows) byChart.set(r.s.characteristicId, [...(byChart.get(r.s.characteristicId) ?? []), r.s]);
+			const text = [
+				`${rows.length} new signal run${rows.length === 1 ? '' : 's'} on ${byChart.size} chart${byChart.size === 1 ? '' : 's'} in the last few minutes:`,
+				...[...byChart].flatMap(([chartId, signals]) => [
+					'',
+					`${chartLine(chars.get(chartId), chartId)} — ${origin()}/charts/${chartId}`,
+					...signals.map((s) => describeSignal(s, chars.get(chartId)))
+				]),
+				'',
+				`Open signals: ${origin()}/signals?status=open`
+			].join('\n');
+			sent.push(
+				await sendMail(db, {
+					to: [rows[0].email],
+					subject: `[Rollbead] Digest: ${rows.length} new signal run${rows.length === 1 ? '' : 's'}`,
+					text,
+					kind: 'signal-digest'
+				})
+			);
+		}
+		db.delete(spcMailQueue).where(inArray(spcMailQueue.id, ids)).run();
+		void userId;
+	}
+	return sent;
+}

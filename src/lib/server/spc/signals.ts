@@ -1,0 +1,250 @@
+import { and, desc, eq, gte, inArray, isNotNull, isNull, lte, sql, type SQL } from 'drizzle-orm';
+import { chartPoints, evaluateChart, SpcInputError, type ChartKind, type ChartLimits } from '$lib/spc';
+import type { Actor } from '$lib/access';
+import type { Db } from '../db';
+import { spcSignals } from '../db/schema';
+import { recordAudit } from '../audit';
+import { characteristicsFor, loadSubgroups, type CharacteristicRow } from './chart-source';
+import { characteristicsByIds, engineData, latestLimitVersion, ruleList } from './chart-service';
+import { getCauseLists } from './cause-lists';
+
+export type SignalRow = typeof spcSignals.$inferSelect;
+
+/** Subgroups re-read per evaluation: rules look back at most 15 points, so this is exact. */
+export const EVALUATION_TAIL = 40;
+
+/**
+ * Judge a characteristic's newest points against its newest frozen limits and store each new
+ * violation (idempotent: a violation already stored is not stored again). Points inside the
+ * baseline are not judged. Signals that continue an earlier pattern of the same rule join its
+ * run (`runId`); the others start a run.
+ * @returns the newly stored signals, oldest first.
+ */
+export function evaluateCharacteristic(db: Db, c: CharacteristicRow, tail = EVALUATION_TAIL): SignalRow[] {
+	const version = latestLimitVersion(db, c.id);
+	if (!version) return [];
+	const limits = version.limits as unknown as ChartLimits;
+	const kind = c.chartKind as ChartKind;
+	if (limits.kind !== kind) return [];
+	const subgroups = loadSubgroups(db, c, tail);
+	if (subgroups.length === 0) return [];
+	let points;
+	try {
+		points = chartPoints(kind, engineData(kind, subgroups));
+	} catch (e) {
+		if (e instanceof SpcInputError) return [];
+		throw e;
+	}
+	if (points[0].size !== limits.subgroupSize) return [];
+	const after = version.baselineTo?.getTime() ?? -Infinity;
+	const violations = evaluateChart(points, limits, ruleList(c)).filter((v) => {
+		const at = subgroups[v.index].at?.getTime();
+		return at === undefined || at > after;
+	});
+	if (violations.length === 0) return [];
+	return db.transaction((tx) => {
+		const recent = tx
+			.select()
+			.from(spcSignals)
+			.where(and(eq(spcSignals.characteristicId, c.id), eq(spcSignals.limitVersionId, version.id)))
+			.orderBy(desc(spcSignals.id))
+			.limit(500)
+			.all();
+		const created: SignalRow[] = [];
+		for (const v of violations) {
+			const s = subgroups[v.index];
+			const pointKeys = v.points.map((i) => subgroups[i].key);
+			const previousKey = v.index > 0 ? subgroups[v.index - 1].key : null;
+			const row = tx
+				.insert(spcSignals)
+				.values({
+					characteristicId: c.id,
+					limitVersionId: version.id,
+					rule: v.rule,
+					chartPart: v.chart,
+					pointKey: s.key,
+					pointKeys,
+					boardIds: [...new Set(v.points.flatMap((i) => subgroups[i].boardIds))],
+					pointAt: s.at,
+					value: v.chart === 'location' ? points[v.index].location : v.chart === 'dispersion' ? points[v.index].dispersion : (points[v.index].movingRange ?? null)
+				})
+				.onConflictDoNothing()
+				.returning()
+				.get();
+			if (!row) continue;
+			const continues = recent.find(
+				(r) =>
+					r.rule === row.rule &&
+					r.chartPart === row.chartPart &&
+					(r.pointKey === previousKey || r.pointKeys.some((k) => pointKeys.includes(k)))
+			);
+			const runId = continues ? (continues.runId ?? continues.id) : row.id;
+			tx.update(spcSignals).set({ runId }).where(eq(spcSignals.id, row.id)).run();
+			const stored = { ...row, runId };
+			recent.unshift(stored);
+			created.push(stored);
+		}
+		return created;
+	});
+}
+
+/** New signals that start a run: the ones a mail is about. */
+export const startsRun = (s: SignalRow) => s.runId === s.id;
+
+/**
+ * Evaluate every active characteristic fed by data of this product (and line), store new
+ * signals and mail the followers (one mail per chart per new run set; digests when busy).
+ * Call after each committed print run or SPI import.
+ */
+export async function evaluateSignalsFor(
+	db: Db,
+	scopes: { productId: number; lineId: number | null }[]
+): Promise<SignalRow[]> {
+	const seen = new Set<number>();
+	const created: SignalRow[] = [];
+	for (const scope of scopes) {
+		for (const c of characteristicsFor(db, scope.productId, scope.lineId)) {
+			if (seen.has(c.id)) continue;
+			seen.add(c.id);
+			created.push(...evaluateCharacteristic(db, c));
+		}
+	}
+	const { notifyFollowers } = await import('./signal-mail');
+	await notifyFollowers(db, created.filter(startsRun));
+	return created;
+}
+
+/** Filters of `listSignals`. */
+export interface SignalFilters {
+	status?: 'open' | 'acknowledged' | 'all';
+	characteristicId?: number;
+	rule?: string;
+	from?: Date | null;
+	to?: Date | null;
+	limit?: number;
+	ids?: number[];
+}
+
+/** A signal with its chart's names, for lists and the API. */
+export interface SignalSummary extends SignalRow {
+	characteristicName: string;
+	productCode: string;
+	lineCodes: string[];
+	unit: string;
+	status: 'open' | 'acknowledged';
+}
+
+/** Stored signals, newest first, filtered. */
+export function listSignals(db: Db, filters: SignalFilters = {}): SignalSummary[] {
+	const where: (SQL | undefined)[] = [
+		filters.status === 'open' ? isNull(spcSignals.ackAt) : undefined,
+		filters.status === 'acknowledged' ? isNotNull(spcSignals.ackAt) : undefined,
+		filters.characteristicId ? eq(spcSignals.characteristicId, filters.characteristicId) : undefined,
+		filters.rule ? eq(spcSignals.rule, filters.rule) : undefined,
+		filters.from ? gte(spcSignals.createdAt, filters.from) : undefined,
+		filters.to ? lte(spcSignals.createdAt, filters.to) : undefined,
+		filters.ids ? inArray(spcSignals.id, filters.ids) : undefined
+	];
+	const rows = db
+		.select()
+		.from(spcSignals)
+		.where(and(...where))
+		.orderBy(desc(spcSignals.id))
+		.limit(Math.max(1, Math.min(1000, filters.limit ?? 200)))
+		.all();
+	const chars = new Map(characteristicsByIds(db, [...new Set(rows.map((r) => r.characteristicId))]).map((c) => [c.id, c]));
+	return rows.map((r) => {
+		const c = chars.get(r.characteristicId);
+		return {
+			...r,
+			characteristicName: c?.name ?? `#${r.characteristicId}`,
+			productCode: c?.productCode ?? '',
+			lineCodes: c?.lineCodes ?? [],
+			unit: c?.unit ?? '',
+			status: r.ackAt ? 'acknowledged' : 'open'
+		};
+	});
+}
+
+/** Open signal counts per characteristic. */
+export function openSignalCounts(db: Db): Map<number, number> {
+	return new Map(
+		db
+			.select({ id: spcSignals.characteristicId, n: sql<number>`count(*)` })
+			.from(spcSignals)
+			.where(isNull(spcSignals.ackAt))
+			.groupBy(spcSignals.characteristicId)
+			.all()
+			.map((r) => [r.id, r.n])
+	);
+}
+
+/** A refused acknowledgement (unknown signal 404, already done 409, bad field 422). */
+export class AcknowledgeError extends Error {
+	constructor(
+		readonly status: 404 | 409 | 422,
+		message: string,
+		readonly field?: string
+	) {
+		super(message);
+	}
+}
+
+/** Body of an acknowledgement. */
+export interface AcknowledgeInput {
+	cause: string;
+	action: string;
+	note?: string;
+	/** Also acknowledge the other open signals of the same run. */
+	wholeRun?: boolean;
+}
+
+/**
+ * Acknowledge a signal with an assignable cause and a corrective action from the site lists,
+ * plus a note; records who and when (audited).
+ * @throws AcknowledgeError (404 unknown, 409 already acknowledged, 422 cause/action not listed).
+ */
+export function acknowledgeSignal(db: Db, id: number, input: AcknowledgeInput, actor: Actor): SignalSummary[] {
+	const row = db.select().from(spcSignals).where(eq(spcSignals.id, id)).get();
+	if (!row) throw new AcknowledgeError(404, `No signal with id ${id}.`);
+	if (row.ackAt) throw new AcknowledgeError(409, `Signal ${id} was already acknowledged by ${row.ackBy} at ${row.ackAt.toISOString()}.`);
+	const lists = getCauseLists(db);
+	if (!lists.causes.includes(input.cause)) {
+		throw new AcknowledgeError(422, `"${input.cause}" is not in the list of assignable causes (${lists.causes.join(', ')}).`, 'cause');
+	}
+	if (!lists.actions.includes(input.action)) {
+		throw new AcknowledgeError(422, `"${input.action}" is not in the list of corrective actions (${lists.actions.join(', ')}).`, 'action');
+	}
+	const now = new Date();
+	const ids = db.transaction((tx) => {
+		const targets = input.wholeRun && row.runId
+			? tx.select({ id: spcSignals.id }).from(spcSignals).where(and(eq(spcSignals.runId, row.runId), isNull(spcSignals.ackAt))).all().map((r) => r.id)
+			: [id];
+		tx.update(spcSignals)
+			.set({
+				ackCause: input.cause,
+				ackAction: input.action,
+				ackNote: (input.note ?? '').slice(0, 2000),
+				ackByUserId: actor.kind === 'user' ? actor.id : null,
+				ackBy: actor.name,
+				ackAt: now
+			})
+			.where(inArray(spcSignals.id, targets))
+			.run();
+		recordAudit(tx, actor, {
+			action: 'acknowledge-signal',
+			entity: 'spc-signal',
+			entityId: id,
+			before: { status: 'open' },
+			after: { ids: targets, cause: input.cause, action: input.action, note: input.note ?? '' }
+		});
+		return targets;
+	});
+	return listSignals(db, { ids, limit: 1000 });
+}
+
+/** One signal by id, with names. */
+export function getSignal(db: Db, id: number): SignalSummary | undefined {
+	return listSignals(db, { ids: [id] })[0];
+}
+
