@@ -17,6 +17,7 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/recipes': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/print-runs': { GET: ALL_ROLES, POST: PRINT_LOGGERS },
 	'/api/print-runs/trends': { GET: ALL_ROLES },
+	'/api/print-runs/export.csv': { GET: ALL_ROLES },
 	'/api/print-runs/[id]': { GET: ALL_ROLES },
 	'/api/print-runs/[id]/end': { POST: PRINT_LOGGERS },
 	'/api/print-runs/[id]/corrections': { POST: PRINT_LOGGERS },
