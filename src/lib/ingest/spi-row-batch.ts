@@ -24,8 +24,10 @@ export interface BoardHeader {
  * A batch of accepted pad rows in struct-of-arrays form: row i of the batch is `line[i]`,
  * `boardIndex[i]`, `refdes[i]`, … for i < `length`. Typed arrays avoid one object per row and
  * feed prepared-statement loops directly. Arrays are owned by the batch (not reused), so the
- * consumer may keep them. `volumeUm3` and, in absolute volume modes, `volumePct` hold NaN when
- * the value is absent (store as NULL). Values are in canonical units (%, µm, µm³).
+ * consumer may keep them (but `refdes`/`pad` strings may share memory with the decoded chunk:
+ * write them out, don't hoard batches). `volumeUm3` and, in absolute volume modes,
+ * `volumePct` hold NaN when the value is absent (store as NULL). Values are in canonical units
+ * (%, µm, µm³).
  */
 export interface SpiRowBatch {
 	length: number;
