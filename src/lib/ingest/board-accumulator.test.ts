@@ -6,6 +6,7 @@ import {
 	createBoardAccumulator,
 	mergeBoardAggregates,
 	type AggregatableRow,
+	type AggregatedMeasure,
 	type BoardAggregate,
 	type ResultCode
 } from './board-accumulator';
@@ -24,7 +25,10 @@ function rowsOf(serial: keyof typeof check.rows): AggregatableRow[] {
 	return check.rows[serial].map((r) => ({ ...r, result: CODES[r.result] }));
 }
 
-function expectClose(actual: BoardAggregate, expected: Record<string, CheckStats>): void {
+function expectClose(
+	actual: BoardAggregate,
+	expected: Record<AggregatedMeasure, CheckStats>
+): void {
 	for (const m of AGGREGATED_MEASURES) {
 		const a = actual[m];
 		const e = expected[m];
