@@ -1,4 +1,4 @@
-import { ALL_ROLES, ADMIN_ONLY, ENGINEERING, PRINT_LOGGERS, type Role } from '../access';
+import { ALL_ROLES, ADMIN_ONLY, ENGINEERING, PRINT_LOGGERS, SPC_EDITORS, type Role } from '../access';
 
 export type HttpMethod = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 export type MethodPolicy = readonly Role[] | 'public';
@@ -27,7 +27,11 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/stencils': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/stencils/[id]': { GET: ALL_ROLES },
 	'/api/stencils/[id]/apertures': { GET: ALL_ROLES, POST: ENGINEERING },
-	'/api/spc/analyze': { POST: ALL_ROLES }
+	'/api/spc/analyze': { POST: ALL_ROLES },
+	'/api/charts': { GET: ALL_ROLES },
+	'/api/charts/[id]': { GET: ALL_ROLES },
+	'/api/signals': { GET: ALL_ROLES },
+	'/api/signals/[id]/acknowledge': { POST: SPC_EDITORS }
 };
 
 /** Routes that take large uploads: only these accept bodies above the general limit. */

@@ -228,6 +228,7 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 		points: points.map((p, index) => ({
 			...p,
 			index,
+			key: subgroups[index].key,
 			label: subgroups[index].label,
 			boardId: subgroups[index].boardId,
 			at: subgroups[index].at,

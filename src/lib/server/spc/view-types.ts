@@ -14,6 +14,8 @@ import type {
 /** One plotted subgroup with what the tooltip and click-through need. */
 export interface ChartViewPoint {
 	index: number;
+	/** Stable point key ("run:12", "board:88"); absent in ad-hoc studies. */
+	key?: string;
 	location: number;
 	dispersion: number | null;
 	movingRange?: number | null;

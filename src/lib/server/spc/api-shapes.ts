@@ -1,0 +1,116 @@
+import { z } from 'zod';
+import type { ChartDetail } from './chart-service';
+import type { SignalFilters, SignalSummary } from './signals';
+
+/** Query of `GET /api/charts/{id}`: newest `limit` subgroups (1..5000). */
+export function chartQuery(url: URL): { limit: number } {
+	const raw = url.searchParams.get('limit');
+	const limit = raw === null ? 200 : Number(raw);
+	return { limit: Number.isInteger(limit) && limit >= 1 && limit <= 5000 ? limit : 200 };
+}
+
+/** JSON of `GET /api/charts/{id}`: points, limits, violations, capability (numbers unrounded). */
+export function chartJson(d: ChartDetail) {
+	const c = d.characteristic;
+	const cap = d.capability.result;
+	return {
+		id: c.id,
+		name: c.name,
+		product: c.productCode,
+		lines: c.lineCodes,
+		measure: c.measure,
+		parameterKey: c.parameterKey,
+		chartKind: c.chartKind,
+		unit: c.unit,
+		specs: { lsl: c.lsl, target: c.target, usl: c.usl },
+		rules: c.rules,
+		phase: d.chart?.phase ?? null,
+		limitsVersion: d.chart?.limitsVersion ?? null,
+		limits: d.chart
+			? {
+					location: d.chart.limits.location,
+					dispersion: d.chart.limits.dispersion,
+					movingRange: d.chart.limits.movingRange ?? null,
+					sigmaWithin: d.chart.limits.sigmaWithin,
+					subgroupSize: d.chart.limits.subgroupSize
+				}
+			: null,
+		points: (d.chart?.points ?? []).map((p) => ({
+			index: p.index,
+			key: p.key,
+			label: p.label,
+			boardId: p.boardId,
+			at: p.at,
+			n: p.size,
+			location: p.location,
+			dispersion: p.dispersion,
+			movingRange: p.movingRange ?? null,
+			excluded: p.excluded
+		})),
+		violations: d.chart?.violations ?? [],
+		capability: cap
+			? {
+					cp: cap.cp,
+					cpk: cap.cpk,
+					pp: cap.pp,
+					ppk: cap.ppk,
+					sigmaWithin: cap.sigmaWithin,
+					sigmaOverall: cap.sigmaOverall,
+					mean: cap.mean,
+					n: cap.n,
+					cpkLower95: cap.cpkInterval?.lower ?? null,
+					cpkUpper95: cap.cpkInterval?.upper ?? null,
+					ppmTotal: cap.expectedWithin?.ppmTotal ?? null,
+					reading: cap.reading.text,
+					level: cap.reading.level
+				}
+			: null,
+		message: d.message ?? d.capability.message
+	};
+}
+
+/** JSON of one signal in `GET /api/signals` and the acknowledge answer. */
+export function signalJson(s: SignalSummary) {
+	return {
+		id: s.id,
+		chartId: s.characteristicId,
+		chart: s.characteristicName,
+		product: s.productCode,
+		lines: s.lineCodes,
+		rule: s.rule,
+		chartPart: s.chartPart,
+		pointKey: s.pointKey,
+		pointKeys: s.pointKeys,
+		boardIds: s.boardIds,
+		pointAt: s.pointAt,
+		value: s.value,
+		runId: s.runId,
+		limitVersionId: s.limitVersionId,
+		createdAt: s.createdAt,
+		status: s.status,
+		acknowledgement: s.ackAt
+			? { cause: s.ackCause, action: s.ackAction, note: s.ackNote, by: s.ackBy, at: s.ackAt }
+			: null
+	};
+}
+
+/** Body of `POST /api/signals/{id}/acknowledge`. */
+export const acknowledgeBodySchema = z.object({
+	cause: z.string().trim().min(1, 'choose an assignable cause').max(80),
+	action: z.string().trim().min(1, 'choose a corrective action').max(80),
+	note: z.string().max(2000).optional(),
+	wholeRun: z.boolean().optional()
+});
+
+/** Query of `GET /api/signals`. */
+export function signalQuery(url: URL): SignalFilters {
+	const status = url.searchParams.get('status');
+	const chart = Number(url.searchParams.get('chart'));
+	const limit = Number(url.searchParams.get('limit'));
+	return {
+		status: status === 'open' || status === 'acknowledged' ? status : 'all',
+		characteristicId: Number.isInteger(chart) && chart > 0 ? chart : undefined,
+		rule: url.searchParams.get('rule') || undefined,
+		limit: Number.isInteger(limit) && limit > 0 ? Math.min(limit, 1000) : 200
+	};
+}

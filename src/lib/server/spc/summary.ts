@@ -1,0 +1,71 @@
+import type { CapabilityLevel } from '$lib/spc';
+import type { Db } from '../db';
+import { chartDetail, listCharacteristics, type ChartDetail } from './chart-service';
+import { openSignalCounts } from './signals';
+
+/** One row of the summary page and `GET /api/charts`. */
+export interface ChartSummaryRow {
+	id: number;
+	name: string;
+	productCode: string;
+	lineCodes: string[];
+	measure: string;
+	measureLabel: string;
+	parameterKey: string | null;
+	chartKind: string;
+	unit: string;
+	lsl: number | null;
+	target: number | null;
+	usl: number | null;
+	rules: string[];
+	active: boolean;
+	phase: 'I' | 'II' | null;
+	limitsVersion: number | null;
+	points: number;
+	openSignals: number;
+	cpk: number | null;
+	ppk: number | null;
+	level: CapabilityLevel;
+	message: string | null;
+}
+
+/** Summary row from a chart detail. */
+export function summaryRow(d: ChartDetail, openSignals: number): ChartSummaryRow {
+	const c = d.characteristic;
+	const cap = d.capability.result;
+	return {
+		id: c.id,
+		name: c.name,
+		productCode: c.productCode,
+		lineCodes: c.lineCodes,
+		measure: c.measure,
+		measureLabel: c.measureLabel,
+		parameterKey: c.parameterKey,
+		chartKind: c.chartKind,
+		unit: c.unit,
+		lsl: c.lsl,
+		target: c.target,
+		usl: c.usl,
+		rules: c.rules,
+		active: c.active,
+		phase: d.chart?.phase ?? null,
+		limitsVersion: d.chart?.limitsVersion ?? null,
+		points: d.chart?.points.length ?? 0,
+		openSignals,
+		cpk: cap?.cpk ?? null,
+		ppk: cap?.ppk ?? null,
+		level: cap?.reading.level ?? 'undefined',
+		message: d.message ?? d.capability.message
+	};
+}
+
+/**
+ * Every chart with its latest capability and open signals, worst first: most open signals, then
+ * lowest Cpk (Ppk when Cpk is undefined), charts without capability last.
+ */
+export function chartSummary(db: Db, limit = 200): ChartSummaryRow[] {
+	const open = openSignalCounts(db);
+	const rows = listCharacteristics(db).map((c) => summaryRow(chartDetail(db, c.id, { limit }), open.get(c.id) ?? 0));
+	const index = (r: ChartSummaryRow) => r.cpk ?? r.ppk ?? Infinity;
+	return rows.sort((a, b) => b.openSignals - a.openSignals || index(a) - index(b) || a.name.localeCompare(b.name));
+}
