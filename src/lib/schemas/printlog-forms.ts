@@ -195,3 +195,22 @@ export function runFormErrors(errors: readonly FieldError[]): Record<string, str
 	for (const error of errors) (grouped[runFormField(error.field)] ??= []).push(error.message);
 	return grouped;
 }
+
+/** Parsed filters as the run list takes them (dates as Date, `open` as boolean). */
+export function toRunFilters(filters: z.output<typeof runFiltersSchema>): {
+	line?: string;
+	product?: string;
+	stencil?: string;
+	lot?: string;
+	from?: Date;
+	to?: Date;
+	open?: boolean;
+	limit?: number;
+} {
+	const { from, to, open, ...codes } = filters;
+	return {
+		...codes,
+		...runFilterDates({ from, to }),
+		...(open !== undefined && { open: open === 'true' })
+	};
+}

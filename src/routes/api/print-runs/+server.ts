@@ -3,16 +3,12 @@ import { parseJsonBody } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import { listRuns, printlogApiRoute, queryObject, startRun } from '$lib/server/printlog';
 import { printRunSchema } from '$lib/schemas/printlog';
-import { runFilterDates, runFiltersSchema } from '$lib/schemas/printlog-forms';
+import { runFiltersSchema, toRunFilters } from '$lib/schemas/printlog-forms';
 
 /** Runs, newest first, filtered by line, product, stencil, lot and start date. */
 export const GET = printlogApiRoute(({ url }) => {
 	const filters = runFiltersSchema.parse(queryObject(url));
-	const runs = listRuns(getDb(), {
-		...filters,
-		...runFilterDates(filters),
-		open: filters.open === undefined ? undefined : filters.open === 'true'
-	});
+	const runs = listRuns(getDb(), toRunFilters(filters));
 	return json({ runs });
 });
 
