@@ -3,3 +3,4 @@ export * from './foundation';
 export * from './stencils';
 export * from './printlog';
 export * from './spc';
+export * from './spi';
