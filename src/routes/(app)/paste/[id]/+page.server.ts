@@ -1,0 +1,41 @@
+import { error, fail } from '@sveltejs/kit';
+import { hasRole, PRINT_LOGGERS } from '$lib/access';
+import { leadHandlingCaution, PASTE_EVENTS } from '$lib/printlog';
+import { getDb } from '$lib/server/db';
+import { requireActor } from '$lib/server/guards';
+import { addPasteEvent, getPasteLot, PrintlogRequestError } from '$lib/server/printlog';
+import { fieldErrorsFromZod, pasteEventSchema } from '$lib/schemas/printlog';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, params }) => {
+	const actor = requireActor(locals);
+	const lot = getPasteLot(getDb(), params.id);
+	if (!lot) error(404, `No paste lot "${params.id}".`);
+	return {
+		lot,
+		events: PASTE_EVENTS,
+		caution: lot.leadBearing ? leadHandlingCaution() : [],
+		canWrite: hasRole(actor, PRINT_LOGGERS)
+	};
+};
+
+export const actions = {
+	event: async ({ locals, params, request }) => {
+		const actor = requireActor(locals, PRINT_LOGGERS);
+		const data = await request.formData();
+		const parsed = pasteEventSchema.safeParse({
+			event: String(data.get('event') ?? ''),
+			...(String(data.get('note') ?? '').trim() && { note: String(data.get('note')) })
+		});
+		if (!parsed.success) {
+			return fail(400, { errors: fieldErrorsFromZod(parsed.error), warnings: [] as string[] });
+		}
+		try {
+			const { warnings } = addPasteEvent(getDb(), params.id, parsed.data, actor);
+			return { logged: parsed.data.event, warnings, errors: [] };
+		} catch (err) {
+			if (!(err instanceof PrintlogRequestError)) throw err;
+			return fail(err.status, { errors: err.fields, warnings: [] as string[] });
+		}
+	}
+} satisfies Actions;
