@@ -49,6 +49,8 @@ export const SECTIONS: readonly Section[] = [
 	{ href: '/paste', label: 'Paste lots', roles: ALL_ROLES, icon: 'package' },
 	{ href: '/stencil-life', label: 'Stencil life', roles: ALL_ROLES, icon: 'layers' },
 	{ href: '/stencils', label: 'Stencils', roles: ALL_ROLES, icon: 'layers' },
+	{ href: '/charts', label: 'Charts', roles: ALL_ROLES, icon: 'chart-line' },
+	{ href: '/signals', label: 'Signals', roles: ALL_ROLES, icon: 'bell' },
 	{ href: '/study', label: 'Ad-hoc study', roles: ALL_ROLES, icon: 'calculator' }
 ];
 
