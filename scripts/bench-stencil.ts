@@ -1,0 +1,47 @@
+/**
+ * Stencil check speed: evaluate, summarise and sweep a 20,000-aperture stencil, as the stencil
+ * page does on every load. Prints figures; asserts nothing.   npx tsx scripts/bench-stencil.ts
+ */
+import { performance } from 'node:perf_hooks';
+import {
+	evaluateStencil,
+	resolveThresholds,
+	summarizeStencil,
+	thicknessSweep,
+	type ApertureInput
+} from '../src/lib/stencil';
+
+function syntheticStencil(count: number): ApertureInput[] {
+	const apertures: ApertureInput[] = [];
+	for (let i = 0; i < count; i++) {
+		const kind = i % 4;
+		const base = { refdes: `R${Math.floor(i / 2) + 1}`, pad: String((i % 2) + 1), xUm: (i % 200) * 900, yUm: Math.floor(i / 200) * 900, rotationDeg: (i % 2) * 90 };
+		if (kind === 0) apertures.push({ ...base, shape: 'rectangle', lengthUm: 500 + (i % 7) * 10, widthUm: 250 + (i % 5) * 10 });
+		else if (kind === 1) apertures.push({ ...base, shape: 'circle', diameterUm: 250 + (i % 9) * 10 });
+		else if (kind === 2) apertures.push({ ...base, shape: 'rounded-rectangle', lengthUm: 800, widthUm: 300, cornerRadiusUm: 60 });
+		else apertures.push({ ...base, shape: 'polygon', verticesUm: [[-200, -150], [200, -150], [250, 0], [200, 150], [-200, 150]] });
+	}
+	return apertures;
+}
+
+function time<T>(label: string, runs: number, fn: () => T): T {
+	let result!: T;
+	const times: number[] = [];
+	for (let i = 0; i < runs; i++) {
+		const start = performance.now();
+		result = fn();
+		times.push(performance.now() - start);
+	}
+	times.sort((a, b) => a - b);
+	console.log(`${label.padEnd(42)} median ${times[Math.floor(runs / 2)].toFixed(1)} ms, best ${times[0].toFixed(1)} ms (${runs} runs)`);
+	return result;
+}
+
+const apertures = syntheticStencil(20_000);
+const thresholds = resolveThresholds('laser-stainless');
+const results = time('evaluate 20,000 apertures at 127 µm', 15, () =>
+	evaluateStencil(apertures, { thicknessUm: 127, thresholds })
+);
+time('summarise the evaluated stencil', 15, () => summarizeStencil(results));
+time('thickness sweep over the usual foils', 7, () => thicknessSweep(apertures, { thresholds }));
+console.log(`failing apertures at 127 µm: ${results.filter((r) => r.status === 'fail').length}`);
