@@ -34,9 +34,11 @@ const textField = (form: FormData, name: string) => {
 /**
  * Import apertures: JSON `{ "apertures": [...], "mode"? }` or multipart `file` (our CSV layout or
  * a Gerber paste layer) with `unit` (CSV), `mode`, optional `centroids` file, `centroidUnit`,
- * `centroidRadiusUm`, `format`. All or nothing; 201 with the import summary.
+ * `centroidRadiusUm`, `format`; or the file itself as a raw body (text/csv, text/plain,
+ * application/octet-stream) with `?unit=&format=&mode=&fileName=`. All or nothing; 201 with the
+ * import summary.
  */
-export const POST = apiRoute(async ({ params, request }, actor) => {
+export const POST = apiRoute(async ({ params, request, url }, actor) => {
 	const id = idParam(params.id, 'stencil');
 	const db = getDb();
 	await withStencilErrors(() => getStencil(db, id));
@@ -81,6 +83,38 @@ export const POST = apiRoute(async ({ params, request }, actor) => {
 					source: parsed.format,
 					mode,
 					fileName: file.name,
+					unit: parsed.unit,
+					warnings: parsed.warnings
+				},
+				actor
+			)
+		);
+		return json(summary, { status: 201 });
+	}
+	if (type !== '' && !type.includes('json')) {
+		// A raw file body (text/csv, text/plain, application/octet-stream, application/vnd.gerber):
+		// what scripts send most easily; options come in the query string.
+		const q = url.searchParams;
+		const mode = modeOf(q.get('mode'));
+		const text = await request.text();
+		const parsed = parseApertureUpload({
+			fileName: q.get('fileName') ?? 'upload',
+			text,
+			byteLength: Buffer.byteLength(text),
+			format: q.get('format'),
+			unit: q.get('unit')
+		});
+		if (!parsed.ok)
+			throw new ApiError(parsed.status, { error: parsed.error, errors: parsed.errors });
+		const summary = await withStencilErrors(() =>
+			importApertures(
+				db,
+				id,
+				parsed.apertures,
+				{
+					source: parsed.format,
+					mode,
+					fileName: q.get('fileName'),
 					unit: parsed.unit,
 					warnings: parsed.warnings
 				},
