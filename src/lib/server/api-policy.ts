@@ -1,4 +1,12 @@
-import { ALL_ROLES, ADMIN_ONLY, ENGINEERING, PRINT_LOGGERS, SPC_EDITORS, type Role } from '../access';
+import {
+	ALL_ROLES,
+	ADMIN_ONLY,
+	ENGINEERING,
+	INSPECTION_IMPORTERS,
+	PRINT_LOGGERS,
+	SPC_EDITORS,
+	type Role
+} from '../access';
 
 export type HttpMethod = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 export type MethodPolicy = readonly Role[] | 'public';
@@ -31,11 +39,19 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/charts': { GET: ALL_ROLES },
 	'/api/charts/[id]': { GET: ALL_ROLES },
 	'/api/signals': { GET: ALL_ROLES },
-	'/api/signals/[id]/acknowledge': { POST: SPC_EDITORS }
+	'/api/signals/[id]/acknowledge': { POST: SPC_EDITORS },
+	'/api/spi/imports': { GET: ALL_ROLES, POST: INSPECTION_IMPORTERS },
+	'/api/spi/imports/[id]': { GET: ALL_ROLES },
+	'/api/spi/imports/progress/[job]': { GET: ALL_ROLES },
+	'/api/spi/profiles': { GET: ALL_ROLES, POST: INSPECTION_IMPORTERS },
+	'/api/spi/profiles/[id]': { GET: ALL_ROLES, PUT: INSPECTION_IMPORTERS },
+	'/api/spi/pareto': { GET: ALL_ROLES },
+	'/api/boards': { GET: ALL_ROLES },
+	'/api/boards/[id]': { GET: ALL_ROLES }
 };
 
 /** Routes that take large uploads: only these accept bodies above the general limit. */
-export const UPLOAD_ROUTES: ReadonlySet<string> = new Set<string>([]);
+export const UPLOAD_ROUTES: ReadonlySet<string> = new Set<string>(['/api/spi/imports']);
 
 /** Bodies on every other route stay small; a large form post is refused before it is read. */
 export const GENERAL_BODY_LIMIT_BYTES = 25 * 1024 * 1024;
