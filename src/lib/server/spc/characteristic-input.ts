@@ -65,6 +65,9 @@ export function checkCharacteristic(
 			out.push({ field: 'chartKind', message: 'between/within needs SPI pads; use I-MR or X̄/R' });
 		}
 	}
+	if (input.measure === 'transfer-efficiency-pct' && input.padSelection.kind !== 'all') {
+		out.push({ field: 'padSelection', message: 'transfer efficiency is charted for all pads only (from the board aggregates)' });
+	}
 	const perPoint = input.subgroupMode === 'consecutive' ? input.subgroupSize : 1;
 	if (input.measure === 'print-parameter' || input.subgroupMode === 'consecutive') {
 		if (input.chartKind === 'i-mr' && perPoint !== 1) {

@@ -9,9 +9,12 @@ import {
 	SpcInputError,
 	type ChartKind,
 	type ChartLimits,
+	type CapabilityResult,
 	type ChartPoint,
 	type RuleId
 } from '$lib/spc';
+import { samplePadValues } from './spi-source';
+import { summaryCapability } from './summary-capability';
 import type { Db } from '../db';
 import {
 	lines,
@@ -144,6 +147,34 @@ export function engineData(kind: ChartKind, subgroups: SourceSubgroup[]): number
 	return kind === 'i-mr' ? subgroups.map((s) => s.values[0]) : subgroups.map((s) => s.values);
 }
 
+/** The most frequent subgroup size (board pad counts can differ by a few missing pads). */
+function modalSize(sizes: number[]): number {
+	const counts = new Map<number, number>();
+	for (const n of sizes) counts.set(n, (counts.get(n) ?? 0) + 1);
+	return [...counts].sort((a, b) => b[1] - a[1] || b[0] - a[0])[0][0];
+}
+
+/**
+ * Chart points of the source subgroups: from the values through the engine, or, for per-board
+ * aggregates, directly (x̄, and R for n ≤ 10 or s above; moving range of the means for
+ * between/within). Aggregated boards whose pad counts differ are charted with the modal count
+ * as n (a few missing pads barely move the constants at these sizes).
+ * @throws SpcInputError as the engine's point builders.
+ */
+export function pointsFor(kind: ChartKind, subgroups: SourceSubgroup[]): ChartPoint[] {
+	if (!subgroups.length || !subgroups[0].stats) return chartPoints(kind, engineData(kind, subgroups));
+	const size = modalSize(subgroups.map((s) => s.stats?.n ?? 0));
+	const useRange = kind === 'xbar-r' || (kind === 'between-within' && size <= 10);
+	return subgroups.map((s, i) => {
+		const st = s.stats ?? { n: 0, mean: NaN, sd: NaN, range: NaN };
+		const point: ChartPoint = { location: st.mean, dispersion: useRange ? st.range : st.sd, size };
+		if (kind === 'between-within') {
+			point.movingRange = i === 0 ? null : Math.abs(st.mean - (subgroups[i - 1].stats?.mean ?? NaN));
+		}
+		return point;
+	});
+}
+
 export const ruleList = (c: CharacteristicRow): RuleId[] =>
 	c.rules.filter((r): r is RuleId => (RULE_IDS as readonly string[]).includes(r));
 
@@ -196,7 +227,7 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 	let phase: 'I' | 'II' = 'I';
 	let version: number | null = null;
 	try {
-		points = chartPoints(kind, engineData(kind, subgroups));
+		points = pointsFor(kind, subgroups);
 		const frozen = versions[0];
 		const frozenLimits = frozen?.limits;
 		if (frozenLimits && frozenLimits.kind === kind && frozenLimits.subgroupSize === points[0].size) {
@@ -241,39 +272,44 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 		phase,
 		limitsVersion: version
 	};
-	const values = subgroups.flatMap((s) => s.values);
-	let capability: CapabilityView;
-	if (c.lsl == null && c.usl == null) {
-		capability = noCapability(c, 'Set LSL and/or USL to see capability.');
-	} else {
-		try {
-			const result = processCapability({
-				values,
+	const capability = capabilityOf(db, c, subgroups, limits);
+	return { ...base, chart, capability, message };
+}
+
+/** Capability of the shown data: from the values, or from pooled per-board aggregates. */
+function capabilityOf(db: Db, c: CharacteristicRow, subgroups: SourceSubgroup[], limits: ChartLimits): CapabilityView {
+	if (c.lsl == null && c.usl == null) return noCapability(c, 'Set LSL and/or USL to see capability.');
+	try {
+		let result: CapabilityResult;
+		let values: number[];
+		if (subgroups[0]?.stats) {
+			result = summaryCapability({
+				groups: subgroups.map((s) => s.stats ?? { n: 0, mean: 0, sd: 0 }),
 				sigmaWithin: limits.sigmaWithin,
 				lsl: c.lsl,
 				usl: c.usl,
 				target: c.target
 			});
-			capability = {
-				result,
-				histogram: capabilityHistogram(values, {
-					mean: result.mean,
-					sigmaOverall: result.sigmaOverall,
-					sigmaWithin: result.sigmaWithin,
-					lsl: c.lsl,
-					usl: c.usl
-				}),
-				lsl: c.lsl,
-				usl: c.usl,
-				target: c.target,
-				message: null
-			};
-		} catch (e) {
-			if (!(e instanceof SpcInputError)) throw e;
-			capability = noCapability(c, `Capability not computed: ${e.field}: ${e.reason}.`);
+			// The histogram shows the pads of the newest boards; the indices use every shown board.
+			values = samplePadValues(db, c, subgroups.map((s) => s.boardId ?? 0));
+		} else {
+			values = subgroups.flatMap((s) => s.values);
+			result = processCapability({ values, sigmaWithin: limits.sigmaWithin, lsl: c.lsl, usl: c.usl, target: c.target });
 		}
+		return {
+			result,
+			histogram: values.length
+				? capabilityHistogram(values, { mean: result.mean, sigmaOverall: result.sigmaOverall, sigmaWithin: result.sigmaWithin, lsl: c.lsl, usl: c.usl })
+				: null,
+			lsl: c.lsl,
+			usl: c.usl,
+			target: c.target,
+			message: null
+		};
+	} catch (e) {
+		if (!(e instanceof SpcInputError)) throw e;
+		return noCapability(c, `Capability not computed: ${e.field}: ${e.reason}.`);
 	}
-	return { ...base, chart, capability, message };
 }
 
 /** Characteristic ids by id list (helper for signals and summary). */

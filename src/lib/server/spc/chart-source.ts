@@ -2,6 +2,7 @@ import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '../db';
 import { lines, printRuns, spcCharacteristics } from '../db/schema';
 import { isSpiMeasure } from './measures';
+import { loadSpiSubgroups } from './spi-source';
 
 /** One subgroup of a characteristic's data, oldest first, with what the chart shows about it. */
 export interface SourceSubgroup {
@@ -12,6 +13,8 @@ export interface SourceSubgroup {
 	boardIds: number[];
 	at: Date | null;
 	values: number[];
+	/** Per-board aggregates instead of values (SPI, all pads): n, mean, sd, range. */
+	stats?: { n: number; mean: number; sd: number; range: number };
 }
 
 export type CharacteristicRow = typeof spcCharacteristics.$inferSelect;
@@ -19,21 +22,6 @@ export type CharacteristicRow = typeof spcCharacteristics.$inferSelect;
 /** Values per plotted point: n for consecutive subgroups, else 1 (print log) or the pads. */
 export const valuesPerPoint = (c: CharacteristicRow) =>
 	c.subgroupMode === 'consecutive' ? Math.max(1, c.subgroupSize) : 1;
-
-/**
- * Hook for SPI-measure data: set by the SPI feature's adapter (`registerSpiSource`), so this
- * module does not depend on its tables before they exist.
- */
-export type SpiSource = (
-	db: Db,
-	c: CharacteristicRow,
-	limitSubgroups: number
-) => SourceSubgroup[];
-let spiSource: SpiSource | null = null;
-export function registerSpiSource(source: SpiSource | null): void {
-	spiSource = source;
-}
-export const hasSpiSource = () => spiSource !== null;
 
 function printParameterValue(run: { parameters: Record<string, unknown>; ambientTempC: number | null; relativeHumidityPct: number | null }, key: string): number | null {
 	const raw = run.parameters?.[key] ?? (key === 'ambientTempC' ? run.ambientTempC : key === 'relativeHumidityPct' ? run.relativeHumidityPct : null);
@@ -44,11 +32,11 @@ function printParameterValue(run: { parameters: Record<string, unknown>; ambient
 /**
  * The newest `limitSubgroups` subgroups of a characteristic, oldest first. Print parameters: one
  * value per run (runs without the parameter are skipped), grouped n at a time for consecutive
- * subgroups (an incomplete newest group waits). SPI measures: through the registered source.
+ * subgroups (an incomplete newest group waits). SPI measures: `loadSpiSubgroups`.
  * @example loadSubgroups(db, characteristic, 200).map((s) => s.values)
  */
 export function loadSubgroups(db: Db, c: CharacteristicRow, limitSubgroups = 200): SourceSubgroup[] {
-	if (isSpiMeasure(c.measure)) return spiSource ? spiSource(db, c, limitSubgroups) : [];
+	if (isSpiMeasure(c.measure)) return loadSpiSubgroups(db, c, limitSubgroups);
 	const key = c.parameterKey ?? '';
 	const per = valuesPerPoint(c);
 	const where = and(

@@ -1,16 +1,16 @@
 import { and, eq } from 'drizzle-orm';
-import { chartPoints, SpcInputError, type ChartKind } from '$lib/spc';
+import { SpcInputError, type ChartKind } from '$lib/spc';
 import type { Actor } from '$lib/access';
 import type { Db } from '../db';
 import { spcExclusions, spcLimitVersions } from '../db/schema';
 import { recordAudit } from '../audit';
 import { loadSubgroups } from './chart-source';
 import {
-	engineData,
 	getCharacteristic,
 	latestLimitVersion,
 	listExclusions,
 	phaseOneLimits,
+	pointsFor,
 	type LimitVersionSummary
 } from './chart-service';
 
@@ -47,7 +47,7 @@ export function freezeLimits(db: Db, id: number, options: FreezeOptions, actor: 
 	const kind = c.chartKind as ChartKind;
 	let limits;
 	try {
-		const points = chartPoints(kind, engineData(kind, subgroups));
+		const points = pointsFor(kind, subgroups);
 		limits = phaseOneLimits(c, subgroups, points, excludedKeys, options.baselineFrom, options.baselineTo);
 	} catch (e) {
 		if (!(e instanceof SpcInputError)) throw e;

@@ -1,11 +1,11 @@
 import { and, desc, eq, gte, inArray, isNotNull, isNull, lte, sql, type SQL } from 'drizzle-orm';
-import { chartPoints, evaluateChart, SpcInputError, type ChartKind, type ChartLimits } from '$lib/spc';
+import { evaluateChart, SpcInputError, type ChartKind, type ChartLimits } from '$lib/spc';
 import type { Actor } from '$lib/access';
 import type { Db } from '../db';
 import { spcSignals } from '../db/schema';
 import { recordAudit } from '../audit';
 import { characteristicsFor, loadSubgroups, type CharacteristicRow } from './chart-source';
-import { characteristicsByIds, engineData, latestLimitVersion, ruleList } from './chart-service';
+import { characteristicsByIds, latestLimitVersion, pointsFor, ruleList } from './chart-service';
 import { getCauseLists } from './cause-lists';
 
 export type SignalRow = typeof spcSignals.$inferSelect;
@@ -30,7 +30,7 @@ export function evaluateCharacteristic(db: Db, c: CharacteristicRow, tail = EVAL
 	if (subgroups.length === 0) return [];
 	let points;
 	try {
-		points = chartPoints(kind, engineData(kind, subgroups));
+		points = pointsFor(kind, subgroups);
 	} catch (e) {
 		if (e instanceof SpcInputError) return [];
 		throw e;
@@ -248,3 +248,35 @@ export function getSignal(db: Db, id: number): SignalSummary | undefined {
 	return listSignals(db, { ids: [id] })[0];
 }
 
+
+/**
+ * Call after each committed SPI import with the ids of the boards it stored: evaluates the
+ * charts those boards feed (their product and line), stores new signals and mails followers.
+ * Never throws for evaluation problems of one chart (logged), so an import is never undone by
+ * charting. Also flushes digests that are due.
+ * @example await evaluateSignalsAfterIngest(db, [101, 102])
+ */
+export async function evaluateSignalsAfterIngest(db: Db, boardIds: number[]): Promise<SignalRow[]> {
+	try {
+		const { boardScopes } = await import('./spi-source');
+		const { flushDigests } = await import('./signal-mail');
+		await flushDigests(db);
+		return await evaluateSignalsFor(db, boardScopes(db, boardIds));
+	} catch (err) {
+		console.error('[spc] signal evaluation after ingest failed', err);
+		return [];
+	}
+}
+
+/**
+ * Call after a print run is logged or corrected: evaluates the print-parameter charts of its
+ * product and line. Like `evaluateSignalsAfterIngest`, it logs instead of throwing.
+ */
+export async function evaluateSignalsAfterPrintRun(db: Db, run: { productId: number; lineId: number }): Promise<SignalRow[]> {
+	try {
+		return await evaluateSignalsFor(db, [run]);
+	} catch (err) {
+		console.error('[spc] signal evaluation after a print run failed', err);
+		return [];
+	}
+}

@@ -1,0 +1,181 @@
+import { and, desc, eq, gte, inArray, isNotNull, sql } from 'drizzle-orm';
+import { apertureGeometry, areaRatio, type ApertureInput } from '$lib/stencil';
+import type { Db } from '../db';
+import { apertures, products, spiBoards, spiPadMeasurements, spiPads, stencils } from '../db/schema';
+import type { CharacteristicRow, SourceSubgroup } from './chart-source';
+
+/** Per-board aggregate columns and pad-measurement column of each SPI measure. */
+const COLUMNS = {
+	'volume-pct': { count: spiBoards.volumePctCount, mean: spiBoards.volumePctMean, sd: spiBoards.volumePctSd, range: spiBoards.volumePctRange, min: spiBoards.volumePctMin, max: spiBoards.volumePctMax, pad: spiPadMeasurements.volumeCentiPct, scale: 1 },
+	'area-pct': { count: spiBoards.areaPctCount, mean: spiBoards.areaPctMean, sd: spiBoards.areaPctSd, range: spiBoards.areaPctRange, min: spiBoards.areaPctMin, max: spiBoards.areaPctMax, pad: spiPadMeasurements.areaCentiPct, scale: 1 },
+	'height-um': { count: spiBoards.heightUmCount, mean: spiBoards.heightUmMean, sd: spiBoards.heightUmSd, range: spiBoards.heightUmRange, min: spiBoards.heightUmMin, max: spiBoards.heightUmMax, pad: spiPadMeasurements.heightCentiUm, scale: 1 },
+	'offset-x-um': { count: spiBoards.offsetXUmCount, mean: spiBoards.offsetXUmMean, sd: spiBoards.offsetXUmSd, range: spiBoards.offsetXUmRange, min: spiBoards.offsetXUmMin, max: spiBoards.offsetXUmMax, pad: spiPadMeasurements.offsetXCentiUm, scale: 1 },
+	'offset-y-um': { count: spiBoards.offsetYUmCount, mean: spiBoards.offsetYUmMean, sd: spiBoards.offsetYUmSd, range: spiBoards.offsetYUmRange, min: spiBoards.offsetYUmMin, max: spiBoards.offsetYUmMax, pad: spiPadMeasurements.offsetYCentiUm, scale: 1 },
+	// Stored as a fraction; charted in % (× 100). Pad-level TE needs aperture volumes: all pads only.
+	'transfer-efficiency-pct': { count: spiBoards.teCount, mean: spiBoards.teMean, sd: spiBoards.teSd, range: spiBoards.teRange, min: spiBoards.teMin, max: spiBoards.teMax, pad: null, scale: 100 }
+} as const;
+
+type SpiMeasure = keyof typeof COLUMNS;
+
+function boardFilter(db: Db, c: CharacteristicRow) {
+	const product = db.select({ code: products.code }).from(products).where(eq(products.id, c.productId)).get();
+	return and(
+		eq(spiBoards.productCode, product?.code ?? ''),
+		c.lineIds.length ? inArray(spiBoards.lineId, c.lineIds) : undefined
+	);
+}
+
+/** Pad ids of the characteristic's pad selection (null = all pads). */
+export function selectedPadIds(db: Db, c: CharacteristicRow): number[] | null {
+	const sel = c.padSelection;
+	if (sel.kind === 'all') return null;
+	const product = db.select({ code: products.code }).from(products).where(eq(products.id, c.productId)).get();
+	const code = product?.code ?? '';
+	if (sel.kind === 'refdes') {
+		return db
+			.select({ id: spiPads.id })
+			.from(spiPads)
+			.where(and(eq(spiPads.productCode, code), inArray(spiPads.refdes, sel.refdes)))
+			.all()
+			.map((p) => p.id);
+	}
+	const rows = db
+		.select({ id: spiPads.id, a: apertures, thicknessUm: stencils.thicknessUm })
+		.from(spiPads)
+		.innerJoin(apertures, eq(apertures.id, spiPads.apertureId))
+		.innerJoin(stencils, eq(stencils.id, apertures.stencilId))
+		.where(and(eq(spiPads.productCode, code), isNotNull(spiPads.apertureId)))
+		.all();
+	const out: number[] = [];
+	for (const r of rows) {
+		try {
+			const g = apertureGeometry(r.a as unknown as ApertureInput);
+			const ar = areaRatio(g.areaUm2, g.perimeterUm, r.thicknessUm);
+			if ((sel.min == null || ar >= sel.min) && (sel.max == null || ar <= sel.max)) out.push(r.id);
+		} catch {
+			// An aperture the stencil module cannot read is left out of the band.
+		}
+	}
+	return out;
+}
+
+/**
+ * The newest boards of a characteristic as subgroups. All pads: from the per-board aggregates
+ * (no pad rows read); a refdes list or area-ratio band: the selected pads' measurements. For
+ * I-MR, and for n consecutive boards, each board contributes one value: its mean.
+ */
+export function loadSpiSubgroups(db: Db, c: CharacteristicRow, limitSubgroups: number): SourceSubgroup[] {
+	const col = COLUMNS[c.measure as SpiMeasure];
+	if (!col) return [];
+	const perPoint = c.subgroupMode === 'consecutive' ? Math.max(1, c.subgroupSize) : 1;
+	const padIds = selectedPadIds(db, c);
+	const boards = db
+		.select({
+			id: spiBoards.id,
+			serial: spiBoards.serial,
+			at: spiBoards.inspectedAt,
+			lineCode: spiBoards.lineCode,
+			count: col.count,
+			mean: col.mean,
+			sd: col.sd,
+			range: col.range
+		})
+		.from(spiBoards)
+		.where(and(boardFilter(db, c), gte(col.count, padIds ? 1 : 2)))
+		.orderBy(desc(spiBoards.inspectedAt), desc(spiBoards.id))
+		.limit(Math.min(200_000, limitSubgroups * perPoint))
+		.all()
+		.reverse();
+	if (boards.length === 0) return [];
+	const s = col.scale;
+	let perBoard: { id: number; serial: string; at: Date; lineCode: string; values: number[]; stats: SourceSubgroup['stats'] }[];
+	if (padIds === null) {
+		perBoard = boards
+			.filter((b) => b.mean !== null)
+			.map((b) => ({
+				id: b.id,
+				serial: b.serial,
+				at: b.at,
+				lineCode: b.lineCode,
+				values: [],
+				stats: { n: b.count, mean: (b.mean ?? 0) * s, sd: (b.sd ?? 0) * s, range: (b.range ?? 0) * s }
+			}));
+	} else {
+		if (!col.pad || padIds.length === 0) return [];
+		const padCol = col.pad;
+		const byBoard = new Map<number, number[]>();
+		const ids = boards.map((b) => b.id);
+		for (let i = 0; i < ids.length; i += 500) {
+			const rows = db
+				.select({ boardId: spiPadMeasurements.boardId, v: padCol })
+				.from(spiPadMeasurements)
+				.where(and(inArray(spiPadMeasurements.boardId, ids.slice(i, i + 500)), inArray(spiPadMeasurements.padId, padIds)))
+				.all();
+			for (const r of rows) {
+				if (r.v === null) continue;
+				const list = byBoard.get(r.boardId) ?? [];
+				list.push(r.v / 100);
+				byBoard.set(r.boardId, list);
+			}
+		}
+		perBoard = boards
+			.filter((b) => (byBoard.get(b.id)?.length ?? 0) > 0)
+			.map((b) => ({ id: b.id, serial: b.serial, at: b.at, lineCode: b.lineCode, values: byBoard.get(b.id) ?? [], stats: undefined }));
+	}
+	const boardMean = (b: (typeof perBoard)[number]) =>
+		b.stats ? b.stats.mean : b.values.reduce((a, v) => a + v, 0) / b.values.length;
+	const out: SourceSubgroup[] = [];
+	if (perPoint === 1 && c.chartKind !== 'i-mr') {
+		for (const b of perBoard) {
+			out.push({ key: `board:${b.id}`, label: `${b.serial} · ${b.lineCode}`, boardId: b.id, boardIds: [b.id], at: b.at, values: b.values, stats: b.stats });
+		}
+	} else {
+		const full = perBoard.length - (perBoard.length % perPoint);
+		for (let i = 0; i < full; i += perPoint) {
+			const group = perBoard.slice(i, i + perPoint);
+			const last = group[group.length - 1];
+			out.push({
+				key: `board:${group[0].id}`,
+				label: perPoint === 1 ? `${last.serial} · ${last.lineCode}` : `${group[0].serial}…${last.serial} · ${last.lineCode}`,
+				boardId: last.id,
+				boardIds: group.map((g) => g.id),
+				at: last.at,
+				values: group.map(boardMean)
+			});
+		}
+	}
+	return out.slice(-limitSubgroups);
+}
+
+/**
+ * Pad values of the newest boards of an all-pads characteristic (for the histogram only), at
+ * most `maxValues`.
+ */
+export function samplePadValues(db: Db, c: CharacteristicRow, boardIds: number[], maxValues = 20_000): number[] {
+	const col = COLUMNS[c.measure as SpiMeasure];
+	if (!col?.pad || boardIds.length === 0) return [];
+	const padIds = selectedPadIds(db, c);
+	const rows = db
+		.select({ v: col.pad })
+		.from(spiPadMeasurements)
+		.where(and(inArray(spiPadMeasurements.boardId, boardIds.slice(-50)), padIds ? inArray(spiPadMeasurements.padId, padIds) : undefined, sql`1`))
+		.limit(maxValues)
+		.all();
+	return rows.filter((r) => r.v !== null).map((r) => (r.v as number) / 100);
+}
+
+/** Product and line of stored boards, to find the characteristics an import feeds. */
+export function boardScopes(db: Db, boardIds: number[]): { productId: number; lineId: number | null }[] {
+	const scopes = new Map<string, { productId: number; lineId: number | null }>();
+	for (let i = 0; i < boardIds.length; i += 500) {
+		const rows = db
+			.selectDistinct({ productId: spiBoards.productId, lineId: spiBoards.lineId })
+			.from(spiBoards)
+			.where(inArray(spiBoards.id, boardIds.slice(i, i + 500)))
+			.all();
+		for (const r of rows) {
+			if (r.productId !== null) scopes.set(`${r.productId}:${r.lineId}`, { productId: r.productId, lineId: r.lineId });
+		}
+	}
+	return [...scopes.values()];
+}
