@@ -1,5 +1,6 @@
 import { DatabaseOpenError, getDb } from './db';
 import { seedDemoData } from './seed';
+import { cleanArchiveTemp, startSpiWatcher } from './ingest';
 
 /**
  * Everything the server needs before it answers: the database (migrations applied), demo data on
@@ -20,4 +21,15 @@ export async function startServices(): Promise<void> {
 		const seeded = await seedDemoData(db);
 		if (seeded) console.log('[rollbead] empty database: demo data added (ROLLBEAD_DEMO=0 turns this off)');
 	}
+	startSpiServices(db);
+}
+
+/** SPI ingest: clear temp files of an interrupted import; watch SPI_WATCH_DIR when set. */
+function startSpiServices(db: ReturnType<typeof getDb>): void {
+	cleanArchiveTemp(db.$client.name);
+	const dir = process.env.SPI_WATCH_DIR?.trim();
+	if (!dir) return;
+	const watcher = startSpiWatcher(db, { dir, profile: process.env.SPI_WATCH_PROFILE ?? null });
+	console.log(`[rollbead] watching ${dir} for SPI exports (done/ and rejected/ beside them)`);
+	process.once('sveltekit:shutdown', () => void watcher.close());
 }
