@@ -1,0 +1,158 @@
+/**
+ * SPI ingest benchmark (figures printed, never asserted): `npm run bench:ingest`.
+ *
+ * Generates its own canonical file (200 boards × 5,000 pads = 1,000,000 rows, ~90 MB) in a temp
+ * folder, ingests it through the same service the API uses (`ingestSpiFile`: parse, validate,
+ * insert, aggregates, archive) into a fresh database, and prints rows/s end to end, peak RSS,
+ * database bytes per pad row (dbstat), and — when the `sqlite3` command-line tool exists — the
+ * time of sqlite3's own `.import` of the same file into an untyped table, with the ratio.
+ *
+ * BENCH_INGEST_ROWS=N changes the row count (multiple of 5,000); BENCH_INGEST_GB=1 runs the
+ * ~1 GB variant (about 11.6 M rows) for the memory check instead.
+ */
+import { execFileSync, spawnSync } from 'node:child_process';
+import { createReadStream, createWriteStream, mkdtempSync, rmSync, statSync } from 'node:fs';
+import { cpus, tmpdir, totalmem } from 'node:os';
+import { join } from 'node:path';
+import { once } from 'node:events';
+import { openDatabase } from '../src/lib/server/db';
+import { ingestSpiFile } from '../src/lib/server/ingest/ingest-service';
+
+const PADS_PER_BOARD = 5000;
+const HEADER =
+	'board_serial,inspected_at,line,product,panel_index,refdes,pad,volume_pct,area_pct,height_um,offset_x_um,offset_y_um,result\n';
+
+function rowsWanted(): number {
+	if (process.env.BENCH_INGEST_GB === '1') return 11_600_000;
+	const n = Number(process.env.BENCH_INGEST_ROWS ?? 1_000_000);
+	return Math.max(PADS_PER_BOARD, Math.round(n / PADS_PER_BOARD) * PADS_PER_BOARD);
+}
+
+/** Small deterministic PRNG (mulberry32), so every run writes the same file. */
+function prng(seed: number): () => number {
+	let a = seed >>> 0;
+	return () => {
+		a = (a + 0x6d2b79f5) >>> 0;
+		let t = a;
+		t = Math.imul(t ^ (t >>> 15), t | 1);
+		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+	};
+}
+
+async function writeFile(path: string, rows: number): Promise<number> {
+	const out = createWriteStream(path);
+	const rnd = prng(42);
+	const start = Date.parse('2026-03-02T06:00:00Z');
+	out.write(HEADER);
+	const boards = rows / PADS_PER_BOARD;
+	for (let b = 0; b < boards; b++) {
+		const serial = `FW-PB100-${String(b + 1).padStart(7, '0')}`;
+		const at = new Date(start + b * 25_000).toISOString();
+		const prefix = `${serial},${at},SMT-1,PB-100,0,`;
+		let chunk = '';
+		for (let p = 0; p < PADS_PER_BOARD; p++) {
+			const refdes = `C${(p >> 1) + 1}`;
+			const pad = (p & 1) + 1;
+			const vol = (95 + rnd() * 15).toFixed(2);
+			const area = (97 + rnd() * 6).toFixed(2);
+			const height = (118 + rnd() * 8).toFixed(2);
+			const ox = (rnd() * 40 - 20).toFixed(2);
+			const oy = (rnd() * 40 - 20).toFixed(2);
+			const result = rnd() < 0.002 ? 'fail' : rnd() < 0.01 ? 'warn' : 'pass';
+			chunk += `${prefix}${refdes},${pad},${vol},${area},${height},${ox},${oy},${result}\n`;
+		}
+		if (!out.write(chunk)) await once(out, 'drain');
+	}
+	out.end();
+	await once(out, 'finish');
+	return statSync(path).size;
+}
+
+function hasSqlite3(): boolean {
+	return spawnSync('sqlite3', ['-version']).status === 0;
+}
+
+function sqliteImportSeconds(csv: string, dir: string): number {
+	const db = join(dir, 'plain.db');
+	const t0 = performance.now();
+	execFileSync('sqlite3', [db, '.mode csv', `.import ${csv} t`]);
+	return (performance.now() - t0) / 1000;
+}
+
+async function main() {
+	const rows = rowsWanted();
+	const dir = mkdtempSync(join(tmpdir(), 'rollbead-bench-ingest-'));
+	try {
+		const csv = join(dir, 'spi.csv');
+		process.stdout.write(`generating ${rows.toLocaleString('en')} rows … `);
+		const bytes = await writeFile(csv, rows);
+		console.log(`${(bytes / 1e6).toFixed(1)} MB`);
+
+		const dbFile = join(dir, 'bench.db');
+		const db = openDatabase(dbFile);
+		global.gc?.();
+		let peakRss = process.memoryUsage().rss;
+		const sampler = setInterval(() => {
+			peakRss = Math.max(peakRss, process.memoryUsage().rss);
+		}, 20);
+		const cpu0 = process.cpuUsage();
+		const t0 = performance.now();
+		const outcome = await ingestSpiFile(db, {
+			source: 'api',
+			fileName: 'bench.csv',
+			body: createReadStream(csv, { highWaterMark: 1 << 20 }),
+			createdBy: 'system'
+		});
+		const seconds = (performance.now() - t0) / 1000;
+		const cpu = process.cpuUsage(cpu0);
+		const cpuSeconds = (cpu.user + cpu.system) / 1e6;
+		clearInterval(sampler);
+		peakRss = Math.max(peakRss, process.memoryUsage().rss);
+		if (outcome.status !== 'imported') {
+			console.error('ingest did not import:', outcome);
+			process.exit(1);
+		}
+		const pads = outcome.pads;
+		let tableBytes = NaN;
+		try {
+			tableBytes = db.$client
+				.prepare(`select sum(pgsize) from dbstat where name = 'spi_pad_measurements'`)
+				.pluck()
+				.get() as number;
+		} catch {
+			// dbstat not compiled in: fall back to the file size below.
+		}
+		db.$client.pragma('wal_checkpoint(TRUNCATE)');
+		const fileBytes = statSync(dbFile).size;
+		db.$client.close();
+
+		console.log(
+			`machine: ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}, ${(totalmem() / 2 ** 30).toFixed(1)} GiB, node ${process.version}`
+		);
+		console.log(`ingest (parse, validate, insert, aggregates, archive): ${seconds.toFixed(2)} s`);
+		console.log(`rows/s end to end: ${Math.round(pads / seconds).toLocaleString('en')}`);
+		console.log(
+			`CPU time of this process: ${cpuSeconds.toFixed(2)} s (${Math.round(pads / cpuSeconds).toLocaleString('en')} rows per CPU-second; steadier than wall time on a shared machine)`
+		);
+		console.log(`boards: ${outcome.boards}, pad rows: ${pads.toLocaleString('en')}`);
+		console.log(
+			`peak RSS: ${(peakRss / 2 ** 20).toFixed(0)} MiB (maxRSS ${(process.resourceUsage().maxRSS / 1024).toFixed(0)} MiB)`
+		);
+		console.log(
+			`bytes per pad row: ${(tableBytes / pads).toFixed(1)} (spi_pad_measurements incl. its key, dbstat); whole database file ${(fileBytes / pads).toFixed(1)}`
+		);
+		if (hasSqlite3()) {
+			const s = sqliteImportSeconds(csv, dir);
+			console.log(
+				`sqlite3 .import of the same file (untyped table): ${s.toFixed(2)} s = ${Math.round(rows / s).toLocaleString('en')} rows/s; ratio Rollbead/sqlite3 = ${(seconds / s).toFixed(2)}`
+			);
+		} else {
+			console.log('sqlite3 command-line tool not found: no .import comparison');
+		}
+	} finally {
+		rmSync(dir, { recursive: true, force: true });
+	}
+}
+
+void main();
