@@ -51,7 +51,9 @@ export const SECTIONS: readonly Section[] = [
 	{ href: '/stencils', label: 'Stencils', roles: ALL_ROLES, icon: 'layers' },
 	{ href: '/charts', label: 'Charts', roles: ALL_ROLES, icon: 'chart-line' },
 	{ href: '/signals', label: 'Signals', roles: ALL_ROLES, icon: 'bell' },
-	{ href: '/study', label: 'Ad-hoc study', roles: ALL_ROLES, icon: 'calculator' }
+	{ href: '/study', label: 'Ad-hoc study', roles: ALL_ROLES, icon: 'calculator' },
+	{ href: '/spi', label: 'SPI imports', roles: ALL_ROLES, icon: 'scan-line' },
+	{ href: '/boards', label: 'Boards', roles: ALL_ROLES, icon: 'search' }
 ];
 
 /**
@@ -61,7 +63,9 @@ export const SECTIONS: readonly Section[] = [
 export const PAGE_POLICY: readonly { prefix: string; roles: readonly Role[] }[] = [
 	{ prefix: '/admin', roles: ADMIN_ONLY },
 	{ prefix: '/runs/new', roles: PRINT_LOGGERS },
-	{ prefix: '/recipes/edit', roles: ENGINEERING }
+	{ prefix: '/recipes/edit', roles: ENGINEERING },
+	{ prefix: '/spi/upload', roles: INSPECTION_IMPORTERS },
+	{ prefix: '/spi/profiles', roles: INSPECTION_IMPORTERS }
 ];
 
 export function pageRolesFor(pathname: string): readonly Role[] {
