@@ -100,6 +100,7 @@ export async function notifyFollowers(db: Db, runStarts: SignalRow[], now = new 
  * @returns outbox ids of the digests sent.
  */
 export async function flushDigests(db: Db, now = new Date(), force = false): Promise<number[]> {
+	if (!db.select({ id: spcMailQueue.id }).from(spcMailQueue).limit(1).get()) return [];
 	const queued = db
 		.select({ q: spcMailQueue, s: spcSignals, email: users.email, active: users.active })
 		.from(spcMailQueue)

@@ -42,16 +42,27 @@ export function evaluateCharacteristic(db: Db, c: CharacteristicRow, tail = EVAL
 		return at === undefined || at > after;
 	});
 	if (violations.length === 0) return [];
+	// Most violations in the tail are stored already: find those first with one indexed query,
+	// so an import only writes what is new.
+	const tailKeys = [...new Set(violations.map((v) => subgroups[v.index].key))];
+	const stored = db
+		.select({ rule: spcSignals.rule, part: spcSignals.chartPart, key: spcSignals.pointKey })
+		.from(spcSignals)
+		.where(and(eq(spcSignals.characteristicId, c.id), eq(spcSignals.limitVersionId, version.id), inArray(spcSignals.pointKey, tailKeys)))
+		.all();
+	const seen = new Set(stored.map((r) => `${r.rule}|${r.part}|${r.key}`));
+	const fresh = violations.filter((v) => !seen.has(`${v.rule}|${v.chart}|${subgroups[v.index].key}`));
+	if (fresh.length === 0) return [];
 	return db.transaction((tx) => {
 		const recent = tx
 			.select()
 			.from(spcSignals)
 			.where(and(eq(spcSignals.characteristicId, c.id), eq(spcSignals.limitVersionId, version.id)))
 			.orderBy(desc(spcSignals.id))
-			.limit(500)
+			.limit(200)
 			.all();
 		const created: SignalRow[] = [];
-		for (const v of violations) {
+		for (const v of fresh) {
 			const s = subgroups[v.index];
 			const pointKeys = v.points.map((i) => subgroups[i].key);
 			const previousKey = v.index > 0 ? subgroups[v.index - 1].key : null;
@@ -109,8 +120,11 @@ export async function evaluateSignalsFor(
 			created.push(...evaluateCharacteristic(db, c));
 		}
 	}
-	const { notifyFollowers } = await import('./signal-mail');
-	await notifyFollowers(db, created.filter(startsRun));
+	const runs = created.filter(startsRun);
+	if (runs.length) {
+		const { notifyFollowers } = await import('./signal-mail');
+		await notifyFollowers(db, runs);
+	}
 	return created;
 }
 

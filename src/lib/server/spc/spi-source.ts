@@ -1,4 +1,4 @@
-import { and, desc, eq, gte, inArray, isNotNull, sql } from 'drizzle-orm';
+import { and, eq, inArray, isNotNull } from 'drizzle-orm';
 import { apertureGeometry, areaRatio, type ApertureInput } from '$lib/stencil';
 import type { Db } from '../db';
 import { apertures, products, spiBoards, spiPadMeasurements, spiPads, stencils } from '../db/schema';
@@ -17,12 +17,43 @@ const COLUMNS = {
 
 type SpiMeasure = keyof typeof COLUMNS;
 
-function boardFilter(db: Db, c: CharacteristicRow) {
+/** SQL column prefix of each measure's aggregates in spi_boards. */
+const PREFIX: Record<SpiMeasure, string> = {
+	'volume-pct': 'volume_pct',
+	'area-pct': 'area_pct',
+	'height-um': 'height_um',
+	'offset-x-um': 'offset_x_um',
+	'offset-y-um': 'offset_y_um',
+	'transfer-efficiency-pct': 'te'
+};
+
+type BoardRow = { id: number; serial: string; at: Date; lineCode: string; count: number; mean: number | null; sd: number | null; range: number | null };
+
+// Prepared once per database, measure and number of lines: this query is the chart's hot path
+// (an index range scan on product + time, newest first).
+const statements = new WeakMap<object, Map<string, import('better-sqlite3').Statement>>();
+
+function newestBoards(db: Db, c: CharacteristicRow, measure: SpiMeasure, minCount: number, limit: number): BoardRow[] {
 	const product = db.select({ code: products.code }).from(products).where(eq(products.id, c.productId)).get();
-	return and(
-		eq(spiBoards.productCode, product?.code ?? ''),
-		c.lineIds.length ? inArray(spiBoards.lineId, c.lineIds) : undefined
-	);
+	const p = PREFIX[measure];
+	const key = `${p}:${c.lineIds.length}`;
+	let cache = statements.get(db.$client);
+	if (!cache) statements.set(db.$client, (cache = new Map()));
+	let stmt = cache.get(key);
+	if (!stmt) {
+		const lineFilter = c.lineIds.length ? `and line_id in (${c.lineIds.map(() => '?').join(', ')})` : '';
+		stmt = db.$client.prepare(
+			`select id, serial, inspected_at as at, line_code as lineCode, ${p}_count as count, ${p}_mean as mean,
+			 ${p}_sd as sd, ${p}_range as range from spi_boards
+			 where product_code = ? ${lineFilter} and ${p}_count >= ?
+			 order by inspected_at desc, id desc limit ?`
+		);
+		cache.set(key, stmt);
+	}
+	const rows = stmt.all(product?.code ?? '', ...c.lineIds, minCount, limit) as (Omit<BoardRow, 'at'> & { at: number })[];
+	const out: BoardRow[] = new Array(rows.length);
+	for (let i = 0; i < rows.length; i++) out[rows.length - 1 - i] = { ...rows[i], at: new Date(rows[i].at) };
+	return out;
 }
 
 /** Pad ids of the characteristic's pad selection (null = all pads). */
@@ -69,23 +100,7 @@ export function loadSpiSubgroups(db: Db, c: CharacteristicRow, limitSubgroups: n
 	if (!col) return [];
 	const perPoint = c.subgroupMode === 'consecutive' ? Math.max(1, c.subgroupSize) : 1;
 	const padIds = selectedPadIds(db, c);
-	const boards = db
-		.select({
-			id: spiBoards.id,
-			serial: spiBoards.serial,
-			at: spiBoards.inspectedAt,
-			lineCode: spiBoards.lineCode,
-			count: col.count,
-			mean: col.mean,
-			sd: col.sd,
-			range: col.range
-		})
-		.from(spiBoards)
-		.where(and(boardFilter(db, c), gte(col.count, padIds ? 1 : 2)))
-		.orderBy(desc(spiBoards.inspectedAt), desc(spiBoards.id))
-		.limit(Math.min(200_000, limitSubgroups * perPoint))
-		.all()
-		.reverse();
+	const boards = newestBoards(db, c, c.measure as SpiMeasure, padIds ? 1 : 2, Math.min(200_000, limitSubgroups * perPoint));
 	if (boards.length === 0) return [];
 	const s = col.scale;
 	let perBoard: { id: number; serial: string; at: Date; lineCode: string; values: number[]; stats: SourceSubgroup['stats'] }[];
@@ -148,20 +163,26 @@ export function loadSpiSubgroups(db: Db, c: CharacteristicRow, limitSubgroups: n
 }
 
 /**
- * Pad values of the newest boards of an all-pads characteristic (for the histogram only), at
+ * Pad values of the newest boards (at most 50) of a characteristic, for the histogram only, at
  * most `maxValues`.
  */
-export function samplePadValues(db: Db, c: CharacteristicRow, boardIds: number[], maxValues = 20_000): number[] {
+export function samplePadValues(db: Db, c: CharacteristicRow, boardIds: number[], maxValues = 10_000): number[] {
 	const col = COLUMNS[c.measure as SpiMeasure];
 	if (!col?.pad || boardIds.length === 0) return [];
 	const padIds = selectedPadIds(db, c);
-	const rows = db
-		.select({ v: col.pad })
-		.from(spiPadMeasurements)
-		.where(and(inArray(spiPadMeasurements.boardId, boardIds.slice(-50)), padIds ? inArray(spiPadMeasurements.padId, padIds) : undefined, sql`1`))
-		.limit(maxValues)
-		.all();
-	return rows.filter((r) => r.v !== null).map((r) => (r.v as number) / 100);
+	const out: number[] = [];
+	// Newest boards first until enough values: the histogram shows the current state.
+	for (let i = boardIds.length - 1; i >= 0 && out.length < maxValues; i--) {
+		const rows = db
+			.select({ v: col.pad })
+			.from(spiPadMeasurements)
+			.where(and(eq(spiPadMeasurements.boardId, boardIds[i]), padIds ? inArray(spiPadMeasurements.padId, padIds) : undefined))
+			.limit(maxValues - out.length)
+			.all();
+		for (const r of rows) if (r.v !== null) out.push(r.v / 100);
+		if (boardIds.length - i >= 50) break;
+	}
+	return out;
 }
 
 /** Product and line of stored boards, to find the characteristics an import feeds. */
