@@ -7,10 +7,11 @@ import { evaluateSignalsFor } from './signals';
 
 /**
  * SPC demo for Fenmoor Works (invented): on the print-log demo's runs of PB-100 on SMT-1, a
- * squeegee-speed I-MR chart frozen on the first eight runs (so the logged 65 mm/s run later
+ * squeegee-speed I-MR chart frozen on the first nine runs (so the logged 65 mm/s run later
  * shows as a stored signal, mailed to the engineer who follows the chart), a squeegee-pressure
- * chart left in Phase I, and a paste-volume between/within chart that fills as SPI data
- * arrives. Runs after the factory, people and print-log demos; does nothing when they are absent.
+ * chart left in Phase I (one run excluded with a reason), and a paste-volume between/within
+ * chart that fills as SPI data arrives. Runs after the factory, people and print-log demos;
+ * does nothing when they are absent.
  */
 export async function seedDemoSpc(db: Db): Promise<void> {
 	const product = db.select().from(products).where(eq(products.code, 'PB-100')).get();
@@ -34,7 +35,7 @@ export async function seedDemoSpc(db: Db): Promise<void> {
 		},
 		system
 	);
-	createCharacteristic(
+	const pressure = createCharacteristic(
 		db,
 		{
 			name: 'Squeegee pressure · PB-100 · SMT-1',
@@ -68,7 +69,7 @@ export async function seedDemoSpc(db: Db): Promise<void> {
 		.orderBy(asc(printRuns.startedAt))
 		.all();
 	if (runs.length < 10) return;
-	excludePoint(db, speed.id, `run:${runs[2].id}`, 'Demo: new blade fitted mid-run', system);
-	freezeLimits(db, speed.id, { baselineTo: runs[7].startedAt, note: 'Demo baseline: first eight runs' }, system);
+	excludePoint(db, pressure.id, `run:${runs[2].id}`, 'Demo: new blade fitted mid-run', system);
+	freezeLimits(db, speed.id, { baselineTo: runs[8].startedAt, note: 'Demo baseline: first nine runs' }, system);
 	await evaluateSignalsFor(db, [{ productId: product.id, lineId: line.id }]);
 }

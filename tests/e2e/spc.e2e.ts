@@ -1,0 +1,132 @@
+import { expect, test } from '@playwright/test';
+import { readFileSync } from 'node:fs';
+import { bearer, signInAs, tokenFor } from './helpers';
+
+// NIST/SEMATECH e-Handbook §6.3.2.2 individuals example, with its published limits.
+const examples = JSON.parse(readFileSync('reference/spc/worked-examples.json', 'utf8'));
+const nist = examples.nistIndividualsFlowRate as { values: number[]; ucl: number; lcl: number; mean: number };
+
+test.describe('ad-hoc study', () => {
+	test('POST /api/spc/analyze gives the published NIST limits; bad input is 422 by field', async ({ request }) => {
+		const ok = await request.post('/api/spc/analyze', {
+			headers: bearer(tokenFor('viewer')),
+			data: { chart: 'i-mr', values: nist.values, lsl: 40, usl: 60, rules: ['we-1', 'nelson-3'] }
+		});
+		expect(ok.status()).toBe(200);
+		const body = await ok.json();
+		expect(body.limits.location.cl).toBeCloseTo(nist.mean, 6);
+		expect(body.limits.location.ucl).toBeCloseTo(nist.ucl, 2);
+		expect(body.limits.location.lcl).toBeCloseTo(nist.lcl, 2);
+		expect(body.capability).toMatchObject({ cp: expect.any(Number), cpk: expect.any(Number), pp: expect.any(Number) });
+		expect(body.violations).toEqual([]);
+
+		const oneSided = await request.post('/api/spc/analyze', {
+			headers: bearer(tokenFor('viewer')),
+			data: { chart: 'i-mr', values: nist.values, usl: 60 }
+		});
+		expect((await oneSided.json()).capability.cp).toBeNull();
+
+		for (const [data, field] of [
+			[{ chart: 'xbar-r', subgroups: [[1], [2]] }, 'subgroups[0]'],
+			[{ chart: 'xbar-r', subgroups: [[1, 2], [3, 4, 5]] }, 'subgroups[1]'],
+			[{ chart: 'i-mr', values: [1, 'x', 3] }, 'values[1]'],
+			[{ chart: 'i-mr', values: [1, 2, 3], lsl: 5, usl: 1 }, 'lsl'],
+			[{ chart: 'i-mr', values: [4, 4, 4] }, 'values'],
+			[{ chart: 'p-chart', values: [1, 2] }, 'chart']
+		] as const) {
+			const bad = await request.post('/api/spc/analyze', { headers: bearer(tokenFor('viewer')), data });
+			expect(bad.status(), JSON.stringify(data)).toBe(422);
+			const { errors } = await bad.json();
+			expect(errors.map((e: { field: string }) => e.field), JSON.stringify(data)).toContain(field);
+		}
+	});
+
+	test('the study page charts pasted numbers with the same limits and capability', async ({ page }) => {
+		await signInAs(page, 'viewer');
+		await page.goto('/study');
+		await page.getByLabel('Chart').selectOption('i-mr');
+		await page.getByLabel('Data', { exact: true }).fill(nist.values.join('\n'));
+		await page.getByLabel('LSL').fill('40');
+		await page.getByLabel('USL').fill('60');
+		await page.getByRole('button', { name: 'Analyse' }).click();
+		const location = page.getByTestId('location-pane');
+		await expect(location).toContainText('UCL 55.80');
+		await expect(location).toContainText('LCL 45.82');
+		await expect(page.getByTestId('no-signals')).toBeVisible();
+		await expect(page.getByTestId('capability-reading')).toBeVisible();
+
+		await page.getByLabel('Data', { exact: true }).fill('1 2\n3 x');
+		await page.getByRole('button', { name: 'Analyse' }).click();
+		await expect(page.getByText('line 2, column 2: "x" is not a number')).toBeVisible();
+	});
+});
+
+test.describe('charts and signals on demo data', () => {
+	test('the API lists charts worst first and gives points, limits and violations', async ({ request }) => {
+		const list = await request.get('/api/charts', { headers: bearer(tokenFor('viewer')) });
+		expect(list.status()).toBe(200);
+		const { charts } = await list.json();
+		const speed = charts.find((c: { name: string }) => c.name === 'Squeegee speed · PB-100 · SMT-1');
+		expect(speed).toMatchObject({ phase: 'II', limitsVersion: 1 });
+		expect(speed.openSignals).toBeGreaterThan(0);
+		expect(charts[0].openSignals).toBeGreaterThanOrEqual(speed.openSignals);
+
+		const one = await request.get(`/api/charts/${speed.id}`, { headers: bearer(tokenFor('viewer')) });
+		const chart = await one.json();
+		expect(chart.points.length).toBeGreaterThan(10);
+		expect(chart.limits.location.ucl).toBeGreaterThan(chart.limits.location.cl);
+		const hit = chart.violations.find((v: { rule: string; chart: string }) => v.rule === 'we-1' && v.chart === 'location');
+		expect(chart.points[hit.index].location).toBe(65);
+		expect((await request.get('/api/charts/999999', { headers: bearer(tokenFor('viewer')) })).status()).toBe(404);
+	});
+
+	test('a quality engineer acknowledges the signal; the follower had one mail', async ({ page, request }) => {
+		const open = await (await request.get('/api/signals?status=open', { headers: bearer(tokenFor('viewer')) })).json();
+		const signal = open.signals.find((s: { value: number; rule: string }) => s.rule === 'we-1' && s.value === 65);
+		expect(signal).toBeTruthy();
+
+		const viewer = await request.post(`/api/signals/${signal.id}/acknowledge`, {
+			headers: bearer(tokenFor('viewer')),
+			data: { cause: 'Squeegee pressure drift', action: 'Adjust pressure' }
+		});
+		expect(viewer.status()).toBe(403);
+		const unlisted = await request.post(`/api/signals/${signal.id}/acknowledge`, {
+			headers: bearer(tokenFor('quality')),
+			data: { cause: 'Moon phase', action: 'Adjust pressure' }
+		});
+		expect(unlisted.status()).toBe(422);
+		expect((await unlisted.json()).errors[0].field).toBe('cause');
+
+		await signInAs(page, 'quality');
+		await page.goto(`/signals?status=open&chart=${signal.chartId}`);
+		const card = page.getByTestId(`signal-${signal.id}`);
+		await expect(card).toContainText('▲ Open');
+		await card.getByText('Acknowledge', { exact: true }).click();
+		await card.getByLabel('Assignable cause').selectOption('Board support or clamping');
+		await card.getByLabel('Corrective action').selectOption('Wipe stencil');
+		await card.getByLabel('Note').fill('Speed typed as 65; printer was at 40');
+		await card.getByRole('button', { name: 'Save acknowledgement' }).click();
+		await expect(page.getByRole('status').filter({ hasText: 'Acknowledged' })).toBeVisible();
+
+		const after = await (await request.get(`/api/signals?chart=${signal.chartId}`, { headers: bearer(tokenFor('viewer')) })).json();
+		const done = after.signals.find((s: { id: number }) => s.id === signal.id);
+		expect(done).toMatchObject({
+			status: 'acknowledged',
+			acknowledgement: { cause: 'Board support or clamping', action: 'Wipe stencil', by: 'Dev Ashcombe' }
+		});
+		const again = await request.post(`/api/signals/${signal.id}/acknowledge`, {
+			headers: bearer(tokenFor('quality')),
+			data: { cause: 'Board support or clamping', action: 'Wipe stencil' }
+		});
+		expect(again.status()).toBe(409);
+
+		await page.goto(`/charts/${signal.chartId}`);
+		await expect(page.getByTestId('location-pane')).toBeVisible();
+		await expect(page.getByTestId('phase')).toContainText('Phase II');
+		await expect(page.locator('[data-testid="location-pane"] a[data-signal="yes"]').first()).toBeVisible();
+
+		await signInAs(page, 'admin');
+		await page.goto('/admin/outbox');
+		await expect(page.getByText('[Rollbead] Signal on Squeegee speed · PB-100 · SMT-1').first()).toBeVisible();
+	});
+});
