@@ -125,6 +125,7 @@ test.describe('charts and signals on demo data', () => {
 		await expect(page.getByTestId('phase')).toContainText('Phase II');
 		await expect(page.locator('[data-testid="location-pane"] a[data-signal="yes"]').first()).toBeVisible();
 
+		await page.context().clearCookies();
 		await signInAs(page, 'admin');
 		await page.goto('/admin/outbox');
 		await expect(page.getByText('[Rollbead] Signal on Squeegee speed · PB-100 · SMT-1').first()).toBeVisible();

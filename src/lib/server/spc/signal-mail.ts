@@ -1,6 +1,5 @@
 import { and, asc, eq, gte, inArray, like, or } from 'drizzle-orm';
 import { RULE_DESCRIPTIONS, type RuleId } from '$lib/spc';
-import { formatDateTime } from '$lib/format';
 import type { Db } from '../db';
 import { mailOutbox, spcMailQueue, spcSignals, users } from '../db/schema';
 import { sendMail } from '../mail';
@@ -21,7 +20,7 @@ function ruleText(rule: string): string {
 
 function describeSignal(s: SignalRow, c: CharacteristicSummary | undefined): string {
 	const value = s.value == null ? '' : ` value ${Number(s.value.toPrecision(6))}${c?.unit ? ' ' + c.unit : ''}`;
-	const when = s.pointAt ? ` at ${formatDateTime(s.pointAt)} UTC` : '';
+	const when = s.pointAt ? ` at ${s.pointAt.toISOString().slice(0, 16).replace('T', ' ')} UTC` : '';
 	return `- ${s.rule} (${ruleText(s.rule)}) on the ${s.chartPart} chart: point ${s.pointKey}${value}${when}; ${s.pointKeys.length} point(s) in the pattern`;
 }
 
