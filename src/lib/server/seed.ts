@@ -5,6 +5,7 @@ import { createUser } from './users';
 import { DEMO_USERS } from './demo-accounts';
 import { seedDemoStencils } from './stencils/demo';
 import { seedDemoPrintlog } from './printlog/demo';
+import { seedDemoSpi } from './ingest/demo';
 import { seedDemoSpc } from './spc/demo';
 
 /** The demo scenario: Fenmoor Works, an invented contract manufacturer with three SMT lines. */
@@ -39,6 +40,7 @@ export async function seedDemoData(db: Db): Promise<boolean> {
 	for (const user of DEMO_USERS) await createUser(db, user, null);
 	seedDemoStencils(db);
 	seedDemoPrintlog(db);
+	await seedDemoSpi(db);
 	await seedDemoSpc(db);
 	return true;
 }

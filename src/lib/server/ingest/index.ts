@@ -6,3 +6,4 @@ export * from './progress';
 export * from './archive';
 export * from './upload-body';
 export * from './watcher';
+export * from './demo';
