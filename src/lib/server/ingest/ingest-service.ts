@@ -241,6 +241,11 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 		conn.exec('COMMIT');
 		inTransaction = false;
 		finishProgress(request, sizeBytes, rows, writer.importId, 'imported');
+		if (stored.boardIds.length > 0) {
+			// Charts judge the new boards at once (it logs its own failures, never throws).
+			const { evaluateSignalsAfterIngest } = await import('../spc/signals');
+			await evaluateSignalsAfterIngest(db, stored.boardIds);
+		}
 		return {
 			status: 'imported',
 			id: writer.importId,
@@ -648,11 +653,11 @@ function createBatchWriter(
 				 where id = ?`
 			);
 			const cols = (s: MeasureSummary) => [s.count, s.mean, s.sd, s.min, s.max, s.range];
-			let boards = 0;
+			const boardIds: number[] = [];
 			for (const b of summary.boards) {
 				const slot = slots[b.index];
 				if (!slot || slot.id === 0) continue;
-				boards++;
+				boardIds.push(slot.id);
 				const a = b.aggregate;
 				const volume = a.volumePct.count === 0 ? summariseMeasure(slot.derivedVolume) : a.volumePct;
 				update.run(
@@ -670,7 +675,7 @@ function createBatchWriter(
 				);
 			}
 			for (const [padId, apertureId] of linkedPads) linkPad.run(apertureId, padId);
-			return { boards, pads, duplicateBoards };
+			return { boards: boardIds.length, boardIds, pads, duplicateBoards };
 		}
 	};
 }

@@ -46,6 +46,8 @@ export async function* limitBytes(
 		try {
 			next = await it.next();
 		} catch (err) {
+			// adapter-node's own limit (BODY_SIZE_LIMIT) or a body longer than its content-length.
+			if ((err as { status?: number }).status === 413) throw tooLarge(limit);
 			// The client went away or the multipart body broke off: nothing of the file is kept.
 			throw new ApiError(400, {
 				error: `The upload was interrupted before the file was complete (${(err as Error).message}); nothing was imported.`
