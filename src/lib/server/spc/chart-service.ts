@@ -256,8 +256,12 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 		kind,
 		title: c.name,
 		unit: c.unit,
+		// Explicit fields, not object spread: spread is far slower here and this runs per point.
 		points: points.map((p, index) => ({
-			...p,
+			location: p.location,
+			dispersion: p.dispersion,
+			size: p.size,
+			movingRange: p.movingRange,
 			index,
 			key: subgroups[index].key,
 			label: subgroups[index].label,

@@ -61,7 +61,7 @@ export function loadSubgroups(db: Db, c: CharacteristicRow, limitSubgroups = 200
 		.all()
 		.reverse();
 	const usable = rows
-		.map((r) => ({ ...r, value: printParameterValue(r, key) }))
+		.map((r) => ({ id: r.id, startedAt: r.startedAt, lineCode: r.lineCode, value: printParameterValue(r, key) }))
 		.filter((r): r is typeof r & { value: number } => r.value !== null);
 	const out: SourceSubgroup[] = [];
 	const full = usable.length - (usable.length % per);

@@ -27,6 +27,16 @@ const PREFIX: Record<SpiMeasure, string> = {
 	'transfer-efficiency-pct': 'te'
 };
 
+/** Pad-measurement column (hundredths) of each measure; TE has none. */
+const PAD_COLUMN: Record<SpiMeasure, string | null> = {
+	'volume-pct': 'volume_centi_pct',
+	'area-pct': 'area_centi_pct',
+	'height-um': 'height_centi_um',
+	'offset-x-um': 'offset_x_centi_um',
+	'offset-y-um': 'offset_y_centi_um',
+	'transfer-efficiency-pct': null
+};
+
 type BoardRow = { id: number; serial: string; at: Date; lineCode: string; count: number; mean: number | null; sd: number | null; range: number | null };
 
 // Prepared once per database, measure and number of lines: this query is the chart's hot path
@@ -52,7 +62,10 @@ function newestBoards(db: Db, c: CharacteristicRow, measure: SpiMeasure, minCoun
 	}
 	const rows = stmt.all(product?.code ?? '', ...c.lineIds, minCount, limit) as (Omit<BoardRow, 'at'> & { at: number })[];
 	const out: BoardRow[] = new Array(rows.length);
-	for (let i = 0; i < rows.length; i++) out[rows.length - 1 - i] = { ...rows[i], at: new Date(rows[i].at) };
+	for (let i = 0; i < rows.length; i++) {
+		const r = rows[i];
+		out[rows.length - 1 - i] = { id: r.id, serial: r.serial, at: new Date(r.at), lineCode: r.lineCode, count: r.count, mean: r.mean, sd: r.sd, range: r.range };
+	}
 	return out;
 }
 
@@ -166,21 +179,26 @@ export function loadSpiSubgroups(db: Db, c: CharacteristicRow, limitSubgroups: n
  * Pad values of the newest boards (at most 50) of a characteristic, for the histogram only, at
  * most `maxValues`.
  */
-export function samplePadValues(db: Db, c: CharacteristicRow, boardIds: number[], maxValues = 10_000): number[] {
+export function samplePadValues(db: Db, c: CharacteristicRow, boardIds: number[], maxValues = 5_000): number[] {
 	const col = COLUMNS[c.measure as SpiMeasure];
 	if (!col?.pad || boardIds.length === 0) return [];
 	const padIds = selectedPadIds(db, c);
+	const padSet = padIds ? new Set(padIds) : null;
+	const column = PAD_COLUMN[c.measure as SpiMeasure];
+	// A raw prepared statement: this runs on every chart view and reads thousands of rows.
+	const stmt = db.$client.prepare(
+		`select pad_id, ${column} from spi_pad_measurements where board_id = ? and ${column} is not null limit ?`
+	);
+	stmt.raw(true);
 	const out: number[] = [];
 	// Newest boards first until enough values: the histogram shows the current state.
-	for (let i = boardIds.length - 1; i >= 0 && out.length < maxValues; i--) {
-		const rows = db
-			.select({ v: col.pad })
-			.from(spiPadMeasurements)
-			.where(and(eq(spiPadMeasurements.boardId, boardIds[i]), padIds ? inArray(spiPadMeasurements.padId, padIds) : undefined))
-			.limit(maxValues - out.length)
-			.all();
-		for (const r of rows) if (r.v !== null) out.push(r.v / 100);
-		if (boardIds.length - i >= 50) break;
+	for (let i = boardIds.length - 1; i >= 0 && out.length < maxValues && boardIds.length - i <= 50; i--) {
+		const rows = stmt.all(boardIds[i], padSet ? 1_000_000 : maxValues - out.length) as [number, number][];
+		for (const [padId, v] of rows) {
+			if (padSet && !padSet.has(padId)) continue;
+			out.push(v / 100);
+			if (out.length >= maxValues) break;
+		}
 	}
 	return out;
 }
