@@ -102,6 +102,7 @@ async function main() {
 			source: 'api',
 			fileName: 'bench.csv',
 			body: createReadStream(csv, { highWaterMark: 1 << 20 }),
+			totalBytes: bytes,
 			createdBy: 'system'
 		});
 		const seconds = (performance.now() - t0) / 1000;
@@ -130,7 +131,9 @@ async function main() {
 		console.log(
 			`machine: ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}, ${(totalmem() / 2 ** 30).toFixed(1)} GiB, node ${process.version}`
 		);
-		console.log(`ingest (parse, validate, insert, aggregates, archive): ${seconds.toFixed(2)} s`);
+		console.log(
+			`ingest (parse, validate, insert, aggregates, archive): ${seconds.toFixed(2)} s, parser on ${outcome.threaded ? 'a worker thread' : 'the main thread'}`
+		);
 		console.log(`rows/s end to end: ${Math.round(pads / seconds).toLocaleString('en')}`);
 		console.log(
 			`CPU time of this process: ${cpuSeconds.toFixed(2)} s (${Math.round(pads / cpuSeconds).toLocaleString('en')} rows per CPU-second; steadier than wall time on a shared machine)`

@@ -89,6 +89,34 @@ describe('ingestSpiFile', () => {
 		expect(existsSync(join(t.dir, 'archive', sha.slice(0, 2), sha))).toBe(true);
 	});
 
+	it('parses on a worker thread with the same result as in this thread', async () => {
+		const text = readFileSync(join(FIXTURES, 'good-canonical.csv'), 'utf8');
+		const threaded = await ingestSpiFile(t.db, request('t.csv', text, { threaded: true }));
+		expect(threaded).toMatchObject({ status: 'imported', threaded: true });
+		const dump = () =>
+			t.db.$client
+				.prepare(
+					`select b.serial, b.inspected_at, p.refdes, p.pad, m.volume_centi_pct, m.height_centi_um,
+					 m.result, b.volume_pct_mean from spi_pad_measurements m join spi_boards b on b.id = m.board_id
+					 join spi_pads p on p.id = m.pad_id order by 1, 2, 3, 4`
+				)
+				.all();
+		const fromThread = dump();
+		t.db.$client.exec(
+			'delete from spi_pad_measurements; delete from spi_boards; delete from spi_imports'
+		);
+		const inline = await ingestSpiFile(t.db, request('t.csv', text, { threaded: false }));
+		expect(inline).toMatchObject({ status: 'imported', threaded: false });
+		expect(dump()).toEqual(fromThread);
+		const bad = await ingestSpiFile(
+			t.db,
+			request('bad.csv', readFileSync(join(FIXTURES, 'non-numeric.csv'), 'utf8'), {
+				threaded: true
+			})
+		);
+		expect(bad.status).toBe('rejected');
+	});
+
 	it('stores nothing of a file whose last row is bad, and records the rejection', async () => {
 		const good = readFileSync(join(FIXTURES, 'good-canonical.csv'), 'utf8').trimEnd();
 		const text = `${good}\nRB-X,2026-03-02T09:00:00Z,L1,PB-100,0,C9,1,abc,100,120,0,0,pass\n`;

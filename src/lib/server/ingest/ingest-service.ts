@@ -5,20 +5,19 @@ import {
 	addMeasureValue,
 	emptyMeasureState,
 	summariseMeasure,
-	createSpiRowParser,
 	type BoardHeader,
 	type IngestIssue,
 	type MappingProfile,
 	type MeasureState,
 	type MeasureSummary,
 	type SpiParseSummary,
-	type SpiRowBatch,
-	type SpiRowParser
+	type SpiRowBatch
 } from '$lib/ingest';
 import type { Db } from '../db';
 import { checkStoredStencil } from '../stencils/evaluation';
 import { openArchiveWriter } from './archive';
 import { reportProgress } from './progress';
+import { inlineParseDriver, threadedParseDriver } from './parse-driver';
 
 /** How a file came in. */
 export type IngestSource = 'upload' | 'api' | 'watch';
@@ -41,6 +40,8 @@ export interface IngestRequest {
 	totalBytes?: number | null;
 	/** Progress key (see `progress.ts`); progress is reported only when given. */
 	job?: string | null;
+	/** Parse on a worker thread: default for files of 8 MB or more (declared size). */
+	threaded?: boolean;
 	/** Rows per batch handed from the parser to the writer (tests use small ones). */
 	batchSize?: number;
 }
@@ -55,6 +56,8 @@ export type IngestOutcome =
 			rejectedRows: number;
 			duplicateBoards: number;
 			warnings: IngestIssue[];
+			/** Whether the file was parsed on a worker thread. */
+			threaded: boolean;
 	  }
 	| { status: 'duplicate'; id: number; attemptId: number }
 	| { status: 'rejected'; id: number; errorCount: number; errors: IngestIssue[] };
@@ -76,6 +79,8 @@ interface BoardSlot {
 type PadMap = Map<string, Map<string, number>>;
 
 const ROWS_PER_INSERT = 64;
+/** Below this declared size the worker's start-up (~0.1 s) costs more than it saves. */
+const THREAD_MIN_BYTES = 8 * 1024 * 1024;
 
 let queue: Promise<unknown> = Promise.resolve();
 
@@ -122,15 +127,18 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 	const hash = createHash('sha256');
 	let sizeBytes = 0;
 	let inTransaction = false;
+	let closeParser = () => {};
 	try {
-		const parser = createSpiRowParser({
-			profile,
-			fileName: request.fileName,
-			batchSize: request.batchSize
-		});
+		const parserOptions = { profile, fileName: request.fileName, batchSize: request.batchSize };
+		// Large files parse on a worker thread while this thread inserts (see parse-driver.ts).
+		const parser =
+			(request.threaded ?? (request.totalBytes ?? 0) >= THREAD_MIN_BYTES)
+				? ((await threadedParseDriver(parserOptions)) ?? inlineParseDriver(parserOptions))
+				: inlineParseDriver(parserOptions);
+		closeParser = parser.close;
 		conn.exec('BEGIN IMMEDIATE');
 		inTransaction = true;
-		const writer = createBatchWriter(db, conn, parser, request, startedAt);
+		const writer = createBatchWriter(db, conn, request, startedAt);
 		let rows = 0;
 		const progress = (phase: 'receiving' | 'finishing') => {
 			if (!request.job) return;
@@ -141,33 +149,38 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 				bytes: sizeBytes,
 				totalBytes: request.totalBytes ?? null,
 				rows,
-				boards: parser.boards().length
+				boards: parser.boardsSeen()
 			});
+		};
+		const writeAll = (batches: SpiRowBatch[]) => {
+			for (const batch of batches) {
+				writer.write(batch);
+				rows += batch.length;
+			}
 		};
 		progress('receiving');
 		let lastReport = 0;
+		// A few chunks in flight keep both threads busy; the cap bounds memory.
+		const inFlight: Promise<SpiRowBatch[]>[] = [];
 		for await (const chunk of request.body) {
 			const bytes = chunk instanceof Uint8Array ? chunk : new Uint8Array(chunk);
 			sizeBytes += bytes.length;
 			hash.update(bytes);
 			archive.write(bytes);
-			for (const batch of parser.push(bytes)) {
-				writer.write(batch);
-				rows += batch.length;
-			}
+			inFlight.push(parser.push(bytes));
+			while (inFlight.length > (parser.threaded ? 2 : 0))
+				writeAll(await (inFlight.shift() as Promise<SpiRowBatch[]>));
 			if (request.job && Date.now() - lastReport > 200) {
 				lastReport = Date.now();
 				progress('receiving');
 			}
 		}
-		for (const batch of parser.end()) {
-			writer.write(batch);
-			rows += batch.length;
-		}
+		while (inFlight.length > 0) writeAll(await (inFlight.shift() as Promise<SpiRowBatch[]>));
+		writeAll(await parser.end());
 		progress('finishing');
 		const sha256 = hash.digest('hex');
 		writer.flush();
-		const summary = parser.summary();
+		const summary = await parser.summary();
 		const writeFailure = writer.failure();
 
 		const earlier = conn
@@ -253,13 +266,15 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 			pads: stored.pads,
 			rejectedRows: summary.rowsRejected,
 			duplicateBoards: stored.duplicateBoards,
-			warnings: summary.warnings
+			warnings: summary.warnings,
+			threaded: parser.threaded
 		};
 	} catch (err) {
 		if (inTransaction) conn.exec('ROLLBACK');
 		archive.discard();
 		throw err;
 	} finally {
+		closeParser();
 		if (own) conn.close();
 	}
 }
@@ -348,7 +363,6 @@ function printRunNumber(ref: string): number | null {
 function createBatchWriter(
 	db: Db,
 	conn: Database.Database,
-	parser: SpiRowParser,
 	request: IngestRequest,
 	startedAt: number
 ) {

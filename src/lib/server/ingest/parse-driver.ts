@@ -1,0 +1,185 @@
+import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
+import {
+	createSpiRowParser,
+	type MappingProfile,
+	type SpiParseSummary,
+	type SpiRowBatch
+} from '$lib/ingest';
+
+/**
+ * Runs the SPI parser for one file, either on a worker thread (large files: parsing then
+ * overlaps with the SQLite inserts on the main thread, so both cores work) or in this thread.
+ * Pushes return promises that resolve, in order, with the batches each chunk completed; the
+ * caller keeps a few in flight, which bounds memory (no more than that many chunks queued).
+ *
+ * The worker runs this very module (its own `import.meta.url`: the built chunk in production,
+ * the TypeScript file under tsx); when that cannot start (e.g. under Vite's dev server, where
+ * the file is TypeScript without a loader) the parser runs in this thread instead.
+ */
+export interface ParseDriver {
+	push(chunk: Uint8Array): Promise<SpiRowBatch[]>;
+	end(): Promise<SpiRowBatch[]>;
+	summary(): Promise<SpiParseSummary>;
+	/** Board inspections seen so far (progress display). */
+	boardsSeen(): number;
+	/** Whether the parser runs on a worker thread. */
+	readonly threaded: boolean;
+	close(): void;
+}
+
+interface ParserOptions {
+	profile: MappingProfile;
+	fileName: string;
+	batchSize?: number;
+}
+
+const WORKER_FLAG = 'rollbeadSpiParser';
+
+/** The parser in this thread. */
+export function inlineParseDriver(options: ParserOptions): ParseDriver {
+	const parser = createSpiRowParser(options);
+	return {
+		threaded: false,
+		push: (chunk) => Promise.resolve(parser.push(chunk)),
+		end: () => Promise.resolve(parser.end()),
+		summary: () => Promise.resolve(parser.summary()),
+		boardsSeen: () => parser.boards().length,
+		close: () => {}
+	};
+}
+
+type Reply =
+	| { type: 'ready' }
+	| { type: 'batches'; batches: SpiRowBatch[]; boards: number }
+	| { type: 'summary'; summary: SpiParseSummary }
+	| { type: 'fatal'; message: string };
+
+/**
+ * The parser on a worker thread, or `null` when the worker cannot start within `timeoutMs`
+ * (the caller then uses `inlineParseDriver`).
+ * @throws Error when the profile is invalid (same as `createSpiRowParser`).
+ */
+export async function threadedParseDriver(
+	options: ParserOptions,
+	timeoutMs = 10_000
+): Promise<ParseDriver | null> {
+	// Validate the profile here, so a bad one fails the same way in both modes.
+	createSpiRowParser(options);
+	let worker: Worker;
+	try {
+		const self = import.meta.url;
+		const data = { workerData: { [WORKER_FLAG]: true, options } };
+		// From TypeScript sources (tsx, vitest) the worker loads this file through tsx's loader,
+		// which a worker does not inherit; the built app runs its own .js chunk directly.
+		worker = self.endsWith('.ts')
+			? new Worker(
+					`import('tsx/esm/api').then((m) => { m.register(); return import(${JSON.stringify(self)}); });`,
+					{ ...data, eval: true }
+				)
+			: new Worker(new URL(self), data);
+	} catch {
+		return null;
+	}
+	const waiting: { resolve: (r: Reply) => void; reject: (e: Error) => void }[] = [];
+	let failed: Error | null = null;
+	let boards = 0;
+	const started = await new Promise<boolean>((resolve) => {
+		const timer = setTimeout(() => resolve(false), timeoutMs);
+		worker.once('message', (m: Reply) => {
+			clearTimeout(timer);
+			resolve(m.type === 'ready');
+		});
+		worker.once('error', () => {
+			clearTimeout(timer);
+			resolve(false);
+		});
+	});
+	if (!started) {
+		void worker.terminate();
+		return null;
+	}
+	worker.on('message', (m: Reply) => {
+		if (m.type === 'fatal') {
+			failed = new Error(`SPI parser thread failed: ${m.message}`);
+			for (const w of waiting.splice(0)) w.reject(failed);
+			return;
+		}
+		if (m.type === 'batches') boards = m.boards;
+		waiting.shift()?.resolve(m);
+	});
+	const fail = (err: Error) => {
+		failed ??= err;
+		for (const w of waiting.splice(0)) w.reject(failed);
+	};
+	worker.on('error', fail);
+	worker.on('exit', (code) => {
+		if (waiting.length > 0) fail(new Error(`SPI parser thread stopped (exit code ${code})`));
+	});
+	const request = (message: unknown, transfer: ArrayBuffer[] = []) =>
+		new Promise<Reply>((resolve, reject) => {
+			if (failed) return reject(failed);
+			waiting.push({ resolve, reject });
+			worker.postMessage(message, transfer);
+		});
+	const batchesOf = async (p: Promise<Reply>) => {
+		const r = await p;
+		return r.type === 'batches' ? r.batches : [];
+	};
+	return {
+		threaded: true,
+		push(chunk) {
+			// A private copy is transferred (the caller's buffer may be pooled and reused).
+			const copy = chunk.slice();
+			return batchesOf(request({ type: 'chunk', bytes: copy }, [copy.buffer as ArrayBuffer]));
+		},
+		end: () => batchesOf(request({ type: 'end' })),
+		async summary() {
+			const r = await request({ type: 'summary' });
+			if (r.type !== 'summary') throw new Error('SPI parser thread answered out of order');
+			return r.summary;
+		},
+		boardsSeen: () => boards,
+		close: () => void worker.terminate()
+	};
+}
+
+/** Worker side: parse chunks as they come and send each chunk's batches back. */
+function runParseWorker(): void {
+	const port = parentPort;
+	if (!port) return;
+	const options = (workerData as { options: ParserOptions }).options;
+	const parser = createSpiRowParser(options);
+	const send = (batches: SpiRowBatch[]) => {
+		const transfer: ArrayBuffer[] = [];
+		for (const b of batches)
+			for (const a of [
+				b.line,
+				b.boardIndex,
+				b.panelIndex,
+				b.volumePct,
+				b.areaPct,
+				b.heightUm,
+				b.offsetXUm,
+				b.offsetYUm,
+				b.volumeUm3,
+				b.result
+			])
+				if (!transfer.includes(a.buffer as ArrayBuffer)) transfer.push(a.buffer as ArrayBuffer);
+		port.postMessage({ type: 'batches', batches, boards: parser.boards().length }, transfer);
+	};
+	port.on('message', (m: { type: string; bytes?: Uint8Array }) => {
+		try {
+			if (m.type === 'chunk') send(parser.push(m.bytes as Uint8Array));
+			else if (m.type === 'end') send(parser.end());
+			else if (m.type === 'summary')
+				port.postMessage({ type: 'summary', summary: parser.summary() });
+		} catch (err) {
+			port.postMessage({ type: 'fatal', message: (err as Error).message });
+		}
+	});
+	port.postMessage({ type: 'ready' });
+}
+
+if (!isMainThread && (workerData as Record<string, unknown> | null)?.[WORKER_FLAG] === true) {
+	runParseWorker();
+}
