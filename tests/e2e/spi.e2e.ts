@@ -42,7 +42,10 @@ test.describe('SPI import API', () => {
 
 		const bad = await request.post('/api/spi/imports', {
 			headers: { ...quality, 'content-type': 'text/csv' },
-			data: Buffer.from(text.replace('101.25', 'lots') + `E2E-${tag}-x,yesterday,SMT-1,PB-100,0,C1,1,1,1,1,1,1,pass\n`)
+			data: Buffer.from(
+				text.replace('101.25', 'lots') +
+					`E2E-${tag}-x,yesterday,SMT-1,PB-100,0,C1,1,1,1,1,1,1,pass\n`
+			)
 		});
 		expect(bad.status()).toBe(422);
 		const rejected = await bad.json();
@@ -68,11 +71,14 @@ test.describe('SPI import API', () => {
 	});
 
 	test('multipart upload with a profile; every broken fixture gets a clear answer', async ({
-		request
+		request,
+		baseURL
 	}) => {
 		const quality = bearer(tokenFor('quality'));
+		// SvelteKit refuses multipart posts whose Origin is not the app's own (CSRF check), so
+		// API clients send it (README).
 		const multipart = await request.post('/api/spi/imports', {
-			headers: quality,
+			headers: { ...quality, origin: new URL(baseURL as string).origin },
 			multipart: {
 				profile: '',
 				file: {
@@ -83,7 +89,12 @@ test.describe('SPI import API', () => {
 			}
 		});
 		expect(multipart.status()).toBe(201);
-		for (const file of ['empty.csv', 'header-only.csv', 'binary-garbage.csv', 'wrong-columns.csv']) {
+		for (const file of [
+			'empty.csv',
+			'header-only.csv',
+			'binary-garbage.csv',
+			'wrong-columns.csv'
+		]) {
 			const res = await request.post(`/api/spi/imports?fileName=${file}`, {
 				headers: { ...quality, 'content-type': 'text/csv' },
 				data: readFileSync(`tests/fixtures/spi/${file}`)
@@ -121,7 +132,9 @@ test.describe('SPI import API', () => {
 			req.write(HEADER + '\n'); // a first piece only: the 2 GB never exist
 		});
 		expect(answer.status).toBe(413);
-		expect(JSON.parse(answer.body).error).toMatch(/2048 MB.*largest accepted file is \d+ MB \(MAX_UPLOAD_MB\)/);
+		expect(JSON.parse(answer.body).error).toMatch(
+			/2048 MB.*largest accepted file is \d+ MB \(MAX_UPLOAD_MB\)/
+		);
 	});
 
 	test('boards: search by serial and detail with pads as numbers', async ({ request }) => {
@@ -184,7 +197,10 @@ test.describe('SPI pages', () => {
 		await expect(summaries.nth(0)).toContainText('Imported: 3 boards, 9 pads, 0 rejected rows');
 		await expect(summaries.nth(1)).toContainText('Rejected: nothing stored');
 		await expect(page.getByRole('progressbar').first()).toBeVisible();
-		await summaries.nth(0).getByRole('link', { name: /Open import/ }).click();
+		await summaries
+			.nth(0)
+			.getByRole('link', { name: /Open import/ })
+			.click();
 		await expect(page.getByTestId('import-summary')).toContainText('imported');
 		await expect(page.getByRole('link', { name: /E2E-.*-0/ })).toBeVisible();
 	});
