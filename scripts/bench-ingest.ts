@@ -92,9 +92,13 @@ async function main() {
 		const dbFile = join(dir, 'bench.db');
 		const db = openDatabase(dbFile);
 		global.gc?.();
-		let peakRss = process.memoryUsage().rss;
+		const baseRss = process.memoryUsage().rss;
+		let peakRss = baseRss;
+		let atPeak = process.memoryUsage();
 		const sampler = setInterval(() => {
-			peakRss = Math.max(peakRss, process.memoryUsage().rss);
+			const m = process.memoryUsage();
+			if (m.rss > peakRss) atPeak = m;
+			peakRss = Math.max(peakRss, m.rss);
 		}, 20);
 		const cpu0 = process.cpuUsage();
 		const t0 = performance.now();
@@ -140,7 +144,7 @@ async function main() {
 		);
 		console.log(`boards: ${outcome.boards}, pad rows: ${pads.toLocaleString('en')}`);
 		console.log(
-			`peak RSS: ${(peakRss / 2 ** 20).toFixed(0)} MiB (maxRSS ${(process.resourceUsage().maxRSS / 1024).toFixed(0)} MiB)`
+			`peak RSS: ${(peakRss / 2 ** 20).toFixed(0)} MiB, ${((peakRss - baseRss) / 2 ** 20).toFixed(0)} MiB above the ${(baseRss / 2 ** 20).toFixed(0)} MiB before the ingest (maxRSS ${(process.resourceUsage().maxRSS / 1024).toFixed(0)} MiB; at the peak: JS heap ${(atPeak.heapTotal / 2 ** 20).toFixed(0)} MiB, array buffers ${(atPeak.arrayBuffers / 2 ** 20).toFixed(0)} MiB, the rest (code, SQLite cache, the parser thread) ${((atPeak.rss - atPeak.heapTotal - atPeak.arrayBuffers) / 2 ** 20).toFixed(0)} MiB)`
 		);
 		console.log(
 			`bytes per pad row: ${(tableBytes / pads).toFixed(1)} (spi_pad_measurements incl. its key, dbstat); whole database file ${(fileBytes / pads).toFixed(1)}`
