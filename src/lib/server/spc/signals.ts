@@ -54,8 +54,16 @@ export function evaluateCharacteristic(db: Db, c: CharacteristicRow, tail = EVAL
 	const fresh = violations.filter((v) => !seen.has(`${v.rule}|${v.chart}|${subgroups[v.index].key}`));
 	if (fresh.length === 0) return [];
 	return db.transaction((tx) => {
-		const recent = tx
-			.select()
+		// Runs continue only from the latest signals (patterns span at most 15 points).
+		const recent: Pick<SignalRow, 'id' | 'rule' | 'chartPart' | 'pointKey' | 'pointKeys' | 'runId'>[] = tx
+			.select({
+				id: spcSignals.id,
+				rule: spcSignals.rule,
+				chartPart: spcSignals.chartPart,
+				pointKey: spcSignals.pointKey,
+				pointKeys: spcSignals.pointKeys,
+				runId: spcSignals.runId
+			})
 			.from(spcSignals)
 			.where(and(eq(spcSignals.characteristicId, c.id), eq(spcSignals.limitVersionId, version.id)))
 			.orderBy(desc(spcSignals.id))
