@@ -83,6 +83,7 @@ const ROWS_PER_INSERT = 64;
 const THREAD_MIN_BYTES = 8 * 1024 * 1024;
 
 let queue: Promise<unknown> = Promise.resolve();
+let warnedNoThread = false;
 
 /**
  * Ingest one SPI file: stream it through the parser, write boards, pad dictionary entries and pad
@@ -131,10 +132,15 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 	try {
 		const parserOptions = { profile, fileName: request.fileName, batchSize: request.batchSize };
 		// Large files parse on a worker thread while this thread inserts (see parse-driver.ts).
-		const parser =
-			(request.threaded ?? (request.totalBytes ?? 0) >= THREAD_MIN_BYTES)
-				? ((await threadedParseDriver(parserOptions)) ?? inlineParseDriver(parserOptions))
-				: inlineParseDriver(parserOptions);
+		let parser = inlineParseDriver(parserOptions);
+		if (request.threaded ?? (request.totalBytes ?? 0) >= THREAD_MIN_BYTES) {
+			const threaded = await threadedParseDriver(parserOptions);
+			if (threaded) parser = threaded;
+			else if (!warnedNoThread) {
+				warnedNoThread = true;
+				console.warn('[rollbead] SPI parser thread did not start; parsing in the main thread');
+			}
+		}
 		closeParser = parser.close;
 		conn.exec('BEGIN IMMEDIATE');
 		inTransaction = true;
