@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { bearer, tokenFor } from './helpers';
+import { bearer, signInAs, tokenFor } from './helpers';
 
 test.describe('JSON API access', () => {
 	test('health answers without credentials', async ({ request }) => {
@@ -81,5 +81,29 @@ test.describe('JSON API access', () => {
 		const response = await request.get('/api/no-such-thing', { headers: bearer(tokenFor('admin')) });
 		expect(response.status()).toBe(404);
 		expect((await response.json()).error).toContain('No API route');
+	});
+});
+
+test.describe('cross-site protection', () => {
+	test('a Bearer-token multipart post without an Origin header reaches the route', async ({ request }) => {
+		const response = await request.post('/api/lines', {
+			headers: bearer(tokenFor('engineer')),
+			multipart: { code: 'MP-1', name: 'multipart' }
+		});
+		// The route wants JSON, so it answers 400 — the point is that it was not refused as cross-site.
+		expect(response.status()).toBe(400);
+		expect(await response.json()).toEqual({ error: 'The request body is not valid JSON.' });
+	});
+
+	test('a form post from another site is refused, even with a signed-in session', async ({ page, baseURL }) => {
+		await signInAs(page, 'engineer');
+		const response = await page.request.post(`${baseURL}/factory?/addLine`, {
+			headers: { Origin: 'https://evil.example' },
+			form: { code: 'EVIL-1', name: 'forged' }
+		});
+		expect(response.status()).toBe(403);
+		expect(await response.text()).toBe('Cross-site POST form submissions are forbidden');
+		const lines = await page.request.get(`${baseURL}/api/lines`);
+		expect(JSON.stringify(await lines.json())).not.toContain('EVIL-1');
 	});
 });
