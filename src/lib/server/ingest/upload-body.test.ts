@@ -74,3 +74,11 @@ describe('size limits', () => {
 		expect(cut.body.error).toContain('interrupted');
 	});
 });
+
+describe('rawBody', () => {
+	it('reads an absent body as an empty file (the parser then says "file is empty")', async () => {
+		const { rawBody } = await import('./upload-body');
+		const request = new Request('http://localhost/', { method: 'POST' });
+		expect(await text(rawBody(request))).toBe('');
+	});
+});

@@ -117,7 +117,8 @@ export function multipartFile(request: Request, fileField = 'file'): Promise<Upl
 	});
 }
 
-/** A raw (text/csv) request body as chunks. */
+/** A raw (text/csv) request body as chunks; no body at all is an empty file (422, not 400). */
 export function rawBody(request: Request): AsyncIterable<Uint8Array> {
+	if (!request.body) return (async function* () {})();
 	return nodeStream(request);
 }
