@@ -1,0 +1,135 @@
+import { expect, test, type APIRequestContext } from '@playwright/test';
+import { bearer, tokenFor } from './helpers';
+
+const WINDOWS = {
+	squeegeeAngleDeg: { min: 45, target: 60, max: 60 },
+	squeegeeSpeedMmS: { min: 20, target: 40, max: 100 },
+	squeegeePressureKg: { min: 4.5, target: 7.5, max: 10.5 },
+	separationSpeedMmS: { min: 0.5, target: 1, max: 3 },
+	printStroke: 'alternating'
+};
+const ON_TARGET = {
+	squeegeeAngleDeg: 60,
+	squeegeeSpeedMmS: 40,
+	squeegeePressureKg: 7.5,
+	separationSpeedMmS: 1,
+	printStroke: 'alternating'
+};
+
+async function runsOn(request: APIRequestContext, line: string) {
+	const response = await request.get(`/api/print-runs?line=${line}`, { headers: bearer(tokenFor('viewer')) });
+	expect(response.status()).toBe(200);
+	return (await response.json()).runs as { id: number }[];
+}
+
+test.describe('print-log API', () => {
+	test('recipes, paste lots, runs: contract shapes, 422 naming the parameter, nothing half-saved', async ({ request }) => {
+		const n = Date.now() % 100000;
+		const line = `PL-L${n}`;
+		const product = `PL-P${n}`;
+		const lot = `E2E-LOT-${n}`;
+		const engineer = bearer(tokenFor('engineer'));
+		const technician = bearer(tokenFor('technician'));
+		expect((await request.post('/api/lines', { headers: engineer, data: { code: line, name: 'e2e line' } })).status()).toBe(201);
+		expect((await request.post('/api/products', { headers: engineer, data: { code: product, name: 'e2e board' } })).status()).toBe(201);
+
+		// Recipes: engineers only; an edit is the next version; bad windows are named.
+		const recipe = { line, product, parameters: WINDOWS };
+		expect((await request.post('/api/recipes', { headers: technician, data: recipe })).status()).toBe(403);
+		const v1 = await request.post('/api/recipes', { headers: engineer, data: recipe });
+		expect(v1.status()).toBe(201);
+		expect(await v1.json()).toMatchObject({ line, product, version: 1 });
+		const v2 = await request.post('/api/recipes', {
+			headers: engineer,
+			data: { ...recipe, parameters: { ...WINDOWS, squeegeeSpeedMmS: { min: 30, target: 40, max: 60 } } }
+		});
+		expect((await v2.json()).version).toBe(2);
+		const badRecipe = await request.post('/api/recipes', {
+			headers: engineer,
+			data: { ...recipe, parameters: { ...WINDOWS, squeegeeAngleDeg: { min: 45, target: 60, max: 95 } } }
+		});
+		expect(badRecipe.status()).toBe(400);
+		expect((await badRecipe.json()).fields).toContainEqual({
+			field: 'parameters.squeegeeAngleDeg.max',
+			message: 'must be ≤ 90° (got 95)'
+		});
+
+		// Paste lots and their events.
+		const created = await request.post('/api/paste-lots', {
+			headers: technician,
+			data: { lotNumber: lot, alloy: 'SAC305', powderType: 4, expiresOn: '2099-06-30', fluxClass: 'ROL0' }
+		});
+		expect(created.status()).toBe(201);
+		expect(await created.json()).toMatchObject({ lotNumber: lot, state: 'cold-storage', leadBearing: false });
+		expect((await request.post('/api/paste-lots', { headers: technician, data: { lotNumber: lot, alloy: 'SAC305', powderType: 4, expiresOn: '2099-06-30' } })).status()).toBe(409);
+		const badLot = await request.post('/api/paste-lots', { headers: technician, data: { lotNumber: 'X', alloy: 'SAC305', powderType: 9, expiresOn: '2099-06-30' } });
+		expect(badLot.status()).toBe(400);
+		expect((await badLot.json()).fields.map((f: { field: string }) => f.field)).toContain('powderType');
+		const out = await request.post(`/api/paste-lots/${lot}/events`, { headers: technician, data: { event: 'out-of-cold-storage', at: '2026-01-05T06:00:00Z' } });
+		expect(out.status()).toBe(201);
+		const opened = await request.post(`/api/paste-lots/${lot}/events`, { headers: technician, data: { event: 'opened', at: '2026-01-05T12:00:00Z' } });
+		expect(opened.status()).toBe(201);
+		const back = await request.post(`/api/paste-lots/${lot}/events`, { headers: technician, data: { event: 'returned' } });
+		expect(back.status()).toBe(422);
+		expect((await back.json()).fields[0].message).toContain('opened paste must not go back to cold storage');
+
+		// A deviation without a reason: 422 naming the parameter, and no run is saved.
+		const run = { line, product, stencil: 'ST-PB100', pasteLot: lot, parameters: { ...ON_TARGET, squeegeeAngleDeg: 65 } };
+		const refused = await request.post('/api/print-runs', { headers: technician, data: run });
+		expect(refused.status()).toBe(422);
+		const body = await refused.json();
+		expect(body.parameters).toEqual(['squeegeeAngleDeg']);
+		expect(body.fields[0].field).toBe('deviationReasons.squeegeeAngleDeg');
+		expect(body.error).toContain('squeegeeAngleDeg');
+		expect(await runsOn(request, line)).toEqual([]);
+
+		// Physically impossible values and unknown codes are named fields too.
+		const impossible = await request.post('/api/print-runs', {
+			headers: technician,
+			data: { ...run, parameters: { ...ON_TARGET, squeegeeSpeedMmS: -5 }, relativeHumidityPct: 120 }
+		});
+		expect(impossible.status()).toBe(400);
+		expect((await impossible.json()).fields.map((f: { field: string }) => f.field).sort()).toEqual([
+			'parameters.squeegeeSpeedMmS',
+			'relativeHumidityPct'
+		]);
+		const unknown = await request.post('/api/print-runs', { headers: technician, data: { ...run, stencil: 'NO-SUCH', deviationReasons: { squeegeeAngleDeg: 'x' } } });
+		expect(unknown.status()).toBe(422);
+		expect((await unknown.json()).fields).toContainEqual(expect.objectContaining({ field: 'stencil' }));
+		expect(await runsOn(request, line)).toEqual([]);
+
+		// With the reason: 201 with exactly the contract's deviation shape.
+		const saved = await request.post('/api/print-runs', {
+			headers: technician,
+			data: { ...run, startedAt: '2026-01-05T13:00:00Z', deviationReasons: { squeegeeAngleDeg: 'trial' } }
+		});
+		expect(saved.status()).toBe(201);
+		const savedBody = await saved.json();
+		expect(savedBody.id).toEqual(expect.any(Number));
+		expect(savedBody.deviations).toEqual([{ parameter: 'squeegeeAngleDeg', value: 65, min: 45, max: 60 }]);
+
+		// One open run per line; end before start refused; then ended.
+		const second = await request.post('/api/print-runs', { headers: technician, data: { ...run, parameters: ON_TARGET } });
+		expect(second.status()).toBe(409);
+		expect((await second.json()).fields[0]).toMatchObject({ field: 'line' });
+		const detail = await request.get(`/api/print-runs/${savedBody.id}`, { headers: bearer(tokenFor('quality')) });
+		expect(await detail.json()).toMatchObject({ id: savedBody.id, line, recipeVersion: 2, pasteLot: lot, endedAt: null });
+		const early = await request.post(`/api/print-runs/${savedBody.id}/end`, { headers: technician, data: { endedAt: '2026-01-05T12:00:00Z' } });
+		expect(early.status()).toBe(422);
+		expect((await early.json()).fields[0].field).toBe('endedAt');
+		const ended = await request.post(`/api/print-runs/${savedBody.id}/end`, { headers: technician, data: { endedAt: '2026-01-05T15:00:00Z', boardsPrinted: 200 } });
+		expect(ended.status()).toBe(200);
+		expect(await ended.json()).toMatchObject({ endedAt: '2026-01-05T15:00:00.000Z', boardsPrinted: 200 });
+
+		// Lists, filters, CSV and trends.
+		const listed = await request.get(`/api/print-runs?line=${line}&product=${product}&from=2026-01-05&to=2026-01-05`, { headers: bearer(tokenFor('viewer')) });
+		expect((await listed.json()).runs.map((r: { id: number }) => r.id)).toEqual([savedBody.id]);
+		const csv = await request.get(`/api/print-runs/export.csv?line=${line}`, { headers: bearer(tokenFor('viewer')) });
+		expect(csv.headers()['content-type']).toContain('text/csv');
+		expect((await csv.text()).split('\r\n')[0]).toContain('squeegeeAngleDeg');
+		const trends = await request.get(`/api/print-runs/trends?line=${line}&product=${product}`, { headers: bearer(tokenFor('viewer')) });
+		expect((await trends.json()).parameters[0]).toMatchObject({ key: 'squeegeeAngleDeg', window: WINDOWS.squeegeeAngleDeg });
+		expect((await request.post('/api/print-runs', { headers: bearer(tokenFor('viewer')), data: run })).status()).toBe(403);
+		expect((await request.post(`/api/print-runs/${savedBody.id}/end`, { headers: bearer(tokenFor('quality')) })).status()).toBe(403);
+	});
+});
