@@ -133,3 +133,26 @@ test.describe('print-log API', () => {
 		expect((await request.post(`/api/print-runs/${savedBody.id}/end`, { headers: bearer(tokenFor('quality')) })).status()).toBe(403);
 	});
 });
+
+test.describe('print-log pages without JavaScript', () => {
+	test.use({ javaScriptEnabled: false });
+
+	test('the run form posts as a plain form: a run is started from the recipe targets and ended', async ({ page }) => {
+		await page.goto('/signin');
+		await page.getByLabel('E-mail').fill('technician@fenmoor.example');
+		await page.getByLabel('Password').fill('demo-technician-pass');
+		await page.getByRole('button', { name: 'Sign in' }).click();
+		await expect(page.getByTestId('viewer')).toContainText('Line technician', { useInnerText: false });
+		await page.goto('/runs/new?line=SMT-3&product=LM-48');
+		await expect(page.locator('#field-squeegeeSpeedMmS')).toHaveValue('30');
+		await page.locator('#field-stencil').fill('ST-PB100');
+		await page.locator('#field-pasteLot').fill('pl-2026-0412');
+		await page.getByRole('button', { name: 'Start run' }).click();
+		await expect(page).toHaveURL(/\/runs\/\d+\?started=1/);
+		await expect(page.getByText('Run started.')).toBeVisible();
+		await expect(page.getByText('version 1', { exact: true })).toBeVisible();
+		await page.locator('#end-boards').fill('25');
+		await page.getByRole('button', { name: 'End run now' }).click();
+		await expect(page.getByText('Run ended.')).toBeVisible();
+	});
+});

@@ -69,6 +69,8 @@ export type RunFilters = {
 	from?: Date;
 	to?: Date;
 	open?: boolean;
+	/** One stencil revision by id (the stencil life page). */
+	stencilId?: number;
 	limit?: number;
 };
 
@@ -152,6 +154,7 @@ export function listRuns(db: Db, filters: RunFilters = {}): RunView[] {
 	if (filters.from) where.push(gte(printRuns.startedAt, filters.from));
 	if (filters.to) where.push(lte(printRuns.startedAt, filters.to));
 	if (filters.open) where.push(isNull(printRuns.endedAt));
+	if (filters.stencilId !== undefined) where.push(eq(printRuns.stencilId, filters.stencilId));
 	return runQuery(db)
 		.where(and(...where))
 		.orderBy(desc(printRuns.startedAt), desc(printRuns.id))

@@ -27,7 +27,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const db = getDb();
 	const life = getStencilLife(db, stencilId(params.id));
 	if (!life) error(404, 'No such stencil.');
-	const runs = listRuns(db, { limit: 5000 }).filter((r) => r.stencilId === life.id);
+	const runs = listRuns(db, { stencilId: life.id, limit: 5000 });
 	return {
 		life,
 		assessment: assessStencil(life),
