@@ -134,3 +134,24 @@ test.describe('charts and signals on demo data', () => {
 		await expect(page.getByText('engineer@fenmoor.example').first()).toBeVisible();
 	});
 });
+
+test('an engineer sets up a print-parameter chart; bad specs are named at the field', async ({ page }) => {
+	await signInAs(page, 'engineer');
+	await page.goto('/charts/new');
+	// The parameter list appears only once the page runs (hydrated), so choose it before typing.
+	await page.getByLabel('Measure').selectOption('print-parameter');
+	await page.getByLabel('Print parameter').selectOption('squeegeePressureKg');
+	await page.getByLabel('Name').fill('Pressure check · PB-100');
+	await page.getByLabel('Product').selectOption({ label: 'PB-100 · Pump controller board' });
+	await page.getByLabel('Chart', { exact: true }).selectOption('i-mr');
+	await page.getByLabel('LSL').fill('9');
+	await page.getByLabel('USL').fill('5');
+	await page.getByRole('button', { name: 'Create chart' }).click();
+	await expect(page.locator('#cf-lsl-error')).toContainText('LSL 9 must be below USL 5');
+	await page.getByLabel('LSL').fill('5');
+	await page.getByLabel('USL').fill('9');
+	await page.getByRole('button', { name: 'Create chart' }).click();
+	await expect(page.getByRole('heading', { level: 1 })).toHaveText('Pressure check · PB-100');
+	await expect(page.getByTestId('phase')).toContainText('Phase I');
+	await expect(page.getByTestId('capability')).toBeVisible();
+});
