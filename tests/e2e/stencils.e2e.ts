@@ -94,6 +94,36 @@ test.describe('stencil design check', () => {
 		expect(api.status()).toBe(403);
 	});
 
+	test('revision history, comparison and site thresholds', async ({ page }) => {
+		await signInAs(page, 'engineer');
+		await page.goto('/stencils');
+		await page.getByRole('row').filter({ hasText: 'Step stencil' }).getByRole('link', { name: 'ST-PB100' }).click();
+		await expect(page.getByRole('heading', { level: 1 })).toContainText('rev B');
+		await expect(page.getByTestId('revision-history')).toContainText('A');
+		await page.getByLabel('Compare with another revision').selectOption({ label: 'rev A' });
+		await page.getByRole('button', { name: 'Compare', exact: true }).click();
+		await expect(page.getByRole('heading', { level: 1 })).toContainText('Rev A → rev B');
+		// Demo rev B widens the 32 QFN pads of U1 from 220 to 250 µm; nothing else moves.
+		await expect(page.getByTestId('compare-counts')).toContainText('Changed32');
+		await expect(page.getByRole('row').filter({ hasText: 'U1.1' }).first()).toContainText('700 × 220 → 700 × 250');
+
+		await page.goto('/stencils/thresholds');
+		const area = page.getByLabel('Minimum area ratio, Electroformed');
+		await expect(area).toHaveValue('0.66');
+		await area.fill('0');
+		await page.getByRole('button', { name: 'Save thresholds' }).click();
+		await expect(page.getByRole('alert')).toContainText('nothing was saved');
+		await expect(page.locator('#electroformed-minAreaRatio-error')).toContainText('greater than 0');
+		await area.fill('0.55');
+		await page.getByRole('button', { name: 'Save thresholds' }).click();
+		await expect(page.getByRole('status')).toContainText('Thresholds saved');
+		await page.reload();
+		await expect(page.getByLabel('Minimum area ratio, Electroformed')).toHaveValue('0.55');
+		await page.getByLabel('Minimum area ratio, Electroformed').fill('0.66');
+		await page.getByRole('button', { name: 'Save thresholds' }).click();
+		await expect(page.getByRole('status')).toContainText('Thresholds saved');
+	});
+
 	test('API contract: create, import JSON, read figures; bad CSV names row and column and stores nothing', async ({ request, baseURL }) => {
 		const engineer = bearer(tokenFor('engineer'));
 		const name = `ST-API-${Date.now() % 1_000_000}`;
