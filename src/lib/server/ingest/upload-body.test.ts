@@ -39,7 +39,7 @@ describe('size limits', () => {
 		['100', 100, 100],
 		['0', 100, 0]
 	])('content-length %s within %i bytes passes (%s)', (length, limit, expected) => {
-		const headers = length === null ? {} : { 'content-length': length };
+		const headers: Record<string, string> = length === null ? {} : { 'content-length': length };
 		const request = new Request('http://localhost/', { method: 'POST', headers, body: 'x' });
 		if (length === null) request.headers.delete('content-length');
 		expect(checkDeclaredSize(request, limit)).toBe(expected);
