@@ -50,7 +50,8 @@ beforeEach(() => {
 });
 afterEach(() => t.close());
 
-describe('ingestSpiFile', () => {
+// Database and worker-thread tests: generous timeouts for a shared, busy machine.
+describe('ingestSpiFile', { timeout: 60_000 }, () => {
 	it('imports the canonical fixture: boards, pads, values read back as written', async () => {
 		const text = readFileSync(join(FIXTURES, 'good-canonical.csv'), 'utf8');
 		const outcome = await ingestSpiFile(t.db, request('good-canonical.csv', text));

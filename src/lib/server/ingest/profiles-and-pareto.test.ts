@@ -23,7 +23,7 @@ beforeEach(() => {
 });
 afterEach(() => t.close());
 
-describe('mapping profiles', () => {
+describe('mapping profiles', { timeout: 60_000 }, () => {
 	it('saves a valid profile, finds it by id and by name, refuses a duplicate name and bad fields', () => {
 		const saved = saveProfile(t.db, null, x1, null);
 		expect(resolveImportProfile(t.db, String(saved.id))).toMatchObject({ profileId: saved.id });
@@ -77,7 +77,7 @@ describe('mapping profiles', () => {
 	});
 });
 
-describe('failurePareto', () => {
+describe('failurePareto', { timeout: 60_000 }, () => {
 	it('counts fails per pad and per refdes within the product and period, most first', async () => {
 		const header =
 			'board_serial,inspected_at,line,product,panel_index,refdes,pad,volume_pct,area_pct,height_um,offset_x_um,offset_y_um,result';

@@ -24,7 +24,7 @@ afterEach(async () => {
 const count = (sql: string) => t.db.$client.prepare(sql).pluck().get() as number;
 
 /** Wait until `check` holds (the watcher works on its own schedule), at most `ms`. */
-async function until(check: () => boolean, ms = 8000): Promise<void> {
+async function until(check: () => boolean, ms = 30000): Promise<void> {
 	const end = Date.now() + ms;
 	while (!check()) {
 		if (Date.now() > end) throw new Error('timed out waiting for the watcher');
@@ -33,7 +33,7 @@ async function until(check: () => boolean, ms = 8000): Promise<void> {
 	await watcher?.idle();
 }
 
-describe('startSpiWatcher', () => {
+describe('startSpiWatcher', { timeout: 60_000 }, () => {
 	it('imports a good file to done/, a bad one to rejected/ with an error report', async () => {
 		watcher = startSpiWatcher(t.db, { dir, stableMs: 100, log: () => {} });
 		await watcher.ready;
