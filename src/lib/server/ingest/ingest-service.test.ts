@@ -116,7 +116,7 @@ describe('ingestSpiFile', { timeout: 60_000 }, () => {
 			})
 		);
 		expect(bad.status).toBe('rejected');
-	});
+	}, 60_000); // a worker loading TypeScript through tsx can take seconds on a busy machine
 
 	it('stores nothing of a file whose last row is bad, and records the rejection', async () => {
 		const good = readFileSync(join(FIXTURES, 'good-canonical.csv'), 'utf8').trimEnd();
