@@ -8,6 +8,8 @@ export default defineConfig({
 		include: ['src/**/*.{test,spec}.{js,ts}', 'tests/unit/**/*.{test,spec}.{js,ts}'],
 		environment: 'node',
 		// Database tests each open their own temporary file; keep workers modest on 2 cores.
-		maxWorkers: 2
+		maxWorkers: 2,
+		// Password hashing, SQLite files and child processes are slow on a loaded 2-core CI machine.
+		testTimeout: 20_000
 	}
 });
