@@ -4,6 +4,8 @@
  */
 import { z } from 'zod';
 import { STENCIL_TECHNOLOGIES, type StencilTechnology } from '../stencil/thresholds';
+import { checkStepRegions, type StepRegion } from '../stencil/step-regions';
+import { formatProblem } from '../stencil/stencil-input-error';
 
 const technology = z
 	.enum(STENCIL_TECHNOLOGIES as [StencilTechnology, ...StencilTechnology[]])
@@ -25,8 +27,38 @@ export const stencilFormSchema = z.object({
 		.positive({ error: 'rated life must be greater than 0' })
 		.max(10_000_000)
 		.optional(),
-	notes: z.string().max(5000).default('')
+	notes: z.string().max(5000).default(''),
+	/** One step region a line: "xMin yMin xMax yMax thickness" (mm, mm, mm, mm, µm). */
+	stepRegions: z.string().max(10_000).default('')
 });
+
+/**
+ * Read the step-region field of the stencil forms: one region a line, `xMin yMin xMax yMax T`
+ * with the corners in mm and the local thickness T in µm (how a drawing gives them).
+ * @example parseStepRegionsText('40 40 50 50 100') // { regions: [{ xMinUm: 40000, …, thicknessUm: 100 }] }
+ */
+export function parseStepRegionsText(text: string): { regions: StepRegion[] } | { error: string } {
+	const regions: StepRegion[] = [];
+	const lines = text.split(/\r?\n|;/).map((l) => l.trim());
+	for (let i = 0; i < lines.length; i++) {
+		if (lines[i] === '') continue;
+		const v = lines[i].split(/[\s,]+/).map(Number);
+		if (v.length !== 5 || !v.every(Number.isFinite))
+			return {
+				error: `step region ${regions.length + 1}: write five numbers "xMin yMin xMax yMax thickness" (got "${lines[i]}")`
+			};
+		regions.push({
+			xMinUm: v[0] * 1000,
+			yMinUm: v[1] * 1000,
+			xMaxUm: v[2] * 1000,
+			yMaxUm: v[3] * 1000,
+			thicknessUm: v[4]
+		});
+	}
+	const problems = checkStepRegions(regions);
+	if (problems.length > 0) return { error: problems.map(formatProblem).join('; ') };
+	return { regions };
+}
 
 /** The "new revision" form: the name stays; apertures are copied from the current revision. */
 export const revisionFormSchema = stencilFormSchema.omit({ name: true });

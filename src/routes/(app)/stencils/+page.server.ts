@@ -5,7 +5,7 @@ import { ENGINEERING, hasRole } from '$lib/access';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
 import { createStencil, DuplicateStencilError, listStencils } from '$lib/server/stencils';
-import { stencilFormSchema } from '$lib/schemas/stencil-forms';
+import { parseStepRegionsText, stencilFormSchema } from '$lib/schemas/stencil-forms';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals }) => {
@@ -22,9 +22,14 @@ export const actions = {
 		const actor = requireActor(locals, ENGINEERING);
 		const form = await superValidate(request, zod4(stencilFormSchema));
 		if (!form.valid) return fail(400, { form });
+		const steps = parseStepRegionsText(form.data.stepRegions);
+		if ('error' in steps) {
+			form.errors.stepRegions = [steps.error];
+			return fail(400, { form });
+		}
 		let id: number;
 		try {
-			id = createStencil(getDb(), form.data, actor).id;
+			id = createStencil(getDb(), { ...form.data, stepRegions: steps.regions }, actor).id;
 		} catch (err) {
 			if (!(err instanceof DuplicateStencilError)) throw err;
 			form.errors.revision = [err.message];

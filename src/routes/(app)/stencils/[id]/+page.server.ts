@@ -16,7 +16,11 @@ import {
 	listRevisions,
 	stencilAdvice
 } from '$lib/server/stencils';
-import { apertureFormSchema, revisionFormSchema } from '$lib/schemas/stencil-forms';
+import {
+	apertureFormSchema,
+	parseStepRegionsText,
+	revisionFormSchema
+} from '$lib/schemas/stencil-forms';
 import type { ApertureInput, PointUm } from '$lib/stencil';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -48,7 +52,12 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 				thicknessUm: check.stencil.thicknessUm,
 				technology: check.stencil.technology,
 				ratedLifePrints: check.stencil.ratedLifePrints ?? undefined,
-				notes: check.stencil.notes
+				notes: check.stencil.notes,
+				stepRegions: check.stencil.stepRegions
+					.map((r) =>
+						[r.xMinUm / 1000, r.yMinUm / 1000, r.xMaxUm / 1000, r.yMaxUm / 1000, r.thicknessUm].join(' ')
+					)
+					.join('\n')
 			},
 			zod4(revisionFormSchema),
 			{ id: 'revision', errors: false }
@@ -76,9 +85,14 @@ export const actions = {
 		const actor = requireActor(locals, ENGINEERING);
 		const form = await superValidate(request, zod4(revisionFormSchema), { id: 'revision' });
 		if (!form.valid) return fail(400, { revisionForm: form });
+		const steps = parseStepRegionsText(form.data.stepRegions);
+		if ('error' in steps) {
+			form.errors.stepRegions = [steps.error];
+			return fail(400, { revisionForm: form });
+		}
 		let id: number;
 		try {
-			id = createRevision(getDb(), stencilId(params.id), form.data, actor).id;
+			id = createRevision(getDb(), stencilId(params.id), { ...form.data, stepRegions: steps.regions }, actor).id;
 		} catch (err) {
 			if (!(err instanceof DuplicateStencilError)) throw err;
 			form.errors.revision = [err.message];
