@@ -196,3 +196,33 @@ export function addPasteEvent(
 		return { lot: getPasteLot(tx as unknown as Db, lot.id, nowMs)!, warnings: check.warn };
 	});
 }
+
+/**
+ * Change a lot's handling limits (minutes) to the paste data sheet's figures; audited with the
+ * old and new values. Blank (undefined) keeps a value.
+ * @throws PrintlogRequestError 404 unknown lot; 422 naming each implausible limit.
+ */
+export function updatePasteHandling(
+	db: Db,
+	ref: number | string,
+	overrides: Partial<Record<keyof PasteHandlingSettings, unknown>>,
+	actor: Actor | null,
+	nowMs = Date.now()
+): PasteLotView {
+	return db.transaction((tx) => {
+		const lot = getPasteLot(tx as unknown as Db, ref, nowMs);
+		if (!lot) throw new PrintlogRequestError(404, [{ field: 'id', message: `no paste lot "${ref}"` }]);
+		const merged = { ...lot.handling, ...Object.fromEntries(Object.entries(overrides).filter(([, v]) => v !== undefined)) };
+		const { settings, errors } = resolvePasteHandling(merged);
+		if (errors.length) throw new PrintlogRequestError(422, errors);
+		tx.update(pasteLots).set(settings).where(eq(pasteLots.id, lot.id)).run();
+		recordAudit(tx, actor, {
+			action: 'handling',
+			entity: 'paste_lot',
+			entityId: lot.id,
+			before: { ...lot.handling },
+			after: { ...settings }
+		});
+		return getPasteLot(tx as unknown as Db, lot.id, nowMs)!;
+	});
+}

@@ -3,7 +3,7 @@ import { printRunSchema, pasteLotSchema } from '$lib/schemas/printlog';
 import { openTestDatabase } from '../testing';
 import type { Db } from '../db';
 import { endRun, startRun } from './print-runs';
-import { addPasteEvent, createPasteLot, getPasteLot } from './paste-lots';
+import { addPasteEvent, createPasteLot, getPasteLot, updatePasteHandling } from './paste-lots';
 import { changeStencilState, getStencilLife, recordTension, stencilEventLog } from './stencil-life';
 import { runTrends } from './trends';
 import { PrintlogRequestError } from './request-error';
@@ -114,5 +114,27 @@ describe('stencil life', () => {
 		const check = recordTension(db, id, { readingsNPerCm: [38, 34.5, 40] }, fx.actors.technician);
 		expect(check.low).toEqual([{ index: 1, valueNPerCm: 34.5 }]);
 		expect(getStencilLife(db, id)!.lastTension).toMatchObject({ minimumNPerCm: 34.5, pass: false });
+	});
+});
+
+describe('paste handling settings', () => {
+	it('are changed to the data sheet figures and audited; implausible ones are named', () => {
+		createPasteLot(
+			db,
+			pasteLotSchema.parse({ lotNumber: 'PL-2', alloy: 'SAC305', powderType: 4, expiresOn: '2099-01-31' }),
+			fx.actors.technician,
+			T0
+		);
+		const lot = updatePasteHandling(db, 'PL-2', { warmUpMinutes: 120, maxOnStencilMinutes: undefined }, fx.actors.engineer, T0);
+		expect(lot.handling).toEqual({ warmUpMinutes: 120, maxOnStencilMinutes: 480, maxOutOfColdMinutes: 1440 });
+		let fields: string[] = [];
+		try {
+			updatePasteHandling(db, 'PL-2', { maxOutOfColdMinutes: 60 }, fx.actors.engineer, T0);
+		} catch (error) {
+			fields = (error as PrintlogRequestError).fields.map((f) => f.field);
+		}
+		// Warm-up (120 min) must stay shorter than the time allowed out of cold storage.
+		expect(fields).toEqual(['warmUpMinutes']);
+		expect(getPasteLot(db, 'PL-2')!.handling.maxOutOfColdMinutes).toBe(1440);
 	});
 });

@@ -1,9 +1,9 @@
 import { error, fail } from '@sveltejs/kit';
-import { hasRole, PRINT_LOGGERS } from '$lib/access';
+import { ENGINEERING, hasRole, PRINT_LOGGERS } from '$lib/access';
 import { leadHandlingCaution, PASTE_EVENTS } from '$lib/printlog';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
-import { addPasteEvent, getPasteLot, PrintlogRequestError } from '$lib/server/printlog';
+import { addPasteEvent, getPasteLot, PrintlogRequestError, updatePasteHandling } from '$lib/server/printlog';
 import { fieldErrorsFromZod, pasteEventSchema } from '$lib/schemas/printlog';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -15,7 +15,8 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		lot,
 		events: PASTE_EVENTS,
 		caution: lot.leadBearing ? leadHandlingCaution() : [],
-		canWrite: hasRole(actor, PRINT_LOGGERS)
+		canWrite: hasRole(actor, PRINT_LOGGERS),
+		canEditHandling: hasRole(actor, ENGINEERING)
 	};
 };
 
@@ -37,5 +38,21 @@ export const actions = {
 			if (!(err instanceof PrintlogRequestError)) throw err;
 			return fail(err.status, { errors: err.fields, warnings: [] as string[] });
 		}
+	},
+	handling: async ({ locals, params, request }) => {
+		const actor = requireActor(locals, ENGINEERING);
+		const data = await request.formData();
+		const overrides: Record<string, unknown> = {};
+		for (const key of ['warmUpMinutes', 'maxOnStencilMinutes', 'maxOutOfColdMinutes']) {
+			const text = String(data.get(key) ?? '').trim();
+			if (text !== '') overrides[key] = Number(text);
+		}
+		try {
+			updatePasteHandling(getDb(), params.id, overrides, actor);
+		} catch (err) {
+			if (!(err instanceof PrintlogRequestError)) throw err;
+			return fail(err.status, { handlingErrors: err.fields });
+		}
+		return { handlingSaved: true };
 	}
 } satisfies Actions;
