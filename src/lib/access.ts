@@ -35,26 +35,97 @@ export function hasRole(actor: Actor | null | undefined, allowed: readonly Role[
 	return !!actor && allowed.includes(actor.role);
 }
 
-/** One entry of the main navigation; `roles` decides who sees it (and who may open it). */
+/** One page of the main navigation; `roles` decides who sees it (and who may open it). */
 export type Section = { href: string; label: string; roles: readonly Role[]; icon: string };
 
+/** Navigation groups, one per job; each role sees the groups that hold a page it may open. */
+export type NavGroup = {
+	id: 'stencils' | 'print' | 'inspection' | 'spc' | 'factory' | 'admin';
+	label: string;
+	/** One line for the overview page: what the group is for. */
+	purpose: string;
+	sections: readonly Section[];
+};
+
+export const NAV_GROUPS: readonly NavGroup[] = [
+	{
+		id: 'stencils',
+		label: 'Stencils',
+		purpose: 'Check apertures, area and aspect ratio and powder type before a stencil is ordered.',
+		sections: [
+			{ href: '/stencils', label: 'Stencils', roles: ALL_ROLES, icon: 'layers' },
+			{ href: '/stencil-life', label: 'Stencil life', roles: ALL_ROLES, icon: 'layers' }
+		]
+	},
+	{
+		id: 'print',
+		label: 'Print log',
+		purpose: 'Log print runs against recipe windows; paste lots and their handling times.',
+		sections: [
+			{ href: '/runs', label: 'Print runs', roles: ALL_ROLES, icon: 'clipboard-list' },
+			{ href: '/recipes', label: 'Recipes', roles: ALL_ROLES, icon: 'sliders-horizontal' },
+			{ href: '/paste', label: 'Paste lots', roles: ALL_ROLES, icon: 'package' }
+		]
+	},
+	{
+		id: 'inspection',
+		label: 'Inspection',
+		purpose: 'Solder-paste inspection imports, boards and their pads, failing pads by refdes.',
+		sections: [
+			{ href: '/spi', label: 'SPI imports', roles: ALL_ROLES, icon: 'scan-line' },
+			{ href: '/boards', label: 'Boards', roles: ALL_ROLES, icon: 'search' }
+		]
+	},
+	{
+		id: 'spc',
+		label: 'Control charts',
+		purpose: 'X-bar/R and individuals charts, capability, and run-rule signals to act on.',
+		sections: [
+			{ href: '/charts', label: 'Charts', roles: ALL_ROLES, icon: 'chart-line' },
+			{ href: '/signals', label: 'Signals', roles: ALL_ROLES, icon: 'bell' },
+			{ href: '/study', label: 'Ad-hoc study', roles: ALL_ROLES, icon: 'calculator' }
+		]
+	},
+	{
+		id: 'factory',
+		label: 'Factory',
+		purpose: 'Lines and products: the codes every run, stencil and inspection belongs to.',
+		sections: [{ href: '/factory', label: 'Lines & products', roles: ALL_ROLES, icon: 'factory' }]
+	},
+	{
+		id: 'admin',
+		label: 'Admin',
+		purpose: 'People and roles, API tokens for machines, and the mail outbox.',
+		sections: [
+			{ href: '/admin/users', label: 'People', roles: ADMIN_ONLY, icon: 'users' },
+			{ href: '/admin/tokens', label: 'API tokens', roles: ADMIN_ONLY, icon: 'key' },
+			{ href: '/admin/outbox', label: 'Mail outbox', roles: ADMIN_ONLY, icon: 'mail' }
+		]
+	}
+];
+
+/** Every page of the navigation, flat. */
 export const SECTIONS: readonly Section[] = [
 	{ href: '/', label: 'Overview', roles: ALL_ROLES, icon: 'gauge' },
-	{ href: '/admin/users', label: 'People', roles: ADMIN_ONLY, icon: 'users' },
-	{ href: '/admin/tokens', label: 'API tokens', roles: ADMIN_ONLY, icon: 'key' },
-	{ href: '/admin/outbox', label: 'Mail outbox', roles: ADMIN_ONLY, icon: 'mail' },
-	{ href: '/factory', label: 'Lines & products', roles: ALL_ROLES, icon: 'factory' },
-	{ href: '/runs', label: 'Print runs', roles: ALL_ROLES, icon: 'clipboard-list' },
-	{ href: '/recipes', label: 'Recipes', roles: ALL_ROLES, icon: 'sliders-horizontal' },
-	{ href: '/paste', label: 'Paste lots', roles: ALL_ROLES, icon: 'package' },
-	{ href: '/stencil-life', label: 'Stencil life', roles: ALL_ROLES, icon: 'layers' },
-	{ href: '/stencils', label: 'Stencils', roles: ALL_ROLES, icon: 'layers' },
-	{ href: '/charts', label: 'Charts', roles: ALL_ROLES, icon: 'chart-line' },
-	{ href: '/signals', label: 'Signals', roles: ALL_ROLES, icon: 'bell' },
-	{ href: '/study', label: 'Ad-hoc study', roles: ALL_ROLES, icon: 'calculator' },
-	{ href: '/spi', label: 'SPI imports', roles: ALL_ROLES, icon: 'scan-line' },
-	{ href: '/boards', label: 'Boards', roles: ALL_ROLES, icon: 'search' }
+	...NAV_GROUPS.flatMap((group) => group.sections)
 ];
+
+/** Which job comes first for each role, on the overview and in the menu. */
+const GROUP_ORDER: Record<Role, NavGroup['id'][]> = {
+	admin: ['admin', 'factory', 'stencils', 'print', 'inspection', 'spc'],
+	engineer: ['stencils', 'print', 'spc', 'inspection', 'factory', 'admin'],
+	technician: ['print', 'stencils', 'inspection', 'spc', 'factory', 'admin'],
+	quality: ['spc', 'inspection', 'print', 'stencils', 'factory', 'admin'],
+	viewer: ['spc', 'inspection', 'print', 'stencils', 'factory', 'admin']
+};
+
+/** The navigation for one role: its groups in its order, each with only the pages it may open. */
+export function navigationFor(role: Role): NavGroup[] {
+	return GROUP_ORDER[role]
+		.map((id) => NAV_GROUPS.find((group) => group.id === id)!)
+		.map((group) => ({ ...group, sections: group.sections.filter((s) => s.roles.includes(role)) }))
+		.filter((group) => group.sections.length > 0);
+}
 
 /**
  * Page access by route prefix, checked in hooks for every page request. The longest matching

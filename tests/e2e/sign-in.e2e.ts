@@ -9,9 +9,19 @@ test.describe('sign-in and roles', () => {
 			await expect(page).toHaveURL(/\/$/);
 			await expect(page.getByTestId('viewer-role')).toHaveText(ROLE_LABELS[role]);
 			const nav = page.getByRole('navigation', { name: 'Main' });
-			const peopleLink = nav.getByRole('link', { name: 'People' });
-			if (role === 'admin') await expect(peopleLink).toBeVisible();
-			else await expect(peopleLink).toHaveCount(0);
+			const adminMenu = nav.getByRole('button', { name: 'Admin' });
+			if (role === 'admin') {
+				await adminMenu.click();
+				await expect(nav.getByRole('link', { name: 'People' })).toBeVisible();
+				await page.keyboard.press('Escape');
+				await expect(nav.getByRole('link', { name: 'People' })).toBeHidden();
+			} else {
+				await expect(adminMenu).toHaveCount(0);
+				await expect(nav.getByRole('link', { name: 'People' })).toHaveCount(0);
+			}
+			// Every role sees the job groups, e.g. the control-chart menu.
+			await nav.getByRole('button', { name: 'Control charts' }).click();
+			await expect(nav.getByRole('link', { name: 'Signals' })).toBeVisible();
 
 			await page.getByRole('button', { name: 'Sign out' }).click();
 			await expect(page).toHaveURL(/\/signin/);

@@ -1,7 +1,13 @@
 import { json } from '@sveltejs/kit';
 import { parseJsonBody } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { listRuns, printlogApiRoute, queryObject, startRun } from '$lib/server/printlog';
+import {
+	evaluateChartsForRun,
+	listRuns,
+	printlogApiRoute,
+	queryObject,
+	startRun
+} from '$lib/server/printlog';
 import { printRunSchema } from '$lib/schemas/printlog';
 import { runFiltersSchema, toRunFilters } from '$lib/schemas/printlog-forms';
 
@@ -15,5 +21,7 @@ export const GET = printlogApiRoute(({ url }) => {
 /** Log (start) a run: 201 { id, deviations, warnings }; 422 naming what is refused. */
 export const POST = printlogApiRoute(async ({ request }, actor) => {
 	const input = await parseJsonBody(request, printRunSchema);
-	return json(startRun(getDb(), input, actor), { status: 201 });
+	const started = startRun(getDb(), input, actor);
+	await evaluateChartsForRun(getDb(), started.id);
+	return json(started, { status: 201 });
 });

@@ -7,6 +7,7 @@ import { requireActor } from '$lib/server/guards';
 import {
 	correctRun,
 	endRun,
+	evaluateChartsForRun,
 	getRun,
 	PrintlogRequestError,
 	recipeById
@@ -71,6 +72,7 @@ export const actions = {
 		}
 		try {
 			endRun(getDb(), runId(params.id), { boardsPrinted }, actor);
+			await evaluateChartsForRun(getDb(), runId(params.id));
 		} catch (err) {
 			if (!(err instanceof PrintlogRequestError)) throw err;
 			return fail(err.status, { end: { errors: { boardsPrinted: err.message } } });
@@ -112,6 +114,7 @@ export const actions = {
 				},
 				actor
 			);
+			await evaluateChartsForRun(db, id);
 		} catch (err) {
 			if (!(err instanceof PrintlogRequestError)) throw err;
 			for (const f of err.fields) {

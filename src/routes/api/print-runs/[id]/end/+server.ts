@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { ApiError, idParam } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { endRun, printlogApiRoute } from '$lib/server/printlog';
+import { endRun, evaluateChartsForRun, printlogApiRoute } from '$lib/server/printlog';
 import { endRunSchema } from '$lib/schemas/printlog-forms';
 
 /** End an open run; the body is optional: { endedAt?, boardsPrinted? }. */
@@ -16,5 +16,7 @@ export const POST = printlogApiRoute(async ({ params, request }, actor) => {
 			throw new ApiError(400, { error: 'The request body is not valid JSON.' });
 		}
 	}
-	return json(endRun(getDb(), id, endRunSchema.parse(body), actor));
+	const run = endRun(getDb(), id, endRunSchema.parse(body), actor);
+	await evaluateChartsForRun(getDb(), id);
+	return json(run);
 });
