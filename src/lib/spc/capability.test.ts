@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import ref from '../../../reference/spc/worked-examples.json';
-import { processCapability } from './capability';
+import { capabilityFromSummary, processCapability } from './capability';
 import { chiSquareQuantile } from './chi-square-quantile';
 
 const w = ref.cpkConfidenceIntervalCheck;
@@ -109,5 +109,40 @@ describe('zero variation and edge sizes', () => {
 		expect(processCapability({ values: [1, 2], sigmaWithin: 0.5, lsl: 0, usl: 3 }).cpk).toBeCloseTo(1, 12);
 		expect(() => processCapability({ values: [1], sigmaWithin: 1 })).toThrow(/values: needs at least 2/);
 		expect(() => processCapability({ values: [1, NaN], sigmaWithin: 1 })).toThrow(/values\[1\]: is NaN/);
+	});
+});
+
+describe('capabilityFromSummary', () => {
+	it('gives the worked Cpk from summary figures (USL 100, LSL 90, n 30, x̄ 97, s 1.6 → 0.625)', () => {
+		// REFERENCE-FACTS b, worked check computed by hand: Cpk = (100 − 97)/(3 · 1.6) = 0.625.
+		const result = capabilityFromSummary({ n: 30, mean: 97, sigmaOverall: 1.6, sigmaWithin: 1.6, lsl: 90, usl: 100 });
+		expect(result.cpk).toBeCloseTo(0.625, 12);
+		expect(result.cpkInterval!.lower).toBeCloseTo(0.425, 3);
+		expect(result.cpkInterval!.upper).toBeCloseTo(0.825, 3);
+	});
+
+	it('equals processCapability on the same values', () => {
+		const values = [102.0, 94.8, 98.3, 98.4, 102.0, 98.5, 99.0, 97.7, 100.0, 98.1];
+		const fromValues = processCapability({ values, sigmaWithin: 2.1, lsl: 90, usl: 110, target: 100 });
+		const fromSummary = capabilityFromSummary({
+			n: values.length,
+			mean: fromValues.mean,
+			sigmaOverall: fromValues.sigmaOverall,
+			sigmaWithin: 2.1,
+			lsl: 90,
+			usl: 110,
+			target: 100
+		});
+		expect(fromSummary).toEqual(fromValues);
+	});
+
+	it.each([
+		[{ n: 1, mean: 1, sigmaOverall: 1 }, 'values'],
+		[{ n: 10, mean: Number.NaN, sigmaOverall: 1 }, 'values'],
+		[{ n: 10, mean: 1, sigmaOverall: 1, lsl: 5, usl: 4 }, 'lsl']
+	])('refuses %j naming %s', (input, field) => {
+		expect(() => capabilityFromSummary({ sigmaWithin: null, ...input })).toThrow(
+			expect.objectContaining({ field })
+		);
 	});
 });

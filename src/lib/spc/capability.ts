@@ -97,6 +97,42 @@ function optionalSpec(v: number | null | undefined, field: string): number | nul
  */
 export function processCapability(input: CapabilityInput): CapabilityResult {
 	const values = validateValues(input.values, 'values', 2);
+	return capabilityFromSummary({
+		n: values.length,
+		mean: input.mean ?? meanOf(values),
+		sigmaOverall: sampleStandardDeviation(values),
+		sigmaWithin: input.sigmaWithin,
+		lsl: input.lsl,
+		usl: input.usl,
+		target: input.target,
+		confidenceLevel: input.confidenceLevel
+	});
+}
+
+/** The summary figures capability needs, when the individual values are not at hand. */
+export interface CapabilitySummaryInput extends Omit<CapabilityInput, 'values' | 'mean'> {
+	/** Number of individual values (at least 2). */
+	n: number;
+	/** Process centre. */
+	mean: number;
+	/** Overall sample standard deviation of all n values (ddof 1). */
+	sigmaOverall: number;
+}
+
+/**
+ * Capability from summary figures: the same indices, intervals and reading as
+ * `processCapability`, for callers that keep only counts, means and standard deviations (e.g.
+ * per-board SPI aggregates pooled exactly).
+ * @throws {SpcInputError} for n < 2, a non-finite mean or sigma, or LSL ≥ USL.
+ * @example capabilityFromSummary({ n: 30, mean: 97, sigmaOverall: 1.6, sigmaWithin: 1.6, lsl: 90, usl: 100 }).cpk // 0.625
+ */
+export function capabilityFromSummary(input: CapabilitySummaryInput): CapabilityResult {
+	if (!Number.isInteger(input.n) || input.n < 2) {
+		throw new SpcInputError('values', `needs at least 2 values, got ${input.n}`);
+	}
+	if (!Number.isFinite(input.mean) || !Number.isFinite(input.sigmaOverall) || input.sigmaOverall < 0) {
+		throw new SpcInputError('values', 'mean and overall sigma must be finite numbers');
+	}
 	const lsl = optionalSpec(input.lsl, 'lsl');
 	const usl = optionalSpec(input.usl, 'usl');
 	const target = optionalSpec(input.target, 'target');
@@ -104,9 +140,9 @@ export function processCapability(input: CapabilityInput): CapabilityResult {
 		throw new SpcInputError('lsl', `LSL ${lsl} must be below USL ${usl}`);
 	}
 	const level = input.confidenceLevel ?? 0.95;
-	const n = values.length;
-	const mu = input.mean ?? meanOf(values);
-	const sigmaOverall = sampleStandardDeviation(values);
+	const n = input.n;
+	const mu = input.mean;
+	const sigmaOverall = input.sigmaOverall;
 	const sigmaWithin =
 		input.sigmaWithin === null || !Number.isFinite(input.sigmaWithin) ? null : input.sigmaWithin;
 	const notes: string[] = [];

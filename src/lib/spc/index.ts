@@ -69,7 +69,13 @@ export {
 export { zoneBoundaries, zonePosition, type ZoneBoundaries } from './zones';
 
 // Capability
-export { processCapability, type CapabilityInput, type CapabilityResult } from './capability';
+export {
+	capabilityFromSummary,
+	processCapability,
+	type CapabilityInput,
+	type CapabilityResult,
+	type CapabilitySummaryInput
+} from './capability';
 export { cpConfidenceInterval, cpkConfidenceInterval, type Interval } from './capability-intervals';
 export { expectedOutOfSpec, type ExpectedOutOfSpec } from './expected-out-of-spec';
 export {
