@@ -7,8 +7,10 @@ import {
 	importApertures,
 	parseApertureUpload,
 	withStencilErrors,
-	type ImportMode
+	type ImportMode,
+	type UploadResult
 } from '$lib/server/stencils';
+import type { Actor } from '$lib/access';
 import { aperturesPayloadSchema, formatIssuePath } from '$lib/schemas/stencil';
 
 /** Every aperture with its figures (unrounded): `{ "apertures": [...] }`. */
@@ -30,6 +32,33 @@ const textField = (form: FormData, name: string) => {
 	const v = form.get(name);
 	return typeof v === 'string' && v.trim() !== '' ? v.trim() : null;
 };
+
+/** Store a parsed file upload (CSV or Gerber) all or nothing: 201 with the summary, or its errors. */
+async function importUploadedFile(
+	db: ReturnType<typeof getDb>,
+	stencilId: number,
+	parsed: UploadResult,
+	options: { mode: ImportMode; fileName: string | null },
+	actor: Actor
+): Promise<Response> {
+	if (!parsed.ok) throw new ApiError(parsed.status, { error: parsed.error, errors: parsed.errors });
+	const summary = await withStencilErrors(() =>
+		importApertures(
+			db,
+			stencilId,
+			parsed.apertures,
+			{
+				source: parsed.format,
+				mode: options.mode,
+				fileName: options.fileName,
+				unit: parsed.unit,
+				warnings: parsed.warnings
+			},
+			actor
+		)
+	);
+	return json(summary, { status: 201 });
+}
 
 /**
  * Import apertures: JSON `{ "apertures": [...], "mode"? }` or multipart `file` (our CSV layout or
@@ -72,24 +101,7 @@ export const POST = apiRoute(async ({ params, request, url }, actor) => {
 			centroidUnit: textField(form, 'centroidUnit'),
 			centroidRadiusUm: radius === null ? null : Number(radius)
 		});
-		if (!parsed.ok)
-			throw new ApiError(parsed.status, { error: parsed.error, errors: parsed.errors });
-		const summary = await withStencilErrors(() =>
-			importApertures(
-				db,
-				id,
-				parsed.apertures,
-				{
-					source: parsed.format,
-					mode,
-					fileName: file.name,
-					unit: parsed.unit,
-					warnings: parsed.warnings
-				},
-				actor
-			)
-		);
-		return json(summary, { status: 201 });
+		return importUploadedFile(db, id, parsed, { mode, fileName: file.name }, actor);
 	}
 	if (type !== '' && !type.includes('json')) {
 		// A raw file body (text/csv, text/plain, application/octet-stream, application/vnd.gerber):
@@ -104,24 +116,7 @@ export const POST = apiRoute(async ({ params, request, url }, actor) => {
 			format: q.get('format'),
 			unit: q.get('unit')
 		});
-		if (!parsed.ok)
-			throw new ApiError(parsed.status, { error: parsed.error, errors: parsed.errors });
-		const summary = await withStencilErrors(() =>
-			importApertures(
-				db,
-				id,
-				parsed.apertures,
-				{
-					source: parsed.format,
-					mode,
-					fileName: q.get('fileName'),
-					unit: parsed.unit,
-					warnings: parsed.warnings
-				},
-				actor
-			)
-		);
-		return json(summary, { status: 201 });
+		return importUploadedFile(db, id, parsed, { mode, fileName: q.get('fileName') }, actor);
 	}
 	const body = await readJson(request);
 	const mode = modeOf((body as { mode?: unknown } | null)?.mode);
