@@ -127,6 +127,8 @@ export const printRuns = sqliteTable(
 		recipeVersion: integer('recipe_version'),
 		pasteLotId: integer('paste_lot_id').references(() => pasteLots.id),
 		bladeCode: text('blade_code'),
+		/** Serial of the first board printed in the run, as scanned (optional). */
+		boardSerial: text('board_serial'),
 		/** Deviations found when the run was saved (or last corrected), as the pure check returns them. */
 		deviations: text('deviations', { mode: 'json' }).$type<unknown[]>().notNull().default(sql`'[]'`),
 		deviationReasons: text('deviation_reasons', { mode: 'json' })

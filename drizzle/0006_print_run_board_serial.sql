@@ -1,0 +1,1 @@
+ALTER TABLE `print_runs` ADD `board_serial` text;
