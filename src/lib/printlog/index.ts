@@ -120,3 +120,10 @@ export {
 } from './run-times';
 export { createWedgeBuffer, type WedgeBuffer, type WedgeOptions } from './barcode-wedge';
 export { matchScannedCode, normaliseScannedCode, type CodeCandidate } from './match-scanned-code';
+export {
+	MAX_BOARD_SERIAL_LENGTH,
+	normaliseBoardSerial,
+	boardSerialProblem,
+	parseBoardSerial
+} from './board-serial';
+export { runChanges, describeRunChange, type RunChange } from './run-changes';
