@@ -21,3 +21,5 @@ export * from './aperture-csv';
 export * from './centroid-csv';
 export * from './assign-refdes';
 export * from './compare-revisions';
+export * from './map-layers';
+export * from './hit-index';

@@ -5,7 +5,7 @@
  */
 import { effectiveShape, type ApertureInput, type PointUm } from './aperture';
 import { apertureGeometry } from './geometry';
-import { openPolygon, polygonCentroid } from './polygon';
+import { openPolygon, polygonCentroid, polygonSignedArea } from './polygon';
 
 /** Axis-aligned rectangle in µm. */
 export interface BoundsUm {
@@ -26,8 +26,19 @@ function placer(aperture: ApertureInput): (p: PointUm) => PointUm {
 function roundedRectanglePoints(l: number, w: number, r: number, perQuarter: number): PointUm[] {
 	const hx = l / 2 - r;
 	const hy = w / 2 - r;
-	if (r === 0) return [[hx, -hy], [hx, hy], [-hx, hy], [-hx, -hy]];
-	const centres: PointUm[] = [[hx, -hy], [hx, hy], [-hx, hy], [-hx, -hy]];
+	if (r === 0)
+		return [
+			[hx, -hy],
+			[hx, hy],
+			[-hx, hy],
+			[-hx, -hy]
+		];
+	const centres: PointUm[] = [
+		[hx, -hy],
+		[hx, hy],
+		[-hx, hy],
+		[-hx, -hy]
+	];
 	const pts: PointUm[] = [];
 	centres.forEach(([cx, cy], q) => {
 		const start = -Math.PI / 2 + (q * Math.PI) / 2;
@@ -84,6 +95,15 @@ export function apertureOutlineUm(aperture: ApertureInput, segmentsPerQuarter = 
  */
 export function apertureBoundsUm(aperture: ApertureInput): BoundsUm {
 	apertureGeometry(aperture);
+	return validApertureBoundsUm(aperture);
+}
+
+/**
+ * `apertureBoundsUm` without validation, for loops over apertures already checked with
+ * `checkAperture` (the map builds 20,000 of them).
+ * @example validApertureBoundsUm(circle(500, { xUm: 1000 })).xMaxUm // 1250
+ */
+export function validApertureBoundsUm(aperture: ApertureInput): BoundsUm {
 	const shape = effectiveShape(aperture);
 	if (shape === 'polygon') {
 		const pts = openPolygon(aperture.verticesUm!).map(placer(aperture));
@@ -143,13 +163,23 @@ const fmt = (v: number): string => String(Math.round(v * 1000) / 1000);
 
 /**
  * SVG path data (`d`) of the placed aperture in µm, exact arcs for circles and rounded
- * corners. Coordinates are y-up; see the module note on flipping.
+ * corners, always counter-clockwise (polygons listed clockwise are reversed). Coordinates are
+ * y-up; see the module note on flipping.
  * @throws {StencilInputError} when the aperture is invalid.
  * @example apertureSvgPath({ ...pad, shape: 'rectangle', lengthUm: 2, widthUm: 1, xUm: 0, yUm: 0, rotationDeg: 0 })
  * // 'M1 -0.5L1 0.5L-1 0.5L-1 -0.5Z'
  */
 export function apertureSvgPath(aperture: ApertureInput): string {
 	apertureGeometry(aperture);
+	return validApertureSvgPath(aperture);
+}
+
+/**
+ * `apertureSvgPath` without validation, for loops over apertures already checked with
+ * `checkAperture`.
+ * @example validApertureSvgPath(rect(2, 1)) // 'M1 -0.5L1 0.5L-1 0.5L-1 -0.5Z'
+ */
+export function validApertureSvgPath(aperture: ApertureInput): string {
 	const shape = effectiveShape(aperture);
 	const place = placer(aperture);
 	const pt = (p: PointUm) => `${fmt(p[0])} ${fmt(p[1])}`;
@@ -161,13 +191,20 @@ export function apertureSvgPath(aperture: ApertureInput): string {
 	}
 	if (shape === 'polygon') {
 		const pts = openPolygon(aperture.verticesUm!).map(place);
+		// Counter-clockwise like every other outline, so overlaps in a shared path stay filled.
+		if (polygonSignedArea(pts) < 0) pts.reverse();
 		return `M${pts.map(pt).join('L')}Z`;
 	}
 	const r = aperture.cornerRadiusUm ?? 0;
 	const hx = aperture.lengthUm! / 2;
 	const hy = aperture.widthUm! / 2;
 	if (r === 0) {
-		const pts: PointUm[] = [[hx, -hy], [hx, hy], [-hx, hy], [-hx, -hy]];
+		const pts: PointUm[] = [
+			[hx, -hy],
+			[hx, hy],
+			[-hx, hy],
+			[-hx, -hy]
+		];
 		return `M${pts.map(place).map(pt).join('L')}Z`;
 	}
 	// Counter-clockwise: straight side, then a quarter arc (sweep 1 = increasing angle).
