@@ -19,9 +19,9 @@ const finiteNumber = z.number({
 });
 
 /** Chart kinds accepted by the API. */
-export const SPC_API_CHARTS = ['xbar-r', 'xbar-s', 'i-mr'] as const;
+export const SPC_API_CHARTS = ['xbar-r', 'xbar-s', 'i-mr', 'between-within'] as const;
 
-/** Chart kind of the request: `xbar-r`, `xbar-s` or `i-mr`. */
+/** Chart kind of the request: `xbar-r`, `xbar-s`, `i-mr` or `between-within`. */
 export const spcChartSchema = z.enum(SPC_API_CHARTS, {
 	error: `must be one of: ${SPC_API_CHARTS.join(', ')}`
 });

@@ -1,8 +1,9 @@
 import { spcAnalyzeRequestSchema, type SpcAnalyzeRequest } from '../schemas/spc';
 import { processCapability } from './capability';
+import { capabilityJson, type CapabilityJson } from './capability-json';
 import type { ChartLimits, ControlChart, ControlLimits } from './chart-types';
 import { buildChart } from './control-chart';
-import { evaluateChart } from './evaluate-chart';
+import { evaluateChart, type ChartPart } from './evaluate-chart';
 import { DEFAULT_RULES, type RuleId } from './run-rules';
 import { SpcInputError } from './spc-input-error';
 
@@ -14,45 +15,26 @@ export interface FieldError {
 
 /** Response body of `POST /api/spc/analyze` (numbers unrounded; undefined ones null). */
 export interface AnalyzeResult {
-	limits: { location: ControlLimits; dispersion: ControlLimits };
-	capability: {
-		cp: number | null;
-		cpk: number | null;
-		pp: number | null;
-		ppk: number | null;
-		sigmaWithin: number | null;
-		sigmaOverall: number;
-		mean: number;
-		n: number;
-		cpu: number | null;
-		cpl: number | null;
-		ppu: number | null;
-		ppl: number | null;
-		cpm: number | null;
-		cpLower95: number | null;
-		cpUpper95: number | null;
-		cpkLower95: number | null;
-		cpkUpper95: number | null;
-		ppkLower95: number | null;
-		ppkUpper95: number | null;
-		ppmBelowLsl: number | null;
-		ppmAboveUsl: number | null;
-		/** Expected total ppm out of spec with within σ̂ (normal model). */
-		ppmTotal: number | null;
-		/** Expected total ppm out of spec with overall s. */
-		ppmTotalOverall: number | null;
-		reading: string;
-		notes: string[];
+	limits: {
+		location: ControlLimits;
+		dispersion: ControlLimits;
+		/** Moving range of the subgroup means (`between-within` only). */
+		movingRange?: ControlLimits;
 	};
-	violations: { rule: RuleId; chart: 'location' | 'dispersion'; index: number; points: number[] }[];
+	capability: CapabilityJson;
+	violations: { rule: RuleId; chart: ChartPart; index: number; points: number[] }[];
 }
 
 /** Outcome of `analyzeStudy`: a result (HTTP 200) or field errors (HTTP 422). */
 export type AnalyzeOutcome =
-	| { ok: true; result: AnalyzeResult }
-	| { ok: false; errors: FieldError[] };
+	{ ok: true; result: AnalyzeResult } | { ok: false; errors: FieldError[] };
 
-const CHART_NAMES = { 'xbar-r': 'X-bar/R', 'xbar-s': 'X-bar/S', 'i-mr': 'I-MR' } as const;
+const CHART_NAMES = {
+	'xbar-r': 'X-bar/R',
+	'xbar-s': 'X-bar/S',
+	'i-mr': 'I-MR',
+	'between-within': 'between/within'
+} as const;
 
 function fieldPath(path: readonly PropertyKey[]): string {
 	let out = '';
@@ -85,11 +67,21 @@ function chartData(req: SpcAnalyzeRequest): { data: number[][] | number[] } | Fi
 	};
 }
 
-function zeroVariationError(limits: ChartLimits, field: string): FieldError {
-	const what =
-		limits.kind === 'i-mr'
-			? 'all moving ranges are 0 (every value is the same)'
-			: `every subgroup ${limits.kind === 'xbar-s' ? 'standard deviation' : 'range'} is 0`;
+/** Why the limits collapse, or null when every chart of the study has a spread. */
+function zeroVariationError(limits: ChartLimits, field: string): FieldError | null {
+	let what: string | null = null;
+	if (limits.kind === 'i-mr') {
+		if (!(limits.sigmaWithin > 0)) what = 'all moving ranges are 0 (every value is the same)';
+	} else if (!(limits.sigmaWithin > 0)) {
+		const statistic =
+			limits.kind === 'xbar-s' || (limits.kind === 'between-within' && limits.subgroupSize > 10)
+				? 'standard deviation'
+				: 'range';
+		what = `every subgroup ${statistic} is 0`;
+	} else if (limits.movingRange && !(limits.movingRange.cl > 0)) {
+		what = 'every subgroup mean is the same, so the moving ranges of the means are all 0';
+	}
+	if (what === null) return null;
 	return {
 		field,
 		message:
@@ -102,10 +94,13 @@ function zeroVariationError(limits: ChartLimits, field: string): FieldError {
  * Pure core of `POST /api/spc/analyze`: validate the request, build the chart, apply the
  * run rules and compute capability.
  *
- * Request: `{ chart: 'xbar-r' | 'xbar-s' | 'i-mr', subgroups?: number[][], values?: number[],
- * lsl?, usl?, target?, rules?: RuleId[] }` (default rules we-1..we-4). X̄ charts need ≥ 2
- * subgroups of one size (X̄/R: 2..10, X̄/S: ≥ 2); I-MR needs ≥ 2 values. Zero variation is
- * refused (limits would collapse). Violation indices are 0-based subgroup/value positions.
+ * Request: `{ chart: 'xbar-r' | 'xbar-s' | 'i-mr' | 'between-within', subgroups?: number[][],
+ * values?: number[], lsl?, usl?, target?, rules?: RuleId[] }` (default rules we-1..we-4).
+ * Subgroup charts need ≥ 2 subgroups of one size (X̄/R: 2..10, X̄/S and between/within: ≥ 2;
+ * mixed sizes are refused naming the first subgroup whose size differs from subgroup 0); I-MR
+ * needs ≥ 2 values. Between/within adds `limits.movingRange` (moving range of the subgroup
+ * means) and its beyond-limit violations as chart `'moving-range'`. Zero variation is refused
+ * (limits would collapse). Violation indices are 0-based subgroup/value positions.
  * @example analyzeStudy({ chart: 'i-mr', values: [49.6, 47.6, 49.9, 51.3] })
  */
 export function analyzeStudy(input: unknown): AnalyzeOutcome {
@@ -136,20 +131,24 @@ export function analyzeStudy(input: unknown): AnalyzeOutcome {
 		if (!(e instanceof SpcInputError)) throw e;
 		return { ok: false, errors: [{ field: e.field, message: e.reason }, ...errors] };
 	}
-	const { location, dispersion, sigmaWithin } = chart.limits;
+	const { location, dispersion, movingRange, sigmaWithin } = chart.limits;
 	const numbers = [location.lcl, location.ucl, dispersion.ucl, sigmaWithin];
+	if (movingRange) numbers.push(movingRange.ucl);
 	if (!numbers.every(Number.isFinite)) {
 		errors.push({
 			field: dataField,
 			message: 'values are too large in magnitude to compute finite control limits'
 		});
-	} else if (!(sigmaWithin > 0)) errors.push(zeroVariationError(chart.limits, dataField));
+	} else {
+		const flat = zeroVariationError(chart.limits, dataField);
+		if (flat) errors.push(flat);
+	}
 	if (errors.length) return { ok: false, errors };
 
 	const rules = req.rules ?? DEFAULT_RULES;
 	const violations = evaluateChart(chart.points, chart.limits, rules).map((v) => ({
 		rule: v.rule,
-		chart: v.chart as 'location' | 'dispersion',
+		chart: v.chart,
 		index: v.index,
 		points: v.points
 	}));
@@ -167,35 +166,58 @@ export function analyzeStudy(input: unknown): AnalyzeOutcome {
 	return {
 		ok: true,
 		result: {
-			limits: { location: chart.limits.location, dispersion: chart.limits.dispersion },
-			capability: {
-				cp: cap.cp,
-				cpk: cap.cpk,
-				pp: cap.pp,
-				ppk: cap.ppk,
-				sigmaWithin: cap.sigmaWithin,
-				sigmaOverall: cap.sigmaOverall,
-				mean: cap.mean,
-				n: cap.n,
-				cpu: cap.cpu,
-				cpl: cap.cpl,
-				ppu: cap.ppu,
-				ppl: cap.ppl,
-				cpm: cap.cpm,
-				cpLower95: cap.cpInterval?.lower ?? null,
-				cpUpper95: cap.cpInterval?.upper ?? null,
-				cpkLower95: cap.cpkInterval?.lower ?? null,
-				cpkUpper95: cap.cpkInterval?.upper ?? null,
-				ppkLower95: cap.ppkInterval?.lower ?? null,
-				ppkUpper95: cap.ppkInterval?.upper ?? null,
-				ppmBelowLsl: cap.expectedWithin?.ppmBelowLsl ?? null,
-				ppmAboveUsl: cap.expectedWithin?.ppmAboveUsl ?? null,
-				ppmTotal: cap.expectedWithin?.ppmTotal ?? null,
-				ppmTotalOverall: cap.expectedOverall?.ppmTotal ?? null,
-				reading: cap.reading.text,
-				notes: cap.notes
-			},
+			limits: movingRange ? { location, dispersion, movingRange } : { location, dispersion },
+			capability: capabilityJson(cap),
 			violations
 		}
 	};
+}
+
+/** Outcome of `parseAnalyzeBody`: the parsed JSON, or why the text is not JSON. */
+export type ParsedBody = { ok: true; value: unknown } | { ok: false; error: string };
+
+/** First bare `NaN` / `Infinity` / `-Infinity` outside string literals, 1-based position. */
+function bareNonFinite(text: string): { token: string; at: number } | null {
+	let inString = false;
+	for (let i = 0; i < text.length; i++) {
+		const ch = text[i];
+		if (inString) {
+			if (ch === '\\') i++;
+			else if (ch === '"') inString = false;
+		} else if (ch === '"') inString = true;
+		else {
+			const m = /^-?(NaN|Infinity)/.exec(text.slice(i, i + 9));
+			if (m) return { token: m[0], at: i + 1 };
+		}
+	}
+	return null;
+}
+
+/**
+ * Read the text of a `POST /api/spc/analyze` body. Scripts often write NaN or Infinity, which
+ * JSON cannot carry, so those are named with their position instead of a bare syntax error.
+ * @example parseAnalyzeBody('{"values":[1,NaN]}') // { ok: false, error: '… NaN at character 14 …' }
+ */
+export function parseAnalyzeBody(text: string): ParsedBody {
+	if (text.trim() === '') {
+		return {
+			ok: false,
+			error: 'The request body is empty; send a JSON object such as {"chart":"i-mr","values":[…]}.'
+		};
+	}
+	try {
+		return { ok: true, value: JSON.parse(text) };
+	} catch (e) {
+		const bad = bareNonFinite(text);
+		if (bad) {
+			return {
+				ok: false,
+				error:
+					`The request body is not valid JSON: ${bad.token} at character ${bad.at} is not a ` +
+					'JSON number; send finite numbers only (leave a missing value out).'
+			};
+		}
+		const detail = e instanceof Error ? e.message : String(e);
+		return { ok: false, error: `The request body is not valid JSON (${detail}).` };
+	}
 }

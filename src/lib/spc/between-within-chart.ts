@@ -2,8 +2,10 @@ import { chartConstants } from './chart-constants';
 import type { ChartLimits, ChartPoint, ControlChart, LimitOptions } from './chart-types';
 import { baselineMovingRangeMean } from './individuals-chart';
 import { SpcInputError } from './spc-input-error';
-import { xbarRLimits, xbarRPoints, XBAR_R_MAX_SUBGROUP_SIZE } from './xbar-r-chart';
-import { xbarSLimits, xbarSPoints } from './xbar-s-chart';
+import { mean, range, sampleStandardDeviation } from './summary-statistics';
+import { validateSubgroups } from './validate-input';
+import { xbarRLimits, XBAR_MIN_SUBGROUPS, XBAR_R_MAX_SUBGROUP_SIZE } from './xbar-r-chart';
+import { xbarSLimits } from './xbar-s-chart';
 
 /**
  * Points of a between/within (three-way) chart: subgroup means with the moving range of
@@ -11,16 +13,25 @@ import { xbarSLimits, xbarSPoints } from './xbar-s-chart';
  *
  * Used for large subgroups (e.g. all deposits of one board from an SPI export), where
  * X̄ limits from within-subgroup spread are far too tight because board-to-board variation
- * is real and expected.
- * @throws SpcInputError as the X̄/R or X̄/S point builders.
+ * is real and expected. Subgroups must share one size ≥ 2; at least 2 subgroups.
+ * @throws SpcInputError naming `subgroups`, `subgroups[i]` (e.g. the first subgroup whose size
+ * differs from subgroup 0) or `subgroups[i][j]`.
  * @example betweenWithinPoints(boards)[1].movingRange // |x̄₁ − x̄₀|
  */
 export function betweenWithinPoints(subgroups: unknown): ChartPoint[] {
-	const size = Array.isArray(subgroups) && Array.isArray(subgroups[0]) ? subgroups[0].length : 0;
-	const base = size > XBAR_R_MAX_SUBGROUP_SIZE ? xbarSPoints(subgroups) : xbarRPoints(subgroups);
-	return base.map((p, i) => ({
-		...p,
-		movingRange: i === 0 ? null : Math.abs(p.location - base[i - 1].location)
+	const groups = validateSubgroups(subgroups, 'subgroups', {
+		chartName: 'between/within',
+		minSubgroups: XBAR_MIN_SUBGROUPS,
+		minSize: 2,
+		tooSmallHint: "use chart 'i-mr' for single values"
+	});
+	const large = groups[0].length > XBAR_R_MAX_SUBGROUP_SIZE;
+	const means = groups.map(mean);
+	return groups.map((g, i) => ({
+		location: means[i],
+		dispersion: large ? sampleStandardDeviation(g) : range(g),
+		size: g.length,
+		movingRange: i === 0 ? null : Math.abs(means[i] - means[i - 1])
 	}));
 }
 

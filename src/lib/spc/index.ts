@@ -76,6 +76,7 @@ export {
 	type CapabilityResult,
 	type CapabilitySummaryInput
 } from './capability';
+export { capabilityJson, type CapabilityJson } from './capability-json';
 export { cpConfidenceInterval, cpkConfidenceInterval, type Interval } from './capability-intervals';
 export { expectedOutOfSpec, type ExpectedOutOfSpec } from './expected-out-of-spec';
 export {
@@ -92,4 +93,11 @@ export {
 } from './capability-reading';
 
 // API core
-export { analyzeStudy, type AnalyzeOutcome, type AnalyzeResult, type FieldError } from './analyze';
+export {
+	analyzeStudy,
+	parseAnalyzeBody,
+	type AnalyzeOutcome,
+	type AnalyzeResult,
+	type FieldError,
+	type ParsedBody
+} from './analyze';

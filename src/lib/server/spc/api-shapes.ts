@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { capabilityJson } from '$lib/spc';
 import type { ChartDetail } from './chart-service';
 import type { SignalFilters, SignalSummary } from './signals';
 
@@ -48,23 +49,7 @@ export function chartJson(d: ChartDetail) {
 			excluded: p.excluded
 		})),
 		violations: d.chart?.violations ?? [],
-		capability: cap
-			? {
-					cp: cap.cp,
-					cpk: cap.cpk,
-					pp: cap.pp,
-					ppk: cap.ppk,
-					sigmaWithin: cap.sigmaWithin,
-					sigmaOverall: cap.sigmaOverall,
-					mean: cap.mean,
-					n: cap.n,
-					cpkLower95: cap.cpkInterval?.lower ?? null,
-					cpkUpper95: cap.cpkInterval?.upper ?? null,
-					ppmTotal: cap.expectedWithin?.ppmTotal ?? null,
-					reading: cap.reading.text,
-					level: cap.reading.level
-				}
-			: null,
+		capability: cap ? capabilityJson(cap) : null,
 		message: d.message ?? d.capability.message
 	};
 }

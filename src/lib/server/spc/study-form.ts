@@ -1,5 +1,7 @@
 import { RULE_IDS, type RuleId } from '$lib/spc';
-import type { SpcAnalyzeRequest } from '$lib/schemas/spc';
+import { SPC_API_CHARTS, type SpcAnalyzeRequest } from '$lib/schemas/spc';
+
+type SpcChart = (typeof SPC_API_CHARTS)[number];
 import { parseStudyText, type StudyTextError } from './parse-study-text';
 
 /** What the study form sends back to itself (strings as typed, so nothing is lost on error). */
@@ -53,10 +55,12 @@ export function parseStudyForm(form: FormData): StudyFormResult {
 	};
 	const errors: StudyTextError[] = [];
 	const chart = values.chart;
-	if (chart !== 'xbar-r' && chart !== 'xbar-s' && chart !== 'i-mr') {
-		errors.push({ field: 'chart', message: 'choose X̄/R, X̄/S or I-MR' });
+	if (!(SPC_API_CHARTS as readonly string[]).includes(chart)) {
+		errors.push({ field: 'chart', message: 'choose X̄/R, X̄/S, I-MR or between/within' });
 	}
-	const rules = values.rules.filter((r): r is RuleId => (RULE_IDS as readonly string[]).includes(r));
+	const rules = values.rules.filter((r): r is RuleId =>
+		(RULE_IDS as readonly string[]).includes(r)
+	);
 	const lsl = optionalNumber(values.lsl, 'lsl', errors);
 	const usl = optionalNumber(values.usl, 'usl', errors);
 	const target = optionalNumber(values.target, 'target', errors);
@@ -66,7 +70,14 @@ export function parseStudyForm(form: FormData): StudyFormResult {
 	const request: SpcAnalyzeRequest =
 		chart === 'i-mr'
 			? { chart, values: rows.rows.flat(), lsl, usl, target, rules }
-			: { chart: chart as 'xbar-r' | 'xbar-s', subgroups: rows.rows, lsl, usl, target, rules };
+			: {
+					chart: chart as Exclude<SpcChart, 'i-mr'>,
+					subgroups: rows.rows,
+					lsl,
+					usl,
+					target,
+					rules
+				};
 	const lineOf = rows.lineOf;
 	const valueLines = rows.rows.flatMap((row, i) => row.map(() => lineOf[i]));
 	const where = (error: StudyTextError): StudyTextError => {

@@ -12,7 +12,12 @@ import {
 import type { SpcAnalyzeRequest } from '$lib/schemas/spc';
 import type { CapabilityView, ChartView } from './view-types';
 
-const TITLES = { 'xbar-r': 'X̄/R', 'xbar-s': 'X̄/S', 'i-mr': 'I-MR' } as const;
+const TITLES = {
+	'xbar-r': 'X̄/R',
+	'xbar-s': 'X̄/S',
+	'i-mr': 'I-MR',
+	'between-within': 'Between/within'
+} as const;
 
 /** Everything the ad-hoc study page shows: the API answer plus points and histogram. */
 export type StudyOutcome =
