@@ -4,7 +4,7 @@
  */
 import { z } from 'zod';
 import { STENCIL_STATES } from '../printlog/stencil-life';
-import { printRunSchema } from './printlog';
+import { boardSerialSchema, printRunSchema } from './printlog';
 import {
 	AMBIENT_PARAMETER_KEYS,
 	CATEGORICAL_PARAMETER_KEYS,
@@ -29,9 +29,16 @@ export const endRunSchema = z.strictObject({
 	boardsPrinted: boards.optional()
 });
 
-/** `POST /api/print-runs/{id}/corrections`: the reason and the fields that change. */
+/**
+ * `POST /api/print-runs/{id}/corrections`: the reason and the fields that change. Absent fields
+ * keep their value; `null` clears an optional one (blade, board serial, ambient values, end).
+ * Parameters are merged key by key into the recorded ones.
+ */
 export const correctRunSchema = z.strictObject({
 	reason: z.string().trim().min(1, 'say why the run is corrected').max(500),
+	stencil: printRunSchema.shape.stencil.optional(),
+	pasteLot: printRunSchema.shape.pasteLot.optional(),
+	boardSerial: boardSerialSchema.nullable().optional(),
 	parameters: printRunSchema.shape.parameters.optional(),
 	deviationReasons: printRunSchema.shape.deviationReasons,
 	ambientTempC: printRunSchema.shape.ambientTempC.nullable(),
@@ -76,13 +83,66 @@ export const stencilCareSchema = z.object({
 	note: note.default('')
 });
 
+/** `at` of a life-log entry: an instant with a zone, not in the future (5 min clock slack). */
+const entryAt = instant
+	.refine((text) => Date.parse(text) <= Date.now() + 5 * 60_000, {
+		message: 'must not be in the future'
+	})
+	.optional();
+
+/**
+ * `POST /api/stencil-life/{id}/entries`: one life-log entry, its shape chosen by `kind` —
+ * `state` `{ toState, note? }`, `tension` `{ readingsNPerCm: [N/cm…], note? }`, `cleaning` /
+ * `inspection` `{ detail, note? }`; every kind takes `at?` (default now).
+ */
+export const stencilLifeEntrySchema = z.discriminatedUnion(
+	'kind',
+	[
+		z.strictObject({
+			kind: z.literal('state'),
+			toState: stencilStateSchema.shape.toState,
+			note: note.optional(),
+			at: entryAt
+		}),
+		z.strictObject({
+			kind: z.literal('tension'),
+			readingsNPerCm: z
+				.array(z.number({ error: 'must be a number in N/cm' }), {
+					error: 'must be a list of readings in N/cm, e.g. [38, 36.5, 37]'
+				})
+				.min(1, 'give at least one reading in N/cm')
+				.max(50, 'at most 50 readings per entry'),
+			note: note.optional(),
+			at: entryAt
+		}),
+		z.strictObject({
+			kind: z.enum(['cleaning', 'inspection']),
+			detail: z
+				.string({ error: 'is required: the cleaning method or the inspection result' })
+				.trim()
+				.min(1, 'is required: the cleaning method or the inspection result')
+				.max(200, 'must be at most 200 characters'),
+			note: note.optional(),
+			at: entryAt
+		})
+	],
+	{ error: 'kind must be one of state, tension, cleaning, inspection' }
+);
+
+/** Parsed life-log entry. */
+export type StencilLifeEntryPayload = z.output<typeof stencilLifeEntrySchema>;
+
 /** A date filter: an ISO date (`2026-03-02`) or date-time with a zone. */
 const dateFilter = z
 	.string()
 	.trim()
-	.refine((text) => /^\d{4}-\d{2}-\d{2}$/.test(text) || z.iso.datetime({ offset: true }).safeParse(text).success, {
-		message: 'must be an ISO date (2026-03-02) or date-time with a zone'
-	});
+	.refine(
+		(text) =>
+			/^\d{4}-\d{2}-\d{2}$/.test(text) || z.iso.datetime({ offset: true }).safeParse(text).success,
+		{
+			message: 'must be an ISO date (2026-03-02) or date-time with a zone'
+		}
+	);
 
 /** Query of `GET /api/print-runs` and the run list page. Blank values mean "any". */
 export const runFiltersSchema = z.object({
@@ -97,7 +157,10 @@ export const runFiltersSchema = z.object({
 });
 
 /** Parsed run filters as dates: a bare `to` date includes that whole day (UTC). */
-export function runFilterDates(filters: { from?: string; to?: string }): { from?: Date; to?: Date } {
+export function runFilterDates(filters: { from?: string; to?: string }): {
+	from?: Date;
+	to?: Date;
+} {
 	const day = /^\d{4}-\d{2}-\d{2}$/;
 	const from = filters.from ? new Date(Date.parse(filters.from)) : undefined;
 	let to = filters.to ? new Date(Date.parse(filters.to)) : undefined;
@@ -105,7 +168,6 @@ export function runFilterDates(filters: { from?: string; to?: string }): { from?
 	return { from, to };
 }
 // ---- The run form: flat fields so it posts as a plain HTML form (works without JavaScript) ----
-
 
 const optionalNumber = z.number({ error: 'must be a number' }).optional();
 const flatText = z.string().trim().max(500, 'must be at most 500 characters').default('');
@@ -127,6 +189,8 @@ export const runFormSchema = z.object({
 	stencil: z.string().trim().min(1, 'scan or type the stencil name').max(64),
 	pasteLot: z.string().trim().min(1, 'scan or type the paste lot number').max(64),
 	bladeCode: z.string().trim().max(64).default(''),
+	// Checked by the API schema (printable, ≤ 100): the form only carries the text.
+	boardSerial: z.string().max(500, 'must be at most 100 characters').default(''),
 	boardsPrinted: z.number().int('must be a whole number').min(0).max(1_000_000).optional(),
 	overrideReason: flatText,
 	...(Object.fromEntries(NUMERIC_PARAMETER_KEYS.map((k) => [k, optionalNumber])) as Record<
@@ -171,9 +235,12 @@ export function runFormToPayload(form: RunForm): Record<string, unknown> {
 		parameters,
 		...(Object.keys(reasons).length && { deviationReasons: reasons }),
 		...(form.ambientTempC !== undefined && { ambientTempC: form.ambientTempC }),
-		...(form.relativeHumidityPct !== undefined && { relativeHumidityPct: form.relativeHumidityPct }),
+		...(form.relativeHumidityPct !== undefined && {
+			relativeHumidityPct: form.relativeHumidityPct
+		}),
 		...(form.boardsPrinted !== undefined && { boardsPrinted: form.boardsPrinted }),
 		...(form.bladeCode && { bladeCode: form.bladeCode }),
+		...(form.boardSerial.trim() && { boardSerial: form.boardSerial }),
 		...(form.overrideReason && { overrideReason: form.overrideReason })
 	};
 }
@@ -185,7 +252,8 @@ export function runFormToPayload(form: RunForm): Record<string, unknown> {
  */
 export function runFormField(field: string): string {
 	if (field.startsWith('parameters.')) return field.slice('parameters.'.length).split('.')[0];
-	if (field.startsWith('deviationReasons.')) return reasonField(field.slice('deviationReasons.'.length));
+	if (field.startsWith('deviationReasons.'))
+		return reasonField(field.slice('deviationReasons.'.length));
 	return field.split('.')[0];
 }
 

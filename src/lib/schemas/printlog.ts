@@ -16,6 +16,7 @@ import { z } from 'zod';
 import type { FieldError } from '../printlog/field-error';
 import { PASTE_EVENTS } from '../printlog/paste-events';
 import { resolvePasteHandling, validatePasteLot } from '../printlog/paste-lot';
+import { parseBoardSerial } from '../printlog/board-serial';
 import {
 	CATEGORICAL_PARAMETER_KEYS,
 	NUMERIC_PARAMETER_KEYS,
@@ -30,6 +31,19 @@ const code = z.string().trim().min(1, 'must not be blank').max(64, 'must be at m
 
 /** Free text such as a reason or note: trimmed, at most 500 characters. */
 const text = z.string().trim().max(500, 'must be at most 500 characters');
+
+/**
+ * A board serial as scanned: cleaned (scanner prefix and control characters at the ends
+ * removed, case kept) and checked (printable ASCII, at most 100 characters). Blank → null.
+ */
+export const boardSerialSchema = z
+	.string({ error: 'must be text: the serial of the first board printed' })
+	.transform((raw, ctx) => {
+		const parsed = parseBoardSerial(raw);
+		if (!parsed.error) return parsed.value;
+		ctx.addIssue({ code: 'custom', message: parsed.error.message });
+		return z.NEVER;
+	});
 
 /** An instant with an explicit zone (`Z` or offset), as the tablet sends it. */
 const instant = z.iso.datetime({
@@ -149,6 +163,7 @@ export const printRunSchema = z.strictObject({
 		.optional(),
 	startedAt: instant.optional(),
 	bladeCode: code.optional(),
+	boardSerial: boardSerialSchema.optional(),
 	overrideReason: text.optional()
 });
 

@@ -32,6 +32,8 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/paste-lots': { GET: ALL_ROLES, POST: PRINT_LOGGERS },
 	'/api/paste-lots/[id]': { GET: ALL_ROLES },
 	'/api/paste-lots/[id]/events': { POST: PRINT_LOGGERS },
+	'/api/stencil-life': { GET: ALL_ROLES },
+	'/api/stencil-life/[id]/entries': { POST: PRINT_LOGGERS },
 	'/api/stencils': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/stencils/[id]': { GET: ALL_ROLES },
 	'/api/stencils/[id]/apertures': { GET: ALL_ROLES, POST: ENGINEERING },
@@ -44,7 +46,11 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/spi/imports/[id]': { GET: ALL_ROLES },
 	'/api/spi/imports/progress/[job]': { GET: ALL_ROLES },
 	'/api/spi/profiles': { GET: ALL_ROLES, POST: INSPECTION_IMPORTERS },
-	'/api/spi/profiles/[id]': { GET: ALL_ROLES, PUT: INSPECTION_IMPORTERS },
+	'/api/spi/profiles/[id]': {
+		GET: ALL_ROLES,
+		PUT: INSPECTION_IMPORTERS,
+		DELETE: INSPECTION_IMPORTERS
+	},
 	'/api/spi/pareto': { GET: ALL_ROLES },
 	'/api/boards': { GET: ALL_ROLES },
 	'/api/boards/[id]': { GET: ALL_ROLES }

@@ -11,3 +11,8 @@ export * from './print-runs';
 export * from './trends';
 export { printlogApiRoute, queryObject } from './api-route';
 export { evaluateChartsForRun } from './run-signals';
+export {
+	stencilLifeApiView,
+	stencilEntryErrors,
+	type StencilLifeApiView
+} from './stencil-life-api';

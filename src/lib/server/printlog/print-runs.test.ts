@@ -8,7 +8,7 @@ import { PrintlogRequestError } from './request-error';
 import { correctRun, endRun, getRun, listRuns, runsToCsv, startRun } from './print-runs';
 import { recipeHistory, saveRecipe } from './recipes';
 import { getStencilLife } from './stencil-life';
-import { addPasteEvent } from './paste-lots';
+import { addPasteEvent, createPasteLot } from './paste-lots';
 import { RECIPE_PARAMETERS, runPayload, seedPrintlogFixture } from './test-fixtures';
 
 let db: Db;
@@ -21,8 +21,13 @@ beforeEach(() => {
 afterEach(() => close());
 
 const T0 = Date.parse('2026-03-02T08:00:00Z');
-const parse = (overrides: Record<string, unknown> = {}) => printRunSchema.parse(runPayload(overrides));
-const runCount = () => db.select({ n: sql<number>`count(*)` }).from(printRuns).get()!.n;
+const parse = (overrides: Record<string, unknown> = {}) =>
+	printRunSchema.parse(runPayload(overrides));
+const runCount = () =>
+	db
+		.select({ n: sql<number>`count(*)` })
+		.from(printRuns)
+		.get()!.n;
 
 /** Run `fn`, expecting a PrintlogRequestError; return it. */
 function refusal(fn: () => unknown): PrintlogRequestError {
@@ -77,7 +82,12 @@ describe('starting a run', () => {
 		const started = startRun(db, parse(), fx.actors.technician, T0);
 		expect(started.deviations).toEqual([]);
 		const run = getRun(db, started.id)!;
-		expect(run).toMatchObject({ line: 'L1', product: 'P1', stencil: 'ST-GOOD', pasteLot: 'LOT-OK' });
+		expect(run).toMatchObject({
+			line: 'L1',
+			product: 'P1',
+			stencil: 'ST-GOOD',
+			pasteLot: 'LOT-OK'
+		});
 		expect(run.recipeVersion).toBe(1);
 		expect(run.operator).toBe('T technician');
 		expect(run.startedAt.getTime()).toBe(T0);
@@ -86,7 +96,12 @@ describe('starting a run', () => {
 
 	it('a deviation without a reason is 422 naming the parameter, and nothing is saved', () => {
 		const error = refusal(() =>
-			startRun(db, parse({ parameters: { ...runPayload().parameters, squeegeeAngleDeg: 65 } }), fx.actors.technician, T0)
+			startRun(
+				db,
+				parse({ parameters: { ...runPayload().parameters, squeegeeAngleDeg: 65 } }),
+				fx.actors.technician,
+				T0
+			)
 		);
 		expect(error.status).toBe(422);
 		expect(error.body()).toMatchObject({
@@ -117,7 +132,10 @@ describe('starting a run', () => {
 		for (const angle of [45, 60]) {
 			const started = startRun(
 				db,
-				parse({ line: angle === 45 ? 'L1' : 'L2', parameters: { ...runPayload().parameters, squeegeeAngleDeg: angle } }),
+				parse({
+					line: angle === 45 ? 'L1' : 'L2',
+					parameters: { ...runPayload().parameters, squeegeeAngleDeg: angle }
+				}),
 				fx.actors.technician,
 				T0
 			);
@@ -127,7 +145,9 @@ describe('starting a run', () => {
 
 	it('ambient out of the 20–26 °C common-practice window is recorded without needing a reason', () => {
 		const started = startRun(db, parse({ ambientTempC: 28 }), fx.actors.technician, T0);
-		expect(started.deviations).toEqual([{ parameter: 'ambientTempC', value: 28, min: 20, max: 26 }]);
+		expect(started.deviations).toEqual([
+			{ parameter: 'ambientTempC', value: 28, min: 20, max: 26 }
+		]);
 	});
 
 	it('refuses an expired lot and an unknown stencil code (with a suggestion) together', () => {
@@ -142,13 +162,21 @@ describe('starting a run', () => {
 	});
 
 	it('warns about a lot still warming up (4 h common-practice default)', () => {
-		addPasteEvent(db, 'LOT-OK', { event: 'out-of-cold-storage', at: '2026-03-02T07:00:00Z' }, fx.actors.technician, T0);
+		addPasteEvent(
+			db,
+			'LOT-OK',
+			{ event: 'out-of-cold-storage', at: '2026-03-02T07:00:00Z' },
+			fx.actors.technician,
+			T0
+		);
 		const started = startRun(db, parse(), fx.actors.technician, T0);
 		expect(started.warnings.join(' ')).toContain('still warming up: 1 h of 4 h');
 	});
 
 	it('a quarantined stencil is refused; a technician may not override; an engineer may, with a reason', () => {
-		const plain = refusal(() => startRun(db, parse({ stencil: 'ST-HOLD' }), fx.actors.technician, T0));
+		const plain = refusal(() =>
+			startRun(db, parse({ stencil: 'ST-HOLD' }), fx.actors.technician, T0)
+		);
 		expect(plain.fields).toEqual([
 			{ field: 'stencil', message: expect.stringContaining('quarantined') }
 		]);
@@ -168,13 +196,28 @@ describe('starting a run', () => {
 	});
 
 	it('stencil life: warned from 90 % of rated life, refused at 100 % (print count = boards of its runs)', () => {
-		const first = startRun(db, parse({ stencil: 'ST-WORN', boardsPrinted: 90 }), fx.actors.technician, T0);
+		const first = startRun(
+			db,
+			parse({ stencil: 'ST-WORN', boardsPrinted: 90 }),
+			fx.actors.technician,
+			T0
+		);
 		endRun(db, first.id, {}, fx.actors.technician, T0 + 60_000);
-		expect(getStencilLife(db, fx.stencilIds.worn)).toMatchObject({ printCount: 90, lifeUsedPct: 90 });
-		const second = startRun(db, parse({ stencil: 'ST-WORN', boardsPrinted: 10 }), fx.actors.technician, T0 + 120_000);
+		expect(getStencilLife(db, fx.stencilIds.worn)).toMatchObject({
+			printCount: 90,
+			lifeUsedPct: 90
+		});
+		const second = startRun(
+			db,
+			parse({ stencil: 'ST-WORN', boardsPrinted: 10 }),
+			fx.actors.technician,
+			T0 + 120_000
+		);
 		expect(second.warnings.join(' ')).toContain('90 % of its rated life (90 of 100 prints)');
 		endRun(db, second.id, {}, fx.actors.technician, T0 + 180_000);
-		const third = refusal(() => startRun(db, parse({ stencil: 'ST-WORN' }), fx.actors.technician, T0 + 240_000));
+		const third = refusal(() =>
+			startRun(db, parse({ stencil: 'ST-WORN' }), fx.actors.technician, T0 + 240_000)
+		);
 		expect(third.fields[0].message).toContain('reached its rated life (100 of 100 prints)');
 	});
 
@@ -182,7 +225,10 @@ describe('starting a run', () => {
 		startRun(db, parse(), fx.actors.technician, T0);
 		const clash = refusal(() => startRun(db, parse(), fx.actors.technician, T0 + 1000));
 		expect(clash.status).toBe(409);
-		expect(clash.fields[0]).toMatchObject({ field: 'line', message: expect.stringContaining('already has an open run') });
+		expect(clash.fields[0]).toMatchObject({
+			field: 'line',
+			message: expect.stringContaining('already has an open run')
+		});
 		expect(() => startRun(db, parse({ line: 'L2' }), fx.actors.technician, T0)).not.toThrow();
 		expect(runCount()).toBe(2);
 	});
@@ -191,7 +237,9 @@ describe('starting a run', () => {
 describe('ending and correcting', () => {
 	it('an end before the start is refused; a later end closes the run and frees the line', () => {
 		const { id } = startRun(db, parse(), fx.actors.technician, T0);
-		const early = refusal(() => endRun(db, id, { endedAt: '2026-03-02T07:00:00Z' }, fx.actors.technician));
+		const early = refusal(() =>
+			endRun(db, id, { endedAt: '2026-03-02T07:00:00Z' }, fx.actors.technician)
+		);
 		expect(early.status).toBe(422);
 		expect(early.fields[0].field).toBe('endedAt');
 		const ended = endRun(db, id, { boardsPrinted: 120 }, fx.actors.technician, T0 + 3_600_000);
@@ -203,7 +251,12 @@ describe('ending and correcting', () => {
 	it('a correction is re-checked, counted and audited with before, after and reason', () => {
 		const { id } = startRun(db, parse(), fx.actors.technician, T0);
 		const noReason = refusal(() =>
-			correctRun(db, id, { reason: 'typo', parameters: { squeegeeSpeedMmS: 120 } }, fx.actors.technician)
+			correctRun(
+				db,
+				id,
+				{ reason: 'typo', parameters: { squeegeeSpeedMmS: 120 } },
+				fx.actors.technician
+			)
 		);
 		expect(noReason.fields.map((f) => f.field)).toEqual(['deviationReasons.squeegeeSpeedMmS']);
 		const corrected = correctRun(
@@ -219,8 +272,119 @@ describe('ending and correcting', () => {
 		expect(corrected.parameters.squeegeeSpeedMmS).toBe(120);
 		expect(corrected.corrections).toBe(1);
 		const audit = db.select().from(auditLog).where(eq(auditLog.action, 'correct')).get()!;
-		expect((audit.before as { parameters: Record<string, number> }).parameters.squeegeeSpeedMmS).toBe(40);
+		expect(
+			(audit.before as { parameters: Record<string, number> }).parameters.squeegeeSpeedMmS
+		).toBe(40);
 		expect(audit.after).toMatchObject({ correctionReason: 'typed 40, printer showed 120' });
+	});
+});
+
+describe('board serial and corrections of every field', () => {
+	it('a run keeps the scanned board serial (cleaned, case kept) and shows it in the CSV', () => {
+		const { id } = startRun(
+			db,
+			parse({ boardSerial: ']C1Fw-P1-000123\r' }),
+			fx.actors.technician,
+			T0
+		);
+		expect(getRun(db, id)!.boardSerial).toBe('Fw-P1-000123');
+		const [header, row] = runsToCsv(listRuns(db), []).split('\r\n');
+		const column = header.split(',').indexOf('boardSerial');
+		expect(column).toBeGreaterThan(0);
+		expect(row.split(',')[column]).toBe('Fw-P1-000123');
+		const bad = printRunSchema.safeParse(runPayload({ boardSerial: 'FW\u00071' }));
+		expect(bad.error?.issues[0]).toMatchObject({ path: ['boardSerial'] });
+	});
+
+	it('stencil, lot, blade, serial, times, ambient and categorical settings are corrected and audited', () => {
+		const { id } = startRun(db, parse({ ambientTempC: 23 }), fx.actors.technician, T0);
+		endRun(db, id, { boardsPrinted: 50 }, fx.actors.technician, T0 + 3_600_000);
+		createPasteLot(
+			db,
+			{ lotNumber: 'LOT-TWO', alloy: 'SAC305', powderType: 4, expiresOn: '2099-12-31' },
+			fx.actors.technician
+		);
+		const corrected = correctRun(
+			db,
+			id,
+			{
+				reason: 'wrong items scanned at the start',
+				stencil: 'st-worn',
+				pasteLot: 'lot-two',
+				bladeCode: 'BL-300-07',
+				boardSerial: 'FW-P1-000124',
+				startedAt: '2026-03-02T07:30:00Z',
+				endedAt: '2026-03-02T09:30:00Z',
+				ambientTempC: null,
+				parameters: { printStroke: 'front-to-back' },
+				deviationReasons: { printStroke: 'worn stencil prints better one way' }
+			},
+			fx.actors.engineer
+		);
+		expect(corrected).toMatchObject({
+			stencil: 'ST-WORN',
+			pasteLot: 'LOT-TWO',
+			bladeCode: 'BL-300-07',
+			boardSerial: 'FW-P1-000124',
+			ambientTempC: null,
+			corrections: 1
+		});
+		expect(corrected.startedAt.toISOString()).toBe('2026-03-02T07:30:00.000Z');
+		expect(corrected.deviations).toEqual([
+			expect.objectContaining({
+				parameter: 'printStroke',
+				reason: 'worn stencil prints better one way'
+			})
+		]);
+		// The boards move with the run: the print count follows the corrected stencil.
+		expect(getStencilLife(db, fx.stencilIds.worn)!.printCount).toBe(50);
+		expect(getStencilLife(db, fx.stencilIds.good)!.printCount).toBe(0);
+		const audit = db.select().from(auditLog).where(eq(auditLog.action, 'correct')).get()!;
+		expect(audit.before).toMatchObject({
+			stencil: 'ST-GOOD',
+			pasteLot: 'LOT-OK',
+			boardSerial: null
+		});
+		expect(audit.after).toMatchObject({ stencil: 'ST-WORN', boardSerial: 'FW-P1-000124' });
+	});
+
+	it('refuses unknown codes, an expired lot, a bad serial, an end before the start and a no-op', () => {
+		const { id } = startRun(db, parse(), fx.actors.technician, T0);
+		const before = getRun(db, id)!;
+		const bad = refusal(() =>
+			correctRun(
+				db,
+				id,
+				{
+					reason: 'fix',
+					stencil: 'ST-GOD',
+					pasteLot: 'LOT-OLD',
+					boardSerial: 'FW\u00071',
+					endedAt: '2026-03-02T07:00:00Z'
+				},
+				fx.actors.technician
+			)
+		);
+		expect(bad.status).toBe(422);
+		expect(bad.fields.map((f) => f.field)).toEqual([
+			'endedAt',
+			'stencil',
+			'pasteLot',
+			'boardSerial'
+		]);
+		expect(bad.fields[1].message).toContain('did you mean ST-GOOD');
+		expect(bad.fields[2].message).toContain('expired');
+		const noop = refusal(() =>
+			correctRun(
+				db,
+				id,
+				{ reason: 'nothing', stencil: 'st-good', bladeCode: null },
+				fx.actors.technician
+			)
+		);
+		expect(noop.fields[0].message).toContain('nothing to correct');
+		expect(getRun(db, id)).toEqual(before);
+		expect(db.select().from(auditLog).where(eq(auditLog.action, 'correct')).all()).toHaveLength(0);
 	});
 });
 
@@ -228,7 +392,11 @@ describe('listing and CSV', () => {
 	it('filters by line, lot and date; CSV quotes commas and neutralises formulas', () => {
 		const a = startRun(
 			db,
-			parse({ bladeCode: '=HYPERLINK("x")', parameters: { ...runPayload().parameters, squeegeeAngleDeg: 65 }, deviationReasons: { squeegeeAngleDeg: 'a, b' } }),
+			parse({
+				bladeCode: '=HYPERLINK("x")',
+				parameters: { ...runPayload().parameters, squeegeeAngleDeg: 65 },
+				deviationReasons: { squeegeeAngleDeg: 'a, b' }
+			}),
 			fx.actors.technician,
 			T0
 		);

@@ -7,6 +7,9 @@ import {
 	deviationReasonErrors,
 	findOverlappingOpenRun,
 	matchScannedCode,
+	normaliseScannedCode,
+	parseBoardSerial,
+	runChanges,
 	validateRunTimes,
 	type Deviation,
 	type FieldError,
@@ -45,6 +48,8 @@ export type RunView = {
 	pasteLot: string | null;
 	pasteLotId: number | null;
 	bladeCode: string | null;
+	/** Serial of the first board printed, as scanned (null when not logged). */
+	boardSerial: string | null;
 	recipeVersion: number | null;
 	recipeId: number | null;
 	parameters: Record<string, unknown>;
@@ -109,6 +114,7 @@ function toView(row: RunRow): RunView {
 		pasteLot: row.pasteLot,
 		pasteLotId: r.pasteLotId,
 		bladeCode: r.bladeCode,
+		boardSerial: r.boardSerial,
 		recipeVersion: r.recipeVersion,
 		recipeId: r.recipeId,
 		parameters: r.parameters,
@@ -127,7 +133,8 @@ function toView(row: RunRow): RunView {
 
 /** The API shape of a deviation. */
 export function apiDeviation(d: Deviation): ApiDeviation {
-	if (d.kind === 'numeric') return { parameter: d.parameter, value: d.value, min: d.min, max: d.max };
+	if (d.kind === 'numeric')
+		return { parameter: d.parameter, value: d.value, min: d.min, max: d.max };
 	return { parameter: d.parameter, value: d.value, min: null, max: null, expected: d.expected };
 }
 
@@ -161,7 +168,6 @@ export function listRuns(db: Db, filters: RunFilters = {}): RunView[] {
 		.limit(Math.min(filters.limit ?? 500, 5000))
 		.all()
 		.map(toView);
-
 }
 
 /** One run by id. */
@@ -236,7 +242,9 @@ export function startRun(
 	const actual = {
 		...input.parameters,
 		...(input.ambientTempC !== undefined && { ambientTempC: input.ambientTempC }),
-		...(input.relativeHumidityPct !== undefined && { relativeHumidityPct: input.relativeHumidityPct })
+		...(input.relativeHumidityPct !== undefined && {
+			relativeHumidityPct: input.relativeHumidityPct
+		})
 	};
 	let deviations: Deviation[] = [];
 	if (line && product) {
@@ -313,6 +321,7 @@ export function startRun(
 				stencilId: stencilRef!.id,
 				pasteLotId: lot!.id,
 				bladeCode: input.bladeCode ?? null,
+				boardSerial: input.boardSerial ?? null,
 				recipeId: recipe?.id ?? null,
 				recipeVersion: recipe?.version ?? null,
 				parameters: input.parameters as Record<string, unknown>,
@@ -399,6 +408,10 @@ export function endRun(
 /** What a correction may change; `reason` is required and kept in the audit log. */
 export type RunCorrection = {
 	reason: string;
+	/** Stencil name and lot number as scanned (codes, like a new run). */
+	stencil?: string;
+	pasteLot?: string;
+	boardSerial?: string | null;
 	parameters?: Record<string, unknown>;
 	ambientTempC?: number | null;
 	relativeHumidityPct?: number | null;
@@ -410,10 +423,14 @@ export type RunCorrection = {
 };
 
 /**
- * Correct a logged run: the new values are checked again against the recipe version the run
- * recorded (deviations need reasons as at start), times must stay in order and the line must not
- * get two open runs. The audit log keeps the before and after with the reason; the run's
- * correction counter goes up, so a corrected run is never silently different.
+ * Correct a logged run. Every recorded field may change: stencil and paste lot (by the code a
+ * scanner reads; unknown codes refused with suggestions, a newly named lot refused when it was
+ * expired or discarded at the run's start), blade, board serial, start and end, board count,
+ * ambient values and every setting. The new values are checked again against the recipe version
+ * the run recorded (deviations need reasons as at start), times must stay in order and the line
+ * must not get two open runs. The audit log keeps the before and after with the reason; the
+ * run's correction counter goes up, so a corrected run is never silently different. A
+ * correction that changes nothing is refused.
  * @throws PrintlogRequestError 404 / 422 / 409.
  */
 export function correctRun(db: Db, id: number, input: RunCorrection, actor: Actor): RunView {
@@ -429,8 +446,49 @@ export function correctRun(db: Db, id: number, input: RunCorrection, actor: Acto
 		const relativeHumidityPct =
 			input.relativeHumidityPct !== undefined ? input.relativeHumidityPct : run.relativeHumidityPct;
 		const startedAt = input.startedAt ?? run.startedAt.toISOString();
-		const endedAt = input.endedAt !== undefined ? input.endedAt : (run.endedAt?.toISOString() ?? null);
+		const endedAt =
+			input.endedAt !== undefined ? input.endedAt : (run.endedAt?.toISOString() ?? null);
 		errors.push(...validateRunTimes({ startedAt, endedAt }));
+
+		let stencilId = run.stencilId;
+		const stencilName = input.stencil?.trim();
+		if (
+			stencilName &&
+			normaliseScannedCode(stencilName) !== normaliseScannedCode(run.stencil ?? '')
+		) {
+			const ref = stencilByName(t, stencilName);
+			if (ref) stencilId = ref.id;
+			else {
+				const names = [...new Set(listStencilRefs(t).map((s) => s.name))];
+				errors.push({ field: 'stencil', message: unknownCode('stencil', stencilName, names) });
+			}
+		}
+		let pasteLotId = run.pasteLotId;
+		const lotNumber = input.pasteLot?.trim();
+		if (lotNumber && normaliseScannedCode(lotNumber) !== normaliseScannedCode(run.pasteLot ?? '')) {
+			const startMs = Date.parse(startedAt);
+			const lot = getPasteLot(t, lotNumber);
+			if (!lot || normaliseScannedCode(lot.lotNumber) !== normaliseScannedCode(lotNumber)) {
+				const numbers = listPasteLots(t).map((l) => l.lotNumber);
+				errors.push({ field: 'pasteLot', message: unknownCode('paste lot', lotNumber, numbers) });
+			} else {
+				pasteLotId = lot.id;
+				if (Number.isFinite(startMs)) {
+					const events = asPasteEvents(lot.events);
+					const refused = assessLotForRun(lot, events, lot.handling, startMs).refuse;
+					for (const r of refused) {
+						errors.push({ field: 'pasteLot', message: `${r.message} (at the run's start)` });
+					}
+				}
+			}
+		}
+		let boardSerial = run.boardSerial;
+		if (input.boardSerial !== undefined) {
+			const parsed = parseBoardSerial(input.boardSerial);
+			if (parsed.error) errors.push(parsed.error);
+			boardSerial = parsed.value;
+		}
+
 		const recipe = run.recipeId ? recipeById(t, run.recipeId) : undefined;
 		const check = checkRunAgainstRecipe(
 			{
@@ -438,18 +496,26 @@ export function correctRun(db: Db, id: number, input: RunCorrection, actor: Acto
 				...(ambientTempC !== null && { ambientTempC }),
 				...(relativeHumidityPct !== null && { relativeHumidityPct })
 			},
-			{ line: run.line, product: run.product, parameters: (recipe?.parameters ?? {}) as RecipeParameters }
+			{
+				line: run.line,
+				product: run.product,
+				parameters: (recipe?.parameters ?? {}) as RecipeParameters
+			}
 		);
 		errors.push(...check.errors);
 		const reasons: Record<string, string | undefined> = {
-			...Object.fromEntries(run.deviations.filter((d) => d.reason).map((d) => [d.parameter, d.reason!])),
+			...Object.fromEntries(
+				run.deviations.filter((d) => d.reason).map((d) => [d.parameter, d.reason!])
+			),
 			...(input.deviationReasons ?? {})
 		};
 		errors.push(...deviationReasonErrors(check.deviations, reasons));
 		if (errors.length) throw new PrintlogRequestError(422, errors);
 		if (endedAt === null && run.endedAt !== null) {
 			const clash = findOverlappingOpenRun(openRuns(t), run.line, id);
-			if (clash) throw new PrintlogRequestError(409, [{ field: 'endedAt', message: clash.message }]);
+			if (clash) {
+				throw new PrintlogRequestError(409, [{ field: 'endedAt', message: clash.message }]);
+			}
 		}
 		const stored: StoredDeviation[] = check.deviations.map((d) => ({
 			...d,
@@ -457,13 +523,16 @@ export function correctRun(db: Db, id: number, input: RunCorrection, actor: Acto
 		}));
 		tx.update(printRuns)
 			.set({
+				stencilId,
+				pasteLotId,
+				boardSerial,
 				parameters,
 				ambientTempC,
 				relativeHumidityPct,
 				startedAt: new Date(Date.parse(startedAt)),
 				endedAt: endedAt === null ? null : new Date(Date.parse(endedAt)),
 				boardsPrinted: input.boardsPrinted ?? run.boardsPrinted,
-				bladeCode: input.bladeCode !== undefined ? input.bladeCode : run.bladeCode,
+				bladeCode: input.bladeCode !== undefined ? input.bladeCode?.trim() || null : run.bladeCode,
 				deviations: stored,
 				deviationReasons: Object.fromEntries(
 					stored.filter((d) => d.reason).map((d) => [d.parameter, d.reason!])
@@ -473,12 +542,23 @@ export function correctRun(db: Db, id: number, input: RunCorrection, actor: Acto
 			.where(eq(printRuns.id, id))
 			.run();
 		const after = requireRun(t, id);
+		const before = auditSnapshot(run);
+		const afterSnapshot = auditSnapshot(after);
+		const reasonsChanged =
+			JSON.stringify(run.deviations.map((d) => d.reason)) !==
+			JSON.stringify(after.deviations.map((d) => d.reason));
+		if (runChanges(before, afterSnapshot).length === 0 && !reasonsChanged) {
+			// Throwing rolls the update back: a correction must change something.
+			throw new PrintlogRequestError(422, [
+				{ field: '(body)', message: 'nothing differs from the recorded run: nothing to correct' }
+			]);
+		}
 		recordAudit(tx, actor, {
 			action: 'correct',
 			entity: 'print_run',
 			entityId: id,
-			before: auditSnapshot(run),
-			after: { ...auditSnapshot(after), correctionReason: input.reason.trim() }
+			before,
+			after: { ...afterSnapshot, correctionReason: input.reason.trim() }
 		});
 		return after;
 	});
@@ -494,6 +574,7 @@ export const RUN_CSV_COLUMNS = [
 	'stencilRevision',
 	'pasteLot',
 	'bladeCode',
+	'boardSerial',
 	'operator',
 	'startedAt',
 	'endedAt',

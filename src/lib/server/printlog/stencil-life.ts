@@ -22,7 +22,13 @@ export type StencilLife = StencilRef & {
 	lifeUsedPct: number | null;
 	/** True from 90 % of rated life. */
 	nearLife: boolean;
-	lastTension: { at: Date; minimumNPerCm: number; pass: boolean } | null;
+	lastTension: {
+		at: Date;
+		readingsNPerCm: number[];
+		minimumNPerCm: number;
+		meanNPerCm: number;
+		pass: boolean;
+	} | null;
 };
 
 /** One entry of a stencil's life log. */
@@ -53,7 +59,11 @@ export function printCounts(db: Db): Map<number, number> {
 
 function lastTensions(db: Db): Map<number, StencilLife['lastTension']> {
 	const rows = db
-		.select({ stencilId: stencilEvents.stencilId, at: stencilEvents.at, readings: stencilEvents.readingsNPerCm })
+		.select({
+			stencilId: stencilEvents.stencilId,
+			at: stencilEvents.at,
+			readings: stencilEvents.readingsNPerCm
+		})
 		.from(stencilEvents)
 		.where(eq(stencilEvents.kind, 'tension'))
 		.orderBy(asc(stencilEvents.at), asc(stencilEvents.id))
@@ -62,7 +72,13 @@ function lastTensions(db: Db): Map<number, StencilLife['lastTension']> {
 	for (const row of rows) {
 		const check = checkTensionReadings(row.readings ?? []);
 		if (check.minimumNPerCm === null) continue;
-		map.set(row.stencilId, { at: row.at, minimumNPerCm: check.minimumNPerCm, pass: check.pass });
+		map.set(row.stencilId, {
+			at: row.at,
+			readingsNPerCm: row.readings ?? [],
+			minimumNPerCm: check.minimumNPerCm,
+			meanNPerCm: check.meanNPerCm!,
+			pass: check.pass
+		});
 	}
 	return map;
 }
@@ -96,7 +112,10 @@ export function getStencilLife(db: Db, id: number): StencilLife | undefined {
 }
 
 /** What a run on this stencil would be told (warning at 90 %, refusal past life or quarantined). */
-export function assessStencil(life: StencilLife, overrideReason?: string | null): StencilAssessment {
+export function assessStencil(
+	life: StencilLife,
+	overrideReason?: string | null
+): StencilAssessment {
 	return assessStencilForRun(
 		{
 			name: life.name,
@@ -129,9 +148,34 @@ export function stencilEventLog(db: Db, stencilId: number): StencilEventView[] {
 		.all() as StencilEventView[];
 }
 
+/** One entry of a stencil's life log by id, or undefined. */
+export function getStencilEvent(
+	db: Db,
+	eventId: number
+): (StencilEventView & { stencilId: number }) | undefined {
+	return db
+		.select({
+			id: stencilEvents.id,
+			stencilId: stencilEvents.stencilId,
+			kind: stencilEvents.kind,
+			at: stencilEvents.at,
+			fromState: stencilEvents.fromState,
+			toState: stencilEvents.toState,
+			readingsNPerCm: stencilEvents.readingsNPerCm,
+			detail: stencilEvents.detail,
+			note: stencilEvents.note,
+			by: users.name
+		})
+		.from(stencilEvents)
+		.leftJoin(users, eq(users.id, stencilEvents.userId))
+		.where(eq(stencilEvents.id, eventId))
+		.get() as (StencilEventView & { stencilId: number }) | undefined;
+}
+
 function requireStencil(db: Db, id: number): StencilLife {
 	const life = getStencilLife(db, id);
-	if (!life) throw new PrintlogRequestError(404, [{ field: 'stencil', message: `no stencil #${id}` }]);
+	if (!life)
+		throw new PrintlogRequestError(404, [{ field: 'stencil', message: `no stencil #${id}` }]);
 	return life;
 }
 
@@ -146,6 +190,15 @@ export function changeStencilState(
 	input: { toState: string; note?: string; at?: Date },
 	actor: Actor
 ): StencilLife {
+	return stateEntry(db, stencilId, input, actor).life;
+}
+
+function stateEntry(
+	db: Db,
+	stencilId: number,
+	input: { toState: string; note?: string; at?: Date },
+	actor: Actor
+): { life: StencilLife; entryId: number } {
 	return db.transaction((tx) => {
 		const life = requireStencil(tx as unknown as Db, stencilId);
 		const problem = stencilTransitionProblem(life.state as StencilState, input.toState);
@@ -162,7 +215,7 @@ export function changeStencilState(
 			]);
 		}
 		tx.update(stencils).set({ state: input.toState }).where(eq(stencils.id, stencilId)).run();
-		insertEvent(tx as unknown as Db, stencilId, actor, {
+		const entryId = insertEvent(tx as unknown as Db, stencilId, actor, {
 			kind: 'state',
 			at: input.at,
 			fromState: life.state,
@@ -174,9 +227,9 @@ export function changeStencilState(
 			entity: 'stencil',
 			entityId: stencilId,
 			before: { state: life.state },
-			after: { state: input.toState, note: input.note ?? '' }
+			after: { state: input.toState, note: input.note ?? '', entryId }
 		});
-		return requireStencil(tx as unknown as Db, stencilId);
+		return { life: requireStencil(tx as unknown as Db, stencilId), entryId };
 	});
 }
 
@@ -191,23 +244,48 @@ export function recordTension(
 	input: { readingsNPerCm: number[]; note?: string; at?: Date },
 	actor: Actor
 ): TensionCheck {
+	return tensionEntry(db, stencilId, input, actor).check;
+}
+
+function tensionEntry(
+	db: Db,
+	stencilId: number,
+	input: { readingsNPerCm: number[]; note?: string; at?: Date },
+	actor: Actor
+): { check: TensionCheck; entryId: number } {
 	const check = checkTensionReadings(input.readingsNPerCm);
 	if (check.errors.length > 0) {
 		throw new PrintlogRequestError(
 			422,
-			check.errors.map((e) => ({ field: e.field.replace(/^readings/, 'readingsNPerCm'), message: e.message }))
+			check.errors.map((e) => ({
+				field: e.field.replace(/^readings/, 'readingsNPerCm'),
+				message: e.message
+			}))
 		);
 	}
-	db.transaction((tx) => {
+	const entryId = db.transaction((tx) => {
 		requireStencil(tx as unknown as Db, stencilId);
-		insertEvent(tx as unknown as Db, stencilId, actor, {
+		const id = insertEvent(tx as unknown as Db, stencilId, actor, {
 			kind: 'tension',
 			at: input.at,
 			readingsNPerCm: input.readingsNPerCm,
 			note: input.note
 		});
+		recordAudit(tx, actor, {
+			action: 'tension',
+			entity: 'stencil',
+			entityId: stencilId,
+			after: {
+				entryId: id,
+				readingsNPerCm: input.readingsNPerCm,
+				minimumNPerCm: check.minimumNPerCm,
+				pass: check.pass,
+				note: input.note?.trim() ?? ''
+			}
+		});
+		return id;
 	});
-	return check;
+	return { check, entryId };
 }
 
 /** Record a cleaning or inspection entry (method or result in `detail`). */
@@ -216,15 +294,65 @@ export function recordStencilCare(
 	stencilId: number,
 	input: { kind: 'cleaning' | 'inspection'; detail: string; note?: string; at?: Date },
 	actor: Actor
-): void {
+): number {
 	if (!input.detail.trim()) {
 		const what = input.kind === 'cleaning' ? 'the cleaning method' : 'the inspection result';
 		throw new PrintlogRequestError(422, [{ field: 'detail', message: `give ${what}` }]);
 	}
-	db.transaction((tx) => {
+	return db.transaction((tx) => {
 		requireStencil(tx as unknown as Db, stencilId);
-		insertEvent(tx as unknown as Db, stencilId, actor, input);
+		const id = insertEvent(tx as unknown as Db, stencilId, actor, input);
+		recordAudit(tx, actor, {
+			action: input.kind,
+			entity: 'stencil',
+			entityId: stencilId,
+			after: { entryId: id, detail: input.detail.trim(), note: input.note?.trim() ?? '' }
+		});
+		return id;
 	});
+}
+
+/** A life-log entry as the API takes it (`kind` picks the shape). */
+export type StencilLifeEntryInput =
+	| { kind: 'state'; toState: string; note?: string; at?: Date }
+	| { kind: 'tension'; readingsNPerCm: number[]; note?: string; at?: Date }
+	| { kind: 'cleaning' | 'inspection'; detail: string; note?: string; at?: Date };
+
+/** A stored life-log entry with the stencil's figures after it (and the tension check). */
+export type StoredStencilEntry = {
+	entry: StencilEventView & { stencilId: number };
+	stencil: StencilLife;
+	tension: TensionCheck | null;
+};
+
+/**
+ * Add one entry to a stencil's life log with the same rules and audit as the page's actions:
+ * a state change (allowed transitions; a quarantine needs a note; only an engineer or admin
+ * releases a quarantined stencil), tension readings in N/cm (implausible ones refused, low ones
+ * kept and reported), or a cleaning or inspection entry (method or result required).
+ * @throws PrintlogRequestError 404 unknown stencil; 422 a rule refused the entry.
+ */
+export function addStencilLifeEntry(
+	db: Db,
+	stencilId: number,
+	input: StencilLifeEntryInput,
+	actor: Actor
+): StoredStencilEntry {
+	// Unknown stencil first: a 404 says more than a field error about an entry it cannot take.
+	requireStencil(db, stencilId);
+	let entryId: number;
+	let tension: TensionCheck | null = null;
+	if (input.kind === 'state') entryId = stateEntry(db, stencilId, input, actor).entryId;
+	else if (input.kind === 'tension') {
+		const stored = tensionEntry(db, stencilId, input, actor);
+		entryId = stored.entryId;
+		tension = stored.check;
+	} else entryId = recordStencilCare(db, stencilId, input, actor);
+	return {
+		entry: getStencilEvent(db, entryId)!,
+		stencil: requireStencil(db, stencilId),
+		tension
+	};
 }
 
 function insertEvent(
@@ -240,8 +368,9 @@ function insertEvent(
 		detail?: string;
 		note?: string;
 	}
-): void {
-	db.insert(stencilEvents)
+): number {
+	return db
+		.insert(stencilEvents)
 		.values({
 			stencilId,
 			kind: event.kind,
@@ -254,5 +383,6 @@ function insertEvent(
 			userId: actor.kind === 'user' ? actor.id : null,
 			actor: actorLabel(actor)
 		})
-		.run();
+		.returning({ id: stencilEvents.id })
+		.get().id;
 }
