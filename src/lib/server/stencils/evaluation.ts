@@ -76,13 +76,18 @@ export interface StencilAdvice {
 }
 
 /**
- * Thickness sweep over the common foils (with the stencil's own thickness added) and the
- * coarsest J-STD-005 powder type that fits the narrowest opening (five-ball rule, common practice).
+ * Thickness sweep of the base foil over the common foils (with the stencil's own thickness added;
+ * apertures in step regions keep their region's thickness) and the coarsest J-STD-005 powder type
+ * that fits the narrowest opening (five-ball rule, common practice).
  */
 export function stencilAdvice(check: StencilCheck): StencilAdvice {
 	const thicknessesUm = [...COMMON_FOIL_THICKNESSES_UM, check.stencil.thicknessUm];
 	return {
-		sweep: thicknessSweep(check.apertures, { thresholds: check.thresholds, thicknessesUm }),
+		sweep: thicknessSweep(check.apertures, {
+			thresholds: check.thresholds,
+			thicknessesUm,
+			stepRegions: check.stencil.stepRegions
+		}),
 		powder: suggestPowderType(check.apertures)
 	};
 }
