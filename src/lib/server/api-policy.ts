@@ -37,6 +37,7 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/stencils': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/stencils/[id]': { GET: ALL_ROLES },
 	'/api/stencils/[id]/apertures': { GET: ALL_ROLES, POST: ENGINEERING },
+	'/api/stencil-thresholds': { GET: ALL_ROLES, PUT: ENGINEERING },
 	'/api/spc/analyze': { POST: ALL_ROLES },
 	'/api/charts': { GET: ALL_ROLES },
 	'/api/charts/[id]': { GET: ALL_ROLES },

@@ -10,6 +10,7 @@ import {
 	ApertureImportError,
 	DuplicateStencilError,
 	StencilNotFoundError,
+	checkSiteThresholds,
 	checkStoredStencil,
 	compareStoredRevisions,
 	createRevision,
@@ -24,19 +25,23 @@ import {
 	saveSiteThresholds,
 	seedDemoStencils,
 	siteThresholds,
-	stencilAdvice
+	stencilAdvice,
+	thresholdsUpdate
 } from './index';
 
 // Worked examples with their sources (IPC-7525 limits; first-principles arithmetic).
-const worked = JSON.parse(
-	readFileSync('reference/stencil/worked-examples.json', 'utf8')
-) as {
+const worked = JSON.parse(readFileSync('reference/stencil/worked-examples.json', 'utf8')) as {
 	issueExamples: {
 		cases: {
 			name: string;
 			lengthUm: number;
 			widthUm: number;
-			atThickness: { thicknessUm: number; areaRatio: number; aspectRatio: number; status: string }[];
+			atThickness: {
+				thicknessUm: number;
+				areaRatio: number;
+				aspectRatio: number;
+				status: string;
+			}[];
 		}[];
 	};
 };
@@ -129,10 +134,16 @@ describe('importApertures', () => {
 					},
 					engineer
 				);
-				importApertures(db, s.id, [rect('X1', '1', c.lengthUm, c.widthUm)], {
-					source: 'json',
-					mode: 'append'
-				}, engineer);
+				importApertures(
+					db,
+					s.id,
+					[rect('X1', '1', c.lengthUm, c.widthUm)],
+					{
+						source: 'json',
+						mode: 'append'
+					},
+					engineer
+				);
 				const [a] = checkStoredStencil(db, s.id).apertures;
 				expect(a.areaRatio, `${c.name} at ${at.thicknessUm}`).toBeCloseTo(at.areaRatio, 5);
 				expect(a.aspectRatio).toBeCloseTo(at.aspectRatio, 5);
@@ -144,7 +155,12 @@ describe('importApertures', () => {
 		const s = newStencil();
 		const input: ApertureInput[] = [
 			rect('U1', '1', 1000, 200, 10, 20),
-			{ ...rect('C1', '1', 300, 280, 0, 0), shape: 'rounded-rectangle', cornerRadiusUm: 50, rotationDeg: 90 },
+			{
+				...rect('C1', '1', 300, 280, 0, 0),
+				shape: 'rounded-rectangle',
+				cornerRadiusUm: 50,
+				rotationDeg: 90
+			},
 			{ refdes: 'U7', pad: 'A1', shape: 'circle', diameterUm: 250, xUm: 1, yUm: 2, rotationDeg: 0 },
 			{
 				refdes: 'Q1',
@@ -164,7 +180,9 @@ describe('importApertures', () => {
 		];
 		const summary = importApertures(db, s.id, input, { source: 'json', mode: 'append' }, engineer);
 		expect(summary).toMatchObject({ count: 4, totalApertures: 4, source: 'json', warnings: [] });
-		const back = loadApertures(db, s.id).map(({ id, ...rest }) => (expect(id).toBeGreaterThan(0), rest));
+		const back = loadApertures(db, s.id).map(
+			({ id, ...rest }) => (expect(id).toBeGreaterThan(0), rest)
+		);
 		expect(back).toEqual(input);
 		expect('diameterUm' in back[0]).toBe(false);
 	});
@@ -195,22 +213,46 @@ describe('importApertures', () => {
 		['NaN length', [rect('A', '1', Number.NaN, 100)], 'lengthUm']
 	])('refuses %s', (_name, list, text) => {
 		const s = newStencil();
-		expect(() => importApertures(db, s.id, list, { source: 'json', mode: 'append' }, engineer)).toThrow(
-			text
-		);
+		expect(() =>
+			importApertures(db, s.id, list, { source: 'json', mode: 'append' }, engineer)
+		).toThrow(text);
 	});
 
 	it('appends by default and replaces when asked; unknown stencil is an error', () => {
 		const s = newStencil();
-		importApertures(db, s.id, [rect('A', '1', 500, 500)], { source: 'csv', mode: 'append', unit: 'mm' }, engineer);
-		const second = importApertures(db, s.id, [rect('B', '1', 500, 500)], { source: 'json', mode: 'append' }, engineer);
+		importApertures(
+			db,
+			s.id,
+			[rect('A', '1', 500, 500)],
+			{ source: 'csv', mode: 'append', unit: 'mm' },
+			engineer
+		);
+		const second = importApertures(
+			db,
+			s.id,
+			[rect('B', '1', 500, 500)],
+			{ source: 'json', mode: 'append' },
+			engineer
+		);
 		expect(second.totalApertures).toBe(2);
-		const third = importApertures(db, s.id, [rect('C', '1', 500, 500)], { source: 'json', mode: 'replace' }, engineer);
+		const third = importApertures(
+			db,
+			s.id,
+			[rect('C', '1', 500, 500)],
+			{ source: 'json', mode: 'replace' },
+			engineer
+		);
 		expect(third.totalApertures).toBe(1);
 		expect(loadApertures(db, s.id).map((a) => a.refdes)).toEqual(['C']);
 		expect(listImports(db, s.id).map((i) => i.mode)).toEqual(['replace', 'append', 'append']);
 		expect(() =>
-			importApertures(db, 999, [rect('A', '1', 500, 500)], { source: 'json', mode: 'append' }, engineer)
+			importApertures(
+				db,
+				999,
+				[rect('A', '1', 500, 500)],
+				{ source: 'json', mode: 'append' },
+				engineer
+			)
 		).toThrow(StencilNotFoundError);
 		expect(db.select({ n: count() }).from(apertureImports).get()!.n).toBe(3);
 	});
@@ -218,16 +260,87 @@ describe('importApertures', () => {
 
 describe('site thresholds', () => {
 	it('default to IPC-7525 (0.66 / 1.5) and an override changes the verdict on read', () => {
-		expect(siteThresholds(db)['laser-stainless']).toEqual({ minAreaRatio: 0.66, minAspectRatio: 1.5 });
+		expect(siteThresholds(db)['laser-stainless']).toEqual({
+			minAreaRatio: 0.66,
+			minAspectRatio: 1.5
+		});
 		const s = newStencil(127);
 		// 0201 280 × 300 µm at 127 µm: AR = 84000 / (1160 × 127) = 0.570 (first principles).
-		importApertures(db, s.id, [rect('R1', '1', 300, 280)], { source: 'json', mode: 'append' }, engineer);
+		importApertures(
+			db,
+			s.id,
+			[rect('R1', '1', 300, 280)],
+			{ source: 'json', mode: 'append' },
+			engineer
+		);
 		expect(checkStoredStencil(db, s.id).apertures[0].status).toBe('fail');
 		const all = siteThresholds(db);
-		saveSiteThresholds(db, { ...all, 'laser-stainless': { minAreaRatio: 0.55, minAspectRatio: 1.5 } }, engineer);
+		saveSiteThresholds(
+			db,
+			{ ...all, 'laser-stainless': { minAreaRatio: 0.55, minAspectRatio: 1.5 } },
+			engineer
+		);
 		expect(siteThresholds(db)['laser-stainless'].minAreaRatio).toBe(0.55);
 		expect(siteThresholds(db).electroformed.minAreaRatio).toBe(0.66);
 		expect(checkStoredStencil(db, s.id).apertures[0].status).toBe('pass');
+	});
+
+	it('the API update: a partial body changes only what it names, and is audited when saved', () => {
+		const current = siteThresholds(db);
+		const update = thresholdsUpdate(current, {
+			thresholds: { electroformed: { minAreaRatio: 0.55 } }
+		});
+		expect(update).toEqual({
+			thresholds: { ...current, electroformed: { minAreaRatio: 0.55, minAspectRatio: 1.5 } }
+		});
+		if (!('thresholds' in update)) throw new Error('expected valid thresholds');
+		saveSiteThresholds(db, update.thresholds, engineer);
+		expect(siteThresholds(db).electroformed).toEqual({ minAreaRatio: 0.55, minAspectRatio: 1.5 });
+		const audit = db.select().from(auditLog).where(eq(auditLog.entity, 'setting')).all();
+		expect(audit.map((a) => [a.action, a.entityId])).toEqual([['update', 'stencil.thresholds']]);
+	});
+
+	it('the API update names every bad field and saves nothing', () => {
+		const current = siteThresholds(db);
+		expect(
+			thresholdsUpdate(current, {
+				thresholds: {
+					electroformed: { minAreaRatio: 0, minAspectRatio: 'high' },
+					plastic: { minAreaRatio: 0.5 },
+					step: { minAreaRatio: 0.6, maxAreaRatio: 2 },
+					'laser-stainless': { minAspectRatio: 12 }
+				}
+			})
+		).toEqual({
+			errors: [
+				{ field: 'thresholds.plastic', message: expect.stringContaining('unknown technology') },
+				{
+					field: 'thresholds.step.maxAreaRatio',
+					message: expect.stringContaining('unknown limit')
+				},
+				{ field: 'thresholds.laser-stainless.minAspectRatio', message: 'must be at most 10' },
+				{ field: 'thresholds.electroformed.minAreaRatio', message: 'must be greater than 0' },
+				{ field: 'thresholds.electroformed.minAspectRatio', message: expect.any(String) }
+			]
+		});
+		for (const body of [null, [], { thresholds: 3 }, { electroformed: { minAreaRatio: 0.5 } }])
+			expect(thresholdsUpdate(current, body)).toEqual({
+				errors: [{ field: 'thresholds', message: expect.stringContaining('"thresholds"') }]
+			});
+		expect(thresholdsUpdate(current, { thresholds: { step: 0.5 } })).toEqual({
+			errors: [{ field: 'thresholds.step', message: expect.stringContaining('must be an object') }]
+		});
+		expect(siteThresholds(db)).toEqual(current);
+	});
+
+	it('the page and the API share one check of the complete set', () => {
+		const all = siteThresholds(db);
+		expect(checkSiteThresholds({ ...all, step: { minAreaRatio: 0, minAspectRatio: 1.5 } })).toEqual(
+			{
+				errors: [{ field: 'step.minAreaRatio', message: 'must be greater than 0' }]
+			}
+		);
+		expect(checkSiteThresholds(all)).toEqual({ thresholds: all });
 	});
 
 	it.each([0, -1, 11, Number.NaN])('refuses an area-ratio limit of %s', (v) => {
@@ -248,13 +361,34 @@ describe('revisions', () => {
 			{ source: 'json', mode: 'append' },
 			engineer
 		);
-		const b = createRevision(db, a.id, { revision: 'B', thicknessUm: 100, technology: 'laser-stainless' }, engineer);
-		expect(b).toMatchObject({ name: 'ST-T1', revision: 'B', basedOnStencilId: a.id, apertureCount: 2 });
+		const b = createRevision(
+			db,
+			a.id,
+			{ revision: 'B', thicknessUm: 100, technology: 'laser-stainless' },
+			engineer
+		);
+		expect(b).toMatchObject({
+			name: 'ST-T1',
+			revision: 'B',
+			basedOnStencilId: a.id,
+			apertureCount: 2
+		});
 		expect(() =>
-			createRevision(db, a.id, { revision: 'B', thicknessUm: 100, technology: 'laser-stainless' }, engineer)
+			createRevision(
+				db,
+				a.id,
+				{ revision: 'B', thicknessUm: 100, technology: 'laser-stainless' },
+				engineer
+			)
 		).toThrow(DuplicateStencilError);
 		expect(listRevisions(db, 'ST-T1').map((s) => s.revision)).toEqual(['A', 'B']);
-		importApertures(db, b.id, [rect('U1', '1', 1000, 250, 0, 0)], { source: 'json', mode: 'replace' }, engineer);
+		importApertures(
+			db,
+			b.id,
+			[rect('U1', '1', 1000, 250, 0, 0)],
+			{ source: 'json', mode: 'replace' },
+			engineer
+		);
 		const { comparison } = compareStoredRevisions(db, a.id, b.id);
 		expect(comparison.removed.map((r) => r.aperture.pad)).toEqual(['2']);
 		expect(comparison.changed[0].fields).toEqual(['widthUm']);
@@ -269,7 +403,9 @@ describe('demo stencils', () => {
 		seedDemoStencils(db);
 		const [a, b] = listRevisions(db, 'ST-PB100');
 		const checkA = checkStoredStencil(db, a.id);
-		const failing = new Set(checkA.apertures.filter((x) => x.status === 'fail').map((x) => x.refdes.replace(/\d+$/, '')));
+		const failing = new Set(
+			checkA.apertures.filter((x) => x.status === 'fail').map((x) => x.refdes.replace(/\d+$/, ''))
+		);
 		expect([...failing].sort()).toEqual(['R', 'U']);
 		expect(checkA.apertures.length).toBeGreaterThan(200);
 		const u2b = checkStoredStencil(db, b.id).apertures.filter((x) => x.refdes === 'U2');
@@ -287,7 +423,13 @@ describe('demo stencils', () => {
 		const base = demoPb100Apertures();
 		const many: ApertureInput[] = [];
 		for (let k = 0; many.length < 20_000; k++)
-			for (const a of base) if (many.length < 20_000) many.push({ ...a, xUm: a.xUm + (k % 10) * 100_000, yUm: a.yUm + Math.floor(k / 10) * 100_000 });
+			for (const a of base)
+				if (many.length < 20_000)
+					many.push({
+						...a,
+						xUm: a.xUm + (k % 10) * 100_000,
+						yUm: a.yUm + Math.floor(k / 10) * 100_000
+					});
 		let t = performance.now();
 		importApertures(db, s.id, many, { source: 'json', mode: 'append' }, engineer);
 		const importMs = performance.now() - t;

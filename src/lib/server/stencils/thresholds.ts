@@ -3,6 +3,7 @@ import type { Db } from '../db';
 import { settings } from '../db/schema';
 import { recordAudit } from '../audit';
 import type { Actor } from '$lib/access';
+import { thresholdsFormSchema } from '$lib/schemas/stencil-forms';
 import {
 	DEFAULT_THRESHOLDS,
 	STENCIL_TECHNOLOGIES,
@@ -64,7 +65,12 @@ export function saveSiteThresholds(
 				.run();
 		else
 			tx.insert(settings)
-				.values({ siteId: null, key: THRESHOLDS_SETTING_KEY, value: overrides, updatedAt: new Date() })
+				.values({
+					siteId: null,
+					key: THRESHOLDS_SETTING_KEY,
+					value: overrides,
+					updatedAt: new Date()
+				})
 				.run();
 		recordAudit(tx, actor, {
 			action: 'update',
@@ -75,4 +81,91 @@ export function saveSiteThresholds(
 		});
 		return siteThresholds(tx);
 	});
+}
+
+/** One refused threshold value: `field` is its path, e.g. `electroformed.minAreaRatio`. */
+export interface ThresholdFieldError {
+	field: string;
+	message: string;
+}
+
+/** Either the complete, valid thresholds for every technology, or every problem found. */
+export type ThresholdsCheck =
+	{ thresholds: Record<StencilTechnology, PrintThresholds> } | { errors: ThresholdFieldError[] };
+
+const LIMIT_KEYS = ['minAreaRatio', 'minAspectRatio'] as const;
+
+/**
+ * Validate a complete set of thresholds (every technology, both limits) the way the site
+ * thresholds page does: each limit a number greater than 0 and at most 10.
+ * @example checkSiteThresholds({ ...all, step: { minAreaRatio: 0, minAspectRatio: 1.5 } })
+ * // { errors: [{ field: 'step.minAreaRatio', message: 'must be greater than 0' }] }
+ */
+export function checkSiteThresholds(values: unknown): ThresholdsCheck {
+	const parsed = thresholdsFormSchema.safeParse(values);
+	if (parsed.success) return { thresholds: parsed.data };
+	return {
+		errors: parsed.error.issues.map((issue) => ({
+			field: issue.path.map(String).join('.'),
+			message: issue.message
+		}))
+	};
+}
+
+const isPlainObject = (v: unknown): v is Record<string, unknown> =>
+	typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/**
+ * Read a `PUT /api/stencil-thresholds` body, `{"thresholds":{"<technology>":{"minAreaRatio",
+ * "minAspectRatio"}}}`, over the thresholds in force: technologies and limits left out keep their
+ * current values; unknown technologies or limits are refused. Field paths in the errors start at
+ * the body (`thresholds.electroformed.minAreaRatio`).
+ * @example thresholdsUpdate(current, { thresholds: { electroformed: { minAreaRatio: 0.55 } } })
+ * // { thresholds: { ...current, electroformed: { minAreaRatio: 0.55, minAspectRatio: 1.5 } } }
+ */
+export function thresholdsUpdate(
+	current: Record<StencilTechnology, PrintThresholds>,
+	body: unknown
+): ThresholdsCheck {
+	if (!isPlainObject(body) || !isPlainObject(body.thresholds))
+		return {
+			errors: [
+				{
+					field: 'thresholds',
+					message:
+						'send {"thresholds":{"<technology>":{"minAreaRatio":…,"minAspectRatio":…}}}; ' +
+						`technologies: ${STENCIL_TECHNOLOGIES.join(', ')}`
+				}
+			]
+		};
+	const errors: ThresholdFieldError[] = [];
+	const merged = Object.fromEntries(
+		STENCIL_TECHNOLOGIES.map((t) => [t, { ...current[t] }])
+	) as Record<string, Record<string, unknown>>;
+	for (const [technology, limits] of Object.entries(body.thresholds)) {
+		const field = `thresholds.${technology}`;
+		if (!(STENCIL_TECHNOLOGIES as readonly string[]).includes(technology)) {
+			errors.push({
+				field,
+				message: `unknown technology; expected one of ${STENCIL_TECHNOLOGIES.join(', ')}`
+			});
+			continue;
+		}
+		if (!isPlainObject(limits)) {
+			errors.push({ field, message: 'must be an object with minAreaRatio and/or minAspectRatio' });
+			continue;
+		}
+		for (const [key, value] of Object.entries(limits)) {
+			if (!(LIMIT_KEYS as readonly string[]).includes(key))
+				errors.push({
+					field: `${field}.${key}`,
+					message: `unknown limit; expected ${LIMIT_KEYS.join(' or ')}`
+				});
+			else merged[technology][key] = value;
+		}
+	}
+	const checked = checkSiteThresholds(merged);
+	if ('errors' in checked)
+		errors.push(...checked.errors.map((e) => ({ ...e, field: `thresholds.${e.field}` })));
+	return errors.length > 0 ? { errors } : checked;
 }

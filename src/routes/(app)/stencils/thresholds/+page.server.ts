@@ -2,8 +2,7 @@ import { fail } from '@sveltejs/kit';
 import { ENGINEERING, hasRole } from '$lib/access';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
-import { saveSiteThresholds, siteThresholds } from '$lib/server/stencils';
-import { thresholdsFormSchema } from '$lib/schemas/stencil-forms';
+import { checkSiteThresholds, saveSiteThresholds, siteThresholds } from '$lib/server/stencils';
 import { DEFAULT_THRESHOLDS, STENCIL_TECHNOLOGIES } from '$lib/stencil';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -29,13 +28,13 @@ export const actions = {
 					return [k, raw === '' ? raw : Number(raw)];
 				})
 			);
-		const parsed = thresholdsFormSchema.safeParse(values);
-		if (!parsed.success) {
+		const checked = checkSiteThresholds(values);
+		if ('errors' in checked) {
 			const errors: Record<string, string> = {};
-			for (const issue of parsed.error.issues) errors[issue.path.join('.')] = issue.message;
+			for (const e of checked.errors) errors[e.field] = e.message;
 			return fail(400, { errors, values });
 		}
-		saveSiteThresholds(getDb(), parsed.data, actor);
+		saveSiteThresholds(getDb(), checked.thresholds, actor);
 		return { saved: true };
 	}
 } satisfies Actions;
