@@ -69,3 +69,46 @@ function slowPath(text: string, decimalComma: boolean): number {
 	// value - value is 0 only for finite numbers (NaN and ±Infinity give NaN).
 	return value - value === 0 ? value : NaN;
 }
+
+/**
+ * `parseDecimal` for ASCII bytes, plain forms only: optional `-`, digits, optional decimal mark
+ * (`.`, or `,` too with `decimalComma`) and digits, at most 15 significant digits. Anything else
+ * (empty, `+`, exponent, padding, longer numbers) gives NaN, and the caller reads the cell as
+ * text instead. Same exactness argument as `parseDecimal` (Clinger's fast path), so both give the
+ * same double for every input this one accepts. Used by the parser's byte path on every measure.
+ * @example parseDecimalBytes(new TextEncoder().encode('-12.50'), false, 0, 6) // -12.5
+ * @example parseDecimalBytes(new TextEncoder().encode('1e3'), false, 0, 3) // NaN (text path)
+ */
+export function parseDecimalBytes(
+	bytes: Uint8Array,
+	decimalComma: boolean,
+	start: number,
+	end: number
+): number {
+	let i = start;
+	let negative = false;
+	if (i < end && bytes[i] === 45) {
+		negative = true;
+		i++;
+	}
+	let mantissa = 0;
+	let significant = 0;
+	let digitCount = 0;
+	let fraction = -1;
+	for (; i < end; i++) {
+		const c = bytes[i];
+		if (c >= 48 && c <= 57) {
+			mantissa = mantissa * 10 + (c - 48);
+			digitCount++;
+			if (mantissa !== 0) significant++;
+			if (fraction >= 0) fraction++;
+		} else if ((c === 46 || (c === 44 && decimalComma)) && fraction < 0) {
+			fraction = 0;
+		} else {
+			return NaN;
+		}
+	}
+	if (digitCount === 0 || significant > 15 || fraction > 22) return NaN;
+	const value = fraction > 0 ? mantissa / POW10[fraction] : mantissa;
+	return negative ? -value : value;
+}

@@ -392,4 +392,101 @@ describe('robustness', () => {
 			}
 		}
 	});
+
+	it('reads bytes exactly as it reads the same text (byte path against text path, 400 cases)', () => {
+		// Bytes take the byte path for plain ASCII rows; strings always take the text path, so the
+		// text path is the oracle. Cells are replaced by values each path must judge alike.
+		const cells = [
+			'',
+			' ',
+			' 12',
+			'12 ',
+			'1e2',
+			'+5',
+			'-0',
+			'-0.00',
+			'0',
+			'5000',
+			'5000.01',
+			'-5000.00',
+			'99999',
+			'1000',
+			'1000.01',
+			'.5',
+			'5.',
+			'-',
+			'.',
+			'abc',
+			'12a',
+			'1,5',
+			'007',
+			'65535',
+			'65536',
+			'123456',
+			'1.2345678901234567',
+			'pass',
+			'PASS',
+			'Pass',
+			'pAss',
+			'warn',
+			'FAIL',
+			'ok',
+			'"q,x"',
+			'Cé',
+			'µ',
+			'C 1',
+			' C1',
+			'C1 ',
+			'x'.repeat(101),
+			'x'.repeat(100),
+			'2026-03-02T08:00:00Z',
+			'2026-03-02T09:00:00+01:00',
+			'2026-03-02 08:00:00',
+			'2026-02-30T08:00:00Z',
+			'RB-A',
+			'RB-B',
+			'L1',
+			'L2',
+			'PB-100',
+			'SH-220',
+			'1',
+			'2'
+		];
+		let seed = 4242;
+		const next = (n: number) => {
+			seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0;
+			return seed % n;
+		};
+		const base = [row('RB-A', T1, 'C1'), row('RB-A', T1, 'C2'), row('RB-B', T2, 'C1')];
+		const profiles: MappingProfile[] = [
+			CANONICAL_PROFILE,
+			{ ...CANONICAL_PROFILE, onBadRow: 'skip-row' },
+			{ ...CANONICAL_PROFILE, onBadRow: 'skip-row', lengthUnit: 'mil' }
+		];
+		for (let k = 0; k < 400; k++) {
+			const lines = [HEADER];
+			for (let r = 0; r < 6; r++) {
+				const fields = base[next(base.length)].split(',');
+				for (let m = next(3); m > 0; m--) fields[next(fields.length)] = cells[next(cells.length)];
+				if (next(20) === 0) fields.pop(); // a wrong field count now and then
+				lines.push(fields.join(','));
+			}
+			const text = lines.join(next(2) === 0 ? '\n' : '\r\n') + (next(2) === 0 ? '\n' : '');
+			const profile = profiles[k % profiles.length];
+			const asText = run(text, profile, 3);
+			const parser = createSpiRowParser({ profile, fileName: 'memory.csv', batchSize: 3 });
+			const bytes = new TextEncoder().encode(text);
+			const step = 1 + next(40);
+			const batches: SpiRowBatch[] = [];
+			for (let i = 0; i < bytes.length; i += step)
+				batches.push(...parser.push(bytes.subarray(i, i + step)));
+			batches.push(...parser.end());
+			const context = `case ${k}: ${JSON.stringify(text)}`;
+			expect(parser.summary(), context).toEqual(asText.summary);
+			expect(
+				batches.flatMap((b) => batchToRows(b, parser.boards())),
+				context
+			).toEqual(asText.rows);
+		}
+	});
 });

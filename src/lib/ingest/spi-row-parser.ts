@@ -8,7 +8,7 @@ import { FIELD_RANGES, MAX_TEXT_LENGTH, type CanonicalField } from './canonical-
 import { detectDelimiter, type Delimiter } from './detect-delimiter';
 import { createIssueCollector, DEFAULT_ISSUE_LIMIT, type IngestIssue } from './ingest-issue';
 import type { MappingProfile } from './mapping-profile';
-import { parseDecimal } from './parse-decimal';
+import { parseDecimal, parseDecimalBytes } from './parse-decimal';
 import { createTimestampParser } from './parse-timestamp';
 import { isValidTimeZone } from './zoned-time-to-utc';
 import { resolveHeader, type ResolvedHeader } from './resolve-header';
@@ -79,6 +79,58 @@ const DEFAULT_BATCH_SIZE = 8192;
 // A quoted field may span lines; past this the quote is surely unterminated.
 const MAX_RECORD_LINES = 50;
 const MAX_RECORD_CHARS = 65536;
+// One physical line longer than this is no SPI row (guards memory against files without line feeds).
+const MAX_LINE_BYTES = 1024 * 1024;
+
+const TEXT_CACHE_SIZE = 16384;
+
+/** The 128 one-character ASCII strings, so a one-byte cell costs no allocation. */
+const ASCII_CHARS = Array.from({ length: 128 }, (_, code) => String.fromCharCode(code));
+
+/** ASCII bytes `[start, end)` as a string (the byte path has checked they are all < 0x80). */
+function asciiText(bytes: Uint8Array, start: number, end: number): string {
+	if (end - start === 1) return ASCII_CHARS[bytes[start]];
+	return String.fromCharCode.apply(null, bytes.subarray(start, end) as unknown as number[]);
+}
+
+/**
+ * Field bounds of one plain line `bytes[start, end)`: field i is `[starts[i], ends[i])`. Returns
+ * the field count, or -1 when the line has a quote or a non-ASCII byte, or more fields than
+ * `starts` holds (the text path then reads it).
+ */
+function scanByteFields(
+	bytes: Uint8Array,
+	start: number,
+	end: number,
+	delimiter: number,
+	starts: Int32Array,
+	ends: Int32Array
+): number {
+	const capacity = starts.length;
+	let count = 0;
+	let fieldStart = start;
+	for (let i = start; i < end; i++) {
+		const c = bytes[i];
+		if (c === delimiter) {
+			if (count + 1 >= capacity) return -1;
+			starts[count] = fieldStart;
+			ends[count] = i;
+			count++;
+			fieldStart = i + 1;
+		} else if (c === 34 || c >= 128) {
+			return -1;
+		}
+	}
+	starts[count] = fieldStart;
+	ends[count] = end;
+	return count + 1;
+}
+
+/** Whether ASCII bytes `[start, start + text.length)` spell `text`. */
+function bytesSpell(bytes: Uint8Array, start: number, text: string): boolean {
+	for (let k = 0; k < text.length; k++) if (bytes[start + k] !== text.charCodeAt(k)) return false;
+	return true;
+}
 
 const RESULT_CODES = { pass: 0, warn: 1, fail: 2 } as const;
 const VOLUME_MIN = FIELD_RANGES.volume_pct.min;
@@ -230,8 +282,18 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 	let fileFailed = false; // file-level error: nothing more is read
 	let rejected = false; // reject-file policy hit: validate only
 	let ended = false;
-	let decoder: TextDecoder | null = null;
+	const utf8 = new TextDecoder('utf-8', { fatal: true, ignoreBOM: true });
 	let bytesSeen = 0;
+	// Byte input: the unfinished last line, and the file offset of the next line's first byte.
+	let byteCarry: Uint8Array | null = null;
+	let lineOffset = 0;
+	let firstLine = true;
+	// Field bounds of the byte path, and the delimiter as a byte (-1: the byte path is off).
+	let byteStarts = new Int32Array(0);
+	let byteEnds = new Int32Array(0);
+	let delimiterByte = -1;
+	// Strings of recent text cells by a hash of their bytes (bounded: one per slot).
+	const textCache = new Array<string | undefined>(TEXT_CACHE_SIZE);
 	let firstText = true;
 	let carry = '';
 	let lineNo = 0;
@@ -311,6 +373,11 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		headerCount = split.length;
 		starts = new Int32Array(headerCount + 1);
 		ends = new Int32Array(headerCount + 1);
+		byteStarts = new Int32Array(headerCount);
+		byteEnds = new Int32Array(headerCount);
+		const code = delimiter.length === 1 ? delimiter.charCodeAt(0) : -1;
+		// Quotes, line breaks and non-ASCII delimiters are left to the text path.
+		delimiterByte = code > 0 && code < 128 && code !== 34 && code !== 10 && code !== 13 ? code : -1;
 		for (const w of header.warnings) warnings.add(w);
 		if (header.errors.length > 0) {
 			for (const e of header.errors) errors.add(e);
@@ -587,6 +654,50 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			rejectRow();
 			return;
 		}
+		acceptRow(
+			row,
+			serial,
+			inspectedAtMs,
+			lineCode,
+			productCode,
+			panelIndex,
+			refdes,
+			pad,
+			volumePct,
+			areaPct,
+			heightUm,
+			offsetXUm,
+			offsetYUm,
+			volumeUm3,
+			result,
+			stencil,
+			printRun
+		);
+	}
+
+	/**
+	 * Group a row that passed its cell checks into its board inspection and add it to the batch
+	 * (both the text and the byte path end here).
+	 */
+	function acceptRow(
+		row: number,
+		serial: string,
+		inspectedAtMs: number,
+		lineCode: string,
+		productCode: string,
+		panelIndex: number,
+		refdes: string,
+		pad: string,
+		volumePct: number,
+		areaPct: number,
+		heightUm: number,
+		offsetXUm: number,
+		offsetYUm: number,
+		volumeUm3: number,
+		result: number,
+		stencil: string,
+		printRun: string
+	): void {
 		lastLine = lineCode;
 		lastProduct = productCode;
 		lastRefdes = refdes;
@@ -775,37 +886,277 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		}
 	}
 
-	/** 1-based file line of byte `offset` of `chunk` (for file-level encoding errors). */
-	function lineAtByte(chunk: Uint8Array, offset: number): number {
-		let line = lineNo + 1;
-		for (let i = 0; i < carry.length; i++) if (carry.charCodeAt(i) === 10) line++;
-		for (let i = 0; i < offset; i++) if (chunk[i] === 10) line++;
-		return line;
-	}
-
-	function decode(chunk: Uint8Array): string | null {
+	/**
+	 * Byte input: cut the chunk into lines and read each one. Only the unfinished last line is
+	 * kept (copied: the caller may reuse its buffer); a line is never split, so a multi-byte
+	 * character cannot fall across a chunk border.
+	 */
+	function pushBytes(chunk: Uint8Array): void {
 		const nul = chunk.indexOf(0);
 		if (nul >= 0) {
+			let line = lineNo + 1;
+			for (let i = 0; i < nul; i++) if (chunk[i] === 10) line++;
 			fileError(
-				`file is not text: NUL byte at byte ${bytesSeen + nul} (line ${lineAtByte(chunk, nul)}); is it a binary export?`
+				`file is not text: NUL byte at byte ${bytesSeen + nul} (line ${line}); is it a binary export?`
 			);
-			return null;
+			return;
 		}
-		decoder ??= new TextDecoder('utf-8', { fatal: true, ignoreBOM: true });
+		bytesSeen += chunk.length;
+		let pos = 0;
+		if (byteCarry !== null) {
+			const nl = chunk.indexOf(10);
+			const upTo = nl < 0 ? chunk.length : nl + 1;
+			const joined = new Uint8Array(byteCarry.length + upTo);
+			joined.set(byteCarry);
+			joined.set(chunk.subarray(0, upTo), byteCarry.length);
+			if (nl < 0) {
+				byteCarry = joined;
+				if (joined.length > MAX_LINE_BYTES) lineTooLong();
+				return;
+			}
+			byteCarry = null;
+			lineFromBytes(joined, 0, joined.length - 1, false);
+			pos = upTo;
+		}
+		for (;;) {
+			if (fileFailed) return;
+			const nl = chunk.indexOf(10, pos);
+			if (nl < 0) break;
+			lineFromBytes(chunk, pos, nl, false);
+			pos = nl + 1;
+		}
+		if (pos < chunk.length) {
+			byteCarry = chunk.slice(pos);
+			if (byteCarry.length > MAX_LINE_BYTES) lineTooLong();
+		}
+	}
+
+	function lineTooLong(): void {
+		fileError(
+			`line ${lineNo + 1} is longer than ${MAX_LINE_BYTES / 1024 / 1024} MiB without a line break; is this a text export?`
+		);
+		byteCarry = null;
+	}
+
+	/**
+	 * One physical line of byte input, `bytes[from, to)` without its line feed (`final`: the
+	 * file's last line, which has none). Plain ASCII rows take the byte path; everything else
+	 * (the header, quotes, non-ASCII text, blank lines, any cell the byte path does not accept)
+	 * is decoded as strict UTF-8 and read by the text path, which also words the errors.
+	 */
+	function lineFromBytes(bytes: Uint8Array, from: number, to: number, final: boolean): void {
+		const offset = lineOffset;
+		lineOffset += to - from + (final ? 0 : 1);
+		let start = from;
+		let end = to > from && bytes[to - 1] === 13 ? to - 1 : to;
+		if (firstLine) {
+			firstLine = false;
+			firstText = false;
+			if (
+				end - start >= 3 &&
+				bytes[start] === 0xef &&
+				bytes[start + 1] === 0xbb &&
+				bytes[start + 2] === 0xbf
+			)
+				start += 3;
+		}
+		if (header !== null && pending === '' && delimiterByte >= 0 && readRowBytes(bytes, start, end))
+			return;
+		let text: string;
 		try {
-			const textChunk = decoder.decode(chunk, { stream: true });
-			bytesSeen += chunk.length;
-			return textChunk;
+			text = utf8.decode(bytes.subarray(start, end));
 		} catch {
-			// Error path only: find the offending byte for the message.
-			const bad = firstInvalidUtf8Byte(chunk);
-			const where =
+			// Error path only: find the offending byte (the line feed after the line counts, so a
+			// sequence cut off by it is caught at its first byte).
+			const bad = firstInvalidUtf8Byte(bytes.subarray(start, final ? to : to + 1));
+			fileError(
 				bad < 0
-					? `near byte ${bytesSeen}`
-					: `byte 0x${chunk[bad].toString(16).toUpperCase().padStart(2, '0')} at byte ${bytesSeen + bad}, line ${lineAtByte(chunk, bad)}`;
-			fileError(`file is not valid UTF-8 text (${where}); save or export it as UTF-8`);
-			return null;
+					? 'file is not valid UTF-8 text (it ends inside a multi-byte character)'
+					: `file is not valid UTF-8 text (byte 0x${bytes[start + bad].toString(16).toUpperCase().padStart(2, '0')} at byte ${offset + (start - from) + bad}, line ${lineNo + 1}); save or export it as UTF-8`
+			);
+			return;
 		}
+		// A new string each line: the text path's quote position must be looked up afresh.
+		quoteAt = -1;
+		quoteFrom = Infinity;
+		if (header === null && pending === '') {
+			// The header line comes with up to 16 KiB of what follows, for delimiter detection.
+			const sample = new TextDecoder().decode(
+				bytes.subarray(Math.min(to + 1, bytes.length), Math.min(bytes.length, start + 16384))
+			);
+			handleLine(text + '\n' + sample, 0, text.length);
+		} else {
+			handleLine(text, 0, text.length);
+		}
+	}
+
+	/**
+	 * The byte path: read one plain row straight from ASCII bytes — no decoding, and strings only
+	 * for cells that differ from the previous row's. Returns false, having changed nothing, for
+	 * anything it does not handle (quotes, bytes ≥ 0x80, padding, a wrong field count, any value
+	 * the text path would reject); the caller then reads the line as text.
+	 */
+	function readRowBytes(bytes: Uint8Array, start: number, end: number): boolean {
+		if (end === start || bytes[start] <= 32) return false;
+		if (scanByteFields(bytes, start, end, delimiterByte, byteStarts, byteEnds) !== headerCount)
+			return false;
+		const fieldStarts = byteStarts;
+		const fieldEnds = byteEnds;
+
+		const serial = iSerial >= 0 ? cellText(bytes, iSerial, lastSerial, true) : serialFromName;
+		if (serial === null) return false;
+		let inspectedAtMs = lastInspectedAtMs;
+		const timeStart = fieldStarts[iTime];
+		const timeEnd = fieldEnds[iTime];
+		if (
+			timeEnd - timeStart !== lastTimeText.length ||
+			!bytesSpell(bytes, timeStart, lastTimeText)
+		) {
+			const timeText = asciiText(bytes, timeStart, timeEnd);
+			inspectedAtMs = parseTime(timeText);
+			if (inspectedAtMs !== inspectedAtMs) return false;
+			lastTimeText = timeText;
+			lastInspectedAtMs = inspectedAtMs;
+		}
+		const lineCode =
+			iLine >= 0 ? cellText(bytes, iLine, lastLine, true) : (profile.constants?.line as string);
+		if (lineCode === null) return false;
+		const productCode =
+			iProduct >= 0
+				? cellText(bytes, iProduct, lastProduct, true)
+				: (profile.constants?.product as string);
+		if (productCode === null) return false;
+		let panelIndex = profile.constants?.panelIndex ?? 0;
+		if (iPanel >= 0) {
+			const a = fieldStarts[iPanel];
+			const b = fieldEnds[iPanel];
+			if (b === a || b - a > 5) return false;
+			panelIndex = 0;
+			for (let i = a; i < b; i++) {
+				const c = bytes[i];
+				if (c < 48 || c > 57) return false;
+				panelIndex = panelIndex * 10 + (c - 48);
+			}
+			if (panelIndex > FIELD_RANGES.panel_index.max) return false;
+		}
+		const refdes = cellText(bytes, iRefdes, lastRefdes, true);
+		if (refdes === null) return false;
+		const pad = cellText(bytes, iPad, '', false);
+		if (pad === null) return false;
+		const volumePct =
+			iVolume >= 0 ? cellNumber(bytes, iVolume, 1, volumePctOptional, VOLUME_MIN, VOLUME_MAX) : NaN;
+		const areaPct = cellNumber(bytes, iArea, 1, false, AREA_MIN, AREA_MAX);
+		const heightUm = cellNumber(bytes, iHeight, lengthFactor, false, HEIGHT_MIN, HEIGHT_MAX);
+		const offsetXUm = cellNumber(bytes, iOffsetX, lengthFactor, false, OFFSET_MIN, OFFSET_MAX);
+		const offsetYUm = cellNumber(bytes, iOffsetY, lengthFactor, false, OFFSET_MIN, OFFSET_MAX);
+		const volumeUm3 =
+			iVolumeUm3 >= 0
+				? cellNumber(
+						bytes,
+						iVolumeUm3,
+						volumeFactor,
+						volumeUm3Optional,
+						0,
+						FIELD_RANGES.volume_um3.max
+					)
+				: NaN;
+		if (
+			volumePct === undefined ||
+			areaPct === undefined ||
+			heightUm === undefined ||
+			offsetXUm === undefined ||
+			offsetYUm === undefined ||
+			volumeUm3 === undefined
+		)
+			return false;
+		let result = -1;
+		const resultStart = fieldStarts[iResult];
+		const resultLength = fieldEnds[iResult] - resultStart;
+		for (let k = 0; k < resultExact.length; k++) {
+			const word = resultExact[k][0];
+			if (word.length === resultLength && bytesSpell(bytes, resultStart, word)) {
+				result = resultExact[k][1];
+				break;
+			}
+		}
+		if (result < 0) return false;
+		const stencil = iStencil >= 0 ? cellText(bytes, iStencil, lastStencil, false) : '';
+		if (stencil === null) return false;
+		const printRun = iPrintRun >= 0 ? cellText(bytes, iPrintRun, lastPrintRun, false) : '';
+		if (printRun === null) return false;
+
+		lineNo++;
+		dataRows++;
+		rowHasError = false;
+		acceptRow(
+			lineNo,
+			serial,
+			inspectedAtMs,
+			lineCode,
+			productCode,
+			panelIndex,
+			refdes,
+			pad,
+			volumePct,
+			areaPct,
+			heightUm,
+			offsetXUm,
+			offsetYUm,
+			volumeUm3,
+			result,
+			stencil,
+			printRun
+		);
+		return true;
+	}
+
+	/**
+	 * A text cell of the byte path: `previous` again when the bytes spell it, else a new string;
+	 * null when the text path must judge it (empty but required, padded, too long).
+	 */
+	function cellText(
+		bytes: Uint8Array,
+		index: number,
+		previous: string,
+		required: boolean
+	): string | null {
+		const a = byteStarts[index];
+		const b = byteEnds[index];
+		const length = b - a;
+		if (length === 0) return required ? null : '';
+		if (length === previous.length && bytesSpell(bytes, a, previous)) return previous;
+		if (length > MAX_TEXT_LENGTH || bytes[a] <= 32 || bytes[b - 1] <= 32) return null;
+		// Refdes, pad and serial values repeat board after board: reuse the string made last time.
+		let hash = 0x811c9dc5; // FNV-1a
+		for (let i = a; i < b; i++) hash = Math.imul(hash ^ bytes[i], 0x01000193);
+		const slot = (hash >>> 0) & (TEXT_CACHE_SIZE - 1);
+		const cached = textCache[slot];
+		if (cached !== undefined && cached.length === length && bytesSpell(bytes, a, cached))
+			return cached;
+		const text = asciiText(bytes, a, b);
+		textCache[slot] = text;
+		return text;
+	}
+
+	/**
+	 * A measure of the byte path, scaled to canonical units; NaN for an empty optional cell;
+	 * undefined when the text path must judge it (not a plain number, out of range).
+	 */
+	function cellNumber(
+		bytes: Uint8Array,
+		index: number,
+		factor: number,
+		optional: boolean,
+		min: number,
+		max: number
+	): number | undefined {
+		const a = byteStarts[index];
+		const b = byteEnds[index];
+		if (a === b) return optional ? NaN : undefined;
+		const value = parseDecimalBytes(bytes, decimalComma, a, b);
+		if (value !== value) return undefined;
+		const scaled = factor === 1 ? value : value * factor;
+		return scaled < min || scaled > max ? undefined : scaled;
 	}
 
 	function take(): SpiRowBatch[] {
@@ -817,7 +1168,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 	return {
 		push(chunk) {
 			if (ended || fileFailed) return take();
-			let textChunk: string | null;
+			let textChunk: string;
 			if (typeof chunk === 'string') {
 				const replacement = chunk.indexOf('\uFFFD');
 				if (replacement >= 0) {
@@ -839,24 +1190,22 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 				}
 				textChunk = chunk;
 			} else {
-				textChunk = decode(chunk);
+				pushBytes(chunk);
+				return take();
 			}
-			if (textChunk !== null) processText(textChunk, false);
+			processText(textChunk, false);
 			return take();
 		},
 		end() {
 			if (ended) return take();
 			ended = true;
 			if (!fileFailed) {
-				let tail = '';
-				if (decoder) {
-					try {
-						tail = decoder.decode();
-					} catch {
-						fileError('file is not valid UTF-8 text (it ends inside a multi-byte character)');
-					}
+				if (byteCarry !== null) {
+					const finalLine = byteCarry;
+					byteCarry = null;
+					lineFromBytes(finalLine, 0, finalLine.length, true);
 				}
-				if (!fileFailed) processText(tail, true);
+				if (!fileFailed) processText('', true);
 			}
 			if (!fileFailed && !sawNonBlank) fileError('file is empty');
 			else if (!fileFailed && dataRows === 0)
