@@ -1,5 +1,5 @@
 import { closeSync, mkdirSync, openSync, renameSync, rmSync, existsSync, writeSync } from 'node:fs';
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import { dirname, join, relative } from 'node:path';
 
 /**
@@ -14,9 +14,14 @@ export function archiveDir(databaseFile: string): string {
 	return join(dirname(databaseFile), 'archive');
 }
 
-/** A file being written to the archive's temp folder. */
+/**
+ * A file being written to the archive's temp folder. This side opens and closes the temp file
+ * and moves or deletes it at the end; the bytes are written through `openArchiveSink` by
+ * whichever thread reads the file (file descriptors are shared by all threads of the process).
+ */
 export interface ArchiveWriter {
-	write(chunk: Uint8Array): void;
+	/** File descriptor of the open temp file, for `openArchiveSink`. */
+	readonly fd: number;
 	/** Move the temp file to its content address; returns the path relative to the db folder. */
 	commit(sha256: string): string;
 	/** Delete the temp file (duplicates, failures). */
@@ -29,17 +34,14 @@ export function openArchiveWriter(databaseFile: string): ArchiveWriter {
 	const tmpDir = join(root, 'tmp');
 	mkdirSync(tmpDir, { recursive: true });
 	const tmpPath = join(tmpDir, `${Date.now()}-${randomBytes(6).toString('hex')}.part`);
-	let fd: number | null = openSync(tmpPath, 'w');
+	const fd = openSync(tmpPath, 'w');
+	let open = true;
 	const close = () => {
-		if (fd !== null) closeSync(fd);
-		fd = null;
+		if (open) closeSync(fd);
+		open = false;
 	};
 	return {
-		write(chunk) {
-			if (fd === null) return;
-			let off = 0;
-			while (off < chunk.length) off += writeSync(fd, chunk, off, chunk.length - off);
-		},
+		fd,
 		commit(sha256) {
 			close();
 			const dir = join(root, sha256.slice(0, 2));
@@ -53,6 +55,26 @@ export function openArchiveWriter(databaseFile: string): ArchiveWriter {
 			close();
 			rmSync(tmpPath, { force: true });
 		}
+	};
+}
+
+/** Writes a file's bytes to an archive temp file and hashes them on the way. */
+export interface ArchiveSink {
+	write(chunk: Uint8Array): void;
+	/** Lower-case hex SHA-256 of everything written (call once, at the end). */
+	digest(): string;
+}
+
+/** A sink onto the open temp file `fd` of an `ArchiveWriter` (usable on any thread). */
+export function openArchiveSink(fd: number): ArchiveSink {
+	const hash = createHash('sha256');
+	return {
+		write(chunk) {
+			hash.update(chunk);
+			let off = 0;
+			while (off < chunk.length) off += writeSync(fd, chunk, off, chunk.length - off);
+		},
+		digest: () => hash.digest('hex')
 	};
 }
 

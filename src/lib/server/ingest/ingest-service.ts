@@ -1,5 +1,4 @@
 import Database from 'better-sqlite3';
-import { createHash } from 'node:crypto';
 import {
 	CANONICAL_PROFILE,
 	addMeasureValue,
@@ -125,12 +124,16 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 	const startedAt = Date.now();
 	const { conn, own } = openIngestConnection(db);
 	const archive = openArchiveWriter(db.$client.name);
-	const hash = createHash('sha256');
 	let sizeBytes = 0;
 	let inTransaction = false;
-	let closeParser = () => {};
+	let closeParser = () => Promise.resolve();
 	try {
-		const parserOptions = { profile, fileName: request.fileName, batchSize: request.batchSize };
+		const parserOptions = {
+			profile,
+			fileName: request.fileName,
+			batchSize: request.batchSize,
+			archiveFd: archive.fd
+		};
 		// Large files parse on a worker thread while this thread inserts (see parse-driver.ts).
 		let parser = inlineParseDriver(parserOptions);
 		if (request.threaded ?? (request.totalBytes ?? 0) >= THREAD_MIN_BYTES) {
@@ -171,8 +174,6 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 		for await (const chunk of request.body) {
 			const bytes = chunk instanceof Uint8Array ? chunk : new Uint8Array(chunk);
 			sizeBytes += bytes.length;
-			hash.update(bytes);
-			archive.write(bytes);
 			inFlight.push(parser.push(bytes));
 			while (inFlight.length > (parser.threaded ? 2 : 0))
 				writeAll(await (inFlight.shift() as Promise<SpiRowBatch[]>));
@@ -184,7 +185,7 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 		while (inFlight.length > 0) writeAll(await (inFlight.shift() as Promise<SpiRowBatch[]>));
 		writeAll(await parser.end());
 		progress('finishing');
-		const sha256 = hash.digest('hex');
+		const sha256 = await parser.digest();
 		writer.flush();
 		const summary = await parser.summary();
 		const writeFailure = writer.failure();
@@ -277,10 +278,12 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 		};
 	} catch (err) {
 		if (inTransaction) conn.exec('ROLLBACK');
+		// The parser thread writes the archive file: stop it before the file is closed.
+		await closeParser();
 		archive.discard();
 		throw err;
 	} finally {
-		closeParser();
+		await closeParser();
 		if (own) conn.close();
 	}
 }

@@ -5,10 +5,13 @@ import {
 	type SpiParseSummary,
 	type SpiRowBatch
 } from '$lib/ingest';
+import { openArchiveSink } from './archive';
 
 /**
  * Runs the SPI parser for one file, either on a worker thread (large files: parsing then
  * overlaps with the SQLite inserts on the main thread, so both cores work) or in this thread.
+ * The same thread hashes the bytes (SHA-256) and writes them to the archive temp file, which
+ * keeps that work off the inserting thread too.
  * Pushes return promises that resolve, in order, with the batches each chunk completed; the
  * caller keeps a few in flight, which bounds memory (no more than that many chunks queued).
  *
@@ -20,17 +23,22 @@ export interface ParseDriver {
 	push(chunk: Uint8Array): Promise<SpiRowBatch[]>;
 	end(): Promise<SpiRowBatch[]>;
 	summary(): Promise<SpiParseSummary>;
+	/** SHA-256 (hex) of all pushed bytes; ask once, after `end`. */
+	digest(): Promise<string>;
 	/** Board inspections seen so far (progress display). */
 	boardsSeen(): number;
 	/** Whether the parser runs on a worker thread. */
 	readonly threaded: boolean;
-	close(): void;
+	/** Stop the parser; resolves once its thread can no longer write to the archive file. */
+	close(): Promise<void>;
 }
 
 interface ParserOptions {
 	profile: MappingProfile;
 	fileName: string;
 	batchSize?: number;
+	/** Open archive temp file (`ArchiveWriter.fd`) the pushed bytes are copied to. */
+	archiveFd: number;
 }
 
 const WORKER_FLAG = 'rollbeadSpiParser';
@@ -38,13 +46,18 @@ const WORKER_FLAG = 'rollbeadSpiParser';
 /** The parser in this thread. */
 export function inlineParseDriver(options: ParserOptions): ParseDriver {
 	const parser = createSpiRowParser(options);
+	const sink = openArchiveSink(options.archiveFd);
 	return {
 		threaded: false,
-		push: (chunk) => Promise.resolve(parser.push(chunk)),
+		push(chunk) {
+			sink.write(chunk);
+			return Promise.resolve(parser.push(chunk));
+		},
 		end: () => Promise.resolve(parser.end()),
 		summary: () => Promise.resolve(parser.summary()),
+		digest: () => Promise.resolve(sink.digest()),
 		boardsSeen: () => parser.boards().length,
-		close: () => {}
+		close: () => Promise.resolve()
 	};
 }
 
@@ -52,6 +65,7 @@ type Reply =
 	| { type: 'ready' }
 	| { type: 'batches'; batches: SpiRowBatch[]; boards: number }
 	| { type: 'summary'; summary: SpiParseSummary }
+	| { type: 'digest'; sha256: string }
 	| { type: 'fatal'; message: string };
 
 /**
@@ -138,8 +152,15 @@ export async function threadedParseDriver(
 			if (r.type !== 'summary') throw new Error('SPI parser thread answered out of order');
 			return r.summary;
 		},
+		async digest() {
+			const r = await request({ type: 'digest' });
+			if (r.type !== 'digest') throw new Error('SPI parser thread answered out of order');
+			return r.sha256;
+		},
 		boardsSeen: () => boards,
-		close: () => void worker.terminate()
+		close: async () => {
+			await worker.terminate();
+		}
 	};
 }
 
@@ -149,6 +170,7 @@ function runParseWorker(): void {
 	if (!port) return;
 	const options = (workerData as { options: ParserOptions }).options;
 	const parser = createSpiRowParser(options);
+	const sink = openArchiveSink(options.archiveFd);
 	const send = (batches: SpiRowBatch[]) => {
 		const transfer: ArrayBuffer[] = [];
 		for (const b of batches)
@@ -169,7 +191,10 @@ function runParseWorker(): void {
 	};
 	port.on('message', (m: { type: string; bytes?: Uint8Array }) => {
 		try {
-			if (m.type === 'chunk') send(parser.push(m.bytes as Uint8Array));
+			if (m.type === 'chunk') {
+				sink.write(m.bytes as Uint8Array);
+				send(parser.push(m.bytes as Uint8Array));
+			} else if (m.type === 'digest') port.postMessage({ type: 'digest', sha256: sink.digest() });
 			else if (m.type === 'end') send(parser.end());
 			else if (m.type === 'summary')
 				port.postMessage({ type: 'summary', summary: parser.summary() });
