@@ -119,3 +119,45 @@ export function saveProfile(
 		return record;
 	});
 }
+
+/**
+ * Delete a mapping profile that no import has used (audited). A used profile is kept, so
+ * every import still names how it was read; so is the watched folder's profile.
+ * @param watchProfile `SPI_WATCH_PROFILE` (an id or a name), when the watched folder is set up.
+ * @throws ApiError 404 for an unknown id; 409 when imports used it or the watched folder reads with it.
+ */
+export function deleteProfile(
+	db: Db,
+	id: number,
+	actor: Actor | null,
+	watchProfile: string | null = null
+): void {
+	db.transaction((tx) => {
+		const record = findProfile(db, id);
+		if (!record) throw new ApiError(404, { error: `No mapping profile ${id}.` });
+		const used = db.$client
+			.prepare(`select count(*) as n, min(id) as firstId from spi_imports where profile_id = ?`)
+			.get(id) as { n: number; firstId: number | null };
+		if (used.n > 0) {
+			throw new ApiError(409, {
+				error:
+					`Profile "${record.name}" was used by ${used.n} import${used.n === 1 ? '' : 's'} ` +
+					`(the first is import ${used.firstId}) and is kept so they still show how they were read. ` +
+					'Edit it, or save a new profile under another name.'
+			});
+		}
+		const watched = watchProfile?.trim() ?? '';
+		if (watched !== '' && (watched === String(id) || watched === record.name)) {
+			throw new ApiError(409, {
+				error: `Profile "${record.name}" is the watched folder's profile (SPI_WATCH_PROFILE); change that setting first.`
+			});
+		}
+		db.$client.prepare(`delete from spi_profiles where id = ?`).run(id);
+		recordAudit(tx, actor, {
+			action: 'spi-profile.delete',
+			entity: 'spi_profile',
+			entityId: id,
+			before: { name: record.name, machine: record.machine, profile: record.profile }
+		});
+	});
+}

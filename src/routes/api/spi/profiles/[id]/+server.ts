@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { ApiError, apiRoute, idParam, readJson } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { findProfile, saveProfile } from '$lib/server/ingest';
+import { deleteProfile, findProfile, saveProfile } from '$lib/server/ingest';
 
 export const GET = apiRoute(({ params }) => {
 	const id = idParam(params.id, 'mapping profile');
@@ -13,4 +13,11 @@ export const GET = apiRoute(({ params }) => {
 export const PUT = apiRoute(async ({ params, request }, actor) => {
 	const id = idParam(params.id, 'mapping profile');
 	return json(saveProfile(getDb(), id, await readJson(request), actor));
+});
+
+/** 204 when deleted; 404 unknown; 409 when imports (or the watched folder) use the profile. */
+export const DELETE = apiRoute(({ params }, actor) => {
+	const id = idParam(params.id, 'mapping profile');
+	deleteProfile(getDb(), id, actor, process.env.SPI_WATCH_PROFILE ?? null);
+	return new Response(null, { status: 204 });
 });
