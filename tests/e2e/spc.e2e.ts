@@ -59,6 +59,60 @@ test.describe('ad-hoc study', () => {
 		await page.getByRole('button', { name: 'Analyse' }).click();
 		await expect(page.getByText('line 2, column 2: "x" is not a number')).toBeVisible();
 	});
+
+	test('between/within through the API matches the hand-computed example; NaN and mixed sizes are named', async ({ request }) => {
+		const bw = JSON.parse(readFileSync('reference/spc/between-within-example.json', 'utf8')).rangeExample;
+		const viewer = bearer(tokenFor('viewer'));
+		const res = await request.post('/api/spc/analyze', {
+			headers: viewer,
+			data: { chart: 'between-within', subgroups: bw.subgroups, ...bw.specs }
+		});
+		expect(res.status()).toBe(200);
+		const body = await res.json();
+		for (const part of ['location', 'movingRange', 'dispersion'] as const) {
+			for (const key of ['lcl', 'cl', 'ucl'] as const) {
+				expect(Math.abs(body.limits[part][key] - bw.expected[part][key]), `${part}.${key}`).toBeLessThan(1e-5);
+			}
+		}
+		expect(Math.abs(body.capability.cpk - bw.expected.cpk)).toBeLessThan(1e-5);
+		expect(Math.abs(body.capability.ppk - bw.expected.ppk)).toBeLessThan(1e-5);
+
+		const nan = await request.post('/api/spc/analyze', {
+			headers: { ...viewer, 'content-type': 'application/json' },
+			data: Buffer.from('{"chart":"i-mr","values":[1,NaN,3]}')
+		});
+		expect(nan.status()).toBe(400);
+		expect((await nan.json()).error).toMatch(/NaN at character 29 is not a JSON number/);
+
+		const mixed = await request.post('/api/spc/analyze', {
+			headers: viewer,
+			data: { chart: 'xbar-r', subgroups: [[1, 2, 3], [2, 3, 4], [5, 6], [7, 8, 9]] }
+		});
+		expect(mixed.status()).toBe(422);
+		expect(await mixed.json()).toEqual({
+			errors: [{ field: 'subgroups[2]', message: 'has 2 values but subgroup 0 has 3; X-bar/R needs equal subgroup sizes' }]
+		});
+	});
+
+	test('the study page draws a between/within chart and names a subgroup of another size', async ({ page }) => {
+		const bw = JSON.parse(readFileSync('reference/spc/between-within-example.json', 'utf8')).rangeExample;
+		await signInAs(page, 'viewer');
+		await page.goto('/study');
+		await page.getByLabel('Chart').selectOption('between-within');
+		await page.getByLabel('Data', { exact: true }).fill(bw.subgroups.map((g: number[]) => g.join(' ')).join('\n'));
+		await page.getByRole('button', { name: 'Analyse' }).click();
+		// Hand-computed: 11.6 ± 3·1.5/d2(2); MR UCL D4(2)·1.5; R chart D4(5)·2.6 (2 decimals shown)
+		await expect(page.getByTestId('location-pane')).toContainText('UCL 15.59 · CL 11.60 · LCL 7.61');
+		await expect(page.getByTestId('mr-pane')).toContainText('UCL 4.90 · CL 1.50 · LCL 0.00');
+		await expect(page.getByTestId('dispersion-pane')).toContainText('UCL 5.50 · CL 2.60 · LCL 0.00');
+
+		await page.getByLabel('Chart').selectOption('xbar-s');
+		await page.getByLabel('Data', { exact: true }).fill('1 2 3\n2 3 4\n5 6');
+		await page.getByRole('button', { name: 'Analyse' }).click();
+		await expect(
+			page.getByText('line 3 (subgroups[2]): has 2 values but subgroup 0 has 3; X-bar/S needs equal subgroup sizes')
+		).toBeVisible();
+	});
 });
 
 test.describe('charts and signals on demo data', () => {
