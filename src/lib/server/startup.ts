@@ -1,6 +1,7 @@
 import { DatabaseOpenError, getDb } from './db';
 import { seedDemoData } from './seed';
 import { cleanArchiveTemp, startSpiWatcher } from './ingest';
+import { warmParserThread } from './ingest/parse-driver';
 
 /**
  * Everything the server needs before it answers: the database (migrations applied), demo data on
@@ -19,14 +20,19 @@ export async function startServices(): Promise<void> {
 	}
 	if (process.env.ROLLBEAD_DEMO !== '0') {
 		const seeded = await seedDemoData(db);
-		if (seeded) console.log('[rollbead] empty database: demo data added (ROLLBEAD_DEMO=0 turns this off)');
+		if (seeded)
+			console.log('[rollbead] empty database: demo data added (ROLLBEAD_DEMO=0 turns this off)');
 	}
 	startSpiServices(db);
 }
 
-/** SPI ingest: clear temp files of an interrupted import; watch SPI_WATCH_DIR when set. */
+/**
+ * SPI ingest: clear temp files of an interrupted import; start the parser thread, so the first
+ * large file does not wait for it; watch SPI_WATCH_DIR when set.
+ */
 function startSpiServices(db: ReturnType<typeof getDb>): void {
 	cleanArchiveTemp(db.$client.name);
+	void warmParserThread();
 	const dir = process.env.SPI_WATCH_DIR?.trim();
 	if (!dir) return;
 	const watcher = startSpiWatcher(db, { dir, profile: process.env.SPI_WATCH_PROFILE ?? null });

@@ -1,12 +1,13 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { existsSync, readFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { createHash } from 'node:crypto';
 import { openTestDatabase } from '../testing';
 import type { Db } from '../db';
 import { lines, printRuns, products, stencils } from '../db/schema';
 import { importApertures } from '../stencils/apertures';
 import { ingestSpiFile, type IngestRequest } from './ingest-service';
+import { spareParserThreadId } from './parse-driver';
 import { getBoard, searchBoards } from './queries';
 
 const FIXTURES = 'tests/fixtures/spi';
@@ -117,6 +118,51 @@ describe('ingestSpiFile', { timeout: 60_000 }, () => {
 		);
 		expect(bad.status).toBe('rejected');
 	}, 60_000); // a worker loading TypeScript through tsx can take seconds on a busy machine
+
+	it('keeps a parser thread that finished cleanly for the next file, archive and hash intact', async () => {
+		const text = readFileSync(join(FIXTURES, 'good-canonical.csv'), 'utf8');
+		const first = await ingestSpiFile(t.db, request('a.csv', text, { threaded: true }));
+		expect(first).toMatchObject({ status: 'imported', threaded: true });
+		const spare = spareParserThreadId();
+		expect(spare).not.toBeNull();
+		// Different bytes (CRLF), same rows: the reused thread hashes and archives this file afresh.
+		const crlf = text.replace(/\n/g, '\r\n');
+		const second = await ingestSpiFile(t.db, request('b.csv', crlf, { threaded: true }));
+		// Same board inspections as the first file: nothing stored twice.
+		expect(second).toMatchObject({
+			status: 'imported',
+			threaded: true,
+			boards: 0,
+			duplicateBoards: 2
+		});
+		const bad = await ingestSpiFile(
+			t.db,
+			request('bad.csv', readFileSync(join(FIXTURES, 'non-numeric.csv'), 'utf8'), {
+				threaded: true
+			})
+		);
+		expect(bad.status).toBe('rejected');
+		expect(spareParserThreadId()).toBe(spare);
+		const rows = t.db.$client
+			.prepare(`select file_name, sha256, archive_path from spi_imports order by id`)
+			.all() as { file_name: string; sha256: string; archive_path: string | null }[];
+		const originals: Record<string, string> = {
+			'a.csv': text,
+			'b.csv': crlf,
+			'bad.csv': readFileSync(join(FIXTURES, 'non-numeric.csv'), 'utf8')
+		};
+		expect(rows.map((r) => r.file_name)).toEqual(['a.csv', 'b.csv', 'bad.csv']);
+		for (const row of rows) {
+			const original = originals[row.file_name];
+			expect(row.sha256).toBe(createHash('sha256').update(original).digest('hex'));
+			expect(row.archive_path).not.toBeNull();
+			const archived = readFileSync(
+				join(dirname(t.db.$client.name), row.archive_path as string),
+				'utf8'
+			);
+			expect(archived).toBe(original);
+		}
+	}, 60_000);
 
 	it('stores nothing of a file whose last row is bad, and records the rejection', async () => {
 		const good = readFileSync(join(FIXTURES, 'good-canonical.csv'), 'utf8').trimEnd();

@@ -185,9 +185,10 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 		while (inFlight.length > 0) writeAll(await (inFlight.shift() as Promise<SpiRowBatch[]>));
 		writeAll(await parser.end());
 		progress('finishing');
-		const sha256 = await parser.digest();
 		writer.flush();
 		const summary = await parser.summary();
+		// Last request: the parser thread is then done with this file (and may take the next).
+		const sha256 = await parser.digest();
 		const writeFailure = writer.failure();
 
 		const earlier = conn
