@@ -22,7 +22,7 @@ import { chartDetail } from '../src/lib/server/spc/chart-service';
 import { createCharacteristic } from '../src/lib/server/spc/characteristics';
 import { freezeLimits } from '../src/lib/server/spc/limits-lifecycle';
 import { evaluateSignalsAfterIngest } from '../src/lib/server/spc/signals';
-import { RULE_IDS } from '../src/lib/spc';
+import { analyzeStudy, RULE_IDS } from '../src/lib/spc';
 
 const PADS = Math.max(2, Number(process.env.BENCH_SPC_PADS ?? 5000));
 const BOARDS = Math.max(1100, Number(process.env.BENCH_SPC_BOARDS ?? 2000));
@@ -130,6 +130,23 @@ for (let r = 0; r < 40; r++) {
 	evalCpuTotal += cpuMs(cpu);
 }
 console.log(`rule evaluation for one new board (evaluateSignalsAfterIngest): median ${ms(median(evalTimes))}, max ${ms(Math.max(...evalTimes))}, CPU ${ms(evalCpuTotal / evalTimes.length)} per board (target < 5 ms); ${signals} signals stored`);
+
+// The ad-hoc study (POST /api/spc/analyze) on 1,000 subgroups of 5, all rules, capability.
+const study = {
+	chart: 'xbar-r',
+	subgroups: Array.from({ length: 1000 }, (_, i) => Array.from({ length: 5 }, (_, j) => 100 + Math.sin(i * 7.1 + j * 3.3) * 2)),
+	lsl: 90,
+	usl: 110,
+	rules: [...RULE_IDS]
+};
+analyzeStudy(study); // warm-up
+const studyTimes: number[] = [];
+for (let r = 0; r < 20; r++) {
+	const a = performance.now();
+	if (!analyzeStudy(study).ok) throw new Error('bench study was refused');
+	studyTimes.push(performance.now() - a);
+}
+console.log(`ad-hoc study (analyzeStudy), X-bar/R 1000 × 5, 12 rules + capability: median ${ms(median(studyTimes))}, min ${ms(Math.min(...studyTimes))}`);
 
 if (process.env.BENCH_SPC_KEEP) { console.log(file); process.exit(0); }
 db.$client.close();

@@ -11,10 +11,8 @@ afterEach(() => t.close());
 const one = (sql: string) => t.db.$client.prepare(sql).pluck().get() as number;
 
 describe('seedDemoSpi (through seedDemoData)', () => {
-	it('stores 150 PB-100 boards on SMT-1 linked to runs and apertures, quickly, with a volume drift', async () => {
-		const t0 = performance.now();
+	it('stores 150 PB-100 boards on SMT-1 linked to runs and apertures, with a volume drift', async () => {
 		await seedDemoData(t.db);
-		const seconds = (performance.now() - t0) / 1000;
 		expect(
 			one(`select count(*) from spi_boards where product_code = 'PB-100' and line_code = 'SMT-1'`)
 		).toBe(150);
@@ -32,7 +30,5 @@ describe('seedDemoSpi (through seedDemoData)', () => {
 		);
 		expect(early - late).toBeGreaterThan(5);
 		expect(one(`select count(*) from spi_imports where status = 'imported'`)).toBeGreaterThan(1);
-		// Whole demo seed (argon2 hashes of the demo users included); loose bound on a shared machine.
-		expect(seconds).toBeLessThan(30);
 	}, 60_000);
 });
