@@ -17,7 +17,10 @@ describe('print-log demo data', () => {
 			'SMT-2/SH-220 v1',
 			'SMT-3/LM-48 v1'
 		]);
-		expect(getPasteLot(db, 'PL-2026-0398')).toMatchObject({ leadBearing: true, state: 'cold-storage' });
+		expect(getPasteLot(db, 'PL-2026-0398')).toMatchObject({
+			leadBearing: true,
+			state: 'cold-storage'
+		});
 		expect(getPasteLot(db, 'PL-2025-0977')!.assessment.refuse[0].code).toBe('expired');
 		const ready = getPasteLot(db, 'PL-2026-0412')!;
 		expect(ready.assessment).toEqual({ refuse: [], warn: [] });
@@ -25,6 +28,12 @@ describe('print-log demo data', () => {
 		expect(runs).toHaveLength(14);
 		expect(runs.every((r) => r.endedAt && r.stencil === 'ST-PB100')).toBe(true);
 		expect(runs.filter((r) => r.deviations.some((d) => d.reason))).toHaveLength(1);
+		// Each run logs its first board, numbered through the boards printed before it.
+		const oldestFirst = [...runs].reverse();
+		oldestFirst.forEach((run, i) => {
+			const before = oldestFirst.slice(0, i).reduce((sum, r) => sum + r.boardsPrinted, 0);
+			expect(run.boardSerial).toBe(`FW-PB100-${String(before + 1).padStart(7, '0')}`);
+		});
 		const stencil = listStencilLife(db).find((s) => s.id === runs[0].stencilId)!;
 		expect(stencil.printCount).toBe(runs.reduce((sum, r) => sum + r.boardsPrinted, 0));
 		const trends = runTrends(db, { line: 'SMT-1', product: 'PB-100' });

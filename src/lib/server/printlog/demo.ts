@@ -60,7 +60,8 @@ const DEMO_RECIPES: { line: string; product: string; parameters: RecipeParameter
 ];
 
 /** ISO date `days` from `nowMs` (UTC). */
-const isoDate = (nowMs: number, days: number) => new Date(nowMs + days * DAY).toISOString().slice(0, 10);
+const isoDate = (nowMs: number, days: number) =>
+	new Date(nowMs + days * DAY).toISOString().slice(0, 10);
 
 /** A small deterministic generator, so the demo looks the same on every start. */
 function noise(seed: number) {
@@ -83,14 +84,27 @@ export function seedDemoPrintlog(db: Db, nowMs = Date.now()): void {
 		saveRecipe(db, { ...recipe, note: 'Demo recipe' } as Parameters<typeof saveRecipe>[1], null);
 	}
 	db.transaction((tx) => {
-		const lot = (values: Omit<typeof pasteLots.$inferInsert, 'warmUpMinutes' | 'maxOnStencilMinutes' | 'maxOutOfColdMinutes'>) =>
+		const lot = (
+			values: Omit<
+				typeof pasteLots.$inferInsert,
+				'warmUpMinutes' | 'maxOnStencilMinutes' | 'maxOutOfColdMinutes'
+			>
+		) =>
 			tx
 				.insert(pasteLots)
-				.values({ warmUpMinutes: 240, maxOnStencilMinutes: 480, maxOutOfColdMinutes: 1440, ...values })
+				.values({
+					warmUpMinutes: 240,
+					maxOnStencilMinutes: 480,
+					maxOutOfColdMinutes: 1440,
+					...values
+				})
 				.returning({ id: pasteLots.id })
 				.get().id;
 		const event = (lotId: number, name: string, at: number) =>
-			tx.insert(pasteEvents).values({ lotId, event: name, at: new Date(at), actor: 'system' }).run();
+			tx
+				.insert(pasteEvents)
+				.values({ lotId, event: name, at: new Date(at), actor: 'system' })
+				.run();
 		const used = lot({
 			lotNumber: 'PL-2026-0390',
 			alloy: 'SAC305',
@@ -146,6 +160,8 @@ export function seedDemoPrintlog(db: Db, nowMs = Date.now()): void {
 		const recipe = currentRecipeFor(tx as unknown as Db, line.id, product.id);
 		if (!recipe) return;
 		const jitter = noise(48);
+		// Invented Fenmoor serials, numbered through the product's boards: each run logs its first.
+		let boardsSoFar = 0;
 		for (let i = 0; i < 14; i++) {
 			const startedAt = nowMs - (14 - i) * DAY + 6 * HOUR;
 			const parameters: Record<string, unknown> = {
@@ -171,6 +187,9 @@ export function seedDemoPrintlog(db: Db, nowMs = Date.now()): void {
 				{ line: line.code, product: product.code, parameters: recipe.parameters }
 			);
 			const reason = 'trial at higher speed for throughput, approved by process engineering';
+			const boardsPrinted = 380 + Math.round(jitter() * 60);
+			const boardSerial = `FW-PB100-${String(boardsSoFar + 1).padStart(7, '0')}`;
+			boardsSoFar += boardsPrinted;
 			tx.insert(printRuns)
 				.values({
 					lineId: line.id,
@@ -178,6 +197,7 @@ export function seedDemoPrintlog(db: Db, nowMs = Date.now()): void {
 					stencilId: stencil.id,
 					pasteLotId: used,
 					bladeCode: 'BL-300-07',
+					boardSerial,
 					recipeId: recipe.id,
 					recipeVersion: recipe.version,
 					parameters,
@@ -185,8 +205,11 @@ export function seedDemoPrintlog(db: Db, nowMs = Date.now()): void {
 					relativeHumidityPct,
 					startedAt: new Date(startedAt),
 					endedAt: new Date(startedAt + 7 * HOUR),
-					boardsPrinted: 380 + Math.round(jitter() * 60),
-					deviations: check.deviations.map((d) => ({ ...d, reason: d.requiresReason ? reason : null })),
+					boardsPrinted,
+					deviations: check.deviations.map((d) => ({
+						...d,
+						reason: d.requiresReason ? reason : null
+					})),
 					deviationReasons: check.deviations.some((d) => d.requiresReason)
 						? { squeegeeSpeedMmS: reason }
 						: {}
