@@ -3,7 +3,7 @@ import { eq, sql } from 'drizzle-orm';
 import { printRunSchema, recipeSchema } from '$lib/schemas/printlog';
 import { openTestDatabase } from '../testing';
 import type { Db } from '../db';
-import { auditLog, printRuns } from '../db/schema';
+import { auditLog, printRuns, spiBoards, spiImports } from '../db/schema';
 import { PrintlogRequestError } from './request-error';
 import { correctRun, endRun, getRun, listRuns, runsToCsv, startRun } from './print-runs';
 import { recipeHistory, saveRecipe } from './recipes';
@@ -294,6 +294,56 @@ describe('board serial and corrections of every field', () => {
 		expect(row.split(',')[column]).toBe('Fw-P1-000123');
 		const bad = printRunSchema.safeParse(runPayload({ boardSerial: 'FW\u00071' }));
 		expect(bad.error?.issues[0]).toMatchObject({ path: ['boardSerial'] });
+	});
+
+	it('warns when SPI inspected the serial as another product (exact serial, newest inspection)', () => {
+		const importId = db
+			.insert(spiImports)
+			.values({
+				source: 'api',
+				fileName: 'fw.csv',
+				sha256: 'a'.repeat(64),
+				sizeBytes: 1,
+				status: 'imported',
+				createdBy: 'test',
+				startedAt: new Date(T0),
+				finishedAt: new Date(T0)
+			})
+			.returning({ id: spiImports.id })
+			.get().id;
+		const board = (serial: string, productCode: string, at: number) => ({
+			serial,
+			inspectedAt: new Date(at),
+			lineCode: 'L1',
+			productCode,
+			importId,
+			padCount: 1,
+			passCount: 1,
+			warnCount: 0,
+			failCount: 0
+		});
+		db.insert(spiBoards)
+			.values([
+				board('FW-X-1', 'P1', T0 - 2000),
+				board('FW-X-1', 'P9', T0 - 1000),
+				board('FW-X-2', 'p1', T0 - 1000)
+			])
+			.run();
+		const other = startRun(db, parse({ boardSerial: 'FW-X-1' }), fx.actors.technician, T0);
+		expect(other.warnings).toContain(
+			`board FW-X-1 was inspected as product P9 (SPI, ${new Date(T0 - 1000).toISOString()}), not P1: check the product and the label`
+		);
+		const same = startRun(
+			db,
+			parse({ line: 'L2', boardSerial: 'FW-X-2' }),
+			fx.actors.technician,
+			T0
+		);
+		expect(same.warnings.filter((w) => w.includes('SPI'))).toEqual([]);
+		// A different case is a different serial: SPI quotes serials exactly.
+		endRun(db, other.id, {}, fx.actors.technician, T0 + 1000);
+		const unseen = startRun(db, parse({ boardSerial: 'fw-x-1' }), fx.actors.technician, T0 + 2000);
+		expect(unseen.warnings.filter((w) => w.includes('SPI'))).toEqual([]);
 	});
 
 	it('stencil, lot, blade, serial, times, ambient and categorical settings are corrected and audited', () => {

@@ -18,7 +18,7 @@ import {
 import type { PrintRunPayload } from '$lib/schemas/printlog';
 import { recordAudit } from '../audit';
 import type { Db } from '../db';
-import { lines, pasteLots, printRuns, products, stencils, users } from '../db/schema';
+import { lines, pasteLots, printRuns, products, spiBoards, stencils, users } from '../db/schema';
 import { listStencilRefs, resolveLineProduct, stencilByName } from './lookups';
 import { asPasteEvents, getPasteLot, listPasteLots } from './paste-lots';
 import { currentRecipeFor, recipeById } from './recipes';
@@ -202,6 +202,23 @@ function unknownCode(what: string, code: string, candidates: string[]): string {
 	return `no ${what} "${code}" is known${hint}`;
 }
 
+/**
+ * The product an SPI inspection file named for this exact board serial (newest inspection), or
+ * undefined when SPI has not seen the board. One lookup on the serial index.
+ */
+export function inspectedProductOfSerial(
+	db: Db,
+	serial: string
+): { productCode: string; inspectedAt: Date } | undefined {
+	return db
+		.select({ productCode: spiBoards.productCode, inspectedAt: spiBoards.inspectedAt })
+		.from(spiBoards)
+		.where(eq(spiBoards.serial, serial))
+		.orderBy(desc(spiBoards.inspectedAt))
+		.limit(1)
+		.get();
+}
+
 /** The result of starting a run. */
 export type StartedRun = { id: number; deviations: ApiDeviation[]; warnings: string[] };
 
@@ -259,6 +276,17 @@ export function startRun(
 		errors.push(...check.errors);
 		deviations = check.deviations;
 		errors.push(...deviationReasonErrors(deviations, input.deviationReasons));
+	}
+
+	if (input.boardSerial && product) {
+		// A board SPI already inspected as another product points at a wrong product or label.
+		const seen = inspectedProductOfSerial(db, input.boardSerial);
+		if (seen && normaliseScannedCode(seen.productCode) !== normaliseScannedCode(product.code)) {
+			warnings.push(
+				`board ${input.boardSerial} was inspected as product ${seen.productCode} ` +
+					`(SPI, ${seen.inspectedAt.toISOString()}), not ${product.code}: check the product and the label`
+			);
+		}
 	}
 
 	if (lot && lotByNumber) {
