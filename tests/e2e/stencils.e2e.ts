@@ -75,7 +75,7 @@ test.describe('stencil design check', () => {
 			'url(#fail-hatch)'
 		);
 		await expect(map.locator('path[data-status="fail"]')).toHaveAttribute('d', /^(M[^M]+){6}$/);
-		await expect(map).toContainText('Fail (hatched, dashed outline)');
+		await expect(map).toContainText('Fail (hatched)');
 
 		const table = page.getByTestId('aperture-table');
 		await page.getByLabel('Status').selectOption('fail');
