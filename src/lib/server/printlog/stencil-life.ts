@@ -127,20 +127,24 @@ export function assessStencil(
 	);
 }
 
+/** Columns of a life-log entry as the views show it. */
+const eventColumns = {
+	id: stencilEvents.id,
+	stencilId: stencilEvents.stencilId,
+	kind: stencilEvents.kind,
+	at: stencilEvents.at,
+	fromState: stencilEvents.fromState,
+	toState: stencilEvents.toState,
+	readingsNPerCm: stencilEvents.readingsNPerCm,
+	detail: stencilEvents.detail,
+	note: stencilEvents.note,
+	by: users.name
+};
+
 /** The stencil's life log, newest first. */
 export function stencilEventLog(db: Db, stencilId: number): StencilEventView[] {
 	return db
-		.select({
-			id: stencilEvents.id,
-			kind: stencilEvents.kind,
-			at: stencilEvents.at,
-			fromState: stencilEvents.fromState,
-			toState: stencilEvents.toState,
-			readingsNPerCm: stencilEvents.readingsNPerCm,
-			detail: stencilEvents.detail,
-			note: stencilEvents.note,
-			by: users.name
-		})
+		.select(eventColumns)
 		.from(stencilEvents)
 		.leftJoin(users, eq(users.id, stencilEvents.userId))
 		.where(eq(stencilEvents.stencilId, stencilId))
@@ -154,18 +158,7 @@ export function getStencilEvent(
 	eventId: number
 ): (StencilEventView & { stencilId: number }) | undefined {
 	return db
-		.select({
-			id: stencilEvents.id,
-			stencilId: stencilEvents.stencilId,
-			kind: stencilEvents.kind,
-			at: stencilEvents.at,
-			fromState: stencilEvents.fromState,
-			toState: stencilEvents.toState,
-			readingsNPerCm: stencilEvents.readingsNPerCm,
-			detail: stencilEvents.detail,
-			note: stencilEvents.note,
-			by: users.name
-		})
+		.select(eventColumns)
 		.from(stencilEvents)
 		.leftJoin(users, eq(users.id, stencilEvents.userId))
 		.where(eq(stencilEvents.id, eventId))
