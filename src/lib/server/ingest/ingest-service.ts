@@ -116,6 +116,8 @@ function openIngestConnection(db: Db): { conn: Database.Database; own: boolean }
 	// Pad rows are appended in key order, so only the b-tree's right edge is hot: a small cache does.
 	conn.pragma('cache_size = -8192');
 	conn.pragma('temp_store = MEMORY');
+	// Checkpointed after the answer (checkpointAndClose), not inside the commit.
+	conn.pragma('wal_autocheckpoint = 0');
 	return { conn, own: true };
 }
 
@@ -285,7 +287,23 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 		throw err;
 	} finally {
 		await closeParser();
-		if (own) conn.close();
+		if (own) setImmediate(() => checkpointAndClose(conn));
+	}
+}
+
+/**
+ * Copy the import's pages from the WAL into the database file, then close its connection. Runs
+ * after the answer went out: the data is committed and readable from the WAL, and a large file
+ * would otherwise make its caller wait for SQLite's housekeeping (the automatic checkpoint that
+ * follows a big commit, turned off on this connection).
+ */
+function checkpointAndClose(conn: Database.Database): void {
+	try {
+		conn.pragma('wal_checkpoint(PASSIVE)');
+	} catch (err) {
+		console.warn('[rollbead] WAL checkpoint after an SPI import failed:', (err as Error).message);
+	} finally {
+		conn.close();
 	}
 }
 
