@@ -118,18 +118,21 @@ for (let r = 0; r < 25; r++) {
 const chartCpuEach = cpuMs(chartCpu) / chartTimes.length;
 console.log(`chart API path, ${points} subgroups, limits + 12 rules + capability + histogram + JSON: median ${ms(median(chartTimes))}, min ${ms(Math.min(...chartTimes))}, CPU ${ms(chartCpuEach)} per request (target < 50 ms)`);
 
+// Warm-up, not timed: the first signal loads the mail module (once per server process).
+await evaluateSignalsAfterIngest(db, [sqlite.transaction(() => addBoard(BOARDS, 40))()]);
 const evalTimes: number[] = [];
 let signals = 0;
 let evalCpuTotal = 0;
 for (let r = 0; r < 40; r++) {
-	const id = sqlite.transaction(() => addBoard(BOARDS + r, r % 10 === 9 ? 40 : 0))();
+	const id = sqlite.transaction(() => addBoard(BOARDS + 1 + r, r % 10 === 9 ? 40 : 0))();
 	const cpu = process.cpuUsage();
 	const a = performance.now();
 	signals += (await evaluateSignalsAfterIngest(db, [id])).length;
 	evalTimes.push(performance.now() - a);
 	evalCpuTotal += cpuMs(cpu);
 }
-console.log(`rule evaluation for one new board (evaluateSignalsAfterIngest): median ${ms(median(evalTimes))}, max ${ms(Math.max(...evalTimes))}, CPU ${ms(evalCpuTotal / evalTimes.length)} per board (target < 5 ms); ${signals} signals stored`);
+const p90 = [...evalTimes].sort((a, b) => a - b)[Math.floor(evalTimes.length * 0.9)];
+console.log(`rule evaluation for one new board (evaluateSignalsAfterIngest): median ${ms(median(evalTimes))}, 90th percentile ${ms(p90)}, max ${ms(Math.max(...evalTimes))}, CPU ${ms(evalCpuTotal / evalTimes.length)} per board on average (target < 5 ms); ${signals} signals stored (boards 10, 20, 30 and 40 of the 40 are shifted by +40 %)`);
 
 // The ad-hoc study (POST /api/spc/analyze) on 1,000 subgroups of 5, all rules, capability.
 const study = {
