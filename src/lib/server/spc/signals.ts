@@ -7,6 +7,8 @@ import { recordAudit } from '../audit';
 import { characteristicsFor, loadSubgroups, type CharacteristicRow } from './chart-source';
 import { characteristicsByIds, latestLimitVersion, pointsFor, ruleList } from './chart-service';
 import { getCauseLists } from './cause-lists';
+import { flushDigests, notifyFollowers } from './signal-mail';
+import { boardScopes } from './spi-source';
 
 export type SignalRow = typeof spcSignals.$inferSelect;
 
@@ -130,7 +132,6 @@ export async function evaluateSignalsFor(
 	}
 	const runs = created.filter(startsRun);
 	if (runs.length) {
-		const { notifyFollowers } = await import('./signal-mail');
 		await notifyFollowers(db, runs);
 	}
 	return created;
@@ -280,8 +281,6 @@ export function getSignal(db: Db, id: number): SignalSummary | undefined {
  */
 export async function evaluateSignalsAfterIngest(db: Db, boardIds: number[]): Promise<SignalRow[]> {
 	try {
-		const { boardScopes } = await import('./spi-source');
-		const { flushDigests } = await import('./signal-mail');
 		await flushDigests(db);
 		return await evaluateSignalsFor(db, boardScopes(db, boardIds));
 	} catch (err) {
