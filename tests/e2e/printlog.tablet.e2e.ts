@@ -110,6 +110,30 @@ test.describe('print log on the tablet', () => {
 		await expect(page.getByTestId('lead-caution')).toContainText('safety data sheet');
 	});
 
+	test('a scan that pauses midway reads whole; a scan into a field holding a code replaces it', async ({
+		page
+	}) => {
+		await signInAs(page, 'technician');
+		await page.goto('/runs/new?line=SMT-3&product=LM-48');
+		await hydrated(page);
+		const stencil = page.locator('#field-stencil');
+		await stencil.click();
+		await stencil.pressSequentially('st-p', { delay: 5 });
+		await page.waitForTimeout(300); // a busy tablet stalls the scanner's keys
+		await stencil.pressSequentially('b100', { delay: 5 });
+		await stencil.press('Enter');
+		await expect(page.locator('#field-stencil-status')).toContainText('✓ ST-PB100');
+		// The scanner appends to the code already in the field: the new code replaces it.
+		const lot = page.locator('#field-pasteLot');
+		await lot.fill('PL-2026-0390');
+		await lot.blur();
+		await lot.click();
+		await lot.press('End');
+		// The scanner sends Enter right after the code (in the same burst).
+		await lot.pressSequentially('PL-2026-0412\n', { delay: 5 });
+		await expect(page.locator('#field-pasteLot-status')).toContainText('✓ PL-2026-0412');
+	});
+
 	test('a technician scans the first board serial with Enter: the form stays, the run keeps the serial; a corrected stroke and blade show in the history', async ({
 		page,
 		request

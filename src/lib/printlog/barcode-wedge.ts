@@ -78,3 +78,23 @@ export function createWedgeBuffer(options: WedgeOptions = {}): WedgeBuffer {
 		}
 	};
 }
+
+/**
+ * What a scan field holds after Enter. A scan into a field that already held a code (the scanner
+ * appends its keys) keeps only what was typed since the field got focus; otherwise the field keeps
+ * everything typed. Deciding by the content at focus, not by the last burst, keeps a scan whole
+ * when the browser stalls mid-burst (the burst then splits in two, and the last part alone would
+ * be a wrong code).
+ * @example scanFieldValue('ST-AST-B', 'ST-A', 'ST-B') // 'ST-B'
+ * @example scanFieldValue('st-pb100', '', 'b100') // 'st-pb100' (a burst split by a stall)
+ */
+export function scanFieldValue(
+	value: string,
+	valueAtFocus: string,
+	scanned: string | null
+): string {
+	if (scanned === null || valueAtFocus === '') return value;
+	if (value.length > valueAtFocus.length && value.startsWith(valueAtFocus))
+		return value.slice(valueAtFocus.length);
+	return value;
+}

@@ -118,7 +118,12 @@ export {
 	type RunTimes,
 	type RunOnLine
 } from './run-times';
-export { createWedgeBuffer, type WedgeBuffer, type WedgeOptions } from './barcode-wedge';
+export {
+	createWedgeBuffer,
+	scanFieldValue,
+	type WedgeBuffer,
+	type WedgeOptions
+} from './barcode-wedge';
 export { matchScannedCode, normaliseScannedCode, type CodeCandidate } from './match-scanned-code';
 export {
 	MAX_BOARD_SERIAL_LENGTH,
