@@ -3,8 +3,12 @@
  * before and after, so the run's history can say "stencil ST-A → ST-B" instead of only
  * "corrected". Snapshots are the plain JSON the audit log keeps (times as ISO strings).
  */
-import { CATEGORICAL_LABELS, NUMERIC_PARAMETERS } from './parameters';
-import { isCategoricalParameterKey, isWindowedParameterKey } from './parameters';
+import {
+	CATEGORICAL_LABELS,
+	isCategoricalParameterKey,
+	isWindowedParameterKey,
+	NUMERIC_PARAMETERS
+} from './parameters';
 
 /** One changed field: `field` as the API names it (`parameters.x` for a setting). */
 export interface RunChange {
