@@ -16,7 +16,7 @@ import type { Db } from '../db';
 import { checkStoredStencil } from '../stencils/evaluation';
 import { openArchiveWriter } from './archive';
 import { reportProgress } from './progress';
-import { inlineParseDriver, threadedParseDriver } from './parse-driver';
+import { inlineParseDriver, threadedParseDriver, type ParseDriver } from './parse-driver';
 
 /** How a file came in. */
 export type IngestSource = 'upload' | 'api' | 'watch';
@@ -137,15 +137,15 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 			archiveFd: archive.fd
 		};
 		// Large files parse on a worker thread while this thread inserts (see parse-driver.ts).
-		let parser = inlineParseDriver(parserOptions);
+		let parser: ParseDriver | null = null;
 		if (request.threaded ?? (request.totalBytes ?? 0) >= THREAD_MIN_BYTES) {
-			const threaded = await threadedParseDriver(parserOptions);
-			if (threaded) parser = threaded;
-			else if (!warnedNoThread) {
+			parser = await threadedParseDriver(parserOptions);
+			if (!parser && !warnedNoThread) {
 				warnedNoThread = true;
 				console.warn('[rollbead] SPI parser thread did not start; parsing in the main thread');
 			}
 		}
+		parser ??= inlineParseDriver(parserOptions);
 		closeParser = parser.close;
 		conn.exec('BEGIN IMMEDIATE');
 		inTransaction = true;
