@@ -57,8 +57,46 @@ export const apiTokens = sqliteTable('api_tokens', {
 	createdByUserId: integer('created_by_user_id').references(() => users.id),
 	createdAt: createdAt(),
 	lastUsedAt: integer('last_used_at', { mode: 'timestamp_ms' }),
-	revokedAt: integer('revoked_at', { mode: 'timestamp_ms' })
+	revokedAt: integer('revoked_at', { mode: 'timestamp_ms' }),
+	/** After this the token is refused; chosen when it is made (default 90 days). */
+	expiresAt: integer('expires_at', { mode: 'timestamp_ms' })
 });
+
+/**
+ * Signed-in sessions the server can end: the session cookie carries a random id whose SHA-256 is
+ * kept here; deleting the row signs that browser out at once (sign-out, password change,
+ * deactivation, role change, "sign out everywhere"). Idle and absolute timeouts are checked
+ * against lastSeenAt and createdAt on every request.
+ */
+export const sessions = sqliteTable(
+	'sessions',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		idHash: text('id_hash').notNull().unique(),
+		userId: integer('user_id')
+			.notNull()
+			.references(() => users.id),
+		createdAt: createdAt(),
+		lastSeenAt: integer('last_seen_at', { mode: 'timestamp_ms' }).notNull()
+	},
+	(t) => [index('sessions_user_idx').on(t.userId)]
+);
+
+/** Password-reset links: single use, short-lived; only the SHA-256 of the link's token is kept. */
+export const passwordResets = sqliteTable(
+	'password_resets',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		tokenHash: text('token_hash').notNull().unique(),
+		userId: integer('user_id')
+			.notNull()
+			.references(() => users.id),
+		createdAt: createdAt(),
+		expiresAt: integer('expires_at', { mode: 'timestamp_ms' }).notNull(),
+		usedAt: integer('used_at', { mode: 'timestamp_ms' })
+	},
+	(t) => [index('password_resets_user_idx').on(t.userId, t.createdAt)]
+);
 
 export const auditLog = sqliteTable(
 	'audit_log',
