@@ -47,6 +47,12 @@ export {
 } from './spi-row-batch';
 export { scanFieldBounds, splitQuotedLine, type SplitResult } from './split-delimited-line';
 export {
+	compileSerialPattern,
+	serialFromText,
+	MAX_SERIAL_PATTERN_LENGTH,
+	type SerialPatternCheck
+} from './serial-pattern';
+export {
 	formatIngestIssue,
 	createIssueCollector,
 	DEFAULT_ISSUE_LIMIT,

@@ -12,6 +12,7 @@ import { parseDecimal, parseDecimalBytes } from './parse-decimal';
 import { createTimestampParser } from './parse-timestamp';
 import { isValidTimeZone } from './zoned-time-to-utc';
 import { resolveHeader, type ResolvedHeader } from './resolve-header';
+import { compileSerialPattern, serialFromText } from './serial-pattern';
 import { scanFieldBounds, splitQuotedLine } from './split-delimited-line';
 import {
 	boardInspectionKey,
@@ -229,9 +230,10 @@ function rangeText(field: keyof typeof FIELD_RANGES, unit: string): string {
  * (bad row under `reject-file`, or a file-level error found late, e.g. invalid bytes near the
  * end), the caller must roll back what it wrote from earlier batches (one transaction per file).
  *
- * @throws Error when the profile's timestamp pattern, time zone or serial pattern is invalid
- *   (validate profiles with `mappingProfileSchema` first), or `batchSize` is not a positive
- *   integer. Never throws on file content: that becomes errors in `summary()`.
+ * @throws Error when the profile's timestamp pattern or time zone is invalid (validate profiles
+ *   with `mappingProfileSchema` first), or `batchSize` is not a positive integer. Never throws on
+ *   file content: that becomes errors in `summary()`, and so does a serial pattern RE2 refuses
+ *   (a profile saved before patterns ran on RE2).
  * @example
  * const parser = createSpiRowParser({ profile: CANONICAL_PROFILE, fileName: 'a.csv' });
  * for await (const chunk of stream) for (const batch of parser.push(chunk)) write(batch);
@@ -342,12 +344,16 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 
 	if (profile.serialFromFileName) {
 		const name = baseName(fileName);
-		const match = new RegExp(profile.serialFromFileName.pattern).exec(name);
-		const serial = match?.[1]?.trim();
-		if (!serial) {
-			fileError(
-				`file name "${name}" does not match the serial pattern /${profile.serialFromFileName.pattern}/`
-			);
+		const pattern = profile.serialFromFileName.pattern;
+		// RE2: linear-time matching whatever the user typed (see serial-pattern.ts).
+		const compiled = compileSerialPattern(pattern);
+		const serial = compiled.ok ? serialFromText(compiled.regex, name) : null;
+		if (!compiled.ok) {
+			fileError(`the profile's ${compiled.reason}; edit the mapping profile`);
+		} else if (serial === null) {
+			fileError(`file name "${name}" does not match the serial pattern /${pattern}/`);
+		} else if (serial.length > MAX_TEXT_LENGTH) {
+			fileError(`board_serial from the file name is longer than ${MAX_TEXT_LENGTH} characters`);
 		} else {
 			serialFromName = serial;
 		}

@@ -36,16 +36,34 @@ describe('mappingProfileSchema', () => {
 		[{ timestampFormat: 'HH:mm' }, 'timestampFormat: timestamp pattern "HH:mm" lacks YYYY'],
 		[
 			{ serialFromFileName: { pattern: '^RB-\\d+' } },
-			'serialFromFileName.pattern: serial pattern must be a valid regular expression with exactly one (capture group)'
+			'serialFromFileName.pattern: serial pattern must have exactly one (capture group) for the serial; it has 0'
 		],
 		[
 			{ serialFromFileName: { pattern: '^(RB)-(\\d+)' } },
-			'serialFromFileName.pattern: serial pattern must be a valid regular expression with exactly one (capture group)'
+			'serialFromFileName.pattern: serial pattern must have exactly one (capture group) for the serial; it has 2'
 		],
 		[
 			{ serialFromFileName: { pattern: '(unclosed' } },
-			'serialFromFileName.pattern: serial pattern must be a valid regular expression with exactly one (capture group)'
+			'serialFromFileName.pattern: serial pattern is not valid RE2 syntax: missing closing ): `(unclosed` (back-references and look-around are not supported)'
 		],
+		// RE2 cannot match these in linear time, so they are refused on save, with the reason.
+		[
+			{ serialFromFileName: { pattern: '^(RB)-\\1' } },
+			'serialFromFileName.pattern: serial pattern is not valid RE2 syntax: invalid escape sequence: `\\1` (back-references and look-around are not supported)'
+		],
+		[
+			{ serialFromFileName: { pattern: '^(RB-\\d+)(?=_)' } },
+			'serialFromFileName.pattern: serial pattern is not valid RE2 syntax: invalid or unsupported Perl syntax: `(?=` (back-references and look-around are not supported)'
+		],
+		[
+			{ serialFromFileName: { pattern: '(a{1001})' } },
+			'serialFromFileName.pattern: serial pattern is not valid RE2 syntax: invalid repeat count: `{1001}` (back-references and look-around are not supported)'
+		],
+		[
+			{ serialFromFileName: { pattern: '(' + 'x'.repeat(200) + ')' } },
+			'serialFromFileName.pattern: serial pattern is longer than 200 characters'
+		],
+		[{ serialFromFileName: { pattern: '' } }, 'serialFromFileName.pattern: serial pattern is empty'],
 		[
 			{ resultWords: { pass: ['OK'], warn: ['ok'], fail: ['NG'] } },
 			'resultWords.warn: result word "ok" is also listed under pass'

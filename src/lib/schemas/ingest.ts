@@ -1,12 +1,13 @@
 /**
  * Zod schema for SPI mapping profiles (saved per export layout, chosen on upload). Checks that
- * the timestamp pattern compiles, the time zone is known to Intl, the serial pattern is a
- * regex with exactly one capture group, and no word means two results.
+ * the timestamp pattern compiles, the time zone is known to Intl, the serial pattern compiles on
+ * RE2 (linear-time matching) with exactly one capture group, and no word means two results.
  */
 import { z } from 'zod';
 import { CANONICAL_FIELDS, type CanonicalField } from '../ingest/canonical-fields';
 import type { MappingProfile } from '../ingest/mapping-profile';
 import { compileTimestampPattern } from '../ingest/parse-timestamp';
+import { compileSerialPattern } from '../ingest/serial-pattern';
 import { isValidTimeZone } from '../ingest/zoned-time-to-utc';
 
 const headerName = z.string().trim().min(1, { error: 'column name is empty' }).max(120);
@@ -16,16 +17,6 @@ const columnsShape = Object.fromEntries(
 ) as Record<CanonicalField, z.ZodOptional<typeof headerName>>;
 
 const words = z.array(z.string().trim().min(1, { error: 'result word is empty' }).max(40)).max(20);
-
-/** Number of capture groups of a regex source; NaN when it does not compile. */
-function captureGroups(pattern: string): number {
-	try {
-		// Matching '' against `pattern|` always succeeds, and the match has one slot per group.
-		return (new RegExp(`${pattern}|`).exec('') as RegExpExecArray).length - 1;
-	} catch {
-		return NaN;
-	}
-}
 
 /**
  * Mapping profile as saved by the mapping screen and read by the ingest service. Output type is
@@ -62,14 +53,11 @@ export const mappingProfileSchema: z.ZodType<MappingProfile> = z
 		resultWords: z.object({ pass: words.min(1), warn: words, fail: words.min(1) }),
 		serialFromFileName: z
 			.object({
-				pattern: z
-					.string()
-					.min(1)
-					.max(200)
-					.refine((p) => captureGroups(p) === 1, {
-						error:
-							'serial pattern must be a valid regular expression with exactly one (capture group)'
-					})
+				// Compiled on RE2 (linear time): a pattern it refuses is refused here, with its reason.
+				pattern: z.string().superRefine((pattern, ctx) => {
+					const check = compileSerialPattern(pattern);
+					if (!check.ok) ctx.addIssue({ code: 'custom', message: check.reason });
+				})
 			})
 			.optional(),
 		constants: z
