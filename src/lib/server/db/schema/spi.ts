@@ -49,7 +49,7 @@ export const spiProfiles = sqliteTable(
 	(t) => [uniqueIndex('spi_profiles_name_idx').on(t.name)]
 );
 
-/** One row per file that reached a verdict. Written with the data in one transaction. */
+/** One row per file: its verdict, or 'importing' while its rows are written (never listed). */
 export const spiImports = sqliteTable(
 	'spi_imports',
 	{
@@ -60,7 +60,7 @@ export const spiImports = sqliteTable(
 		/** Lower-case hex SHA-256 of the file's bytes; the archive is named after it. */
 		sha256: text('sha256').notNull(),
 		sizeBytes: integer('size_bytes').notNull(),
-		/** imported | rejected | duplicate */
+		/** imported | rejected | duplicate (importing: in progress or interrupted, never listed) */
 		status: text('status').notNull(),
 		/** For status duplicate: the earlier import with the same content. */
 		duplicateOfImportId: integer('duplicate_of_import_id'),
@@ -91,7 +91,15 @@ export const spiImports = sqliteTable(
 			.notNull()
 			.default(sql`'[]'`),
 		/** Archive path of the original, relative to the database's folder. */
-		archivePath: text('archive_path')
+		archivePath: text('archive_path'),
+		/**
+		 * spi_boards ids reserved by this import while its status is 'importing' (first, last).
+		 * Its pad rows are committed in short chunks against these ids before the board rows exist
+		 * (readers reach pads through spi_boards, so they see none of them); an interrupted import
+		 * is found by its status and its rows by this range (see ingest-service.ts).
+		 */
+		boardIdFrom: integer('board_id_from'),
+		boardIdTo: integer('board_id_to')
 	},
 	(t) => [
 		// Same content imported twice → the second is a duplicate (rejected files may be retried).
