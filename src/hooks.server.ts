@@ -3,10 +3,11 @@ import { sequence } from '@sveltejs/kit/hooks';
 import { hasRole, pageRolesFor } from '$lib/access';
 import { authHandle } from '$lib/server/auth';
 import { getDb } from '$lib/server/db';
-import { apiPolicyFor, GENERAL_BODY_LIMIT_BYTES, UPLOAD_ROUTES } from '$lib/server/api-policy';
+import { apiPolicyFor } from '$lib/server/api-policy';
 import { forbidden, unauthorized } from '$lib/server/api';
 import { verifyApiToken } from '$lib/server/tokens';
 import { findActiveUser } from '$lib/server/users';
+import { boundRequestBody } from '$lib/server/request-body';
 import { startServices } from '$lib/server/startup';
 
 export const init: ServerInit = async () => {
@@ -77,11 +78,6 @@ const identify: Handle = async ({ event, resolve }) => {
 const guard: Handle = async ({ event, resolve }) => {
 	const path = event.url.pathname;
 	const method = event.request.method;
-	const contentLength = Number(event.request.headers.get('content-length') ?? 0);
-	if (contentLength > GENERAL_BODY_LIMIT_BYTES && !UPLOAD_ROUTES.has(event.route.id ?? '')) {
-		const limitMb = GENERAL_BODY_LIMIT_BYTES / 1024 / 1024;
-		return json({ error: `The request body is larger than ${limitMb} MB.` }, { status: 413 });
-	}
 	if (path.startsWith('/auth/') || path.startsWith('/_app/')) return resolve(event);
 
 	const actor = event.locals.actor;
@@ -95,10 +91,10 @@ const guard: Handle = async ({ event, resolve }) => {
 			if (!actor) return unauthorized();
 			if (!hasRole(actor, policy)) return forbidden(actor);
 		}
-		return resolve(event);
+		return resolveWithBoundedBody(event, resolve);
 	}
 
-	if (PUBLIC_PAGES.has(path)) return resolve(event);
+	if (PUBLIC_PAGES.has(path)) return resolveWithBoundedBody(event, resolve);
 	if (!actor) {
 		const back = path === '/' ? '' : `?redirectTo=${encodeURIComponent(path + event.url.search)}`;
 		redirect(303, `/signin${back}`);
@@ -107,10 +103,30 @@ const guard: Handle = async ({ event, resolve }) => {
 		// Page GETs fall through to (app)/+layout.server.ts, which shows a friendly refusal.
 		return new Response('Your role may not do this.', { status: 403 });
 	}
-	return resolve(event);
+	return resolveWithBoundedBody(event, resolve);
 };
 
-export const handle = sequence(crossSiteGuard, authHandle, identify, guard);
+/**
+ * Read the body within its route's limit before the route runs (see request-body.ts), once the
+ * caller is known to be allowed, so an anonymous client cannot make the server read anything.
+ */
+async function resolveWithBoundedBody(
+	event: Parameters<Handle>[0]['event'],
+	resolve: Parameters<Handle>[0]['resolve']
+): Promise<Response> {
+	const bounded = await boundRequestBody(event.request, event.route.id, isApi(event.url.pathname));
+	if (bounded instanceof Response) return bounded;
+	event.request = bounded;
+	return resolve(event);
+}
+
+/** Sign-in posts go to Auth.js before the guards run: bound their bodies first. */
+const authBodyLimit: Handle = async ({ event, resolve }) => {
+	if (!event.url.pathname.startsWith('/auth/')) return resolve(event);
+	return resolveWithBoundedBody(event, resolve);
+};
+
+export const handle = sequence(crossSiteGuard, authBodyLimit, authHandle, identify, guard);
 
 export const handleError: HandleServerError = ({ error, status, message }) => {
 	if (status === 404) return { message: 'This page does not exist.' };

@@ -57,12 +57,6 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/boards/[id]': { GET: ALL_ROLES }
 };
 
-/** Routes that take large uploads: only these accept bodies above the general limit. */
-export const UPLOAD_ROUTES: ReadonlySet<string> = new Set<string>(['/api/spi/imports']);
-
-/** Bodies on every other route stay small; a large form post is refused before it is read. */
-export const GENERAL_BODY_LIMIT_BYTES = 25 * 1024 * 1024;
-
 export function apiPolicyFor(routeId: string | null, method: string): MethodPolicy | undefined {
 	if (!routeId) return undefined;
 	const methodKey = (method === 'HEAD' ? 'GET' : method) as HttpMethod;

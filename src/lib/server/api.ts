@@ -2,6 +2,7 @@ import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler }
 import { ZodError, type ZodType } from 'zod';
 import { hasRole, type Actor } from '$lib/access';
 import { apiPolicyFor } from './api-policy';
+import { jsonTooDeep, MAX_JSON_DEPTH } from '$lib/json/json-depth';
 
 /** An expected API failure with its status and JSON body. */
 export class ApiError extends Error {
@@ -72,10 +73,27 @@ export function validationBody(err: ZodError) {
 	};
 }
 
-/** Read a JSON body, answering 400 with a clear message when it is not JSON. */
+/** Read a JSON body, answering 400 with a clear message when it is not JSON or nests too deep. */
 export async function readJson(request: Request): Promise<unknown> {
+	let text: string;
 	try {
-		return await request.json();
+		text = await request.text();
+	} catch {
+		throw new ApiError(400, { error: 'The request body could not be read.' });
+	}
+	return parseJsonText(text);
+}
+
+/** Parse a JSON request body (400 naming the problem); nesting is limited to MAX_JSON_DEPTH. */
+export function parseJsonText(text: string): unknown {
+	const deep = jsonTooDeep(text);
+	if (deep) {
+		throw new ApiError(400, {
+			error: `The request body nests deeper than ${MAX_JSON_DEPTH} levels (at character ${deep.at}).`
+		});
+	}
+	try {
+		return JSON.parse(text);
 	} catch {
 		throw new ApiError(400, { error: 'The request body is not valid JSON.' });
 	}

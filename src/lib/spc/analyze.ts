@@ -1,4 +1,5 @@
 import { spcAnalyzeRequestSchema, type SpcAnalyzeRequest } from '../schemas/spc';
+import { jsonTooDeep, MAX_JSON_DEPTH } from '../json/json-depth';
 import { processCapability } from './capability';
 import { capabilityJson, type CapabilityJson } from './capability-json';
 import type { ChartLimits, ControlChart, ControlLimits } from './chart-types';
@@ -203,6 +204,13 @@ export function parseAnalyzeBody(text: string): ParsedBody {
 		return {
 			ok: false,
 			error: 'The request body is empty; send a JSON object such as {"chart":"i-mr","values":[…]}.'
+		};
+	}
+	const deep = jsonTooDeep(text);
+	if (deep) {
+		return {
+			ok: false,
+			error: `The request body nests deeper than ${MAX_JSON_DEPTH} levels (at character ${deep.at}).`
 		};
 	}
 	try {

@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { ApiError, idParam } from '$lib/server/api';
+import { idParam, parseJsonText } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import { endRun, evaluateChartsForRun, printlogApiRoute } from '$lib/server/printlog';
 import { endRunSchema } from '$lib/schemas/printlog-forms';
@@ -9,13 +9,7 @@ export const POST = printlogApiRoute(async ({ params, request }, actor) => {
 	const id = idParam(params.id, 'print run');
 	const text = await request.text();
 	let body: unknown = {};
-	if (text.trim() !== '') {
-		try {
-			body = JSON.parse(text);
-		} catch {
-			throw new ApiError(400, { error: 'The request body is not valid JSON.' });
-		}
-	}
+	if (text.trim() !== '') body = parseJsonText(text);
 	const run = endRun(getDb(), id, endRunSchema.parse(body), actor);
 	await evaluateChartsForRun(getDb(), id);
 	return json(run);
