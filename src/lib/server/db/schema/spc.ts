@@ -124,7 +124,12 @@ export const spcSignals = sqliteTable(
 		ackNote: text('ack_note'),
 		ackByUserId: integer('ack_by_user_id').references(() => users.id),
 		ackBy: text('ack_by'),
-		ackAt: integer('ack_at', { mode: 'timestamp_ms' })
+		ackAt: integer('ack_at', { mode: 'timestamp_ms' }),
+		/** Who owns the signal on the floor (assigned, audited); null: nobody yet. */
+		assigneeUserId: integer('assignee_user_id').references(() => users.id),
+		assignedAt: integer('assigned_at', { mode: 'timestamp_ms' }),
+		/** When the open signal was escalated by mail (SIGNAL_ESCALATE_MINUTES); once per signal. */
+		escalatedAt: integer('escalated_at', { mode: 'timestamp_ms' })
 	},
 	(t) => [
 		uniqueIndex('spc_signals_unique_idx').on(
