@@ -23,6 +23,7 @@ import { createCharacteristic } from '../src/lib/server/spc/characteristics';
 import { freezeLimits } from '../src/lib/server/spc/limits-lifecycle';
 import { evaluateSignalsAfterIngest } from '../src/lib/server/spc/signals';
 import { analyzeStudy, RULE_IDS } from '../src/lib/spc';
+import { MAX_STUDY_VALUES } from '../src/lib/spc/analyze';
 
 const PADS = Math.max(2, Number(process.env.BENCH_SPC_PADS ?? 5000));
 const BOARDS = Math.max(1100, Number(process.env.BENCH_SPC_BOARDS ?? 2000));
@@ -150,6 +151,22 @@ for (let r = 0; r < 20; r++) {
 	studyTimes.push(performance.now() - a);
 }
 console.log(`ad-hoc study (analyzeStudy), X-bar/R 1000 × 5, 12 rules + capability: median ${ms(median(studyTimes))}, min ${ms(Math.min(...studyTimes))}`);
+
+// The largest study the work budget lets in: MAX_STUDY_VALUES individual values, all rules.
+const largest = {
+	chart: 'i-mr',
+	values: Array.from({ length: MAX_STUDY_VALUES }, (_, i) => 100 + Math.sin(i * 7.1) * 2),
+	lsl: 90,
+	usl: 110,
+	rules: [...RULE_IDS]
+};
+const largestTimes: number[] = [];
+for (let r = 0; r < 5; r++) {
+	const a = performance.now();
+	if (!analyzeStudy(largest).ok) throw new Error('bench study at the budget was refused');
+	largestTimes.push(performance.now() - a);
+}
+console.log(`ad-hoc study at the work budget (I-MR, ${MAX_STUDY_VALUES.toLocaleString('en-US')} values, 12 rules + capability): median ${ms(median(largestTimes))}, max ${ms(Math.max(...largestTimes))} on the request loop`);
 
 if (process.env.BENCH_SPC_KEEP) { console.log(file); process.exit(0); }
 db.$client.close();

@@ -7,6 +7,8 @@ export const POST = apiRoute(async ({ request }) => {
 	const body = parseAnalyzeBody(await request.text());
 	if (!body.ok) throw new ApiError(400, { error: body.error });
 	const outcome = analyzeStudy(body.value);
-	if (!outcome.ok) return json({ errors: outcome.errors }, { status: 422 });
+	if (!outcome.ok) {
+		return json({ errors: outcome.errors }, { status: outcome.tooLarge ? 413 : 422 });
+	}
 	return json(outcome.result);
 });
