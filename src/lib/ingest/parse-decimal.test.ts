@@ -41,9 +41,67 @@ describe('parseDecimal', () => {
 	it.each([
 		['101,25', 101.25],
 		['-0,5', -0.5],
-		['3.5', 3.5]
+		[',5', 0.5],
+		['+1,5e2', 150],
+		['1234567890123456,5', 1234567890123456.5]
 	])('decimal comma %j → %d', (text, expected) => {
 		expect(parseDecimal(text, true)).toBe(expected);
+	});
+
+	it.each([
+		'0x10',
+		'0X10',
+		'0b11',
+		'0o17',
+		'1e308x',
+		'1e1000',
+		'1e400',
+		'-1e400',
+		'Infinity',
+		'+Infinity',
+		'NaN',
+		'1_000',
+		'+-1',
+		'-+1',
+		'--1',
+		'++1',
+		'\uff11\uff12', // full-width digits １２
+		'\u0661\u0662', // Arabic-Indic digits
+		'\t12',
+		'12\t',
+		'\u00a012',
+		'12\u00a0',
+		'\u200b12',
+		'1 2',
+		'- 1',
+		'1e',
+		'1e+',
+		'e5',
+		'1e5.5',
+		'1e1234',
+		'1.2e3.4',
+		'.e1',
+		'1,000'
+	])('%j is refused (not plain decimal notation)', (text) => {
+		expect(parseDecimal(text, false)).toBeNaN();
+	});
+
+	it.each([
+		[' 12', 12],
+		['12 ', 12],
+		['+12', 12],
+		['1e308', 1e308],
+		['-2.5E-3', -0.0025],
+		['5.e1', 50],
+		['.5', 0.5]
+	])('%j is plain decimal notation → %d', (text, expected) => {
+		expect(parseDecimal(text, false)).toBe(expected);
+	});
+
+	// With a decimal comma the point is a thousands separator in such exports: refused, never
+	// read as a decimal mark (1.234 would be 1000x too small).
+	it.each(['3.5', '1.234', '0x10', '1_0', '\uff11'])('%j is refused with a decimal comma', (text) => {
+		expect(parseDecimal(text, true)).toBeNaN();
 	});
 
 	it.each([
@@ -99,11 +157,12 @@ describe('parseDecimalBytes', () => {
 
 	it('reads the decimal comma and a range of a longer buffer', () => {
 		expect(read('101,25', true)).toBe(101.25);
+		expect(read('101.25', true)).toBeNaN(); // the point is no decimal mark then
 		expect(parseDecimalBytes(bytes('a;-0,5;b'), true, 2, 6)).toBe(-0.5);
 	});
 
 	// Forms that the text path handles (or rejects) give NaN here.
-	it.each(['', '-', '.', ' 42', '+7', '1e3', '12a', '1.2.3', '1,5', '12345678901234567890'])(
+	it.each(['', '-', '.', ' 42', '+7', '1e3', '12a', '1.2.3', '1,5', '12345678901234567890', '0x10', '1_0'])(
 		'%j is NaN (left to the text path)',
 		(text) => {
 			expect(read(text)).toBeNaN();

@@ -17,7 +17,11 @@ describe('createTimestampParser, ISO 8601', () => {
 		['2026-03-02T08:00:00+09', Date.UTC(2026, 2, 2, -1)],
 		['2026-03-02T08:00:00', Date.UTC(2026, 2, 2, 8)], // no offset: profile zone (UTC)
 		['  2026-03-02T08:00:00Z  ', Date.UTC(2026, 2, 2, 8)],
-		['2024-02-29T00:00:00Z', Date.UTC(2024, 1, 29)] // leap day (2024 divisible by 4)
+		['2024-02-29T00:00:00Z', Date.UTC(2024, 1, 29)], // leap day (2024 divisible by 4)
+		['1970-01-01T00:00:00Z', 0],
+		['2100-12-31T23:59:59Z', Date.UTC(2100, 11, 31, 23, 59, 59)],
+		['2026-03-02T08:00:00 +14:00', Date.UTC(2026, 2, 1, 18)],
+		['2026-03-02T08:00:00-12:00', Date.UTC(2026, 2, 2, 20)]
 	])('%s', (text, expected) => {
 		expect(utc(text)).toBe(expected);
 	});
@@ -38,6 +42,15 @@ describe('createTimestampParser, ISO 8601', () => {
 		['2026-03-02T08:60:00Z'],
 		['2026-03-02T08:00:60Z'], // leap seconds are not accepted
 		['2026-03-02T08:00:00+25:00'],
+		['2026-03-02T08:00:00+15:00'], // beyond UTC+14:00, the largest offset in use
+		['2026-03-02T08:00:00-12:30'],
+		['1969-12-31T23:59:59Z'], // before 1970: a mapping mistake, not an inspection
+		['2101-01-01T00:00:00Z'],
+		['0099-03-02T08:00:00Z'], // Date.UTC would read year 99 as 1999
+		['\uff12\uff10\uff12\uff16-03-02T08:00:00Z'], // full-width digits
+		['\u00a02026-03-02T08:00:00Z'], // no-break space is not padding
+		['2026-03-02T08:00:00Z\t'],
+		['2026-03-02T08:00:00\u00a0Z'],
 		['2026-03-02T08:00:00 CET'],
 		['yesterday'],
 		['1772438400000']

@@ -17,8 +17,19 @@ type Op =
 // Longest tokens first so 'SSS' is not read as literal 'S's and 'MM' before 'mm' is case-exact.
 const TOKENS = ['YYYY', 'SSS', 'MM', 'DD', 'HH', 'hh', 'mm', 'ss', 'A', 'Z'] as const;
 
+// ASCII only: `\d` without the `u` flag is [0-9]; only spaces may stand before the offset.
 const ISO_PATTERN =
-	/^(\d{4})-(\d{2})-(\d{2})[Tt ](\d{2}):(\d{2})(?::(\d{2})(?:[.,](\d{1,9}))?)?\s*([Zz]|[+-]\d{2}(?::?\d{2})?)?$/;
+	/^(\d{4})-(\d{2})-(\d{2})[Tt ](\d{2}):(\d{2})(?::(\d{2})(?:[.,](\d{1,9}))?)? *([Zz]|[+-]\d{2}(?::?\d{2})?)?$/;
+
+/**
+ * Years an inspection may carry. A year outside is a mapping mistake (a day-month swap, a
+ * counter read as a year) rather than a real inspection; the bound also keeps two-digit years
+ * away from `Date.UTC`, which reads 0–99 as 1900–1999.
+ */
+export const TIMESTAMP_YEAR_RANGE = { min: 1970, max: 2100 } as const;
+/** Offsets in use on Earth run from UTC−12:00 to UTC+14:00; anything beyond is a typo. */
+const MIN_OFFSET_MINUTES = -12 * 60;
+const MAX_OFFSET_MINUTES = 14 * 60;
 
 function daysInMonth(year: number, month: number): number {
 	return new Date(Date.UTC(year, month, 0)).getUTCDate();
@@ -26,6 +37,8 @@ function daysInMonth(year: number, month: number): number {
 
 function fieldsValid(t: LocalDateTime): boolean {
 	return (
+		t.year >= TIMESTAMP_YEAR_RANGE.min &&
+		t.year <= TIMESTAMP_YEAR_RANGE.max &&
 		t.month >= 1 &&
 		t.month <= 12 &&
 		t.day >= 1 &&
@@ -51,8 +64,9 @@ function offsetToMinutes(text: string): number {
 	if (!m) return NaN;
 	const hours = Number(m[2]);
 	const minutes = m[3] === undefined ? 0 : Number(m[3]);
-	if (hours > 23 || minutes > 59) return NaN;
-	return (m[1] === '-' ? -1 : 1) * (hours * 60 + minutes);
+	if (minutes > 59) return NaN;
+	const offset = (m[1] === '-' ? -1 : 1) * (hours * 60 + minutes);
+	return offset < MIN_OFFSET_MINUTES || offset > MAX_OFFSET_MINUTES ? NaN : offset;
 }
 
 function readIso(text: string): ParsedTimestamp | null {
@@ -109,7 +123,8 @@ function compileOps(pattern: string): Op[] {
  * to ms; `A` AM/PM (any case); `Z` offset `Z`, `±HH:mm`, `±HHmm` or `±HH`; `[text]` literal
  * text; any other character is literal. `'iso'` accepts ISO 8601 date-times
  * `YYYY-MM-DD(T| )HH:mm[:ss[.fff]][Z|±HH:mm]`. Calendar ranges are checked (no 31 April, no
- * second 60).
+ * second 60), years are 1970–2100 (`TIMESTAMP_YEAR_RANGE`), offsets −12:00 to +14:00, digits
+ * ASCII only.
  * @throws Error when the pattern lacks a year, month, day, hour or minute, or `hh` lacks `A`.
  * @example compileTimestampPattern('DD.MM.YYYY HH:mm:ss')('02.03.2026 08:05:09')?.local.hour // 8
  */
@@ -215,7 +230,12 @@ export function createTimestampParser(format: string, timeZone: string): (text: 
 	let lastMs = NaN;
 	return (text) => {
 		if (text === lastText) return lastMs;
-		const parsed = read(text.trim());
+		// Only ASCII spaces are trimmed: a no-break space or a tab is not padding in a strict file.
+		let from = 0;
+		let to = text.length;
+		while (from < to && text.charCodeAt(from) === 32) from++;
+		while (to > from && text.charCodeAt(to - 1) === 32) to--;
+		const parsed = read(from === 0 && to === text.length ? text : text.slice(from, to));
 		let ms = NaN;
 		if (parsed) {
 			if (parsed.offsetMinutes === null) {

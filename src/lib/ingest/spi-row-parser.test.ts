@@ -393,7 +393,7 @@ describe('robustness', () => {
 		}
 	});
 
-	it('reads bytes exactly as it reads the same text (byte path against text path, 400 cases)', () => {
+	it('reads bytes exactly as it reads the same text (byte path against text path, 600 cases)', () => {
 		// Bytes take the byte path for plain ASCII rows; strings always take the text path, so the
 		// text path is the oracle. Cells are replaced by values each path must judge alike.
 		const cells = [
@@ -450,7 +450,32 @@ describe('robustness', () => {
 			'PB-100',
 			'SH-220',
 			'1',
-			'2'
+			'2',
+			// Hostile numbers: each path must refuse them alike (Number() would take several).
+			'0x10',
+			'0b11',
+			'0o17',
+			'1e308',
+			'1e400',
+			'-1e2',
+			'2.5E1',
+			'Infinity',
+			'NaN',
+			'1_000',
+			'+-1',
+			'\uff11\uff12',
+			'\u00a012',
+			'12\t',
+			'1.5',
+			'.5e1',
+			'1e1234',
+			'0000-01-01T00:00:00Z',
+			'1969-12-31T23:59:59Z',
+			'2026-03-02T24:00:00Z',
+			'2026-03-02T08:00:00+15:00',
+			'\u00a02026-03-02T08:00:00Z',
+			'2026-03-02T08:00:00.123456789Z',
+			'\u00a0L1'
 		];
 		let seed = 4242;
 		const next = (n: number) => {
@@ -461,18 +486,20 @@ describe('robustness', () => {
 		const profiles: MappingProfile[] = [
 			CANONICAL_PROFILE,
 			{ ...CANONICAL_PROFILE, onBadRow: 'skip-row' },
-			{ ...CANONICAL_PROFILE, onBadRow: 'skip-row', lengthUnit: 'mil' }
+			{ ...CANONICAL_PROFILE, onBadRow: 'skip-row', lengthUnit: 'mil' },
+			{ ...CANONICAL_PROFILE, onBadRow: 'skip-row', delimiter: ';', decimalComma: true }
 		];
-		for (let k = 0; k < 400; k++) {
-			const lines = [HEADER];
+		for (let k = 0; k < 600; k++) {
+			const profile = profiles[k % profiles.length];
+			const d = profile.delimiter === ';' ? ';' : ',';
+			const lines = [HEADER.split(',').join(d)];
 			for (let r = 0; r < 6; r++) {
 				const fields = base[next(base.length)].split(',');
 				for (let m = next(3); m > 0; m--) fields[next(fields.length)] = cells[next(cells.length)];
 				if (next(20) === 0) fields.pop(); // a wrong field count now and then
-				lines.push(fields.join(','));
+				lines.push(fields.join(d));
 			}
 			const text = lines.join(next(2) === 0 ? '\n' : '\r\n') + (next(2) === 0 ? '\n' : '');
-			const profile = profiles[k % profiles.length];
 			const asText = run(text, profile, 3);
 			const parser = createSpiRowParser({ profile, fileName: 'memory.csv', batchSize: 3 });
 			const bytes = new TextEncoder().encode(text);
