@@ -1,11 +1,12 @@
 import { DatabaseOpenError, getDb } from './db';
 import { seedDemoData } from './seed';
-import { cleanArchiveTemp, startSpiWatcher } from './ingest';
+import { cleanArchiveTemp, recoverInterruptedImports, startSpiWatcher } from './ingest';
 import { warmParserThread } from './ingest/parse-driver';
 
 /**
- * Everything the server needs before it answers: the database (migrations applied), demo data on
- * an empty database unless ROLLBEAD_DEMO=0, and background services.
+ * Everything the server needs before it answers: the database (migrations applied), the rows of
+ * interrupted SPI imports removed, demo data on an empty database unless ROLLBEAD_DEMO=0, and
+ * background services.
  */
 export async function startServices(): Promise<void> {
 	let db;
@@ -18,6 +19,10 @@ export async function startServices(): Promise<void> {
 		}
 		throw err;
 	}
+	// Before anything imports: an import cut short by a stopped server leaves rows no reader sees.
+	const interrupted = await recoverInterruptedImports(db);
+	if (interrupted > 0)
+		console.log(`[rollbead] removed the partial rows of ${interrupted} interrupted SPI import(s)`);
 	if (process.env.ROLLBEAD_DEMO !== '0') {
 		const seeded = await seedDemoData(db);
 		if (seeded)

@@ -63,8 +63,13 @@ export type IngestOutcome =
 
 /** Per-board facts resolved when the board first appears in a file. */
 interface BoardSlot {
-	/** spi_boards.id, or 0 when the inspection is already stored (its rows are skipped). */
+	/**
+	 * spi_boards.id reserved for the board (its row is written by the final transaction), or 0
+	 * when the inspection is already stored (its rows are skipped).
+	 */
 	id: number;
+	/** The spi_boards row, less aggregates (written at the end). */
+	row: (string | number | null)[];
 	productCode: string;
 	padKeys: PadMap;
 	/** Aperture volume (µm³) and id by refdes\u0001pad for the board's stencil, if known. */
@@ -78,6 +83,16 @@ interface BoardSlot {
 type PadMap = Map<string, Map<string, number>>;
 
 const ROWS_PER_INSERT = 64;
+/**
+ * Pad rows written per short write transaction (~20-40 ms of work). A transaction is opened and
+ * committed within one turn of the event loop, never across an await, so other connections of
+ * this process never find the database locked and other processes wait at most one chunk.
+ */
+const CHUNK_ROWS = 16_384;
+/** Board ids per delete transaction when a failed or interrupted import's rows are removed. */
+const DISCARD_BOARDS_PER_STEP = 8;
+/** How long a chunk waits, in all, for a write lock another process holds before giving up. */
+const WRITE_LOCK_WAIT_MS = 30_000;
 /** Below this declared size the worker's start-up (~0.1 s) costs more than it saves. */
 const THREAD_MIN_BYTES = 8 * 1024 * 1024;
 
@@ -85,16 +100,20 @@ let queue: Promise<unknown> = Promise.resolve();
 let warnedNoThread = false;
 
 /**
- * Ingest one SPI file: stream it through the parser, write boards, pad dictionary entries and pad
- * measurements in ONE transaction on a dedicated connection, archive the original under its
- * SHA-256, and record the import. A file with a bad row (under the default policy), a file-level
- * error or the same content as an earlier import is rolled back whole; nothing of it stays.
- * Board inspections already stored (serial + inspected_at) are skipped and counted. Imports run
- * one at a time (a queue), so two files never wait on each other's write lock.
+ * Ingest one SPI file: stream it through the parser, write its pad measurements, pad dictionary
+ * entries and boards, archive the original under its SHA-256, and record the import. A file with
+ * a bad row (under the default policy), a file-level error or the same content as an earlier
+ * import keeps nothing of its data; board inspections already stored (serial + inspected_at) are
+ * skipped and counted. Imports run one at a time (a queue).
  *
- * Why a second connection: the transaction spans awaits (the body streams in), and on the shared
- * connection other requests' writes would land inside it. Other writers wait (busy timeout)
- * while an import commits; readers are never blocked (WAL).
+ * Isolation without a long lock: pad rows are committed in short chunks (`CHUNK_ROWS`, each
+ * transaction within one event-loop turn) against spi_boards ids this import reserves (recorded
+ * on its spi_imports row, status 'importing'). Readers reach pad rows only through spi_boards, and
+ * the board rows, new pad dictionary entries, per-board aggregates and the status 'imported' are
+ * written in ONE final short transaction, so no reader ever sees part of an import. A rejected,
+ * duplicate or failed file deletes its chunk rows (in chunks too); an import cut short by a
+ * crash is cleaned up at start-up (`recoverInterruptedImports`). Other writers (sign-in, API
+ * tokens, print runs) never wait for an import: no transaction stays open across an await.
  * @throws only for server faults (disk full, database closed); file content never throws.
  * @example
  * const outcome = await ingestSpiFile(db, { source: 'api', fileName: 'a.csv', body: stream, createdBy: 'user:1' });
@@ -106,19 +125,60 @@ export function ingestSpiFile(db: Db, request: IngestRequest): Promise<IngestOut
 	return run;
 }
 
+/**
+ * Why a second connection: its pragmas suit bulk appends, and its statements stay apart from the
+ * request path's. A short busy timeout: within this process no transaction outlives one turn of
+ * the event loop, so only another process can hold the lock, and `beginWrite` waits for that
+ * without blocking the event loop.
+ */
 function openIngestConnection(db: Db): { conn: Database.Database; own: boolean } {
 	const file = db.$client.name;
 	if (file === ':memory:' || db.$client.memory) return { conn: db.$client, own: false };
 	const conn = new Database(file);
-	conn.pragma('busy_timeout = 30000');
+	conn.pragma('busy_timeout = 100');
 	conn.pragma('synchronous = NORMAL');
 	conn.pragma('foreign_keys = ON');
 	// Pad rows are appended in key order, so only the b-tree's right edge is hot: a small cache does.
 	conn.pragma('cache_size = -8192');
 	conn.pragma('temp_store = MEMORY');
-	// Checkpointed after the answer (checkpointAndClose), not inside the commit.
+	// Checkpointed after the answer (checkpointAndClose), not inside a commit.
 	conn.pragma('wal_autocheckpoint = 0');
 	return { conn, own: true };
+}
+
+function isBusy(err: unknown): boolean {
+	const code = (err as { code?: string }).code ?? '';
+	return code === 'SQLITE_BUSY' || code.startsWith('SQLITE_BUSY_') || code === 'SQLITE_LOCKED';
+}
+
+/**
+ * Open a write transaction. Another process holding the lock is waited for in short steps that
+ * give the event loop back, up to `WRITE_LOCK_WAIT_MS`.
+ */
+async function beginWrite(conn: Database.Database): Promise<void> {
+	const started = Date.now();
+	for (;;) {
+		try {
+			conn.exec('BEGIN IMMEDIATE');
+			return;
+		} catch (err) {
+			if (!isBusy(err) || Date.now() - started > WRITE_LOCK_WAIT_MS) throw err;
+		}
+		await new Promise((r) => setTimeout(r, 25));
+	}
+}
+
+/** Run `work` in one write transaction (opened when none is, committed at once). */
+async function inWriteTransaction<T>(conn: Database.Database, work: () => T): Promise<T> {
+	await beginWrite(conn);
+	try {
+		const out = work();
+		conn.exec('COMMIT');
+		return out;
+	} catch (err) {
+		if (conn.inTransaction) conn.exec('ROLLBACK');
+		throw err;
+	}
 }
 
 async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome> {
@@ -127,8 +187,8 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 	const { conn, own } = openIngestConnection(db);
 	const archive = openArchiveWriter(db.$client.name);
 	let sizeBytes = 0;
-	let inTransaction = false;
 	let closeParser = () => Promise.resolve();
+	let writer: BatchWriter | null = null;
 	try {
 		const parserOptions = {
 			profile,
@@ -147,9 +207,9 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 		}
 		parser ??= inlineParseDriver(parserOptions);
 		closeParser = parser.close;
-		conn.exec('BEGIN IMMEDIATE');
-		inTransaction = true;
-		const writer = createBatchWriter(db, conn, request, startedAt);
+		const w = (writer = await inWriteTransaction(conn, () =>
+			createBatchWriter(db, conn, request, startedAt)
+		));
 		let rows = 0;
 		const progress = (phase: 'receiving' | 'finishing') => {
 			if (!request.job) return;
@@ -163,11 +223,29 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 				boards: parser.boardsSeen()
 			});
 		};
-		const writeAll = (batches: SpiRowBatch[]) => {
+		// Batches wait here until a chunk's worth is ready; then one short transaction writes them.
+		let held: SpiRowBatch[] = [];
+		let heldRows = 0;
+		const writeHeld = async () => {
+			if (held.length === 0) return;
+			const batches = held;
+			held = [];
+			heldRows = 0;
+			await inWriteTransaction(conn, () => {
+				for (const batch of batches) {
+					w.write(batch);
+					rows += batch.length;
+				}
+				w.flush();
+				w.reserve();
+			});
+		};
+		const writeAll = async (batches: SpiRowBatch[]) => {
 			for (const batch of batches) {
-				writer.write(batch);
-				rows += batch.length;
+				held.push(batch);
+				heldRows += batch.length;
 			}
+			if (heldRows >= CHUNK_ROWS) await writeHeld();
 		};
 		progress('receiving');
 		let lastReport = 0;
@@ -178,117 +256,206 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 			sizeBytes += bytes.length;
 			inFlight.push(parser.push(bytes));
 			while (inFlight.length > (parser.threaded ? 2 : 0))
-				writeAll(await (inFlight.shift() as Promise<SpiRowBatch[]>));
+				await writeAll(await (inFlight.shift() as Promise<SpiRowBatch[]>));
 			if (request.job && Date.now() - lastReport > 200) {
 				lastReport = Date.now();
 				progress('receiving');
 			}
 		}
-		while (inFlight.length > 0) writeAll(await (inFlight.shift() as Promise<SpiRowBatch[]>));
-		writeAll(await parser.end());
+		while (inFlight.length > 0) await writeAll(await (inFlight.shift() as Promise<SpiRowBatch[]>));
+		await writeAll(await parser.end());
+		await writeHeld();
 		progress('finishing');
-		writer.flush();
 		const summary = await parser.summary();
 		// Last request: the parser thread is then done with this file (and may take the next).
 		const sha256 = await parser.digest();
-		const writeFailure = writer.failure();
+		const writeFailure = w.failure();
 
-		const earlier = conn
-			.prepare(`select id from spi_imports where sha256 = ? and status = 'imported'`)
-			.get(sha256) as { id: number } | undefined;
-		if (earlier) {
-			conn.exec('ROLLBACK');
-			inTransaction = false;
-			archive.discard();
-			const attemptId = recordVerdict(conn, request, profile, {
-				status: 'duplicate',
-				sha256,
-				sizeBytes,
-				startedAt,
-				summary,
-				duplicateOf: earlier.id,
-				archivePath: null,
-				errors: []
-			});
-			finishProgress(request, sizeBytes, rows, earlier.id, 'duplicate');
-			return { status: 'duplicate', id: earlier.id, attemptId };
+		const earlierImport = () =>
+			conn
+				.prepare(`select id from spi_imports where sha256 = ? and status = 'imported'`)
+				.pluck()
+				.get(sha256) as number | undefined;
+		let duplicateOf = earlierImport() ?? null;
+		let stored: StoredImport | null = null;
+		if (duplicateOf === null && summary.ok && !writeFailure) {
+			// The one transaction that makes the import visible (a duplicate may have landed meanwhile).
+			await beginWrite(conn);
+			try {
+				duplicateOf = earlierImport() ?? null;
+				if (duplicateOf === null) {
+					stored = w.finish(summary);
+					const archivePath = archive.commit(sha256);
+					conn
+						.prepare(
+							`update spi_imports set status = 'imported', sha256 = ?, size_bytes = ?, finished_at = ?,
+							 data_rows = ?, boards = ?, pads = ?, rejected_rows = ?, duplicate_boards = ?,
+							 error_count = ?, errors = ?, warnings = ?, archive_path = ?,
+							 board_id_from = null, board_id_to = null where id = ?`
+						)
+						.run(
+							sha256,
+							sizeBytes,
+							Date.now(),
+							summary.dataRows,
+							stored.boards,
+							stored.pads,
+							summary.rowsRejected,
+							stored.duplicateBoards,
+							summary.errorCount,
+							JSON.stringify(summary.errors),
+							JSON.stringify(summary.warnings),
+							archivePath,
+							w.importId
+						);
+				}
+				conn.exec(duplicateOf === null ? 'COMMIT' : 'ROLLBACK');
+			} catch (err) {
+				if (conn.inTransaction) conn.exec('ROLLBACK');
+				throw err;
+			}
 		}
 
-		if (!summary.ok || writeFailure) {
-			conn.exec('ROLLBACK');
-			inTransaction = false;
-			const archivePath = archive.commit(sha256);
-			const errors = writeFailure ? [writeFailure, ...summary.errors] : summary.errors;
-			const id = recordVerdict(conn, request, profile, {
-				status: 'rejected',
-				sha256,
-				sizeBytes,
-				startedAt,
-				summary,
-				duplicateOf: null,
-				archivePath,
-				errors: errors.slice(0, 100)
-			});
-			finishProgress(request, sizeBytes, rows, id, 'rejected');
+		if (stored) {
+			finishProgress(request, sizeBytes, rows, w.importId, 'imported');
+			if (stored.boardIds.length > 0) {
+				// Charts judge the new boards at once (it logs its own failures, never throws).
+				const { evaluateSignalsAfterIngest } = await import('../spc/signals');
+				await evaluateSignalsAfterIngest(db, stored.boardIds);
+			}
 			return {
-				status: 'rejected',
-				id,
-				errorCount: summary.errorCount + (writeFailure ? 1 : 0),
-				errors: errors.slice(0, 100)
+				status: 'imported',
+				id: w.importId,
+				boards: stored.boards,
+				pads: stored.pads,
+				rejectedRows: summary.rowsRejected,
+				duplicateBoards: stored.duplicateBoards,
+				warnings: summary.warnings,
+				threaded: parser.threaded
 			};
 		}
 
-		const stored = writer.finish(summary);
-		const archivePath = archive.commit(sha256);
-		conn
-			.prepare(
-				`update spi_imports set status = 'imported', sha256 = ?, size_bytes = ?, finished_at = ?,
-				 data_rows = ?, boards = ?, pads = ?, rejected_rows = ?, duplicate_boards = ?,
-				 error_count = ?, errors = ?, warnings = ?, archive_path = ? where id = ?`
-			)
-			.run(
+		// Nothing of this file stays: its chunk rows go first, then the row records the verdict.
+		await discardImportRows(conn, w.importId);
+		if (duplicateOf !== null) {
+			archive.discard();
+			recordVerdict(conn, w.importId, {
+				status: 'duplicate',
 				sha256,
 				sizeBytes,
-				Date.now(),
-				summary.dataRows,
-				stored.boards,
-				stored.pads,
-				summary.rowsRejected,
-				stored.duplicateBoards,
-				summary.errorCount,
-				JSON.stringify(summary.errors),
-				JSON.stringify(summary.warnings),
-				archivePath,
-				writer.importId
-			);
-		conn.exec('COMMIT');
-		inTransaction = false;
-		finishProgress(request, sizeBytes, rows, writer.importId, 'imported');
-		if (stored.boardIds.length > 0) {
-			// Charts judge the new boards at once (it logs its own failures, never throws).
-			const { evaluateSignalsAfterIngest } = await import('../spc/signals');
-			await evaluateSignalsAfterIngest(db, stored.boardIds);
+				summary,
+				duplicateOf,
+				archivePath: null,
+				errors: []
+			});
+			finishProgress(request, sizeBytes, rows, duplicateOf, 'duplicate');
+			return { status: 'duplicate', id: duplicateOf, attemptId: w.importId };
 		}
+		const archivePath = archive.commit(sha256);
+		const errors = writeFailure ? [writeFailure, ...summary.errors] : summary.errors;
+		recordVerdict(conn, w.importId, {
+			status: 'rejected',
+			sha256,
+			sizeBytes,
+			summary,
+			duplicateOf: null,
+			archivePath,
+			errors: errors.slice(0, 100)
+		});
+		finishProgress(request, sizeBytes, rows, w.importId, 'rejected');
 		return {
-			status: 'imported',
-			id: writer.importId,
-			boards: stored.boards,
-			pads: stored.pads,
-			rejectedRows: summary.rowsRejected,
-			duplicateBoards: stored.duplicateBoards,
-			warnings: summary.warnings,
-			threaded: parser.threaded
+			status: 'rejected',
+			id: w.importId,
+			errorCount: summary.errorCount + (writeFailure ? 1 : 0),
+			errors: errors.slice(0, 100)
 		};
 	} catch (err) {
-		if (inTransaction) conn.exec('ROLLBACK');
+		if (conn.inTransaction) conn.exec('ROLLBACK');
 		// The parser thread writes the archive file: stop it before the file is closed.
 		await closeParser();
 		archive.discard();
+		if (writer) {
+			// A fault (disk full, closed database): remove what was written; if even that fails,
+			// the row stays 'importing' and the next start-up removes it.
+			try {
+				await discardImportRows(conn, writer.importId);
+				conn.prepare(`delete from spi_imports where id = ? and status = 'importing'`).run(writer.importId);
+			} catch (cleanupErr) {
+				console.warn(
+					'[rollbead] could not remove the rows of a failed SPI import (removed at the next start):',
+					(cleanupErr as Error).message
+				);
+			}
+		}
 		throw err;
 	} finally {
 		await closeParser();
 		if (own) setImmediate(() => checkpointAndClose(conn));
 	}
+}
+
+/**
+ * Delete the pad rows of an unfinished import (status 'importing'), a few boards per short
+ * transaction with the event loop given back in between, and clear its reserved range. Board ids
+ * that have a spi_boards row are never touched (they belong to a finished import).
+ */
+async function discardImportRows(conn: Database.Database, importId: number): Promise<void> {
+	const range = conn
+		.prepare(
+			`select board_id_from as "from", board_id_to as "to" from spi_imports
+			 where id = ? and status = 'importing'`
+		)
+		.get(importId) as { from: number | null; to: number | null } | undefined;
+	if (!range || range.from === null || range.to === null || range.to < range.from) return;
+	const deleteRows = conn.prepare(
+		`delete from spi_pad_measurements where board_id between ? and ?
+		 and board_id not in (select id from spi_boards where id between ? and ?)`
+	);
+	const shrink = conn.prepare(`update spi_imports set board_id_from = ? where id = ?`);
+	for (let from = range.from; from <= range.to; from += DISCARD_BOARDS_PER_STEP) {
+		const to = Math.min(range.to, from + DISCARD_BOARDS_PER_STEP - 1);
+		await inWriteTransaction(conn, () => {
+			deleteRows.run(from, to, from, to);
+			// Progress is recorded with the deletes, so a crash part-way resumes where it stopped.
+			shrink.run(to + 1, importId);
+		});
+		await new Promise((r) => setImmediate(r));
+	}
+}
+
+/**
+ * Remove what imports cut short by a stopped server left (status 'importing'): their pad rows
+ * (in chunks) and their rows, which become 'rejected' with a message saying so (the file is
+ * imported whole when sent again; a watched file still in its folder is picked up again).
+ * Run at start-up, before any import starts. Returns how many imports were cleaned up.
+ */
+export async function recoverInterruptedImports(db: Db): Promise<number> {
+	const conn = db.$client;
+	const ids = conn
+		.prepare(`select id from spi_imports where status = 'importing' order by id`)
+		.pluck()
+		.all() as number[];
+	for (const id of ids) {
+		await discardImportRows(conn, id);
+		conn
+			.prepare(
+				`update spi_imports set status = 'rejected', finished_at = ?, error_count = 1, errors = ?,
+				 board_id_from = null, board_id_to = null where id = ?`
+			)
+			.run(
+				Date.now(),
+				JSON.stringify([
+					{
+						row: 0,
+						column: null,
+						message:
+							'The server stopped during this import; nothing of it was kept. Import the file again.'
+					}
+				]),
+				id
+			);
+	}
+	return ids.length;
 }
 
 /**
@@ -332,50 +499,35 @@ interface Verdict {
 	status: 'rejected' | 'duplicate';
 	sha256: string;
 	sizeBytes: number;
-	startedAt: number;
 	summary: SpiParseSummary;
 	duplicateOf: number | null;
 	archivePath: string | null;
 	errors: IngestIssue[];
 }
 
-/** Record a rejected or duplicate file (its own small transaction, after the rollback). */
-function recordVerdict(
-	conn: Database.Database,
-	request: IngestRequest,
-	profile: MappingProfile,
-	v: Verdict
-): number {
-	const row = conn
+/** Record a rejected or duplicate file on its import row (after its chunk rows were deleted). */
+function recordVerdict(conn: Database.Database, importId: number, v: Verdict): void {
+	conn
 		.prepare(
-			`insert into spi_imports (source, file_name, sha256, size_bytes, status, duplicate_of_import_id,
-			 profile_id, profile_name, created_by, user_id, source_path, started_at, finished_at,
-			 data_rows, boards, pads, rejected_rows, duplicate_boards, error_count, errors, warnings,
-			 archive_path)
-			 values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 0, 0, ?, 0, ?, ?, ?, ?) returning id`
+			`update spi_imports set sha256 = ?, size_bytes = ?, status = ?, duplicate_of_import_id = ?,
+			 finished_at = ?, data_rows = ?, boards = 0, pads = 0, rejected_rows = ?,
+			 duplicate_boards = 0, error_count = ?, errors = ?, warnings = ?, archive_path = ?,
+			 board_id_from = null, board_id_to = null where id = ?`
 		)
-		.get(
-			request.source,
-			request.fileName,
+		.run(
 			v.sha256,
 			v.sizeBytes,
 			v.status,
 			v.duplicateOf,
-			request.profileId ?? null,
-			profile.name,
-			request.createdBy,
-			request.userId ?? null,
-			request.sourcePath ?? null,
-			v.startedAt,
 			Date.now(),
 			v.summary.dataRows,
 			v.summary.rowsRejected,
 			v.status === 'rejected' ? Math.max(v.summary.errorCount, v.errors.length) : 0,
 			JSON.stringify(v.errors),
 			JSON.stringify(v.summary.warnings),
-			v.archivePath
-		) as { id: number };
-	return row.id;
+			v.archivePath,
+			importId
+		);
 }
 
 /** Parse a print-run reference from a file: `17`, `#17`, `PR-17`, `run 17` → 17. */
@@ -384,9 +536,22 @@ function printRunNumber(ref: string): number | null {
 	return m ? Number(m[1]) : null;
 }
 
+/** What the final transaction stored. */
+interface StoredImport {
+	boards: number;
+	boardIds: number[];
+	pads: number;
+	duplicateBoards: number;
+}
+
+type BatchWriter = ReturnType<typeof createBatchWriter>;
+
 /**
- * The write side of one import, inside the open transaction: board rows when a board first
- * appears, pad dictionary ids, pad measurement rows, and aggregates at the end.
+ * The write side of one import. `write` runs inside a chunk transaction: pad measurement rows
+ * against board ids reserved for this import, pad dictionary ids taken in memory (new entries
+ * are written at the end); `reserve` records the ids handed out; `finish` (in the final
+ * transaction) writes the pad dictionary entries, the board rows with their aggregates and the
+ * pad-aperture links. Call first inside a write transaction: it writes the 'importing' row.
  */
 function createBatchWriter(
 	db: Db,
@@ -394,12 +559,39 @@ function createBatchWriter(
 	request: IngestRequest,
 	startedAt: number
 ) {
+	// AUTOINCREMENT tables: the next id is past both the largest id and sqlite_sequence, so raising
+	// sqlite_sequence reserves ids (nothing else can take them, even if this import never finishes).
+	const nextIdOf = (table: string) =>
+		Math.max(
+			(conn.prepare(`select max(id) from ${table}`).pluck().get() as number | null) ?? 0,
+			(conn.prepare(`select seq from sqlite_sequence where name = ?`).pluck().get(table) as
+				| number
+				| undefined) ?? 0
+		) + 1;
+	const raiseSequence = (table: string, seq: number) => {
+		const changed = conn
+			.prepare(`update sqlite_sequence set seq = ? where name = ? and seq < ?`)
+			.run(seq, table, seq).changes;
+		if (changed === 0)
+			conn
+				.prepare(
+					`insert into sqlite_sequence (name, seq) select ?, ? where not exists
+					 (select 1 from sqlite_sequence where name = ?)`
+				)
+				.run(table, seq, table);
+	};
+	const firstBoardId = nextIdOf('spi_boards');
+	let nextBoardId = firstBoardId;
+	let reservedBoardId = firstBoardId - 1;
+	let nextPadId = nextIdOf('spi_pads');
+	let reservedPadId = nextPadId - 1;
 	const importId = (
 		conn
 			.prepare(
 				`insert into spi_imports (source, file_name, sha256, size_bytes, status, profile_id,
-				 profile_name, created_by, user_id, source_path, started_at, finished_at)
-				 values (?, ?, '', 0, 'importing', ?, ?, ?, ?, ?, ?, ?) returning id`
+				 profile_name, created_by, user_id, source_path, started_at, finished_at,
+				 board_id_from, board_id_to)
+				 values (?, ?, '', 0, 'importing', ?, ?, ?, ?, ?, ?, ?, ?, ?) returning id`
 			)
 			.get(
 				request.source,
@@ -410,17 +602,18 @@ function createBatchWriter(
 				request.userId ?? null,
 				request.sourcePath ?? null,
 				startedAt,
-				startedAt
+				startedAt,
+				firstBoardId,
+				firstBoardId - 1
 			) as { id: number }
 	).id;
+	const recordReservedBoards = conn.prepare(`update spi_imports set board_id_to = ? where id = ?`);
 
-	const insertBoard = conn.prepare(
-		`insert into spi_boards (serial, inspected_at, line_code, product_code, line_id, product_id,
-		 import_id, print_run_id, stencil_id, stencil_name, print_run_ref, pad_count, pass_count,
-		 warn_count, fail_count)
-		 values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 0, 0, 0, 0)
-		 on conflict (serial, inspected_at) do nothing returning id`
-	);
+	const boardStored = conn
+		.prepare(`select 1 from spi_boards where serial = ? and inspected_at = ?`)
+		.pluck();
+	/** New pad dictionary entries [id, product, panel, refdes, pad], written at the end. */
+	const newPads: [number, string, number, string, string][] = [];
 	const lineIdOf = conn.prepare(`select id from lines where code = ?`).pluck();
 	const productIdOf = conn.prepare(`select id from products where code = ?`).pluck();
 	const runById = conn.prepare(`select id, line_id, stencil_id from print_runs where id = ?`);
@@ -434,11 +627,6 @@ function createBatchWriter(
 	const padsOfProduct = conn
 		.prepare(`select id, panel_index, refdes, pad from spi_pads where product_code = ?`)
 		.raw();
-	const insertPad = conn
-		.prepare(
-			`insert into spi_pads (product_code, panel_index, refdes, pad) values (?, ?, ?, ?) returning id`
-		)
-		.pluck();
 	const linkPad = conn.prepare(`update spi_pads set aperture_id = ? where id = ?`);
 	const MEASUREMENT_COLUMNS = `insert into spi_pad_measurements (board_id, pad_id,
 		 volume_centi_pct, area_centi_pct, height_centi_um, offset_x_centi_um, offset_y_centi_um,
@@ -576,22 +764,25 @@ function createBatchWriter(
 			named !== null
 				? cached(cache.stencils, named, () => (stencilByName.get(named) as number) ?? null)
 				: runStencilId;
-		const row = insertBoard.get(
-			b.boardSerial,
-			b.inspectedAtMs,
-			b.lineCode,
-			b.productCode,
-			lineId,
-			productId,
-			importId,
-			printRunId,
-			stencilId,
-			b.stencil,
-			b.printRun
-		) as { id: number } | undefined;
-		if (!row) duplicateBoards++;
+		const stored = boardStored.get(b.boardSerial, b.inspectedAtMs) !== undefined;
+		if (stored) duplicateBoards++;
+		const id = stored ? 0 : nextBoardId++;
 		return {
-			id: row?.id ?? 0,
+			id,
+			row: [
+				id,
+				b.boardSerial,
+				b.inspectedAtMs,
+				b.lineCode,
+				b.productCode,
+				lineId,
+				productId,
+				importId,
+				printRunId,
+				stencilId,
+				b.stencil,
+				b.printRun
+			],
 			productCode: b.productCode,
 			padKeys: padKeysOf(b.productCode),
 			apertures: aperturesOf(stencilId),
@@ -639,7 +830,8 @@ function createBatchWriter(
 				}
 				let padId = lastPads.get(padKey);
 				if (padId === undefined) {
-					padId = insertPad.get(slot.productCode, panel, r, pad[i]) as number;
+					padId = nextPadId++;
+					newPads.push([padId, slot.productCode, panel, r, pad[i]]);
 					lastPads.set(padKey, padId);
 				}
 				let vol = volumePct[i];
@@ -682,27 +874,79 @@ function createBatchWriter(
 		},
 		/** Write rows still buffered (call before reading `failure()`). */
 		flush,
-		/** Write the per-board aggregates and pad links; returns what was stored. */
-		finish(summary: SpiParseSummary) {
-			const update = conn.prepare(
-				`update spi_boards set pad_count = ?, pass_count = ?, warn_count = ?, fail_count = ?,
-				 volume_pct_count = ?, volume_pct_mean = ?, volume_pct_sd = ?, volume_pct_min = ?, volume_pct_max = ?, volume_pct_range = ?,
-				 area_pct_count = ?, area_pct_mean = ?, area_pct_sd = ?, area_pct_min = ?, area_pct_max = ?, area_pct_range = ?,
-				 height_um_count = ?, height_um_mean = ?, height_um_sd = ?, height_um_min = ?, height_um_max = ?, height_um_range = ?,
-				 offset_x_um_count = ?, offset_x_um_mean = ?, offset_x_um_sd = ?, offset_x_um_min = ?, offset_x_um_max = ?, offset_x_um_range = ?,
-				 offset_y_um_count = ?, offset_y_um_mean = ?, offset_y_um_sd = ?, offset_y_um_min = ?, offset_y_um_max = ?, offset_y_um_range = ?,
-				 te_count = ?, te_mean = ?, te_sd = ?, te_min = ?, te_max = ?, te_range = ?
-				 where id = ?`
+		/**
+		 * Reserve the board and pad ids handed out so far (in the open chunk transaction, with the
+		 * rows that use them): raise sqlite_sequence and record the board range on the import row.
+		 */
+		reserve(): void {
+			if (nextBoardId - 1 > reservedBoardId) {
+				reservedBoardId = nextBoardId - 1;
+				raiseSequence('spi_boards', reservedBoardId);
+				recordReservedBoards.run(reservedBoardId, importId);
+			}
+			if (nextPadId - 1 > reservedPadId) {
+				reservedPadId = nextPadId - 1;
+				raiseSequence('spi_pads', reservedPadId);
+			}
+		},
+		/**
+		 * In the final transaction: the new pad dictionary entries, the board rows with their
+		 * aggregates, and the pad-aperture links; returns what was stored. References that went
+		 * away while the file streamed in (a print run, stencil or aperture deleted) are left empty
+		 * rather than failing the import.
+		 */
+		finish(summary: SpiParseSummary): StoredImport {
+			const insertPad = conn.prepare(
+				`insert into spi_pads (id, product_code, panel_index, refdes, pad) values (?, ?, ?, ?, ?)`
 			);
+			for (const p of newPads) insertPad.run(p);
+			const insertBoard = conn.prepare(
+				`insert into spi_boards (id, serial, inspected_at, line_code, product_code, line_id,
+				 product_id, import_id, print_run_id, stencil_id, stencil_name, print_run_ref,
+				 pad_count, pass_count, warn_count, fail_count,
+				 volume_pct_count, volume_pct_mean, volume_pct_sd, volume_pct_min, volume_pct_max, volume_pct_range,
+				 area_pct_count, area_pct_mean, area_pct_sd, area_pct_min, area_pct_max, area_pct_range,
+				 height_um_count, height_um_mean, height_um_sd, height_um_min, height_um_max, height_um_range,
+				 offset_x_um_count, offset_x_um_mean, offset_x_um_sd, offset_x_um_min, offset_x_um_max, offset_x_um_range,
+				 offset_y_um_count, offset_y_um_mean, offset_y_um_sd, offset_y_um_min, offset_y_um_max, offset_y_um_range,
+				 te_count, te_mean, te_sd, te_min, te_max, te_range)
+				 values (${new Array(52).fill('?').join(', ')})`
+			);
+			const exists = (table: string) => {
+				const stmt = conn.prepare(`select 1 from ${table} where id = ?`).pluck();
+				const seen = new Map<number, boolean>();
+				return (id: number | null) =>
+					id === null ? null : cached(seen, id, () => stmt.get(id) !== undefined) ? id : null;
+			};
+			const [lineOk, productOk, runOk, stencilOk, apertureOk] = [
+				exists('lines'),
+				exists('products'),
+				exists('print_runs'),
+				exists('stencils'),
+				exists('apertures')
+			];
 			const cols = (s: MeasureSummary) => [s.count, s.mean, s.sd, s.min, s.max, s.range];
+			const none = summariseMeasure(emptyMeasureState());
+			const aggregates = new Map(summary.boards.map((b) => [b.index, b.aggregate]));
 			const boardIds: number[] = [];
-			for (const b of summary.boards) {
-				const slot = slots[b.index];
+			for (let index = 0; index < slots.length; index++) {
+				const slot = slots[index];
 				if (!slot || slot.id === 0) continue;
+				const row = slot.row;
+				row[5] = lineOk(row[5] as number | null);
+				row[6] = productOk(row[6] as number | null);
+				row[8] = runOk(row[8] as number | null);
+				row[9] = stencilOk(row[9] as number | null);
+				const a = aggregates.get(index);
+				if (!a) {
+					// A board whose every row was skipped: stored with no figures, as it always was.
+					insertBoard.run(...row, 0, 0, 0, 0, ...[0, 1, 2, 3, 4, 5].flatMap(() => cols(none)));
+					continue;
+				}
 				boardIds.push(slot.id);
-				const a = b.aggregate;
 				const volume = a.volumePct.count === 0 ? summariseMeasure(slot.derivedVolume) : a.volumePct;
-				update.run(
+				insertBoard.run(
+					...row,
 					a.rows,
 					a.results.pass,
 					a.results.warn,
@@ -712,11 +956,11 @@ function createBatchWriter(
 					...cols(a.heightUm),
 					...cols(a.offsetXUm),
 					...cols(a.offsetYUm),
-					...cols(summariseMeasure(slot.te)),
-					slot.id
+					...cols(summariseMeasure(slot.te))
 				);
 			}
-			for (const [padId, apertureId] of linkedPads) linkPad.run(apertureId, padId);
+			for (const [padId, apertureId] of linkedPads)
+				if (apertureOk(apertureId) !== null) linkPad.run(apertureId, padId);
 			return { boards: boardIds.length, boardIds, pads, duplicateBoards };
 		}
 	};
