@@ -10,6 +10,7 @@
 import { toMicrometres, type LengthUnit } from '../units';
 import type { ApertureInput, ApertureShape, PointUm } from './aperture';
 import { checkAperture } from './aperture-validation';
+import { DEFAULT_STENCIL_LIMITS, formatCount, type StencilLimits } from './limits';
 import {
 	MAX_CSV_ERRORS,
 	csvError,
@@ -86,16 +87,39 @@ function numberCell(
 		errors.push(csvError(row.line, column, `must be a number (got ${JSON.stringify(raw)})`));
 		return null;
 	}
+	if (!Number.isFinite(v * scale)) {
+		errors.push(csvError(row.line, column, `is out of range (got ${JSON.stringify(raw)})`));
+		return null;
+	}
 	return v * scale;
 }
 
-function verticesCell(row: CsvRow, errors: CsvError[], scale: number): Parsed<PointUm[]> {
+function verticesCell(
+	row: CsvRow,
+	errors: CsvError[],
+	scale: number,
+	maxVertices: number
+): Parsed<PointUm[]> {
 	const raw = row.cells['vertices'] ?? '';
 	if (raw === '') {
 		errors.push(csvError(row.line, 'vertices', 'is required for a polygon but empty'));
 		return { ok: false };
 	}
-	const parts = raw.split(';').map((p) => p.trim()).filter((p) => p !== '');
+	// Counted before the cell is split, so an endless vertex list costs one pass.
+	let count = 1;
+	for (let i = 0; i < raw.length; i++) if (raw.charCodeAt(i) === 59) count++;
+	if (raw.trimEnd().endsWith(';')) count--;
+	if (count > maxVertices) {
+		const message =
+			`the outline has ${formatCount(count)} vertices; ` +
+			`the limit is ${formatCount(maxVertices)} per outline`;
+		errors.push(csvError(row.line, 'vertices', message));
+		return { ok: false };
+	}
+	const parts = raw
+		.split(';')
+		.map((p) => p.trim())
+		.filter((p) => p !== '');
 	const out: PointUm[] = [];
 	for (let k = 0; k < parts.length; k++) {
 		const xy = parts[k].split(/\s+/);
@@ -111,12 +135,22 @@ function verticesCell(row: CsvRow, errors: CsvError[], scale: number): Parsed<Po
 			);
 			return { ok: false };
 		}
+		if (!Number.isFinite(x * scale) || !Number.isFinite(y * scale)) {
+			const message = `vertex ${k + 1} is out of range (got ${JSON.stringify(parts[k])})`;
+			errors.push(csvError(row.line, 'vertices', message));
+			return { ok: false };
+		}
 		out.push([x * scale, y * scale]);
 	}
 	return { ok: true, value: out };
 }
 
-function rowToAperture(row: CsvRow, unit: LengthUnit, errors: CsvError[]): ApertureInput | null {
+function rowToAperture(
+	row: CsvRow,
+	unit: LengthUnit,
+	errors: CsvError[],
+	maxVertices: number
+): ApertureInput | null {
 	const scale = toMicrometres(1, unit);
 	const before = errors.length;
 	const shapeRaw = (row.cells['shape'] ?? '').toLowerCase();
@@ -146,7 +180,7 @@ function rowToAperture(row: CsvRow, unit: LengthUnit, errors: CsvError[]): Apert
 		const d = numberCell(row, 'diameter', errors, scale, true);
 		if (d !== null && d !== undefined) aperture.diameterUm = d;
 	} else if (shapeName === 'polygon') {
-		const v = verticesCell(row, errors, scale);
+		const v = verticesCell(row, errors, scale, maxVertices);
 		if (v.ok) aperture.verticesUm = v.value;
 	} else if (shapeName) {
 		const l = numberCell(row, 'length', errors, scale, true);
@@ -161,7 +195,7 @@ function rowToAperture(row: CsvRow, unit: LengthUnit, errors: CsvError[]): Apert
 		}
 	}
 	if (errors.length > before) return null;
-	for (const p of checkAperture(aperture)) {
+	for (const p of checkAperture(aperture, undefined, maxVertices)) {
 		const field = p.field.replace(/\[.*$/, '');
 		errors.push(csvError(row.line, FIELD_TO_COLUMN[field] ?? field, p.message));
 	}
@@ -178,9 +212,10 @@ function rowToAperture(row: CsvRow, unit: LengthUnit, errors: CsvError[]): Apert
  */
 export function parseApertureCsv(
 	text: string,
-	unit: LengthUnit
-): { apertures: ApertureInput[] } | { errors: CsvError[] } {
-	const table = readCsvRows(text, MAX_APERTURES_PER_FILE);
+	unit: LengthUnit,
+	limits: StencilLimits = DEFAULT_STENCIL_LIMITS
+): { apertures: ApertureInput[] } | { errors: CsvError[]; overBudget?: boolean } {
+	const table = readCsvRows(text, Math.min(MAX_APERTURES_PER_FILE, limits.maxAperturesPerStencil));
 	if ('errors' in table) return table;
 	const missing = APERTURE_CSV_REQUIRED_COLUMNS.filter((c) => !table.header.includes(c));
 	if (missing.length > 0)
@@ -196,9 +231,17 @@ export function parseApertureCsv(
 		};
 	const errors: CsvError[] = [];
 	const apertures: ApertureInput[] = [];
+	let vertices = 0;
 	for (const row of table.rows) {
-		const a = rowToAperture(row, unit, errors);
+		const a = rowToAperture(row, unit, errors, limits.maxOutlineVertices);
 		if (a) apertures.push(a);
+		vertices += a?.verticesUm?.length ?? 0;
+		if (vertices > limits.maxVerticesPerImport) {
+			const message =
+				`the polygons reach more than ${formatCount(limits.maxVerticesPerImport)} vertices ` +
+				`by this row; the limit is ${formatCount(limits.maxVerticesPerImport)} per import`;
+			return { errors: [...errors, csvError(row.line, 'vertices', message)], overBudget: true };
+		}
 		if (errors.length >= MAX_CSV_ERRORS) break;
 	}
 	if (errors.length > 0) return { errors: errors.slice(0, MAX_CSV_ERRORS) };

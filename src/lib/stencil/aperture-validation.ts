@@ -5,16 +5,23 @@
 import { APERTURE_SHAPES, apertureLabel, type ApertureInput } from './aperture';
 import { describeValue, type InputProblem } from './stencil-input-error';
 import { findSelfIntersection, openPolygon, polygonAreaUm2 } from './polygon';
+import { DEFAULT_STENCIL_LIMITS, NUMBER_RANGES, RELATIVE_TOLERANCE, formatCount } from './limits';
 
 /**
  * Largest accepted aperture dimension, 100 mm: far above any real SMT aperture (large
  * through-hole-reflow or shield-can openings are a few tens of mm), so a larger value is almost
  * certainly a unit mistake (e.g. µm entered as nm).
  */
-export const MAX_APERTURE_DIMENSION_UM = 100_000;
+export const MAX_APERTURE_DIMENSION_UM = NUMBER_RANGES.maxApertureSizeUm;
+
+/** Smallest accepted aperture dimension, 1 µm: no foil is cut finer. */
+export const MIN_APERTURE_DIMENSION_UM = NUMBER_RANGES.minApertureSizeUm;
 
 /** Largest accepted |x| or |y| of an aperture position, 2 m: beyond any stencil frame. */
-export const MAX_POSITION_UM = 2_000_000;
+export const MAX_POSITION_UM = NUMBER_RANGES.maxPositionUm;
+
+/** Largest accepted |rotation|, degrees: one turn either way. */
+export const MAX_ROTATION_DEG = NUMBER_RANGES.maxRotationDeg;
 
 type Problems = InputProblem[];
 
@@ -37,21 +44,43 @@ function checkSize(value: unknown, where: string, field: string, problems: Probl
 		problems.push({ where, field, message: `must be greater than 0 µm (got ${v})` });
 		return false;
 	}
+	if (v < MIN_APERTURE_DIMENSION_UM) {
+		const message = `${v} µm is below the ${MIN_APERTURE_DIMENSION_UM} µm minimum; check the unit`;
+		problems.push({ where, field, message });
+		return false;
+	}
 	if (v > MAX_APERTURE_DIMENSION_UM) {
 		problems.push({
 			where,
 			field,
-			message: `${v} µm exceeds the ${MAX_APERTURE_DIMENSION_UM} µm (100 mm) limit; ` + 'check the unit'
+			message:
+				`${v} µm exceeds the ${MAX_APERTURE_DIMENSION_UM} µm (100 mm) limit; ` + 'check the unit'
 		});
 		return false;
 	}
 	return true;
 }
 
-function checkPolygon(vertices: unknown, where: string, problems: Problems): void {
+function checkPolygon(
+	vertices: unknown,
+	where: string,
+	problems: Problems,
+	maxVertices: number
+): void {
 	const field = 'verticesUm';
 	if (!Array.isArray(vertices)) {
 		problems.push({ where, field, message: 'a polygon needs a list of [x, y] vertices' });
+		return;
+	}
+	// Counted before any per-vertex work, so an oversized outline costs nothing.
+	if (vertices.length > maxVertices) {
+		problems.push({
+			where,
+			field,
+			message:
+				`the outline has ${formatCount(vertices.length)} vertices; ` +
+				`the limit is ${formatCount(maxVertices)} per outline`
+		});
 		return;
 	}
 	let ok = true;
@@ -121,17 +150,30 @@ function checkPolygon(vertices: unknown, where: string, problems: Problems): voi
  * List every problem with an aperture's numbers (empty list = valid). Used by the CSV importer
  * (to report all errors at once) and by `apertureGeometry` (which throws on any).
  *
- * Checks: known shape; finite position and rotation; sizes > 0 and ≤ 100 mm; corner radius
- * 0 ≤ r ≤ min(L, W)/2; polygon ≥ 3 distinct vertices, not self-intersecting, non-zero area.
+ * Checks: known shape; finite position (|x|, |y| ≤ 2 m) and rotation (-360..360°); sizes
+ * 1 µm..100 mm; corner radius 0 ≤ r ≤ min(L, W)/2 (within a relative 1e-6); polygon 3 to
+ * `maxOutlineVertices` distinct vertices, not self-intersecting, non-zero area.
  * @example checkAperture({ refdes: 'R1', pad: '1', shape: 'circle', diameterUm: -1, xUm: 0, yUm: 0, rotationDeg: 0 })
  * // [{ where: 'R1.1', field: 'diameterUm', message: 'must be greater than 0 µm (got -1)' }]
  */
-export function checkAperture(aperture: ApertureInput, index?: number): InputProblem[] {
+export function checkAperture(
+	aperture: ApertureInput,
+	index?: number,
+	maxOutlineVertices: number = DEFAULT_STENCIL_LIMITS.maxOutlineVertices
+): InputProblem[] {
 	const problems: Problems = [];
 	const where = apertureLabel(aperture, index);
 	checkFinite(aperture.xUm, where, 'xUm', problems);
 	checkFinite(aperture.yUm, where, 'yUm', problems);
-	checkFinite(aperture.rotationDeg, where, 'rotationDeg', problems);
+	if (
+		checkFinite(aperture.rotationDeg, where, 'rotationDeg', problems) &&
+		Math.abs(aperture.rotationDeg) > MAX_ROTATION_DEG
+	)
+		problems.push({
+			where,
+			field: 'rotationDeg',
+			message: `${aperture.rotationDeg}° is outside -${MAX_ROTATION_DEG}..${MAX_ROTATION_DEG}°`
+		});
 	for (const field of ['xUm', 'yUm'] as const) {
 		const v = aperture[field];
 		if (Number.isFinite(v) && Math.abs(v) > MAX_POSITION_UM)
@@ -154,7 +196,7 @@ export function checkAperture(aperture: ApertureInput, index?: number): InputPro
 	if (aperture.shape === 'circle') {
 		checkSize(aperture.diameterUm, where, 'diameterUm', problems);
 	} else if (aperture.shape === 'polygon') {
-		checkPolygon(aperture.verticesUm, where, problems);
+		checkPolygon(aperture.verticesUm, where, problems, maxOutlineVertices);
 	} else {
 		const okL = checkSize(aperture.lengthUm, where, 'lengthUm', problems);
 		const okW = checkSize(aperture.widthUm, where, 'widthUm', problems);
@@ -174,7 +216,8 @@ export function checkAperture(aperture: ApertureInput, index?: number): InputPro
 				});
 			} else if (okL && okW) {
 				const half = Math.min(aperture.lengthUm!, aperture.widthUm!) / 2;
-				if (r > half)
+				// Relative slack: an inch obround converted to µm may come out a hair over.
+				if (r > half * (1 + RELATIVE_TOLERANCE))
 					problems.push({
 						where,
 						field: 'cornerRadiusUm',

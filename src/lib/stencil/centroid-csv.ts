@@ -4,6 +4,7 @@
  * `ref`, `posx`/`pos_x`/`mid_x`/`center_x`, and the same for y); other columns are ignored.
  */
 import { toMicrometres, type LengthUnit } from '../units';
+import { NUMBER_RANGES } from './limits';
 import { csvError, parseNumberCell, readCsvRows, type CsvError, MAX_CSV_ERRORS } from './csv-rows';
 
 /** A component's reference designator and centre, µm. */
@@ -66,8 +67,16 @@ export function parseCentroidCsv(
 		const xy = (['x', 'y'] as const).map((c) => {
 			const raw = row.cells[c] ?? '';
 			const v = parseNumberCell(raw);
-			if (v === null)
+			if (v === null) {
 				errors.push(csvError(row.line, c, `must be a number (got ${JSON.stringify(raw)})`));
+				return null;
+			}
+			const um = toMicrometres(v, unit);
+			if (!(Math.abs(um) <= NUMBER_RANGES.maxPositionUm)) {
+				const message = `${raw} ${unit} is beyond ±${NUMBER_RANGES.maxPositionUm / 1000} mm`;
+				errors.push(csvError(row.line, c, message));
+				return null;
+			}
 			return v;
 		});
 		if (refdes && xy[0] !== null && xy[1] !== null)

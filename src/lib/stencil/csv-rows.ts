@@ -58,6 +58,23 @@ export function readCsvRows(
 	aliases: Record<string, string> = {}
 ): { header: string[]; rows: CsvRow[] } | { errors: CsvError[] } {
 	const src = text.replace(/^\uFEFF/, '').replace(/\r\n?/g, '\n');
+	// NUL and other control bytes, or U+FFFD (what decoding invalid UTF-8 leaves), mean a binary
+	// or mis-encoded file: refused with where, never stored in a refdes.
+	const bad = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F\uFFFD]/.exec(src);
+	if (bad) {
+		let line = 1;
+		let lineStart = 0;
+		for (let i = 0; i < bad.index; i++)
+			if (src.charCodeAt(i) === 10) {
+				line++;
+				lineStart = i + 1;
+			}
+		const code = bad[0].charCodeAt(0).toString(16).toUpperCase().padStart(4, '0');
+		const what =
+			bad[0] === '\uFFFD' ? 'bytes that are not valid UTF-8' : `a control character (U+${code})`;
+		const message = `column ${bad.index - lineStart + 1} holds ${what}; the file must be UTF-8 text`;
+		return { errors: [csvError(line, null, message)] };
+	}
 	const errors: CsvError[] = [];
 	let header: string[] | null = null;
 	let headerLine = 1;
@@ -97,7 +114,11 @@ export function readCsvRows(
 			});
 			if (cells.length > header.length && cells.slice(header.length).some((c) => c.trim() !== ''))
 				errors.push(
-					csvError(line, null, `has ${cells.length} cells but the header has ${header.length} columns`)
+					csvError(
+						line,
+						null,
+						`has ${cells.length} cells but the header has ${header.length} columns`
+					)
 				);
 			rows.push({ line, cells: record });
 		}

@@ -6,6 +6,7 @@
 import gerberPlotter from 'gerber-plotter';
 import { gerberProblem, type GerberProblem } from './gerber-message';
 import { standardApertureOutline } from './gerber-standard-outline';
+import { DEFAULT_STENCIL_LIMITS, formatCount, type StencilLimits } from './limits';
 import type {
 	GerberCommand,
 	GerberOutlineResult,
@@ -58,6 +59,8 @@ export interface GerberImage {
 	firstDrawLine: number;
 	errors: GerberProblem[];
 	warnings: GerberProblem[];
+	/** Openings the flashes and regions make, step-and-repeat copies included (before skips). */
+	openings: number;
 }
 
 /** Plotter warnings that the checks below already turn into errors, or that concern draws. */
@@ -87,7 +90,8 @@ const STANDARD_SHAPES = ['circle', 'rect', 'obround', 'poly'];
 export function readGerberImage(
 	commands: readonly GerberCommand[],
 	lastLine: number,
-	maxErrors: number
+	maxErrors: number,
+	limits: StencilLimits = DEFAULT_STENCIL_LIMITS
 ): GerberImage {
 	const errors: GerberProblem[] = [];
 	const warnings: GerberProblem[] = [];
@@ -129,13 +133,22 @@ export function readGerberImage(
 	const shapes = new Map<string, GerberPadPrimitive[]>();
 	const flashes: GerberFlash[] = [];
 	const regions: GerberRegion[] = [];
+	// Budgets, counted before the plotter builds anything (see `limits.ts`).
+	let openings = 0;
+	let copies = 1;
+	let regionSegments = 0;
+	let overBudget = false;
+	const budget = (at: number, what: string, message: string) => {
+		overBudget = true;
+		errors.push({ ...gerberProblem(at, what, message), budget: true });
+	};
 	const requireUnits = (what: string) => {
 		if (units || unitsReported) return;
 		unitsReported = true;
 		fail(line, what, 'units are not set; %MOMM*% or %MOIN*% must come first');
 	};
 
-	for (let seq = 0; seq < commands.length && errors.length < maxErrors; seq++) {
+	for (let seq = 0; seq < commands.length && errors.length < maxErrors && !overBudget; seq++) {
 		let cmd = commands[seq];
 		line = cmd.line + 1;
 		let closesRegion = false;
@@ -153,6 +166,7 @@ export function readGerberImage(
 					if (inRegion) fail(line, 'G36', 'region started inside another region');
 					inRegion = true;
 					regionLine = line;
+					regionSegments = 0;
 				} else if (!inRegion) {
 					warn(line, 'G37', 'region end without a region start; ignored');
 				} else {
@@ -199,11 +213,44 @@ export function readGerberImage(
 		} else if (cmd.type === 'level') {
 			if (inRegion) fail(line, '%LP/%SR', 'polarity or step-repeat change inside a region');
 			if (cmd.level === 'polarity') clear = cmd.value === 'C';
+			if (cmd.level === 'stepRep') {
+				const v = cmd.value as { x?: number; y?: number } | null;
+				copies = v && typeof v.x === 'number' && typeof v.y === 'number' ? v.x * v.y : 1;
+				// The plotter makes the offset list at once: refuse before it does.
+				if (!(copies <= limits.maxOpeningsPerLayer)) {
+					budget(
+						line,
+						'%SR',
+						`step-and-repeat asks for ${formatCount(copies)} copies; ` +
+							`the limit is ${formatCount(limits.maxOpeningsPerLayer)} openings per layer`
+					);
+					break;
+				}
+			}
 		} else if (cmd.type === 'op') {
 			requireUnits('operation');
 			const op: 'int' | 'move' | 'flash' | null = cmd.op === 'last' ? lastOp : cmd.op;
 			if (op === null) {
 				fail(line, 'coordinate', 'coordinates without D01/D02/D03 and no earlier operation');
+			}
+			if (op === 'int' && inRegion && ++regionSegments > limits.maxRegionSegments) {
+				const message =
+					`the region opened at line ${regionLine} has more than ` +
+					`${formatCount(limits.maxRegionSegments)} segments`;
+				budget(line, 'G36', message);
+				break;
+			}
+			if (op === 'flash' || (op === 'int' && inRegion && regionSegments === 1)) {
+				// Each flash, and each region, makes one opening per step-and-repeat copy.
+				openings += copies;
+				if (openings > limits.maxOpeningsPerLayer) {
+					const message =
+						`the layer makes more than ${formatCount(limits.maxOpeningsPerLayer)} openings ` +
+						`(step-and-repeat copies included); the limit is ` +
+						`${formatCount(limits.maxOpeningsPerLayer)} openings per layer`;
+					budget(line, op === 'flash' ? 'D03' : 'G36', message);
+					break;
+				}
 			}
 			if (op === 'flash') {
 				if (inRegion) fail(line, 'D03', 'flash inside a region (G36/G37)');
@@ -239,6 +286,9 @@ export function readGerberImage(
 		if (doneLine) break;
 	}
 
+	const image = { units, flashes, regions, tools, shapes, draws, firstDrawLine, errors, warnings };
+	// Over a budget the rest of the file was not read: the end checks would only add noise.
+	if (overBudget) return { ...image, openings };
 	if (!units && !unitsReported) {
 		fail(1, 'units', 'units are not set; the file has no %MOMM*% or %MOIN*%');
 	}
@@ -250,5 +300,16 @@ export function readGerberImage(
 			draws > 0 ? ` (${draws} draw(s) with D01 found; a paste layer needs flashes or regions)` : '';
 		fail(0, 'content', `no flashes (D03) or regions (G36/G37) found: nothing to import${drawNote}`);
 	}
-	return { units, flashes, regions, tools, shapes, draws, firstDrawLine, errors, warnings };
+	return {
+		units,
+		flashes,
+		regions,
+		tools,
+		shapes,
+		draws,
+		firstDrawLine,
+		errors,
+		warnings,
+		openings
+	};
 }

@@ -17,6 +17,13 @@ import { macroShapeOutline } from './gerber-macro-outline';
 import { nameGerberApertures } from './gerber-naming';
 import { classifyGerberParserWarning } from './gerber-parser-warning';
 import { rewriteMacroUnaryMinus } from './gerber-unary-minus';
+import { scanGerberText } from './gerber-scan';
+import {
+	DEFAULT_STENCIL_LIMITS,
+	formatCount,
+	StencilBudgetError,
+	type StencilLimits
+} from './limits';
 import type {
 	GerberCommand,
 	GerberOutline,
@@ -43,6 +50,8 @@ export interface GerberImportOptions {
 	maxBytes?: number;
 	/** Chord-to-arc tolerance in µm for regions and round macro parts; default 0.5. */
 	arcToleranceUm?: number;
+	/** Work budgets; default `DEFAULT_STENCIL_LIMITS`. */
+	limits?: StencilLimits;
 }
 
 /** One import error; `line` is 1-based, 0 when the problem concerns the whole file. */
@@ -63,6 +72,8 @@ export interface GerberImportSuccess {
 /** A failed import: every error found, sorted by line. */
 export interface GerberImportFailure {
 	errors: GerberImportError[];
+	/** True when a work budget was exceeded (the file asks for too much work, 413). */
+	overBudget?: boolean;
 }
 
 /** The result of `importGerberPasteLayer`. */
@@ -85,9 +96,33 @@ interface Placed {
 
 function failure(errors: readonly GerberProblem[]): GerberImportFailure {
 	const sorted = [...errors].sort((a, b) => a.line - b.line);
-	if (sorted.length <= MAX_ERRORS) return { errors: sorted };
+	const overBudget = sorted.some((e) => e.budget);
+	const flag = overBudget ? { overBudget } : {};
+	if (sorted.length <= MAX_ERRORS) return { errors: sorted, ...flag };
 	const rest = gerberProblem(0, 'errors', `${sorted.length - MAX_ERRORS} more not listed`);
-	return { errors: [...sorted.slice(0, MAX_ERRORS), rest] };
+	return { errors: [...sorted.slice(0, MAX_ERRORS), rest], ...flag };
+}
+
+/** Counts polygon vertices against the per-import budget before they are made. */
+class VertexBudget {
+	private used = 0;
+	exceeded = false;
+	constructor(
+		private readonly max: number,
+		private readonly errors: GerberProblem[]
+	) {}
+	/** Take `n` vertices for an object at `line`; false (and one error) when over the budget. */
+	take(n: number, line: number, what: string): boolean {
+		if (this.exceeded) return false;
+		this.used += n;
+		if (this.used <= this.max) return true;
+		this.exceeded = true;
+		const message =
+			`the layer's polygon outlines reach more than ${formatCount(this.max)} vertices ` +
+			`(step-and-repeat copies included); the limit is ${formatCount(this.max)} per import`;
+		this.errors.push({ ...gerberProblem(line, what, message), budget: true });
+		return false;
+	}
 }
 
 /** Commands from gerber-parser with its warnings triaged into errors and warnings. */
@@ -129,7 +164,15 @@ function parseGerber(text: string): Parsed | GerberImportFailure {
 }
 
 /** Apertures of the flashes; skipped apertures are reported once per D-code. */
-function placeFlashes(image: GerberImage, f: number, tolerance: number, warnings: GerberProblem[]) {
+function placeFlashes(
+	image: GerberImage,
+	f: number,
+	tolerance: number,
+	warnings: GerberProblem[],
+	errors: GerberProblem[],
+	limits: StencilLimits,
+	vertices: VertexBudget
+) {
 	const outlines = new Map<string, GerberOutlineResult>();
 	const skipped = new Map<string, { count: number; firstLine: number }>();
 	const dark: Placed[] = [];
@@ -139,12 +182,27 @@ function placeFlashes(image: GerberImage, f: number, tolerance: number, warnings
 		if (!result) {
 			const standard = image.tools.get(fl.tool)?.standard;
 			result = standard ?? macroShapeOutline(image.shapes.get(fl.tool) ?? [], tolerance);
+			if ('outline' in result && result.outline.kind === 'polygon') {
+				const n = result.outline.vertices.length;
+				if (n > limits.maxOutlineVertices) {
+					const definedAt = image.tools.get(fl.tool)?.line ?? fl.line;
+					const message =
+						`the outline of aperture D${fl.tool} has ${formatCount(n)} vertices; ` +
+						`the limit is ${formatCount(limits.maxOutlineVertices)} per outline`;
+					errors.push({ ...gerberProblem(definedAt, `D${fl.tool}`, message), budget: true });
+					result = { skipReason: 'has too many vertices' };
+				}
+			}
 			outlines.set(fl.tool, result);
 		}
 		if ('skipReason' in result) {
 			const s = skipped.get(fl.tool) ?? { count: 0, firstLine: fl.line };
 			skipped.set(fl.tool, { count: s.count + fl.offsets.length, firstLine: s.firstLine });
 			continue;
+		}
+		if (result.outline.kind === 'polygon' && !fl.clear) {
+			const n = result.outline.vertices.length * fl.offsets.length;
+			if (!vertices.take(n, fl.line, 'D03')) break;
 		}
 		for (const [ox, oy] of fl.offsets) {
 			const [x, y] = [fl.x + ox, fl.y + oy];
@@ -174,12 +232,24 @@ function placeRegions(
 	f: number,
 	tolerance: number,
 	errors: GerberProblem[],
-	warnings: GerberProblem[]
+	warnings: GerberProblem[],
+	limits: StencilLimits,
+	budget: VertexBudget
 ) {
 	const dark: Placed[] = [];
 	const clear: Omit<Placed, 'aperture'>[] = [];
 	for (const region of image.regions) {
-		flattenGerberPath(region.path, tolerance).forEach((contour, k) => {
+		let contours;
+		try {
+			contours = flattenGerberPath(region.path, tolerance, limits.maxOutlineVertices);
+		} catch (e) {
+			if (!(e instanceof StencilBudgetError)) throw e;
+			errors.push({ ...gerberProblem(region.line, 'G36', e.message), budget: true });
+			break;
+		}
+		if (budget.exceeded) break;
+		contours.forEach((contour, k) => {
+			if (budget.exceeded) return;
 			const what = `G36 contour ${k + 1}`;
 			if (!contour.closed) {
 				const message = 'the contour is not closed (its last point differs from its first)';
@@ -196,6 +266,8 @@ function placeRegions(
 				const message = 'the contour crosses or touches itself (e.g. a cut-in); it may be rejected';
 				warnings.push(gerberProblem(region.line, what, message));
 			}
+			if (!region.clear && !budget.take(vertices.length * region.offsets.length, region.line, what))
+				return;
 			const [cx, cy] = polygonCentroid(vertices);
 			const outline: GerberOutline = {
 				kind: 'polygon',
@@ -215,6 +287,57 @@ function placeRegions(
 		});
 	}
 	return { dark, clear };
+}
+
+/** Most box tests spent relating clear objects to dark ones; past it the check stops (warned). */
+const MAX_OVERLAP_TESTS = 20_000_000;
+
+/**
+ * Dark objects drawn before a clear object and overlapping it, in list order, found through a
+ * uniform grid of the dark boxes (a scan of every dark object per clear one was quadratic:
+ * 100,000 of each made 10 billion box tests). Boxes wider or taller than four cells are kept in
+ * a short list tested every time. `tests` counts the box tests made.
+ */
+function overlapFinder(dark: readonly Placed[]) {
+	const state = { tests: 0 };
+	if (dark.length === 0) return { state, find: (): Placed[] => [] };
+	let [x0, y0, x1, y1] = [Infinity, Infinity, -Infinity, -Infinity];
+	for (const d of dark) {
+		x0 = Math.min(x0, d.box[0]);
+		y0 = Math.min(y0, d.box[1]);
+		x1 = Math.max(x1, d.box[2]);
+		y1 = Math.max(y1, d.box[3]);
+	}
+	const side = Math.max(1, Math.ceil(Math.sqrt(dark.length)));
+	const cw = (x1 - x0) / side || 1;
+	const ch = (y1 - y0) / side || 1;
+	const col = (x: number) => Math.min(side - 1, Math.max(0, Math.floor((x - x0) / cw)));
+	const row = (y: number) => Math.min(side - 1, Math.max(0, Math.floor((y - y0) / ch)));
+	const cells = new Map<number, number[]>();
+	const big: number[] = [];
+	dark.forEach((d, i) => {
+		if (d.box[2] - d.box[0] > 4 * cw || d.box[3] - d.box[1] > 4 * ch) return big.push(i);
+		// Filed under the lower-left cell; a query looks up to five cells back.
+		const key = row(d.box[1]) * side + col(d.box[0]);
+		const list = cells.get(key);
+		if (list) list.push(i);
+		else cells.set(key, [i]);
+	});
+	const find = (c: Omit<Placed, 'aperture'>): Placed[] => {
+		const found: number[] = [];
+		const test = (i: number) => {
+			state.tests++;
+			const d = dark[i];
+			if (d.seq < c.seq && boxesOverlap(d.box, c.box)) found.push(i);
+		};
+		big.forEach(test);
+		const [c0, c1] = [Math.max(0, col(c.box[0]) - 5), col(c.box[2])];
+		const [r0, r1] = [Math.max(0, row(c.box[1]) - 5), row(c.box[3])];
+		for (let r = r0; r <= r1; r++)
+			for (let q = c0; q <= c1; q++) cells.get(r * side + q)?.forEach(test);
+		return found.sort((a, b) => a - b).map((i) => dark[i]);
+	};
+	return { state, find };
 }
 
 /**
@@ -255,6 +378,7 @@ export function importGerberPasteLayer(
 	options: GerberImportOptions = {}
 ): GerberImportResult {
 	const maxBytes = options.maxBytes ?? GERBER_MAX_BYTES;
+	const limits = options.limits ?? DEFAULT_STENCIL_LIMITS;
 	const toleranceUm = options.arcToleranceUm ?? GERBER_ARC_TOLERANCE_UM;
 	if (!(toleranceUm > 0) || !Number.isFinite(toleranceUm)) {
 		const message = `must be a positive number (got ${toleranceUm})`;
@@ -262,12 +386,15 @@ export function importGerberPasteLayer(
 	}
 	const textProblem = checkGerberText(text, maxBytes);
 	if (textProblem) return { errors: [textProblem] };
+	// Numbers read strictly and work counted before the parser builds anything.
+	const scan = scanGerberText(text, limits, MAX_ERRORS);
+	if (scan.errors.length > 0) return failure(scan.errors);
 
 	const parsed = parseGerber(text);
 	if (!('commands' in parsed)) return parsed;
 	// The last line with content: where a truncated file stops.
 	const lastLine = text.trimEnd().split('\n').length;
-	const image = readGerberImage(parsed.commands, lastLine, MAX_ERRORS);
+	const image = readGerberImage(parsed.commands, lastLine, MAX_ERRORS, limits);
 	const errors = [...parsed.errors, ...image.errors];
 	const warnings = [...parsed.warnings, ...image.warnings];
 	if (errors.length > 0) return failure(errors);
@@ -276,15 +403,22 @@ export function importGerberPasteLayer(
 	const units = image.units as GerberUnits;
 	const f = units === 'in' ? MICROMETRES_PER.inch : MICROMETRES_PER.mm;
 	const tolerance = toleranceUm / f;
-	const flashes = placeFlashes(image, f, tolerance, warnings);
-	const regions = placeRegions(image, f, tolerance, errors, warnings);
+	const vertices = new VertexBudget(limits.maxVerticesPerImport, errors);
+	const flashes = placeFlashes(image, f, tolerance, warnings, errors, limits, vertices);
+	const regions = placeRegions(image, f, tolerance, errors, warnings, limits, vertices);
 	if (errors.length > 0) return failure(errors);
 
 	// Clear polarity only cuts what was drawn before it; Rollbead cannot cut, so say where.
 	const dark = [...flashes.dark, ...regions.dark];
 	const clear = [...flashes.clear, ...regions.clear];
+	const overlaps = overlapFinder(dark);
 	for (const c of clear) {
-		const hit = dark.filter((d) => d.seq < c.seq && boxesOverlap(d.box, c.box));
+		if (overlaps.state.tests > MAX_OVERLAP_TESTS) {
+			const message = 'too many overlaps to relate every clear-polarity object; check stopped';
+			warnings.push(gerberProblem(c.line, '%LPC', message));
+			break;
+		}
+		const hit = overlaps.find(c);
 		if (hit.length === 0) continue;
 		const message =
 			`a clear-polarity object overlaps ${hit.length} earlier aperture(s) (first from line ` +

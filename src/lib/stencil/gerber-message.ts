@@ -8,6 +8,8 @@
 export interface GerberProblem {
 	line: number;
 	message: string;
+	/** Set when a work budget (`limits.ts`) was exceeded: answered 413, not 422. */
+	budget?: boolean;
 }
 
 /**

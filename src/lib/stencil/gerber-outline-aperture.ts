@@ -12,6 +12,12 @@ function roundUm(value: number): number {
 	return r === 0 ? 0 : r;
 }
 
+/** A rotation folded into (-360°, 360°), the stored range; the same turn. */
+function foldDeg(deg: number): number {
+	const r = deg % 360;
+	return r === 0 ? 0 : r;
+}
+
 /**
  * The aperture for `outline` flashed at (x, y), scaled by `micrometresPerUnit` (1000 for mm,
  * 25 400 for inches); refdes and pad are left empty for `nameGerberApertures`.
@@ -43,14 +49,14 @@ export function gerberOutlineToAperture(
 			lengthUm: roundUm(outline.length * f),
 			widthUm: roundUm(outline.width * f),
 			...(rounded ? { cornerRadiusUm: roundUm(outline.cornerRadius * f) } : {}),
-			rotationDeg: outline.rotationDeg
+			rotationDeg: foldDeg(outline.rotationDeg)
 		};
 	}
 	return {
 		...base,
 		shape: 'polygon',
 		verticesUm: outline.vertices.map((v) => [roundUm(v[0] * f), roundUm(v[1] * f)] as PointUm),
-		rotationDeg: outline.rotationDeg
+		rotationDeg: foldDeg(outline.rotationDeg)
 	};
 }
 

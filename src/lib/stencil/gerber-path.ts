@@ -5,6 +5,7 @@
  * per chord is below (2/3)·s·chord length (area of a parabolic segment, first principles).
  */
 import type { GerberPathSegment, GerberPoint } from './gerber-types';
+import { formatCount, StencilBudgetError } from './limits';
 
 /** Coordinates closer than this (file units, i.e. 1 pm in mm) are the same point. */
 const SAME_POINT = 1e-9;
@@ -76,7 +77,10 @@ export interface GerberContour {
  * Used by the Gerber importer for G36/G37 regions.
  * Reference: Gerber Layer Format Specification (Ucamco), section "Region statement".
  * @param tolerance largest chord-to-arc deviation, in the path's units.
- * @throws {RangeError} when tolerance is not a positive number.
+ * @param maxVertices most vertices of one contour; counted (arcs by their chord count) before
+ *   any vertex is made.
+ * @throws {RangeError} when tolerance is not a positive number; {StencilBudgetError} when a
+ *   contour would have more than `maxVertices` vertices.
  * @example
  * flattenGerberPath([{ type: 'line', start: [0, 0], end: [1, 0] }, { type: 'line', start: [1, 0], end: [0, 1] },
  * 	{ type: 'line', start: [0, 1], end: [0, 0] }], 0.001)
@@ -84,11 +88,34 @@ export interface GerberContour {
  */
 export function flattenGerberPath(
 	path: readonly GerberPathSegment[],
-	tolerance: number
+	tolerance: number,
+	maxVertices = Infinity
 ): GerberContour[] {
 	if (!Number.isFinite(tolerance) || tolerance <= 0) {
 		const got = `(got ${tolerance})`;
 		throw new RangeError(`flattenGerberPath: tolerance must be a positive number ${got}`);
+	}
+	// Count first: a contour of many arcs would otherwise be built before it could be refused.
+	let count = 0;
+	let contour = 0;
+	let last: GerberPoint | null = null;
+	for (const seg of path) {
+		const start: GerberPoint = [seg.start[0], seg.start[1]];
+		if (last === null || !samePoint(last, start)) {
+			contour++;
+			count = 1;
+		}
+		count +=
+			seg.type === 'line' || !(seg.radius > 0) || !(seg.sweep > 0)
+				? 1
+				: arcSegmentCount(seg.radius, seg.sweep, tolerance);
+		if (count > maxVertices + 1)
+			throw new StencilBudgetError(
+				`contour ${contour} has more than ${formatCount(maxVertices)} vertices (arcs counted ` +
+					`by their chords); the limit is ${formatCount(maxVertices)} per outline`,
+				413
+			);
+		last = [seg.end[0], seg.end[1]];
 	}
 	const contours: GerberPoint[][] = [];
 	let current: GerberPoint[] = [];

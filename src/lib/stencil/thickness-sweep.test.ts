@@ -118,7 +118,7 @@ describe('thicknessSweep with step regions: the base foil is swept, stepped aper
 				: rect(300 + i * 10, 180 + (i % 9) * 20, {
 						xUm: i * 1000,
 						yUm: (i % 7) * 1000,
-						rotationDeg: i * 11
+						rotationDeg: (i * 11) % 360
 					})
 		);
 		const stepRegions = [

@@ -11,9 +11,11 @@ import {
 	type PointUm
 } from '$lib/stencil';
 import { getStencil } from './stencils';
+import { DEFAULT_STENCIL_LIMITS, formatCount, type StencilLimits } from '$lib/stencil/limits';
+import { stencilLimitsFromEnv } from './limits-env';
 
 /** Largest number of apertures one stencil may hold (the same cap as one import). */
-export const MAX_APERTURES_PER_STENCIL = 50_000;
+export const MAX_APERTURES_PER_STENCIL = DEFAULT_STENCIL_LIMITS.maxAperturesPerStencil;
 
 /** A stored aperture: its row id and the input fields (µm, degrees). */
 export interface StoredAperture extends ApertureInput {
@@ -79,6 +81,17 @@ export function loadApertures(db: Db, stencilId: number): StoredAperture[] {
 	});
 }
 
+/** Polygon vertices a stencil holds, all apertures together (counted in SQLite). */
+export function storedVertexCount(db: Db, stencilId: number): number {
+	const row = db.$client
+		.prepare(
+			`select coalesce(sum(json_array_length(vertices_um)), 0) as n from apertures
+			 where stencil_id = ? and vertices_um is not null`
+		)
+		.get(stencilId) as { n: number };
+	return row.n;
+}
+
 /** What an import is, besides its apertures. */
 export interface ImportMeta {
 	source: ApertureSource;
@@ -92,7 +105,8 @@ export interface ImportMeta {
  * Store apertures in one transaction, all or nothing, with an import record and an audit entry.
  * Every aperture is checked again here (whatever parsed it), so nothing invalid is ever stored.
  * @throws StencilNotFoundError; ApertureImportError naming `apertures[i]` and the field when an
- * aperture is invalid, the list is empty or the stencil would exceed 50,000 apertures.
+ * aperture is invalid, the list is empty, the stencil would exceed 50,000 apertures, or the
+ * polygon vertices of the import or the stencil would exceed their budgets (`limits.ts`).
  * @example importApertures(db, 4, parsed.apertures, { source: 'csv', mode: 'append', unit: 'mm' }, actor)
  */
 export function importApertures(
@@ -100,28 +114,64 @@ export function importApertures(
 	stencilId: number,
 	list: readonly ApertureInput[],
 	meta: ImportMeta,
-	actor: Actor | null
+	actor: Actor | null,
+	limits: StencilLimits = stencilLimitsFromEnv()
 ): ImportSummary {
 	const problems: InputProblem[] = [];
 	if (list.length === 0)
 		problems.push({ where: 'import', field: 'apertures', message: 'holds no apertures' });
+	if (list.length > limits.maxAperturesPerStencil)
+		throw new ApertureImportError([
+			{
+				where: 'import',
+				field: 'apertures',
+				message:
+					`the import holds ${formatCount(list.length)} apertures; ` +
+					`at most ${formatCount(limits.maxAperturesPerStencil)} are allowed`
+			}
+		]);
+	// Vertices counted before any polygon is checked: they are what make checks and reads cost.
+	let vertices = 0;
+	for (const a of list) vertices += Array.isArray(a.verticesUm) ? a.verticesUm.length : 0;
+	if (vertices > limits.maxVerticesPerImport)
+		throw new ApertureImportError([
+			{
+				where: 'import',
+				field: 'verticesUm',
+				message:
+					`the polygons hold ${formatCount(vertices)} vertices; ` +
+					`the limit is ${formatCount(limits.maxVerticesPerImport)} per import`
+			}
+		]);
 	for (let i = 0; i < list.length && problems.length < 100; i++)
-		problems.push(...checkAperture(list[i], i));
+		problems.push(...checkAperture(list[i], i, limits.maxOutlineVertices));
 	if (problems.length > 0) throw new ApertureImportError(problems.slice(0, 100));
 	return db.transaction((tx) => {
 		const stencil = getStencil(tx, stencilId);
 		const before = meta.mode === 'replace' ? 0 : stencil.apertureCount;
-		if (before + list.length > MAX_APERTURES_PER_STENCIL)
+		if (before + list.length > limits.maxAperturesPerStencil)
 			throw new ApertureImportError([
 				{
 					where: 'import',
 					field: 'apertures',
 					message:
 						`the stencil would hold ${before + list.length} apertures; ` +
-						`at most ${MAX_APERTURES_PER_STENCIL} are allowed`
+						`at most ${limits.maxAperturesPerStencil} are allowed`
 				}
 			]);
-		if (meta.mode === 'replace') tx.delete(apertures).where(eq(apertures.stencilId, stencilId)).run();
+		const stored = meta.mode === 'replace' ? 0 : storedVertexCount(db, stencilId);
+		if (stored + vertices > limits.maxVerticesPerStencil)
+			throw new ApertureImportError([
+				{
+					where: 'import',
+					field: 'verticesUm',
+					message:
+						`the stencil would hold ${formatCount(stored + vertices)} polygon vertices; ` +
+						`the limit is ${formatCount(limits.maxVerticesPerStencil)} per stencil`
+				}
+			]);
+		if (meta.mode === 'replace')
+			tx.delete(apertures).where(eq(apertures.stencilId, stencilId)).run();
 		// One prepared statement on the same connection (inside this transaction): 20,000 rows
 		// in well under a second, where building drizzle inserts took seconds.
 		const insert = db.$client.prepare(

@@ -7,3 +7,5 @@ export * from './upload';
 export * from './compare';
 export * from './demo';
 export * from './api-errors';
+export * from './limits-env';
+export * from './parse-thread';

@@ -1,4 +1,5 @@
 import { importGerberPasteLayer } from '$lib/stencil/gerber-import';
+import { DEFAULT_STENCIL_LIMITS, type StencilLimits } from '$lib/stencil/limits';
 import {
 	assignRefdesFromCentroids,
 	parseApertureCsv,
@@ -15,6 +16,8 @@ export const MAX_CSV_BYTES = 20 * 1024 * 1024;
 export const MAX_CENTROID_BYTES = 5 * 1024 * 1024;
 /** Default distance within which a Gerber aperture takes a centroid's refdes (µm). */
 export const DEFAULT_CENTROID_RADIUS_UM = 10_000;
+/** Largest centroid radius, 100 mm: wider only makes every aperture a candidate of every part. */
+export const MAX_CENTROID_RADIUS_UM = 100_000;
 
 /** One problem in an uploaded file: its line (0 = the whole file), column or command, message. */
 export interface UploadProblem {
@@ -85,10 +88,15 @@ const mb = (bytes: number) => `${Math.round(bytes / 1024 / 1024)} MB`;
 /**
  * Parse an uploaded aperture file (our CSV layout or a Gerber paste layer), optionally naming
  * Gerber apertures from a centroid CSV. Nothing is stored here; all-or-nothing storing is
- * `importApertures`. Errors name the file, line and column (CSV) or command (Gerber).
+ * `importApertures`. Errors name the file, line and column (CSV) or command (Gerber); a file
+ * that asks for more work than `limits` allow is refused with 413 before the work is done.
+ * CPU-bound: the server runs it on a parser thread (`parseApertureUploadOffThread`).
  * @example parseApertureUpload({ fileName: 'top.csv', text, byteLength: text.length, unit: 'mm' })
  */
-export function parseApertureUpload(input: UploadInput): UploadResult {
+export function parseApertureUpload(
+	input: UploadInput,
+	limits: StencilLimits = DEFAULT_STENCIL_LIMITS
+): UploadResult {
 	const file = input.fileName || 'upload';
 	const format =
 		input.format === 'csv' || input.format === 'gerber'
@@ -107,20 +115,20 @@ export function parseApertureUpload(input: UploadInput): UploadResult {
 	if (format === 'csv') {
 		const u = unitOf(input.unit, 'unit', file);
 		if (typeof u !== 'string') return u;
-		const parsed = parseApertureCsv(input.text, u);
+		const parsed = parseApertureCsv(input.text, u, limits);
 		if ('errors' in parsed)
 			return refuse(
-				422,
+				parsed.overBudget ? 413 : 422,
 				`${file} has ${parsed.errors.length} error(s); nothing was imported.`,
 				parsed.errors.map((e) => ({ file, line: e.row, column: e.column, message: e.message }))
 			);
 		apertures = parsed.apertures;
 		unit = u;
 	} else {
-		const parsed = importGerberPasteLayer(input.text, { maxBytes: MAX_GERBER_BYTES });
+		const parsed = importGerberPasteLayer(input.text, { maxBytes: MAX_GERBER_BYTES, limits });
 		if ('errors' in parsed)
 			return refuse(
-				422,
+				parsed.overBudget ? 413 : 422,
 				`${file} has ${parsed.errors.length} error(s); nothing was imported.`,
 				parsed.errors.map((e) => ({ file, line: e.line, column: null, message: e.message }))
 			);
@@ -139,10 +147,19 @@ export function parseApertureUpload(input: UploadInput): UploadResult {
 		const cu = unitOf(input.centroidUnit ?? input.unit, 'centroidUnit', c.fileName);
 		if (typeof cu !== 'string') return cu;
 		const radius = input.centroidRadiusUm ?? DEFAULT_CENTROID_RADIUS_UM;
-		if (!Number.isFinite(radius) || radius <= 0)
-			return refuse(400, 'centroidRadiusUm must be a number greater than 0.', [
-				{ file: c.fileName, line: 0, column: 'centroidRadiusUm', message: 'must be > 0' }
-			]);
+		if (!Number.isFinite(radius) || radius <= 0 || radius > MAX_CENTROID_RADIUS_UM)
+			return refuse(
+				400,
+				`centroidRadiusUm must be a number greater than 0 and at most ${MAX_CENTROID_RADIUS_UM}.`,
+				[
+					{
+						file: c.fileName,
+						line: 0,
+						column: 'centroidRadiusUm',
+						message: `must be > 0 and ≤ ${MAX_CENTROID_RADIUS_UM} µm (got ${radius})`
+					}
+				]
+			);
 		const parsed = parseCentroidCsv(c.text, cu as LengthUnit);
 		if ('errors' in parsed)
 			return refuse(

@@ -5,12 +5,14 @@ import {
 	checkStoredStencil,
 	getStencil,
 	importApertures,
-	parseApertureUpload,
+	parseApertureUploadOffThread,
+	stencilLimitsFromEnv,
 	withStencilErrors,
 	type ImportMode,
 	type UploadResult
 } from '$lib/server/stencils';
 import type { Actor } from '$lib/access';
+import type { StencilLimits } from '$lib/stencil/limits';
 import { aperturesPayloadSchema, formatIssuePath } from '$lib/schemas/stencil';
 
 /** Every aperture with its figures (unrounded): `{ "apertures": [...] }`. */
@@ -24,9 +26,14 @@ function modeOf(value: unknown): ImportMode {
 	if (value === 'replace') return 'replace';
 	throw new ApiError(400, {
 		error: 'The request has invalid fields.',
-		fields: [{ field: 'mode', message: `must be "append" or "replace" (got ${JSON.stringify(value)})` }]
+		fields: [
+			{ field: 'mode', message: `must be "append" or "replace" (got ${JSON.stringify(value)})` }
+		]
 	});
 }
+
+/** A plain decimal (no exponent, no hex) or NaN, so `centroidRadiusUm=0x10` is refused. */
+const strictNumber = (raw: string) => (/^[+-]?(\d+\.?\d*|\.\d+)$/.test(raw) ? Number(raw) : NaN);
 
 const textField = (form: FormData, name: string) => {
 	const v = form.get(name);
@@ -39,7 +46,8 @@ async function importUploadedFile(
 	stencilId: number,
 	parsed: UploadResult,
 	options: { mode: ImportMode; fileName: string | null },
-	actor: Actor
+	actor: Actor,
+	limits: StencilLimits
 ): Promise<Response> {
 	if (!parsed.ok) throw new ApiError(parsed.status, { error: parsed.error, errors: parsed.errors });
 	const summary = await withStencilErrors(() =>
@@ -54,7 +62,8 @@ async function importUploadedFile(
 				unit: parsed.unit,
 				warnings: parsed.warnings
 			},
-			actor
+			actor,
+			limits
 		)
 	);
 	return json(summary, { status: 201 });
@@ -88,20 +97,25 @@ export const POST = apiRoute(async ({ params, request, url }, actor) => {
 		const mode = modeOf(form.get('mode'));
 		const centroids = form.get('centroids');
 		const radius = textField(form, 'centroidRadiusUm');
-		const parsed = parseApertureUpload({
-			fileName: file.name,
-			text: await file.text(),
-			byteLength: file.size,
-			format: textField(form, 'format'),
-			unit: textField(form, 'unit'),
-			centroids:
-				centroids instanceof File && centroids.size > 0
-					? { fileName: centroids.name, text: await centroids.text(), byteLength: centroids.size }
-					: null,
-			centroidUnit: textField(form, 'centroidUnit'),
-			centroidRadiusUm: radius === null ? null : Number(radius)
-		});
-		return importUploadedFile(db, id, parsed, { mode, fileName: file.name }, actor);
+		// Parsing runs on a parser thread with a deadline and a heap ceiling (see parse-thread.ts).
+		const limits = stencilLimitsFromEnv();
+		const parsed = await parseApertureUploadOffThread(
+			{
+				fileName: file.name,
+				text: await file.text(),
+				byteLength: file.size,
+				format: textField(form, 'format'),
+				unit: textField(form, 'unit'),
+				centroids:
+					centroids instanceof File && centroids.size > 0
+						? { fileName: centroids.name, text: await centroids.text(), byteLength: centroids.size }
+						: null,
+				centroidUnit: textField(form, 'centroidUnit'),
+				centroidRadiusUm: radius === null ? null : strictNumber(radius)
+			},
+			limits
+		);
+		return importUploadedFile(db, id, parsed, { mode, fileName: file.name }, actor, limits);
 	}
 	if (type !== '' && !type.includes('json')) {
 		// A raw file body (text/csv, text/plain, application/octet-stream, application/vnd.gerber):
@@ -109,14 +123,18 @@ export const POST = apiRoute(async ({ params, request, url }, actor) => {
 		const q = url.searchParams;
 		const mode = modeOf(q.get('mode'));
 		const text = await request.text();
-		const parsed = parseApertureUpload({
-			fileName: q.get('fileName') ?? 'upload',
-			text,
-			byteLength: Buffer.byteLength(text),
-			format: q.get('format'),
-			unit: q.get('unit')
-		});
-		return importUploadedFile(db, id, parsed, { mode, fileName: q.get('fileName') }, actor);
+		const limits = stencilLimitsFromEnv();
+		const parsed = await parseApertureUploadOffThread(
+			{
+				fileName: q.get('fileName') ?? 'upload',
+				text,
+				byteLength: Buffer.byteLength(text),
+				format: q.get('format'),
+				unit: q.get('unit')
+			},
+			limits
+		);
+		return importUploadedFile(db, id, parsed, { mode, fileName: q.get('fileName') }, actor, limits);
 	}
 	const body = await readJson(request);
 	const mode = modeOf((body as { mode?: unknown } | null)?.mode);
