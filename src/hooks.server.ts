@@ -2,9 +2,9 @@ import { json, redirect, type Handle, type HandleServerError, type ServerInit } 
 import { sequence } from '@sveltejs/kit/hooks';
 import { hasRole, pageRolesFor } from '$lib/access';
 import { authHandle } from '$lib/server/auth';
-import { getDb } from '$lib/server/db';
+import { getDb, isDatabaseBusy } from '$lib/server/db';
 import { apiPolicyFor } from '$lib/server/api-policy';
-import { forbidden, unauthorized } from '$lib/server/api';
+import { databaseBusy, forbidden, unauthorized } from '$lib/server/api';
 import { verifyApiToken } from '$lib/server/tokens';
 import { findActiveUser } from '$lib/server/users';
 import { boundRequestBody } from '$lib/server/request-body';
@@ -126,9 +126,34 @@ const authBodyLimit: Handle = async ({ event, resolve }) => {
 	return resolveWithBoundedBody(event, resolve);
 };
 
-export const handle = sequence(crossSiteGuard, authBodyLimit, authHandle, identify, guard);
+/** Requests whose error was SQLite's busy timeout (another process held the write lock). */
+const busyEvents = new WeakSet<object>();
 
-export const handleError: HandleServerError = ({ error, status, message }) => {
+/**
+ * SQLITE_BUSY anywhere (a hook, a load, an action, an API route) answers 503 + Retry-After, never
+ * 500: nothing was written and the request may simply be sent again.
+ */
+const databaseBusyGuard: Handle = async ({ event, resolve }) => {
+	let response: Response;
+	try {
+		response = await resolve(event);
+	} catch (err) {
+		if (!isDatabaseBusy(err)) throw err;
+		busyEvents.add(event);
+		response = new Response(null, { status: 500 });
+	}
+	if (response.status !== 500 || !busyEvents.has(event)) return response;
+	if (isApi(event.url.pathname)) return databaseBusy();
+	return new Response('The database is busy with another write; try again in a moment.', {
+		status: 503,
+		headers: { 'retry-after': '1', 'content-type': 'text/plain; charset=utf-8' }
+	});
+};
+
+export const handle = sequence(databaseBusyGuard, crossSiteGuard, authBodyLimit, authHandle, identify, guard);
+
+export const handleError: HandleServerError = ({ error, event, status, message }) => {
+	if (isDatabaseBusy(error)) busyEvents.add(event); // answered 503 by databaseBusyGuard
 	if (status === 404) return { message: 'This page does not exist.' };
 	console.error('[rollbead] unexpected error', error);
 	return { message: status >= 500 ? 'Something went wrong on our side; it has been logged.' : message };

@@ -3,6 +3,7 @@ import { ZodError, type ZodType } from 'zod';
 import { hasRole, type Actor } from '$lib/access';
 import { apiPolicyFor } from './api-policy';
 import { jsonTooDeep, MAX_JSON_DEPTH } from '$lib/json/json-depth';
+import { isDatabaseBusy } from './db';
 
 /** An expected API failure with its status and JSON body. */
 export class ApiError extends Error {
@@ -22,6 +23,13 @@ export const unauthorized = () =>
 
 export const forbidden = (actor: Actor) =>
 	json({ error: `The role "${actor.role}" may not use this route.` }, { status: 403 });
+
+/** 503 + Retry-After: another process held the database's write lock longer than the busy timeout. */
+export const databaseBusy = () =>
+	json(
+		{ error: 'The database is busy with another write; try again in a moment.' },
+		{ status: 503, headers: { 'retry-after': '1' } }
+	);
 
 type Handler<A> = (event: RequestEvent, actor: A) => Response | Promise<Response>;
 
@@ -59,6 +67,7 @@ export function errorResponse(err: unknown): Response {
 	if (err && typeof err === 'object' && 'status' in err && err.status === 413) {
 		return json({ error: String((err as { message?: unknown }).message) }, { status: 413 });
 	}
+	if (isDatabaseBusy(err)) return databaseBusy();
 	console.error('[api] unexpected error', err);
 	return json({ error: 'Internal error; it has been logged.' }, { status: 500 });
 }

@@ -20,10 +20,25 @@ function migrationsFolder(): string {
 
 export class DatabaseOpenError extends Error {}
 
+/** How long a statement waits for another connection's write lock before SQLITE_BUSY (→ 503). */
+export const BUSY_TIMEOUT_MS = 750;
+
+/** Whether an error is SQLite's "database is locked/busy" (answered 503 + Retry-After). */
+export function isDatabaseBusy(err: unknown): boolean {
+	// Drizzle may wrap the driver's error: look through `cause` too.
+	for (let e = err, depth = 0; e && typeof e === 'object' && depth < 5; depth++) {
+		const code = (e as { code?: unknown }).code;
+		if (typeof code === 'string' && (code === 'SQLITE_BUSY' || code.startsWith('SQLITE_BUSY_')))
+			return true;
+		e = (e as { cause?: unknown }).cause;
+	}
+	return false;
+}
+
 /**
  * Open a SQLite database with Rollbead's pragmas and apply pending migrations.
  * WAL lets readers (charts) run while an import writes; the busy timeout makes a second writer
- * wait instead of failing at once.
+ * wait briefly instead of failing at once.
  * @throws DatabaseOpenError with the path and the reason when the file cannot be opened.
  */
 export function openDatabase(file: string = databasePath()): Db {
@@ -33,7 +48,9 @@ export function openDatabase(file: string = databasePath()): Db {
 		sqlite = new Database(file);
 		sqlite.pragma('journal_mode = WAL');
 		sqlite.pragma('foreign_keys = ON');
-		sqlite.pragma('busy_timeout = 5000');
+		// Short: the wait blocks the event loop. Within the process no transaction outlives one
+		// turn of it (SPI imports commit in chunks), so only another process can make a writer wait.
+		sqlite.pragma(`busy_timeout = ${BUSY_TIMEOUT_MS}`);
 		sqlite.pragma('synchronous = NORMAL');
 	} catch (cause) {
 		throw new DatabaseOpenError(
