@@ -77,6 +77,13 @@ export {
 
 // Numbers
 export { parseDecimal } from './parse-decimal';
+export {
+	DEFAULT_SPI_PARSE_LIMITS,
+	SPI_PARSE_LIMIT_ENV,
+	spiParseLimitsFromEnv,
+	formatByteLimit,
+	type SpiParseLimits
+} from './parse-limits';
 
 // Storage and aggregates
 export { encodeCentis, decodeCentis } from './encode-centis';

@@ -9,6 +9,12 @@ import { detectDelimiter, type Delimiter } from './detect-delimiter';
 import { createIssueCollector, DEFAULT_ISSUE_LIMIT, type IngestIssue } from './ingest-issue';
 import type { MappingProfile } from './mapping-profile';
 import { parseDecimal, parseDecimalBytes } from './parse-decimal';
+import {
+	DEFAULT_SPI_PARSE_LIMITS,
+	formatByteLimit,
+	SPI_PARSE_LIMIT_ENV,
+	type SpiParseLimits
+} from './parse-limits';
 import { createTimestampParser } from './parse-timestamp';
 import { isValidTimeZone } from './zoned-time-to-utc';
 import { resolveHeader, type ResolvedHeader } from './resolve-header';
@@ -31,6 +37,8 @@ export interface SpiRowParserOptions {
 	batchSize?: number;
 	/** Kept errors and warnings, each (default 100); all are counted. */
 	issueLimit?: number;
+	/** Budgets of the file (line length, columns, boards); `DEFAULT_SPI_PARSE_LIMITS` where absent. */
+	limits?: Partial<SpiParseLimits>;
 }
 
 /** A board inspection with its figures over the accepted rows. */
@@ -80,8 +88,6 @@ const DEFAULT_BATCH_SIZE = 8192;
 // A quoted field may span lines; past this the quote is surely unterminated.
 const MAX_RECORD_LINES = 50;
 const MAX_RECORD_CHARS = 65536;
-// One physical line longer than this is no SPI row (guards memory against files without line feeds).
-const MAX_LINE_BYTES = 1024 * 1024;
 
 const TEXT_CACHE_SIZE = 16384;
 
@@ -201,6 +207,32 @@ function readIndex(text: string, start: number, end: number): number {
 	return value;
 }
 
+/** `s` without the ASCII spaces around it (the only padding numbers and timestamps may have). */
+function trimSpaces(s: string): string {
+	let a = 0;
+	let b = s.length;
+	while (a < b && s.charCodeAt(a) === 32) a++;
+	while (b > a && s.charCodeAt(b - 1) === 32) b--;
+	return a === 0 && b === s.length ? s : s.slice(a, b);
+}
+
+// Characters a reader cannot see or tell apart from a space: shown as \uXXXX in messages.
+const INVISIBLE = /[\u0000-\u001f\u007f-\u00a0\u00ad\u2000-\u200f\u2028-\u202f\u205f-\u206f\u3000\ufeff]/g;
+
+/**
+ * A cell in double quotes for an error message, with invisible characters (tab, no-break space,
+ * zero-width space…) spelled out, so `"\u00a012"` is not shown as a plain `"12"`. At most 60
+ * characters of it are shown.
+ */
+function quoteCell(raw: string): string {
+	const shown = raw.length > 60 ? raw.slice(0, 60) + '…' : raw;
+	const spelled = shown.replace(
+		INVISIBLE,
+		(c) => '\\u' + c.charCodeAt(0).toString(16).toUpperCase().padStart(4, '0')
+	);
+	return `"${spelled}"`;
+}
+
 function baseName(fileName: string): string {
 	const cut = Math.max(fileName.lastIndexOf('/'), fileName.lastIndexOf('\\'));
 	return fileName.slice(cut + 1);
@@ -254,6 +286,19 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 	}
 	const parseTime = createTimestampParser(profile.timestampFormat, profile.timeZone);
 	const issueLimit = options.issueLimit ?? DEFAULT_ISSUE_LIMIT;
+	// Budgets, counted before the work they bound (see parse-limits.ts).
+	const maxLineBytes = options.limits?.maxLineBytes ?? DEFAULT_SPI_PARSE_LIMITS.maxLineBytes;
+	const maxColumns = options.limits?.maxColumns ?? DEFAULT_SPI_PARSE_LIMITS.maxColumns;
+	const maxBoards = options.limits?.maxBoards ?? DEFAULT_SPI_PARSE_LIMITS.maxBoards;
+	for (const [name, value] of [
+		['maxLineBytes', maxLineBytes],
+		['maxColumns', maxColumns],
+		['maxBoards', maxBoards]
+	] as const) {
+		if (!Number.isSafeInteger(value) || value < 1) {
+			throw new RangeError(`createSpiRowParser requires a positive integer ${name}, got ${value}`);
+		}
+	}
 	const errors = createIssueCollector(issueLimit);
 	const warnings = createIssueCollector(issueLimit);
 	const skipRows = profile.onBadRow === 'skip-row';
@@ -368,6 +413,12 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 
 	function readHeader(record: string, sample: string): void {
 		if (delimiter === null) delimiter = detectDelimiter(sample);
+		// Count the columns before splitting (a delimiter inside quotes only over-counts).
+		let columns = 1;
+		for (let at = record.indexOf(delimiter); at >= 0; at = record.indexOf(delimiter, at + 1)) {
+			columns++;
+		}
+		if (columns > maxColumns && record.indexOf('"') < 0) return tooManyColumns(columns);
 		const split =
 			record.indexOf('"') < 0 ? record.split(delimiter) : splitQuotedLine(record, delimiter).fields;
 		if (!split) {
@@ -375,6 +426,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			fileFailed = true;
 			return;
 		}
+		if (split.length > maxColumns) return tooManyColumns(split.length);
 		header = resolveHeader(split, profile);
 		headerCount = split.length;
 		starts = new Int32Array(headerCount + 1);
@@ -407,6 +459,15 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		iVolumeUm3 = ix.volume_um3;
 		iStencil = ix.stencil;
 		iPrintRun = ix.print_run;
+	}
+
+	function tooManyColumns(columns: number): void {
+		errors.add({
+			row: lineNo,
+			column: null,
+			message: `header has ${columns} columns, more than the limit of ${maxColumns} (${SPI_PARSE_LIMIT_ENV.maxColumns})`
+		});
+		fileFailed = true;
 	}
 
 	// Set by `bad` while one row is checked, so all its errors are reported, not just the first.
@@ -463,9 +524,9 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 	): number {
 		const value = parseDecimal(rec, decimalComma, starts[index], ends[index]);
 		if (value !== value) {
-			const raw = cell(index).trim();
+			const raw = trimSpaces(cell(index));
 			if (optional && raw === '') return NaN;
-			bad(row, index, `${field} is not a number: "${raw}"`);
+			bad(row, index, `${field} is not a number: ${quoteCell(raw)}`);
 			return NaN;
 		}
 		const scaled = factor === 1 ? value : value * factor;
@@ -483,7 +544,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		const raw = cell(iResult).trim();
 		const code = resultByWord.get(raw.toLowerCase());
 		if (code !== undefined) return code;
-		bad(row, iResult, `unknown result "${raw}" (expected one of: ${resultWordList})`);
+		bad(row, iResult, `unknown result ${quoteCell(raw)} (expected one of: ${resultWordList})`);
 		return -1;
 	}
 
@@ -576,7 +637,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 				bad(
 					row,
 					iTime,
-					`inspected_at is not a timestamp in format ${profile.timestampFormat}: "${timeText.trim()}"`
+					`inspected_at is not a timestamp in format ${profile.timestampFormat}: ${quoteCell(trimSpaces(timeText))}`
 				);
 			} else {
 				lastTimeText = timeText;
@@ -596,7 +657,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 				bad(
 					row,
 					iPanel,
-					`panel_index must be an integer ${rangeText('panel_index', '')}: "${cell(iPanel).trim()}"`
+					`panel_index must be an integer ${rangeText('panel_index', '')}: ${quoteCell(trimSpaces(cell(iPanel)))}`
 				);
 			}
 		}
@@ -733,6 +794,17 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 				return;
 			}
 		}
+		if (boardIndex === undefined && !rejected && boardList.length >= maxBoards) {
+			// Every board is held until the end of the file: stop before memory runs out.
+			errors.add({
+				row,
+				column: iSerial >= 0 ? (header as ResolvedHeader).names[iSerial] : null,
+				message: `board inspection ${serial} is one more than the limit of ${maxBoards} per file (${SPI_PARSE_LIMIT_ENV.maxBoards}); split the export`
+			});
+			fileFailed = true;
+			rowsRejected++;
+			return;
+		}
 		rowsAccepted++;
 		if (rejected) return;
 		if (boardIndex === undefined) {
@@ -863,10 +935,13 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			if (fileFailed) return;
 			const nl = data.indexOf('\n', start);
 			if (nl < 0) break;
+			if (nl - start > maxLineBytes) return lineTooLong();
 			const end = nl > start && data.charCodeAt(nl - 1) === 13 ? nl - 1 : nl;
 			handleLine(data, start, end);
 			start = nl + 1;
 		}
+		// Text input counts UTF-16 units against the byte limit (at most 3 bytes each in UTF-8).
+		if (data.length - start > maxLineBytes) return lineTooLong();
 		carry = data.slice(start);
 		if (final && !fileFailed) {
 			if (carry.length > 0) {
@@ -912,12 +987,13 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		if (byteCarry !== null) {
 			const nl = chunk.indexOf(10);
 			const upTo = nl < 0 ? chunk.length : nl + 1;
+			// Measured before the copy: a file without line feeds is refused, not buffered.
+			if (byteCarry.length + (nl < 0 ? chunk.length : nl) > maxLineBytes) return lineTooLong();
 			const joined = new Uint8Array(byteCarry.length + upTo);
 			joined.set(byteCarry);
 			joined.set(chunk.subarray(0, upTo), byteCarry.length);
 			if (nl < 0) {
 				byteCarry = joined;
-				if (joined.length > MAX_LINE_BYTES) lineTooLong();
 				return;
 			}
 			byteCarry = null;
@@ -928,20 +1004,27 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 			if (fileFailed) return;
 			const nl = chunk.indexOf(10, pos);
 			if (nl < 0) break;
+			if (nl - pos > maxLineBytes) return lineTooLong();
 			lineFromBytes(chunk, pos, nl, false);
 			pos = nl + 1;
 		}
 		if (pos < chunk.length) {
+			if (chunk.length - pos > maxLineBytes) return lineTooLong();
 			byteCarry = chunk.slice(pos);
-			if (byteCarry.length > MAX_LINE_BYTES) lineTooLong();
 		}
 	}
 
+	/** The next physical line (`lineNo + 1`) is over the line budget: the file is refused. */
 	function lineTooLong(): void {
-		fileError(
-			`line ${lineNo + 1} is longer than ${MAX_LINE_BYTES / 1024 / 1024} MiB without a line break; is this a text export?`
-		);
+		const row = lineNo + 1;
+		errors.add({
+			row,
+			column: null,
+			message: `line ${row} is longer than the limit of ${formatByteLimit(maxLineBytes)} (${SPI_PARSE_LIMIT_ENV.maxLineBytes}); is this a text export with line breaks?`
+		});
+		fileFailed = true;
 		byteCarry = null;
+		carry = '';
 	}
 
 	/**
