@@ -21,6 +21,8 @@ export const INSPECTION_IMPORTERS: readonly Role[] = ['quality', 'engineer', 'ad
 export const ADMIN_ONLY: readonly Role[] = ['admin'];
 /** Who configures charts, freezes limits and acknowledges signals; everyone else reads. */
 export const SPC_EDITORS: readonly Role[] = ['quality', 'engineer', 'admin'];
+/** Who may take or hand on a signal on the floor (everyone who works there; viewers read). */
+export const SIGNAL_ASSIGNERS: readonly Role[] = ['technician', 'quality', 'engineer', 'admin'];
 
 export function isRole(value: unknown): value is Role {
 	return typeof value === 'string' && (ROLES as readonly string[]).includes(value);

@@ -2,6 +2,8 @@ import { DatabaseOpenError, getDb } from './db';
 import { seedDemoData } from './seed';
 import { cleanArchiveTemp, recoverInterruptedImports, startSpiWatcher } from './ingest';
 import { warmParserThread } from './ingest/parse-driver';
+import { startLiveOverview } from './floor/live';
+import { startSignalEscalation } from './floor/signal-owners';
 
 /**
  * Everything the server needs before it answers: the database (migrations applied), the rows of
@@ -29,6 +31,9 @@ export async function startServices(): Promise<void> {
 			console.log('[rollbead] empty database: demo data added (ROLLBEAD_DEMO=0 turns this off)');
 	}
 	startSpiServices(db);
+	// The live overview listens to floor events from the start; overdue signals escalate by mail.
+	startLiveOverview(db);
+	startSignalEscalation(db);
 }
 
 /**

@@ -17,6 +17,7 @@ import type { Db } from '../db';
 import { pasteEvents, pasteLots, users } from '../db/schema';
 import { pasteLotIdByNumber } from './lookups';
 import { PrintlogRequestError } from './request-error';
+import { publishFloorEvent } from '../floor/events';
 
 /** A paste lot with its handling settings, current state and flags for the pages and the API. */
 export type PasteLotView = {
@@ -193,6 +194,8 @@ export function addPasteEvent(
 			entityId: lot.id,
 			after: { eventId: row.id, event: input.event, at: new Date(atMs).toISOString(), note: input.note ?? '' }
 		});
+		// Listeners run after this synchronous transaction has committed.
+		publishFloorEvent({ kind: 'paste-lot', lotId: lot.id });
 		return { lot: getPasteLot(tx as unknown as Db, lot.id, nowMs)!, warnings: check.warn };
 	});
 }
@@ -223,6 +226,7 @@ export function updatePasteHandling(
 			before: { ...lot.handling },
 			after: { ...settings }
 		});
+		publishFloorEvent({ kind: 'paste-lot', lotId: lot.id });
 		return getPasteLot(tx as unknown as Db, lot.id, nowMs)!;
 	});
 }

@@ -14,6 +14,7 @@ import type { Db } from '../db';
 import { printRuns, stencilEvents, stencils, users } from '../db/schema';
 import { listStencilRefs, type StencilRef } from './lookups';
 import { PrintlogRequestError } from './request-error';
+import { publishFloorEvent } from '../floor/events';
 
 /** A stencil with its accumulated print count and life figures. */
 export type StencilLife = StencilRef & {
@@ -362,6 +363,8 @@ function insertEvent(
 		note?: string;
 	}
 ): number {
+	// Listeners run after the caller's synchronous transaction has committed.
+	publishFloorEvent({ kind: 'stencil', stencilId });
 	return db
 		.insert(stencilEvents)
 		.values({

@@ -9,6 +9,7 @@ import { characteristicsByIds, latestLimitVersion, pointsFor, ruleList } from '.
 import { getCauseLists } from './cause-lists';
 import { flushDigests, notifyFollowers } from './signal-mail';
 import { boardScopes } from './spi-source';
+import { publishFloorEvent } from '../floor/events';
 
 export type SignalRow = typeof spcSignals.$inferSelect;
 
@@ -130,6 +131,7 @@ export async function evaluateSignalsFor(
 			created.push(...evaluateCharacteristic(db, c));
 		}
 	}
+	if (created.length) publishFloorEvent({ kind: 'signal', what: 'raised', signalIds: created.map((s) => s.id) });
 	const runs = created.filter(startsRun);
 	if (runs.length) {
 		await notifyFollowers(db, runs);
@@ -263,6 +265,7 @@ export function acknowledgeSignal(db: Db, id: number, input: AcknowledgeInput, a
 		});
 		return targets;
 	});
+	publishFloorEvent({ kind: 'signal', what: 'acknowledged', signalIds: ids });
 	return listSignals(db, { ids, limit: 1000 });
 }
 
