@@ -19,6 +19,8 @@ export {
 	predictTe,
 	teBand,
 	teBandAt,
+	BAND_DENSE_MAX_AR,
+	BAND_STEP_AR,
 	MAX_BAND_HALF_WIDTH_AT_LIMIT,
 	MIN_FIT_BINS,
 	MIN_SCALE_AR,

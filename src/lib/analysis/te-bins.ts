@@ -163,7 +163,10 @@ export function analyseTransferEfficiency(rows: readonly TeHistogramRow[], floor
 			coefficients: fit.coefficients,
 			residualSd: fit.residualSd,
 			degreesOfFreedom: fit.degreesOfFreedom,
-			band: teBand(fit)
+			band: teBand(
+				fit,
+				points.map((p) => p.areaRatio)
+			)
 		},
 		floor,
 		learnedMinAreaRatio: limit.areaRatio,

@@ -220,11 +220,23 @@ export function teBandAt(fit: TeFit, areaRatio: number, level = 0.95): TeBandPoi
 	return { areaRatio, fit: y, lower: y - half, upper: y + half };
 }
 
-/** The band at `count` evenly spaced area ratios over the fitted data range. */
-export function teBand(fit: TeFit, count = 61, level = 0.95): TeBandPoint[] {
-	return Array.from({ length: count }, (_, i) =>
-		teBandAt(fit, fit.areaRatioMin + ((fit.areaRatioMax - fit.areaRatioMin) * i) / (count - 1), level)
-	);
+/** Band grid step (AR) and the AR above which only the bins' own ratios are added. */
+export const BAND_STEP_AR = 0.01;
+export const BAND_DENSE_MAX_AR = 1.5;
+
+/**
+ * The band over the fitted data range: every `BAND_STEP_AR` up to `BAND_DENSE_MAX_AR` (where the
+ * knee is), then at the given bin ratios above it (large openings sit on the plateau), and at the
+ * largest ratio. At most ~150 + bins points.
+ */
+export function teBand(fit: TeFit, binAreaRatios: readonly number[] = [], level = 0.95): TeBandPoint[] {
+	const xs: number[] = [];
+	const denseTo = Math.min(fit.areaRatioMax, BAND_DENSE_MAX_AR);
+	const steps = Math.max(1, Math.ceil((denseTo - fit.areaRatioMin) / BAND_STEP_AR));
+	for (let i = 0; i <= steps; i++) xs.push(fit.areaRatioMin + ((denseTo - fit.areaRatioMin) * i) / steps);
+	for (const ar of binAreaRatios) if (ar > denseTo && ar < fit.areaRatioMax) xs.push(ar);
+	if (fit.areaRatioMax > denseTo) xs.push(fit.areaRatioMax);
+	return xs.sort((a, b) => a - b).map((x) => teBandAt(fit, x, level));
 }
 
 /** The site's own AR limit, or why there is none. */

@@ -7,6 +7,7 @@ import { seedDemoStencils } from './stencils/demo';
 import { seedDemoPrintlog } from './printlog/demo';
 import { seedDemoSpi } from './ingest/demo';
 import { seedDemoSpc } from './spc/demo';
+import { seedDemoAnalysis } from './analysis/demo';
 
 /** The demo scenario: Fenmoor Works, an invented contract manufacturer with three SMT lines. */
 export const DEMO_LINES = [
@@ -42,5 +43,6 @@ export async function seedDemoData(db: Db): Promise<boolean> {
 	seedDemoPrintlog(db);
 	await seedDemoSpi(db);
 	await seedDemoSpc(db);
+	await seedDemoAnalysis(db);
 	return true;
 }
