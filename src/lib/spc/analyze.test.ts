@@ -20,7 +20,12 @@ function errors(input: unknown) {
 describe('analyzeStudy: response shape and values', () => {
 	it('I-MR on the NIST flow-rate data: limits, capability and no violations', () => {
 		const r = ok({ chart: 'i-mr', values: nist.values, lsl: 40, usl: 60 });
-		expect(Object.keys(r).sort()).toEqual(['capability', 'limits', 'violations']);
+		expect(Object.keys(r).sort()).toEqual(['assessment', 'capability', 'limits', 'violations']);
+		// In control (NIST): a verdict is given, on the lower bound of Cpk.
+		expect(r.assessment.stable).toBe(true);
+		expect(r.assessment.basis?.index).toBe('Cpk');
+		expect(r.capability.level).toBe(r.assessment.verdict);
+		expect(r.capability.ppmObserved).toBe(0);
 		expect(r.limits.location.cl).toBeCloseTo(nist.mean, 12);
 		expect(r.limits.dispersion.lcl).toBe(0);
 		expect(Math.abs(r.limits.location.ucl - nist.ucl)).toBeLessThan(0.002);
@@ -49,6 +54,10 @@ describe('analyzeStudy: response shape and values', () => {
 		// means rise steadily: nelson-3 fires from the 6th subgroup on
 		expect(r.violations.map((v) => v.index)).toEqual([5, 6, 7, 8, 9]);
 		expect(r.violations.every((v) => v.rule === 'nelson-3' && v.chart === 'location')).toBe(true);
+		// Rules flag points: no capability verdict, whatever Cpk says.
+		expect(r.assessment.verdict).toBe('not-stable');
+		expect(r.capability.level).toBe('not-stable');
+		expect(r.capability.reading).toMatch(/^Not stable, capability not assessed\./);
 	});
 	it('I-MR also accepts single-value subgroups', () => {
 		const r = ok({ chart: 'i-mr', subgroups: nist.values.map((v) => [v]) });

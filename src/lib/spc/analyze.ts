@@ -1,6 +1,12 @@
 import { spcAnalyzeRequestSchema, type SpcAnalyzeRequest } from '../schemas/spc';
 import { jsonTooDeep, MAX_JSON_DEPTH } from '../json/json-depth';
 import { processCapability } from './capability';
+import {
+	assessCapability,
+	countOutOfSpec,
+	type CapabilityAssessment,
+	type CapabilityThresholds
+} from './capability-assessment';
 import { capabilityJson, type CapabilityJson } from './capability-json';
 import type { ChartLimits, ControlChart, ControlLimits } from './chart-types';
 import { buildChart } from './control-chart';
@@ -23,6 +29,8 @@ export interface AnalyzeResult {
 		movingRange?: ControlLimits;
 	};
 	capability: CapabilityJson;
+	/** Stability first, then the verdict on the lower bound (the same as every chart shows). */
+	assessment: CapabilityAssessment;
 	violations: { rule: RuleId; chart: ChartPart; index: number; points: number[] }[];
 }
 
@@ -106,7 +114,10 @@ function zeroVariationError(limits: ChartLimits, field: string): FieldError | nu
  * (limits would collapse). Violation indices are 0-based subgroup/value positions.
  * @example analyzeStudy({ chart: 'i-mr', values: [49.6, 47.6, 49.9, 51.3] })
  */
-export function analyzeStudy(input: unknown): AnalyzeOutcome {
+export function analyzeStudy(
+	input: unknown,
+	thresholds?: Partial<CapabilityThresholds>
+): AnalyzeOutcome {
 	const overBudget = studyOverBudget(input);
 	if (overBudget) return { ok: false, errors: [overBudget], tooLarge: true };
 	const parsed = spcAnalyzeRequestSchema.safeParse(input);
@@ -168,11 +179,23 @@ export function analyzeStudy(input: unknown): AnalyzeOutcome {
 		target: req.target ?? null,
 		mean: chart.limits.location.cl
 	});
+	// A study has no stored signals: its stability is what the rules find in the data given.
+	const assessment = assessCapability({
+		capability: cap,
+		lsl,
+		usl,
+		openSignals: [],
+		violations,
+		pointsShown: chart.points.length,
+		observed: countOutOfSpec(values, lsl, usl),
+		thresholds
+	});
 	return {
 		ok: true,
 		result: {
 			limits: movingRange ? { location, dispersion, movingRange } : { location, dispersion },
-			capability: capabilityJson(cap),
+			capability: capabilityJson(cap, assessment),
+			assessment,
 			violations
 		}
 	};

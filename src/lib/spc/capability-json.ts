@@ -1,5 +1,5 @@
 import type { CapabilityResult } from './capability';
-import type { CapabilityLevel } from './capability-reading';
+import type { CapabilityAssessment, CapabilityVerdict } from './capability-assessment';
 
 /**
  * Capability as the JSON APIs return it (`POST /api/spc/analyze`, `GET /api/charts/{id}`):
@@ -31,17 +31,28 @@ export interface CapabilityJson {
 	ppmTotal: number | null;
 	/** Expected total ppm out of spec with overall s. */
 	ppmTotalOverall: number | null;
-	/** Plain-language reading against 1.33 and 1.67. */
+	/** One-sided lower confidence bounds (level of the assessment, default 95 %). */
+	cpLowerBound: number | null;
+	cpkLowerBound: number | null;
+	ppLowerBound: number | null;
+	ppkLowerBound: number | null;
+	/** Observed out-of-spec ppm of the shown data (null when the values are not at hand). */
+	ppmObserved: number | null;
+	/** Expected out-of-spec ppm the assessment shows, and which spread it comes from. */
+	ppmExpected: number | null;
+	expectedFrom: 'within' | 'overall' | null;
+	/** The assessment's headline and why (stability first, then the lower bound). */
 	reading: string;
-	level: CapabilityLevel;
+	level: CapabilityVerdict;
 	notes: string[];
 }
 
 /**
- * The one mapping of a capability result to its JSON shape, shared by every API answer.
- * @example capabilityJson(processCapability({ values, sigmaWithin: 1.2, lsl: 8, usl: 16 })).cpk
+ * The one mapping of a capability result and its assessment to the JSON shape, shared by every
+ * API answer (`level` and `reading` are the assessment's verdict and words).
+ * @example capabilityJson(cap, assessCapability({ capability: cap, … })).level
  */
-export function capabilityJson(cap: CapabilityResult): CapabilityJson {
+export function capabilityJson(cap: CapabilityResult, assessment: CapabilityAssessment): CapabilityJson {
 	return {
 		cp: cap.cp,
 		cpk: cap.cpk,
@@ -66,8 +77,15 @@ export function capabilityJson(cap: CapabilityResult): CapabilityJson {
 		ppmAboveUsl: cap.expectedWithin?.ppmAboveUsl ?? null,
 		ppmTotal: cap.expectedWithin?.ppmTotal ?? null,
 		ppmTotalOverall: cap.expectedOverall?.ppmTotal ?? null,
-		reading: cap.reading.text,
-		level: cap.reading.level,
+		cpLowerBound: assessment.indices?.cp.lowerBound ?? null,
+		cpkLowerBound: assessment.indices?.cpk.lowerBound ?? null,
+		ppLowerBound: assessment.indices?.pp.lowerBound ?? null,
+		ppkLowerBound: assessment.indices?.ppk.lowerBound ?? null,
+		ppmObserved: assessment.observed?.total ?? null,
+		ppmExpected: assessment.expected?.total ?? null,
+		expectedFrom: assessment.expected?.spread ?? null,
+		reading: `${assessment.headline}. ${assessment.detail}`,
+		level: assessment.verdict,
 		notes: cap.notes
 	};
 }

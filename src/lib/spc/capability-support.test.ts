@@ -1,7 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { capabilityHistogram } from './capability-histogram';
 import { cpkConfidenceInterval, cpConfidenceInterval } from './capability-intervals';
-import { capabilityReading } from './capability-reading';
 import { expectedOutOfSpec } from './expected-out-of-spec';
 import { quantile } from './summary-statistics';
 
@@ -39,25 +38,6 @@ describe('confidence intervals', () => {
 	])('refuses level %f with n %f', (level, n) => {
 		expect(() => cpkConfidenceInterval(1, n, level)).toThrow(RangeError);
 		expect(() => cpConfidenceInterval(1, n, level)).toThrow(RangeError);
-	});
-});
-
-describe('capabilityReading (1.33 / 1.67, common practice)', () => {
-	it.each([
-		[0.5, 'not-capable'],
-		[0.999, 'not-capable'],
-		[1, 'marginal'],
-		[1.329, 'marginal'],
-		[1.33, 'capable'],
-		[1.669, 'capable'],
-		[1.67, 'highly-capable'],
-		[3, 'highly-capable'],
-		[null, 'undefined'],
-		[NaN, 'undefined']
-	])('%f → %s', (index, level) => {
-		const r = capabilityReading(index as number | null);
-		expect(r.level).toBe(level);
-		expect(r.text.length).toBeGreaterThan(10);
 	});
 });
 

@@ -1,5 +1,4 @@
 import { cpConfidenceInterval, cpkConfidenceInterval, type Interval } from './capability-intervals';
-import { capabilityReading, type CapabilityLevel } from './capability-reading';
 import { expectedOutOfSpec, type ExpectedOutOfSpec } from './expected-out-of-spec';
 import { SpcInputError } from './spc-input-error';
 import { mean as meanOf, sampleStandardDeviation } from './summary-statistics';
@@ -45,7 +44,6 @@ export interface CapabilityResult {
 	/** Expected ppm out of spec, normal model with within σ̂ / with overall s. */
 	expectedWithin: ExpectedOutOfSpec | null;
 	expectedOverall: ExpectedOutOfSpec | null;
-	reading: { level: CapabilityLevel; text: string };
 	/** Why an index is null, in plain words. */
 	notes: string[];
 }
@@ -91,7 +89,8 @@ function optionalSpec(v: number | null | undefined, field: string): number | nul
  * deviation s (ddof 1) of all values (AIAG SPC manual convention; NIST e-Handbook §6.1.6 for
  * the formulas). One-sided specs: Cp and Pp are null, Cpk/Ppk come from the given side.
  * Zero variation or missing specs give null indices with a note (never NaN or Infinity).
- * Intervals: Bissell (1990) for Cpk/Ppk, chi-square for Cp/Pp, n = number of values.
+ * Intervals: Bissell (1990) for Cpk/Ppk, chi-square for Cp/Pp, n = number of values. No verdict
+ * here: `assessCapability` judges stability first, then the lower confidence bound.
  * @throws SpcInputError for non-finite values, fewer than 2 values, or LSL ≥ USL.
  * @example processCapability({ values, sigmaWithin: 1.6, lsl: 90, usl: 100 }).cpk
  */
@@ -120,7 +119,7 @@ export interface CapabilitySummaryInput extends Omit<CapabilityInput, 'values' |
 }
 
 /**
- * Capability from summary figures: the same indices, intervals and reading as
+ * Capability from summary figures: the same indices and intervals as
  * `processCapability`, for callers that keep only counts, means and standard deviations (e.g.
  * per-board SPI aggregates pooled exactly).
  * @throws {SpcInputError} for n < 2, a non-finite mean or sigma, or LSL ≥ USL.
@@ -169,7 +168,6 @@ export function capabilityFromSummary(input: CapabilitySummaryInput): Capability
 	}
 	const ci = (v: number | null, f: typeof cpkConfidenceInterval) =>
 		v === null ? null : f(v, n, level);
-	const cpkReading = capabilityReading(within.pk, 'Cpk');
 	return {
 		n,
 		mean: mu,
@@ -193,7 +191,6 @@ export function capabilityFromSummary(input: CapabilitySummaryInput): Capability
 			lsl === null && usl === null ? null : expectedOutOfSpec(mu, sigmaWithin ?? 0, lsl, usl),
 		expectedOverall:
 			lsl === null && usl === null ? null : expectedOutOfSpec(mu, sigmaOverall, lsl, usl),
-		reading: within.pk === null ? capabilityReading(overall.pk, 'Ppk') : cpkReading,
 		notes
 	};
 }

@@ -86,11 +86,23 @@ export {
 	type HistogramOptions
 } from './capability-histogram';
 export {
-	capabilityReading,
-	CAPABLE_MINIMUM,
-	HIGHLY_CAPABLE_MINIMUM,
-	type CapabilityLevel
-} from './capability-reading';
+	assessCapability,
+	countOutOfSpec,
+	cpkLowerBound,
+	cpLowerBound,
+	thresholdErrors,
+	DEFAULT_CAPABILITY_THRESHOLDS,
+	THRESHOLD_SOURCE,
+	VERDICT_WORDS,
+	type AssessmentInput,
+	type CapabilityAssessment,
+	type CapabilityThresholds,
+	type CapabilityVerdict,
+	type ObservedOutOfSpec,
+	type OpenSignalRef
+} from './capability-assessment';
+
+export { pointKeyWords } from './point-key';
 
 // API core
 export {

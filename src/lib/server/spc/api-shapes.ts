@@ -49,7 +49,8 @@ export function chartJson(d: ChartDetail) {
 			excluded: p.excluded
 		})),
 		violations: d.chart?.violations ?? [],
-		capability: cap ? capabilityJson(cap) : null,
+		capability: cap ? capabilityJson(cap, d.capability.assessment) : null,
+		assessment: d.capability.assessment,
 		message: d.message ?? d.capability.message
 	};
 }

@@ -1,6 +1,9 @@
-import { asc, desc, eq, inArray } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull } from 'drizzle-orm';
 import {
+	assessCapability,
 	capabilityHistogram,
+	countOutOfSpec,
+	pointKeyWords,
 	chartPoints,
 	computeLimits,
 	evaluateChart,
@@ -11,9 +14,14 @@ import {
 	type ChartLimits,
 	type CapabilityResult,
 	type ChartPoint,
-	type RuleId
+	type RuleId,
+	type CapabilityThresholds,
+	type ObservedOutOfSpec,
+	type OpenSignalRef,
+	type Violation
 } from '$lib/spc';
-import { samplePadValues } from './spi-source';
+import { countPadsOutOfSpec, samplePadValues } from './spi-source';
+import { getCapabilityThresholds } from './capability-settings';
 import { summaryCapability } from './summary-capability';
 import type { Db } from '../db';
 import {
@@ -22,6 +30,7 @@ import {
 	spcCharacteristics,
 	spcExclusions,
 	spcLimitVersions,
+	spcSignals,
 	users
 } from '../db/schema';
 import { loadSubgroups, type CharacteristicRow, type SourceSubgroup } from './chart-source';
@@ -196,8 +205,35 @@ export function phaseOneLimits(
 	return computeLimits(c.chartKind as ChartKind, points, { exclude });
 }
 
-function noCapability(c: CharacteristicRow, message: string): CapabilityView {
-	return { result: null, histogram: null, lsl: c.lsl, usl: c.usl, target: c.target, message };
+/** Open (unacknowledged) signals of a characteristic, named as the user knows the points. */
+export function openSignalRefs(db: Db, characteristicId: number, labels: Map<string, string> = new Map()): OpenSignalRef[] {
+	return db
+		.select({ id: spcSignals.id, rule: spcSignals.rule, chartPart: spcSignals.chartPart, pointKey: spcSignals.pointKey })
+		.from(spcSignals)
+		.where(and(eq(spcSignals.characteristicId, characteristicId), isNull(spcSignals.ackAt)))
+		.orderBy(asc(spcSignals.id))
+		.limit(1000)
+		.all()
+		.map((s) => ({ id: s.id, rule: s.rule, chartPart: s.chartPart, point: labels.get(s.pointKey) ?? pointKeyWords(s.pointKey) }));
+}
+
+interface AssessmentContext {
+	openSignals: OpenSignalRef[];
+	violations: Violation[];
+	pointsShown: number;
+	thresholds: CapabilityThresholds;
+}
+
+function noCapability(c: CharacteristicRow, message: string, ctx: AssessmentContext): CapabilityView {
+	const assessment = assessCapability({
+		capability: null,
+		capabilityMessage: message,
+		lsl: c.lsl,
+		usl: c.usl,
+		observed: null,
+		...ctx
+	});
+	return { result: null, histogram: null, lsl: c.lsl, usl: c.usl, target: c.target, message, assessment };
 }
 
 /**
@@ -213,12 +249,16 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 	const exclusions = listExclusions(db, id);
 	const versions = listLimitVersions(db, id);
 	const base = { characteristic: c, versions, exclusions };
+	const thresholds = getCapabilityThresholds(db);
+	const labels = new Map(subgroups.map((s) => [s.key, s.label]));
+	const openSignals = openSignalRefs(db, id, labels);
+	const empty = { openSignals, violations: [], pointsShown: 0, thresholds };
 	if (subgroups.length === 0) {
 		const message =
 			c.measure === 'print-parameter'
 				? `No print runs of ${c.productCode} with ${c.parameterKey} logged yet.`
 				: 'No inspection data for this product and these lines yet.';
-		return { ...base, chart: null, capability: noCapability(c, message), message };
+		return { ...base, chart: null, capability: noCapability(c, message, empty), message };
 	}
 	const kind = c.chartKind as ChartKind;
 	let points: ChartPoint[];
@@ -244,11 +284,11 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 	} catch (e) {
 		if (!(e instanceof SpcInputError)) throw e;
 		const msg = `Not enough usable data for a chart yet (${e.field}: ${e.reason}).`;
-		return { ...base, chart: null, capability: noCapability(c, msg), message: msg };
+		return { ...base, chart: null, capability: noCapability(c, msg, empty), message: msg };
 	}
 	if (!(limits.sigmaWithin > 0)) {
 		const msg = 'Zero variation: every subgroup has the same values, so the limits collapse; check the gauge resolution or the data.';
-		return { ...base, chart: null, capability: noCapability(c, msg), message: msg };
+		return { ...base, chart: null, capability: noCapability(c, msg, empty), message: msg };
 	}
 	const rules = ruleList(c);
 	const excludedKeys = new Map(exclusions.map((e) => [e.key, e.reason]));
@@ -276,16 +316,28 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 		phase,
 		limitsVersion: version
 	};
-	const capability = capabilityOf(db, c, subgroups, limits);
+	const capability = capabilityOf(db, c, subgroups, limits, {
+		openSignals,
+		violations: chart.violations,
+		pointsShown: chart.points.length,
+		thresholds
+	});
 	return { ...base, chart, capability, message };
 }
 
 /** Capability of the shown data: from the values, or from pooled per-board aggregates. */
-function capabilityOf(db: Db, c: CharacteristicRow, subgroups: SourceSubgroup[], limits: ChartLimits): CapabilityView {
-	if (c.lsl == null && c.usl == null) return noCapability(c, 'Set LSL and/or USL to see capability.');
+function capabilityOf(
+	db: Db,
+	c: CharacteristicRow,
+	subgroups: SourceSubgroup[],
+	limits: ChartLimits,
+	ctx: AssessmentContext
+): CapabilityView {
+	if (c.lsl == null && c.usl == null) return noCapability(c, 'Set LSL and/or USL to see capability.', ctx);
 	try {
 		let result: CapabilityResult;
 		let values: number[];
+		let observed: ObservedOutOfSpec | null;
 		if (subgroups[0]?.stats) {
 			result = summaryCapability({
 				groups: subgroups.map((s) => s.stats ?? { n: 0, mean: 0, sd: 0 }),
@@ -296,10 +348,13 @@ function capabilityOf(db: Db, c: CharacteristicRow, subgroups: SourceSubgroup[],
 			});
 			// The histogram shows the pads of the newest boards; the indices use every shown board.
 			values = samplePadValues(db, c, subgroups.map((s) => s.boardId ?? 0));
+			observed = countPadsOutOfSpec(db, c, subgroups.map((s) => s.boardId ?? 0), c.lsl, c.usl);
 		} else {
 			values = subgroups.flatMap((s) => s.values);
 			result = processCapability({ values, sigmaWithin: limits.sigmaWithin, lsl: c.lsl, usl: c.usl, target: c.target });
+			observed = countOutOfSpec(values, c.lsl, c.usl);
 		}
+		const assessment = assessCapability({ capability: result, lsl: c.lsl, usl: c.usl, observed, ...ctx });
 		return {
 			result,
 			histogram: values.length
@@ -308,11 +363,12 @@ function capabilityOf(db: Db, c: CharacteristicRow, subgroups: SourceSubgroup[],
 			lsl: c.lsl,
 			usl: c.usl,
 			target: c.target,
-			message: null
+			message: null,
+			assessment
 		};
 	} catch (e) {
 		if (!(e instanceof SpcInputError)) throw e;
-		return noCapability(c, `Capability not computed: ${e.field}: ${e.reason}.`);
+		return noCapability(c, `Capability not computed: ${e.field}: ${e.reason}.`, ctx);
 	}
 }
 

@@ -1,9 +1,9 @@
 import { and, asc, eq, gte, inArray, like, or } from 'drizzle-orm';
-import { RULE_DESCRIPTIONS, type RuleId } from '$lib/spc';
+import { pointKeyWords, RULE_DESCRIPTIONS, type RuleId } from '$lib/spc';
 import type { Db } from '../db';
 import { mailOutbox, spcMailQueue, spcSignals, users } from '../db/schema';
 import { sendMail } from '../mail';
-import { characteristicsByIds, type CharacteristicSummary } from './chart-service';
+import { characteristicsByIds, chartDetail, type CharacteristicSummary } from './chart-service';
 import { listFollowers } from './characteristics';
 import type { SignalRow } from './signals';
 
@@ -21,13 +21,25 @@ function ruleText(rule: string): string {
 function describeSignal(s: SignalRow, c: CharacteristicSummary | undefined): string {
 	const value = s.value == null ? '' : ` value ${Number(s.value.toPrecision(6))}${c?.unit ? ' ' + c.unit : ''}`;
 	const when = s.pointAt ? ` at ${s.pointAt.toISOString().slice(0, 16).replace('T', ' ')} UTC` : '';
-	return `- ${s.rule} (${ruleText(s.rule)}) on the ${s.chartPart} chart: point ${s.pointKey}${value}${when}; ${s.pointKeys.length} point(s) in the pattern`;
+	const n = s.pointKeys.length;
+	return `- ${ruleText(s.rule)} (rule ${s.rule}) on the ${s.chartPart.replace('-', ' ')} chart: ${pointKeyWords(s.pointKey)}${value}${when}; ${n} point${n === 1 ? '' : 's'} in the pattern`;
 }
 
 function chartLine(c: CharacteristicSummary | undefined, id: number): string {
 	if (!c) return `Chart #${id}`;
 	const where = c.lineCodes.length ? c.lineCodes.join(', ') : 'all lines';
 	return `${c.name} · ${c.productCode} · ${where}`;
+}
+
+/** The chart's capability assessment in one line (the same verdict the chart page shows). */
+export function assessmentLine(db: Db, chartId: number): string {
+	try {
+		const a = chartDetail(db, chartId).capability.assessment;
+		return `Capability: ${a.headline}. ${a.detail}`;
+	} catch (err) {
+		console.error('[spc] capability for a signal mail failed', err);
+		return 'Capability: see the chart.';
+	}
 }
 
 function recentSignalMails(db: Db, email: string, since: Date): number {
@@ -69,7 +81,9 @@ export async function notifyFollowers(db: Db, runStarts: SignalRow[], now = new 
 	const since = new Date(now.getTime() - DIGEST_WINDOW_MS);
 	for (const [chartId, signals] of byChart) {
 		const c = chars.get(chartId);
-		for (const follower of listFollowers(db, chartId)) {
+		const followers = listFollowers(db, chartId);
+		const assessment = followers.length ? assessmentLine(db, chartId) : '';
+		for (const follower of followers) {
 			const queued = db.select({ id: spcMailQueue.id }).from(spcMailQueue).where(eq(spcMailQueue.userId, follower.userId)).get();
 			if (queued || recentSignalMails(db, follower.email, since) >= DIGEST_THRESHOLD) {
 				for (const s of signals) db.insert(spcMailQueue).values({ userId: follower.userId, signalId: s.id, createdAt: now }).run();
@@ -81,6 +95,8 @@ export async function notifyFollowers(db: Db, runStarts: SignalRow[], now = new 
 				`New run-rule signal${signals.length === 1 ? '' : 's'} on ${chartLine(c, chartId)}:`,
 				'',
 				...signals.map((s) => describeSignal(s, c)),
+				'',
+				assessment,
 				'',
 				`Open the chart: ${origin()}/charts/${chartId}`,
 				`Acknowledge with the cause and action: ${origin()}/signals?status=open&chart=${chartId}`,
@@ -123,7 +139,8 @@ export async function flushDigests(db: Db, now = new Date(), force = false): Pro
 				...[...byChart].flatMap(([chartId, signals]) => [
 					'',
 					`${chartLine(chars.get(chartId), chartId)} — ${origin()}/charts/${chartId}`,
-					...signals.map((s) => describeSignal(s, chars.get(chartId)))
+					...signals.map((s) => describeSignal(s, chars.get(chartId))),
+					assessmentLine(db, chartId)
 				]),
 				'',
 				`Open signals: ${origin()}/signals?status=open`

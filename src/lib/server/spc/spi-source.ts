@@ -218,3 +218,50 @@ export function boardScopes(db: Db, boardIds: number[]): { productId: number; li
 	}
 	return [...scopes.values()];
 }
+
+/**
+ * Pads of the given boards measured outside the specification, for the observed ppm beside the
+ * expected one. Boards whose stored minimum and maximum lie inside the spec are counted from the
+ * aggregates alone; only the others have their pad rows counted. Null for measures without pad
+ * values (transfer efficiency).
+ */
+export function countPadsOutOfSpec(
+	db: Db,
+	c: CharacteristicRow,
+	boardIds: number[],
+	lsl: number | null,
+	usl: number | null
+): { n: number; belowLsl: number; aboveUsl: number } | null {
+	const measure = c.measure as SpiMeasure;
+	const column = PAD_COLUMN[measure];
+	if (!column || c.padSelection.kind !== 'all') return null;
+	const p = PREFIX[measure];
+	let n = 0;
+	let below = 0;
+	let above = 0;
+	const ids = boardIds.filter((id) => id > 0);
+	const lslCenti = lsl === null ? null : lsl * 100;
+	const uslCenti = usl === null ? null : usl * 100;
+	for (let i = 0; i < ids.length; i += 500) {
+		const chunk = ids.slice(i, i + 500);
+		const rows = db.$client
+			.prepare(`select id, ${p}_count as count, ${p}_min as min, ${p}_max as max from spi_boards where id in (${chunk.map(() => '?').join(', ')})`)
+			.all(...chunk) as { id: number; count: number; min: number | null; max: number | null }[];
+		for (const r of rows) {
+			n += r.count ?? 0;
+			const outside = (lsl !== null && r.min !== null && r.min < lsl) || (usl !== null && r.max !== null && r.max > usl);
+			if (!outside) continue;
+			// Pad values are stored in hundredths: compare in hundredths, as the aggregates were made.
+			const counted = db.$client
+				.prepare(
+					`select sum(case when ? is not null and ${column} < ? then 1 else 0 end) as below,
+					 sum(case when ? is not null and ${column} > ? then 1 else 0 end) as above
+					 from spi_pad_measurements where board_id = ? and ${column} is not null`
+				)
+				.get(lslCenti, lslCenti, uslCenti, uslCenti, r.id) as { below: number | null; above: number | null };
+			below += counted.below ?? 0;
+			above += counted.above ?? 0;
+		}
+	}
+	return { n, belowLsl: below, aboveUsl: above };
+}

@@ -6,6 +6,7 @@ import {
 	evaluateChart,
 	processCapability,
 	type AnalyzeResult,
+	type CapabilityThresholds,
 	type FieldError,
 	type RuleId
 } from '$lib/spc';
@@ -29,8 +30,12 @@ export type StudyOutcome =
  * `POST /api/spc/analyze`), plus the points and histogram the page draws. Nothing is stored.
  * @example studyView({ chart: 'i-mr', values: [1, 2, 4, 3] })
  */
-export function studyView(request: SpcAnalyzeRequest, unit = ''): StudyOutcome {
-	const outcome = analyzeStudy(request);
+export function studyView(
+	request: SpcAnalyzeRequest,
+	unit = '',
+	thresholds?: Partial<CapabilityThresholds>
+): StudyOutcome {
+	const outcome = analyzeStudy(request, thresholds);
 	if (!outcome.ok) return outcome;
 	const data =
 		request.chart === 'i-mr'
@@ -84,7 +89,8 @@ export function studyView(request: SpcAnalyzeRequest, unit = ''): StudyOutcome {
 			lsl,
 			usl,
 			target,
-			message: null
+			message: null,
+			assessment: outcome.result.assessment
 		}
 	};
 }

@@ -1,4 +1,4 @@
-import type { CapabilityLevel } from '$lib/spc';
+import type { CapabilityAssessment, CapabilityVerdict } from '$lib/spc';
 import type { Db } from '../db';
 import { chartDetail, listCharacteristics, type ChartDetail } from './chart-service';
 import { openSignalCounts } from './signals';
@@ -25,7 +25,9 @@ export interface ChartSummaryRow {
 	openSignals: number;
 	cpk: number | null;
 	ppk: number | null;
-	level: CapabilityLevel;
+	/** The assessment's verdict (the same the chart page, the API and e-mails show). */
+	level: CapabilityVerdict;
+	assessment: CapabilityAssessment;
 	message: string | null;
 }
 
@@ -54,18 +56,33 @@ export function summaryRow(d: ChartDetail, openSignals: number): ChartSummaryRow
 		openSignals,
 		cpk: cap?.cpk ?? null,
 		ppk: cap?.ppk ?? null,
-		level: cap?.reading.level ?? 'undefined',
+		level: d.capability.assessment.verdict,
+		assessment: d.capability.assessment,
 		message: d.message ?? d.capability.message
 	};
 }
 
+const VERDICT_ORDER: Record<CapabilityVerdict, number> = {
+	'not-stable': 0,
+	'not-capable': 1,
+	marginal: 2,
+	capable: 3,
+	'not-assessed': 4
+};
+
 /**
- * Every chart with its latest capability and open signals, worst first: most open signals, then
- * lowest Cpk (Ppk when Cpk is undefined), charts without capability last.
+ * Every chart with its assessment and open signals, worst first: not stable (most open signals
+ * first), then not capable, marginal, capable (lowest bound first), not assessed last.
  */
 export function chartSummary(db: Db, limit = 200): ChartSummaryRow[] {
 	const open = openSignalCounts(db);
 	const rows = listCharacteristics(db).map((c) => summaryRow(chartDetail(db, c.id, { limit }), open.get(c.id) ?? 0));
-	const index = (r: ChartSummaryRow) => r.cpk ?? r.ppk ?? Infinity;
-	return rows.sort((a, b) => b.openSignals - a.openSignals || index(a) - index(b) || a.name.localeCompare(b.name));
+	const bound = (r: ChartSummaryRow) => r.assessment.basis?.lowerBound ?? Infinity;
+	return rows.sort(
+		(a, b) =>
+			VERDICT_ORDER[a.level] - VERDICT_ORDER[b.level] ||
+			b.openSignals - a.openSignals ||
+			bound(a) - bound(b) ||
+			a.name.localeCompare(b.name)
+	);
 }

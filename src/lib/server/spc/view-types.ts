@@ -3,6 +3,7 @@
  * `import type`, which is erased before bundling). Numbers are unrounded; the UI rounds.
  */
 import type {
+	CapabilityAssessment,
 	CapabilityHistogram,
 	CapabilityResult,
 	ChartKind,
@@ -52,4 +53,6 @@ export interface CapabilityView {
 	usl: number | null;
 	target: number | null;
 	message: string | null;
+	/** The one verdict (stability first); every view of this chart shows this. */
+	assessment: CapabilityAssessment;
 }

@@ -1,0 +1,55 @@
+import { and, eq, isNull } from 'drizzle-orm';
+import type { Actor } from '$lib/access';
+import { DEFAULT_CAPABILITY_THRESHOLDS, thresholdErrors, type CapabilityThresholds } from '$lib/spc';
+import type { Db } from '../db';
+import { settings } from '../db/schema';
+import { recordAudit } from '../audit';
+
+const KEY = 'spc.capabilityThresholds';
+
+/** A refused thresholds change, naming the field. */
+export class ThresholdsError extends Error {
+	constructor(
+		readonly field: string,
+		message: string
+	) {
+		super(message);
+	}
+}
+
+/** The site's capability verdict thresholds (defaults until an engineer changes them). */
+export function getCapabilityThresholds(db: Db): CapabilityThresholds {
+	const row = db
+		.select({ value: settings.value })
+		.from(settings)
+		.where(and(isNull(settings.siteId), eq(settings.key, KEY)))
+		.get();
+	const v = (row?.value ?? {}) as Partial<Record<keyof CapabilityThresholds, unknown>>;
+	const pick = (k: keyof CapabilityThresholds) =>
+		typeof v[k] === 'number' && Number.isFinite(v[k]) ? (v[k] as number) : DEFAULT_CAPABILITY_THRESHOLDS[k];
+	const t = { capable: pick('capable'), marginal: pick('marginal'), confidenceLevel: pick('confidenceLevel') };
+	// A stored value that no longer passes the checks falls back to the defaults as a whole.
+	return thresholdErrors(t).length ? { ...DEFAULT_CAPABILITY_THRESHOLDS } : t;
+}
+
+/**
+ * Change the thresholds (audited).
+ * @throws ThresholdsError naming the first bad field.
+ */
+export function setCapabilityThresholds(db: Db, t: CapabilityThresholds, actor: Actor): CapabilityThresholds {
+	const errors = thresholdErrors(t);
+	const words = { capable: 'Capable from', marginal: 'Marginal from', confidenceLevel: 'Confidence' };
+	if (errors.length) throw new ThresholdsError(errors[0].field, `${words[errors[0].field]} ${errors[0].message}.`);
+	const before = getCapabilityThresholds(db);
+	db.transaction((tx) => {
+		const existing = tx
+			.select({ id: settings.id })
+			.from(settings)
+			.where(and(isNull(settings.siteId), eq(settings.key, KEY)))
+			.get();
+		if (existing) tx.update(settings).set({ value: t, updatedAt: new Date() }).where(eq(settings.id, existing.id)).run();
+		else tx.insert(settings).values({ siteId: null, key: KEY, value: t, updatedAt: new Date() }).run();
+		recordAudit(tx, actor, { action: 'update', entity: 'setting', entityId: KEY, before: { ...before }, after: { ...t } });
+	});
+	return t;
+}
