@@ -1,7 +1,8 @@
 /**
  * Stencil check speed: evaluate, summarise and sweep a 20,000-aperture stencil, as the stencil
  * page does on every load, and build what the aperture map draws (status paths, hit index) and
- * answer pointer look-ups. Prints figures; asserts nothing.   npx tsx scripts/bench-stencil.ts
+ * answer pointer look-ups; then the read of stencils of many-vertex polygons (issue 11). Prints
+ * figures; asserts nothing.   npx tsx scripts/bench-stencil.ts
  */
 import { performance } from 'node:perf_hooks';
 import {
@@ -11,6 +12,7 @@ import {
 	evaluateStencil,
 	mapLayers,
 	resolveThresholds,
+	suggestPowderType,
 	summarizeStencil,
 	thicknessSweep,
 	type ApertureInput
@@ -104,3 +106,46 @@ time(`map: ${lookups.toLocaleString('en-GB')} pointer look-ups (apertureAt)`, 5,
 	}
 	return found;
 });
+
+// Heavy but legal polygons: the read that took over a minute (issue 11). Each outline is a
+// rippled circle of 1,000 vertices (the per-outline limit), so its convex hull keeps hundreds of
+// vertices: the old per-edge scan of every hull vertex and the every-pair crossing test were
+// quadratic in them. Reading a stencil evaluates, sweeps and suggests a powder from them.
+function polygonStencil(count: number, vertices: number): ApertureInput[] {
+	const outline: [number, number][] = Array.from({ length: vertices }, (_, k) => {
+		const a = (2 * Math.PI * k) / vertices;
+		const r = 400 + 15 * Math.sin(7 * a);
+		return [r * Math.cos(a), r * Math.sin(a)];
+	});
+	return Array.from({ length: count }, (_, i) => ({
+		refdes: `P${i + 1}`,
+		pad: '1',
+		shape: 'polygon' as const,
+		verticesUm: outline,
+		xUm: (i % 50) * 1000,
+		yUm: Math.floor(i / 50) * 1000,
+		rotationDeg: 0
+	}));
+}
+for (const [count, vertices] of [
+	[1_500, 1_000],
+	[500, 1_000]
+]) {
+	const heavy = polygonStencil(count, vertices);
+	const label = `${count.toLocaleString('en-GB')} polygons × ${vertices.toLocaleString('en-GB')} vertices`;
+	time(`read ${label}: evaluate + sweep + powder`, 3, () => {
+		// As `checkStoredStencil` + `stencilAdvice`: geometry computed once, reused.
+		const evaluated = evaluateStencil(heavy, { thicknessUm: 127, thresholds });
+		const sweep = thicknessSweep(heavy, { thresholds, geometries: evaluated });
+		const powder = suggestPowderType(
+			heavy,
+			undefined,
+			evaluated.map((e) => e.minDimensionUm)
+		);
+		return [evaluated, sweep, powder];
+	});
+	time(`map for ${label}: status paths + hit index`, 3, () => {
+		const marked = heavy.map((a) => ({ ...a, status: 'pass' as const }));
+		return [mapLayers(marked), buildHitIndex(marked)];
+	});
+}

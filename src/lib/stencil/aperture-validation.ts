@@ -65,7 +65,8 @@ function checkPolygon(
 	vertices: unknown,
 	where: string,
 	problems: Problems,
-	maxVertices: number
+	maxVertices: number,
+	outlineCrossing: boolean
 ): void {
 	const field = 'verticesUm';
 	if (!Array.isArray(vertices)) {
@@ -131,7 +132,7 @@ function checkPolygon(
 			return;
 		}
 	}
-	const crossing = findSelfIntersection(pts);
+	const crossing = outlineCrossing ? findSelfIntersection(pts) : null;
 	if (crossing) {
 		problems.push({
 			where,
@@ -144,6 +145,15 @@ function checkPolygon(
 	}
 	if (polygonAreaUm2(pts) === 0)
 		problems.push({ where, field, message: 'the polygon has zero area' });
+}
+
+/** Options of `checkAperture`. */
+export interface CheckApertureOptions {
+	/**
+	 * Test polygon outlines for crossing edges (default true). The map turns it off: it draws
+	 * apertures the server checked in full when they were stored and again when read.
+	 */
+	outlineCrossing?: boolean;
 }
 
 /**
@@ -159,7 +169,8 @@ function checkPolygon(
 export function checkAperture(
 	aperture: ApertureInput,
 	index?: number,
-	maxOutlineVertices: number = DEFAULT_STENCIL_LIMITS.maxOutlineVertices
+	maxOutlineVertices: number = DEFAULT_STENCIL_LIMITS.maxOutlineVertices,
+	options: CheckApertureOptions = {}
 ): InputProblem[] {
 	const problems: Problems = [];
 	const where = apertureLabel(aperture, index);
@@ -196,7 +207,8 @@ export function checkAperture(
 	if (aperture.shape === 'circle') {
 		checkSize(aperture.diameterUm, where, 'diameterUm', problems);
 	} else if (aperture.shape === 'polygon') {
-		checkPolygon(aperture.verticesUm, where, problems, maxOutlineVertices);
+		const crossing = options.outlineCrossing ?? true;
+		checkPolygon(aperture.verticesUm, where, problems, maxOutlineVertices, crossing);
 	} else {
 		const okL = checkSize(aperture.lengthUm, where, 'lengthUm', problems);
 		const okW = checkSize(aperture.widthUm, where, 'widthUm', problems);

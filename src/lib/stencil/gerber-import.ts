@@ -252,9 +252,11 @@ function placeRegions(
 			if (budget.exceeded) return;
 			const what = `G36 contour ${k + 1}`;
 			if (!contour.closed) {
-				const message = 'the contour is not closed (its last point differs from its first)';
-				errors.push(gerberProblem(region.line, what, message));
-				return;
+				// Many exporters leave out the last edge back to the start; the polygon closes it.
+				const message =
+					'the contour is not closed (its last point differs from its first); ' +
+					'closed with a straight edge back to its start';
+				warnings.push(gerberProblem(region.line, what, message));
 			}
 			const vertices = contour.vertices as PointUm[];
 			if (vertices.length < 3 || polygonSignedArea(vertices) === 0) {
@@ -352,14 +354,15 @@ function overlapFinder(dark: readonly Placed[]) {
  *   center/vector lines → rotated rectangle, the usual rounded-rectangle macro → exact rounded
  *   rectangle, other convex combinations → convex hull polygon, non-convex → skipped).
  * - Regions (G36/G37): each contour becomes a polygon placed at its area centroid; arcs are cut
- *   into chords within `arcToleranceUm` (see `flattenGerberPath`).
+ *   into chords within `arcToleranceUm` (see `flattenGerberPath`); a contour that does not end
+ *   where it started is closed with a straight edge, with a warning naming its line.
  * - Step-repeat (%SR) copies are expanded. Draws (D01 outside a region), clear-polarity
  *   objects, moiré/thermal macros and apertures with holes are skipped with a warning.
  * - Names: refdes `@0001`, `@0002`, … sorted by y then x, pad `1` (`nameGerberApertures`).
  *
  * Errors (each with its 1-based line): size limit, binary data, not Gerber, unknown or
  * geometry-changing commands (%MI, %OF, %LR …), units (%MO) or format (%FS) missing, an
- * undefined aperture or macro, flashes or aperture changes inside a region, an unclosed region,
+ * undefined aperture or macro, flashes or aperture changes inside a region, a region without G37,
  * incremental coordinates, a missing M02 (truncated file), no flashes or regions at all.
  *
  * Synchronous and CPU-bound: about 20 000 commands per second on the project machine (measured

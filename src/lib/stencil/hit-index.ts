@@ -8,6 +8,9 @@ import { checkAperture } from './aperture-validation';
 import { validApertureBoundsUm, type BoundsUm } from './outline';
 import { openPolygon } from './polygon';
 
+/** The server checked every outline for crossings; the map only needs drawable numbers. */
+const MAP_CHECK = { outlineCrossing: false };
+
 /** A spatial grid over a list of apertures; build with `buildHitIndex`. */
 export interface ApertureHitIndex {
 	readonly apertures: readonly ApertureInput[];
@@ -35,7 +38,7 @@ const CELLS_PER_APERTURE = 1;
  */
 export function buildHitIndex(apertures: readonly ApertureInput[]): ApertureHitIndex {
 	const boxes = apertures.map((a) =>
-		checkAperture(a).length > 0 ? null : validApertureBoundsUm(a)
+		checkAperture(a, undefined, undefined, MAP_CHECK).length > 0 ? null : validApertureBoundsUm(a)
 	);
 	let x0 = Infinity;
 	let y0 = Infinity;

@@ -7,6 +7,9 @@ import type { ApertureInput } from './aperture';
 import { checkAperture } from './aperture-validation';
 import { validApertureBoundsUm, validApertureSvgPath, type BoundsUm } from './outline';
 
+/** The server checked every outline for crossings; the map only needs drawable numbers. */
+const MAP_CHECK = { outlineCrossing: false };
+
 /** An aperture as the map needs it: its outline and its verdict. */
 export type MapAperture = ApertureInput & { status: 'pass' | 'fail' };
 
@@ -39,7 +42,7 @@ export function mapLayers(apertures: readonly MapAperture[]): MapLayers {
 	let xMaxUm = -Infinity;
 	let yMaxUm = -Infinity;
 	apertures.forEach((a, i) => {
-		if (checkAperture(a).length > 0) {
+		if (checkAperture(a, undefined, undefined, MAP_CHECK).length > 0) {
 			skipped.push(i);
 			return;
 		}

@@ -6,17 +6,17 @@ import type { PointUm } from './aperture';
 
 /**
  * Drop a closing vertex that repeats the first one (Gerber regions and many CAD exports close
- * their contours that way). Returns a new array.
+ * their contours that way). Returns the list itself when it is already open (no copy: reads of
+ * large outlines made one per check), else a shortened copy; callers must not change it.
  * @example openPolygon([[0,0],[1,0],[0,1],[0,0]]) // [[0,0],[1,0],[0,1]]
  */
-export function openPolygon(vertices: readonly PointUm[]): PointUm[] {
-	const out = vertices.map((v) => [v[0], v[1]] as PointUm);
-	if (out.length > 1) {
-		const first = out[0];
-		const last = out[out.length - 1];
-		if (first[0] === last[0] && first[1] === last[1]) out.pop();
+export function openPolygon(vertices: readonly PointUm[]): readonly PointUm[] {
+	if (vertices.length > 1) {
+		const first = vertices[0];
+		const last = vertices[vertices.length - 1];
+		if (first[0] === last[0] && first[1] === last[1]) return vertices.slice(0, -1);
 	}
-	return out;
+	return vertices;
 }
 
 /**

@@ -137,12 +137,15 @@ export interface PowderSuggestion {
 /**
  * The coarsest powder type (lowest number, usually cheapest and least prone to oxidation) for
  * which every aperture's narrowest opening is ≥ minParticles × largest particle.
+ * @param minDimensionsUm each aperture's narrowest opening as already computed (a read computes
+ *   geometry once); when left out, each aperture is checked and computed here.
  * @throws {StencilInputError} for an invalid aperture.
  * @example suggestPowderType([qfp04Pad]) // { type: 4, limitingMinDimensionUm: 200, … } (5 × 38 = 190 ≤ 200)
  */
 export function suggestPowderType(
 	apertures: readonly ApertureInput[],
-	minParticlesAcross = DEFAULT_MIN_PARTICLES_ACROSS
+	minParticlesAcross = DEFAULT_MIN_PARTICLES_ACROSS,
+	minDimensionsUm?: readonly number[]
 ): PowderSuggestion {
 	if (apertures.length === 0)
 		return {
@@ -155,7 +158,7 @@ export function suggestPowderType(
 	let limitingIndex = 0;
 	let minDim = Infinity;
 	apertures.forEach((a, i) => {
-		const d = apertureGeometry(a, i).minDimensionUm;
+		const d = minDimensionsUm ? minDimensionsUm[i] : apertureGeometry(a, i).minDimensionUm;
 		if (d < minDim) {
 			minDim = d;
 			limitingIndex = i;

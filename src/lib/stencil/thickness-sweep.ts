@@ -39,6 +39,11 @@ export interface ThicknessSweepOptions {
 	thicknessesUm?: readonly number[];
 	/** Share of apertures that must pass for a foil to be recommended, 0–1; default 1 (all). */
 	requiredPassShare?: number;
+	/**
+	 * Geometry of each aperture as `evaluateStencil` computed it (same order), so a read
+	 * computes it once; when left out each aperture is checked and computed here.
+	 */
+	geometries?: readonly ApertureGeometry[];
 }
 
 /** Sweep result: the chart series and the recommendation. */
@@ -86,7 +91,15 @@ export function thicknessSweep(
 	const regions = options.stepRegions ?? [];
 	problems.push(...checkStepRegions(regions));
 	if (problems.length > 0) throw new StencilInputError(problems);
-	const geometries = apertures.map((a, i) => apertureGeometry(a, i));
+	if (options.geometries && options.geometries.length !== apertures.length)
+		throw new StencilInputError([
+			{
+				where: 'thickness sweep',
+				field: 'geometries',
+				message: `must have one entry per aperture (${apertures.length}, got ${options.geometries.length})`
+			}
+		]);
+	const geometries = options.geometries ?? apertures.map((a, i) => apertureGeometry(a, i));
 	const { minAreaRatio, minAspectRatio } = options.thresholds;
 	const passesAt = (g: ApertureGeometry, thicknessUm: number) =>
 		meetsLimit(areaRatio(g.areaUm2, g.perimeterUm, thicknessUm), minAreaRatio) &&

@@ -83,11 +83,17 @@ export interface StencilAdvice {
 export function stencilAdvice(check: StencilCheck): StencilAdvice {
 	const thicknessesUm = [...COMMON_FOIL_THICKNESSES_UM, check.stencil.thicknessUm];
 	return {
+		// The geometry evaluated in `checkStoredStencil` is reused: computed once per read.
 		sweep: thicknessSweep(check.apertures, {
 			thresholds: check.thresholds,
 			thicknessesUm,
-			stepRegions: check.stencil.stepRegions
+			stepRegions: check.stencil.stepRegions,
+			geometries: check.apertures
 		}),
-		powder: suggestPowderType(check.apertures)
+		powder: suggestPowderType(
+			check.apertures,
+			undefined,
+			check.apertures.map((a) => a.minDimensionUm)
+		)
 	};
 }
