@@ -34,7 +34,8 @@ export function openArchiveWriter(databaseFile: string): ArchiveWriter {
 	const tmpDir = join(root, 'tmp');
 	mkdirSync(tmpDir, { recursive: true });
 	const tmpPath = join(tmpDir, `${Date.now()}-${randomBytes(6).toString('hex')}.part`);
-	const fd = openSync(tmpPath, 'w');
+	// Readable too: when the parser thread stops mid-file, the hash is taken from the file itself.
+	const fd = openSync(tmpPath, 'w+');
 	let open = true;
 	const close = () => {
 		if (open) closeSync(fd);
