@@ -45,3 +45,9 @@ export {
 	type TeBinSummary,
 	type TeHistogramRow
 } from './te-bins';
+export {
+	runOutcome,
+	VOLUME_WINDOW_PCT,
+	type RunOutcome,
+	type RunOutcomeSums
+} from './run-outcome';

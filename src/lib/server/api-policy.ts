@@ -55,7 +55,9 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/spi/pareto': { GET: ALL_ROLES },
 	'/api/boards': { GET: ALL_ROLES },
 	'/api/boards/[id]': { GET: ALL_ROLES },
-	'/api/analysis/transfer-efficiency': { GET: ALL_ROLES }
+	'/api/analysis/transfer-efficiency': { GET: ALL_ROLES },
+	'/api/analysis/parameters': { GET: ALL_ROLES },
+	'/api/trace': { GET: ALL_ROLES }
 };
 
 export function apiPolicyFor(routeId: string | null, method: string): MethodPolicy | undefined {

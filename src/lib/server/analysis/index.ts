@@ -7,3 +7,23 @@ export {
 	type TeFilters
 } from './transfer-efficiency';
 export { readTeFilters } from './te-query';
+export {
+	parameterEffect,
+	readParameterFilters,
+	ANALYSIS_OUTCOMES,
+	ANALYSIS_PARAMETERS,
+	CORRELATION_CAUTION,
+	MAX_RUNS,
+	type AnalysisOutcome,
+	type AnalysisParameter,
+	type ParameterAnswer,
+	type ParameterFilters
+} from './parameters';
+export {
+	readTraceQuery,
+	traceBoard,
+	MAX_LISTED_PADS,
+	MAX_TRACE_BOARDS,
+	type BoardTrace,
+	type TraceAnswer
+} from './trace';
