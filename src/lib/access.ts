@@ -75,7 +75,8 @@ export const NAV_GROUPS: readonly NavGroup[] = [
 		purpose: 'Solder-paste inspection imports, boards and their pads, failing pads by refdes.',
 		sections: [
 			{ href: '/spi', label: 'SPI imports', roles: ALL_ROLES, icon: 'scan-line' },
-			{ href: '/boards', label: 'Boards', roles: ALL_ROLES, icon: 'search' }
+			{ href: '/boards', label: 'Boards', roles: ALL_ROLES, icon: 'search' },
+			{ href: '/trace', label: 'Board trace', roles: ALL_ROLES, icon: 'route' }
 		]
 	},
 	{
@@ -85,7 +86,8 @@ export const NAV_GROUPS: readonly NavGroup[] = [
 		sections: [
 			{ href: '/charts', label: 'Charts', roles: ALL_ROLES, icon: 'chart-line' },
 			{ href: '/signals', label: 'Signals', roles: ALL_ROLES, icon: 'bell' },
-			{ href: '/study', label: 'Ad-hoc study', roles: ALL_ROLES, icon: 'calculator' }
+			{ href: '/study', label: 'Ad-hoc study', roles: ALL_ROLES, icon: 'calculator' },
+			{ href: '/analysis', label: 'Analysis', roles: ALL_ROLES, icon: 'chart-scatter' }
 		]
 	},
 	{

@@ -1,0 +1,111 @@
+import { expect, test } from '@playwright/test';
+import { bearer, signInAs, tokenFor } from './helpers';
+
+test.describe('analysis API', () => {
+	test('transfer efficiency: the demo learns an area-ratio limit; bad fields are named', async ({
+		request
+	}) => {
+		const viewer = bearer(tokenFor('viewer'));
+		const res = await request.get(
+			'/api/analysis/transfer-efficiency?technology=laser-stainless&powder=4&floor=0.7',
+			{ headers: viewer }
+		);
+		expect(res.status()).toBe(200);
+		const body = await res.json();
+		expect(body.n).toBeGreaterThan(10_000);
+		expect(body.floor).toBe(0.7);
+		expect(body.bins.length).toBeGreaterThan(10);
+		for (const key of ['areaRatio', 'teMean', 'teP10', 'teP90', 'n'])
+			expect(body.bins[0]).toHaveProperty(key);
+		expect(body.fit.model).toBe('logistic-4');
+		expect(Object.keys(body.fit.coefficients).sort()).toEqual(['knee', 'lower', 'scale', 'upper']);
+		expect(body.fit.band[0]).toHaveProperty('lower');
+		expect(body.learnedMinAreaRatio).toBeGreaterThan(0.55);
+		expect(body.learnedMinAreaRatio).toBeLessThan(0.7);
+
+		const none = await (
+			await request.get('/api/analysis/transfer-efficiency?technology=electroformed', { headers: viewer })
+		).json();
+		expect(none.learnedMinAreaRatio).toBeNull();
+		expect(none.reason).toMatch(/too few area-ratio bins/);
+
+		const bad = await request.get(
+			'/api/analysis/transfer-efficiency?floor=abc&powder=12&from=2026-13-01&colour=red',
+			{ headers: viewer }
+		);
+		expect(bad.status()).toBe(400);
+		const fields = (await bad.json()).fields.map((f: { field: string }) => f.field).sort();
+		expect(fields).toEqual(['colour', 'floor', 'from', 'powder']);
+		expect((await request.get('/api/analysis/transfer-efficiency')).status()).toBe(401);
+	});
+
+	test('parameters: one point per run with r, its interval and the caution', async ({ request }) => {
+		const viewer = bearer(tokenFor('viewer'));
+		const body = await (
+			await request.get(
+				'/api/analysis/parameters?parameter=squeegeeSpeedMmS&outcome=volumeMean&product=SH-220&line=SMT-2',
+				{ headers: viewer }
+			)
+		).json();
+		expect(body.n).toBe(24);
+		expect(body.points).toHaveLength(24);
+		expect(body.correlation.n).toBe(24);
+		expect(body.correlation.lower).toBeLessThan(body.correlation.r);
+		expect(body.correlation.upper).toBeGreaterThan(body.correlation.r);
+		expect(body.fit.band.length).toBeGreaterThan(2);
+		expect(body.caution).toMatch(/not a cause/);
+		const bad = await request.get('/api/analysis/parameters?outcome=volumeMean', { headers: viewer });
+		expect(bad.status()).toBe(400);
+		expect((await bad.json()).fields[0].field).toBe('parameter');
+	});
+
+	test('trace: exact serial, prefix, nothing; serial required', async ({ request }) => {
+		const viewer = bearer(tokenFor('viewer'));
+		const exact = await (await request.get('/api/trace?serial=FW-SH220-0000001', { headers: viewer })).json();
+		expect(exact.match).toBe('exact');
+		const b = exact.boards[0];
+		expect(b.stencil.name).toBe('ST-SH220');
+		expect(b.pasteLot.lotNumber).toBe('PL-2026-0390');
+		expect(b.operator.name).toBe('Cleo Marrowby');
+		expect(b.recipe.version).toBeGreaterThanOrEqual(1);
+		const prefix = await (await request.get('/api/trace?serial=FW-SH220-000002', { headers: viewer })).json();
+		expect(prefix.match).toBe('prefix');
+		expect(prefix.boards).toHaveLength(10);
+		const none = await (await request.get('/api/trace?serial=ZZ-NOTHING', { headers: viewer })).json();
+		expect(none.match).toBe('none');
+		expect((await request.get('/api/trace', { headers: viewer })).status()).toBe(400);
+	});
+});
+
+test.describe('analysis pages', () => {
+	test('the TE chart with its learned limit, and the parameter scatter with its caution', async ({
+		page
+	}) => {
+		await signInAs(page, 'viewer');
+		await page.goto('/analysis');
+		await page.getByLabel('Stencil technology').selectOption('laser-stainless');
+		await page.getByLabel('Powder type').selectOption('4');
+		await expect(page.getByTestId('te-learned')).toHaveText(/^0\.\d{3}$/);
+		await expect(page.getByTestId('te-chart').locator('svg').first()).toBeVisible();
+		await expect(page.getByTestId('te-fit')).toContainText('exp(');
+		await page.getByLabel('Stencil technology').selectOption('electroformed');
+		await expect(page.getByTestId('te-reason')).toContainText('too few area-ratio bins');
+
+		await page.getByLabel('Product').selectOption('SH-220');
+		await expect(page.getByTestId('pa-summary')).toContainText('24 runs');
+		await expect(page.getByTestId('pa-summary')).toContainText('95 % CI');
+		await expect(page.getByTestId('pa-caution')).toContainText('not a cause');
+		await expect(page.getByTestId('scatter-chart').locator('svg').first()).toBeVisible();
+	});
+
+	test('board trace page', async ({ page }) => {
+		await signInAs(page, 'quality');
+		await page.goto('/trace');
+		await page.getByLabel('Board serial').fill('FW-SH220-0000001');
+		await page.getByRole('button', { name: 'Trace' }).click();
+		await expect(page.getByTestId('trace-match')).toContainText('Exact serial');
+		await expect(page.getByTestId('trace-stencil')).toContainText('ST-SH220 rev A');
+		await expect(page.getByTestId('trace-lot')).toContainText('PL-2026-0390');
+		await expect(page.getByTestId('trace-operator')).toHaveText('Cleo Marrowby');
+	});
+});
