@@ -86,6 +86,8 @@ async function startThread(limits: StencilLimits): Promise<Worker | null> {
 	return worker;
 }
 
+let warnedInline = false;
+
 /** Whether the last upload ran on a thread (for tests and diagnostics). */
 export let lastParseThreaded = false;
 
@@ -108,6 +110,11 @@ export async function parseApertureUploadOffThread(
 		if (worker) spare = null;
 		else worker = await startThread(limits);
 		if (!worker) {
+			if (!warnedInline)
+				console.warn(
+					'stencil parser thread could not start; stencil files are read in the request thread'
+				);
+			warnedInline = true;
 			lastParseThreaded = false;
 			return parseApertureUpload(input, limits);
 		}

@@ -66,12 +66,16 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	};
 };
 
+/** A plain decimal (sign, digits, point, exponent), else NaN: `0x10` or `1_000` are not numbers. */
+const strictNumber = (raw: string) =>
+	/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(raw) ? Number(raw) : NaN;
+
 /** Parse "x y;x y;…" (µm) into vertices; null when a pair is not two numbers. */
 function parseVertices(text: string): PointUm[] | null {
 	const pairs = text.split(';').map((p) => p.trim()).filter(Boolean);
 	const out: PointUm[] = [];
 	for (const p of pairs) {
-		const xy = p.split(/[\s,]+/).map(Number);
+		const xy = p.split(/[\s,]+/).map(strictNumber);
 		if (xy.length !== 2 || !xy.every(Number.isFinite)) return null;
 		out.push([xy[0], xy[1]]);
 	}
