@@ -156,10 +156,26 @@ test.describe('charts and signals on demo data', () => {
 		const card = page.getByTestId(`signal-${signal.id}`);
 		await expect(card).toContainText('▲ Open');
 		await card.getByText('Acknowledge', { exact: true }).click();
+		// Nothing is chosen for the person; the scope is this one signal until widened.
+		await expect(card.getByLabel('Assignable cause')).toHaveValue('');
+		await expect(card.getByLabel('Corrective action')).toHaveValue('');
+		await expect(card.getByLabel('This signal only')).toBeChecked();
+		const submit = card.getByTestId(`ack-submit-${signal.id}`);
+		await expect(submit).toHaveText('Acknowledge 1 signal');
+		const wider = card.getByLabel(/open signals of this pattern on this chart/);
+		if (await wider.count()) {
+			const n = Number(/All (\d+) open/.exec((await wider.locator('xpath=..').textContent()) ?? '')?.[1]);
+			await wider.check();
+			await expect(submit).toHaveText(`Acknowledge ${n} signals`);
+			await card.getByLabel('This signal only').check();
+		}
+		// The browser refuses the form until a cause and an action are chosen.
+		await submit.click();
+		await expect(card).toContainText('▲ Open');
 		await card.getByLabel('Assignable cause').selectOption('Board support or clamping');
 		await card.getByLabel('Corrective action').selectOption('Wipe stencil');
 		await card.getByLabel('Note').fill('Speed typed as 65; printer was at 40');
-		await card.getByRole('button', { name: 'Save acknowledgement' }).click();
+		await submit.click();
 		await expect(page.getByRole('status').filter({ hasText: 'Acknowledged' })).toBeVisible();
 
 		const after = await (await request.get(`/api/signals?chart=${signal.chartId}`, { headers: bearer(tokenFor('viewer')) })).json();

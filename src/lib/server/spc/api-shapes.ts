@@ -85,7 +85,8 @@ export const acknowledgeBodySchema = z.object({
 	cause: z.string().trim().min(1, 'choose an assignable cause').max(80),
 	action: z.string().trim().min(1, 'choose a corrective action').max(80),
 	note: z.string().max(2000).optional(),
-	wholeRun: z.boolean().optional()
+	wholeRun: z.boolean().optional(),
+	expectedCount: z.number().int().min(1).max(100_000).optional()
 });
 
 /** Query of `GET /api/signals`. */

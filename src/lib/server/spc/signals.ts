@@ -7,6 +7,7 @@ import { recordAudit } from '../audit';
 import { characteristicsFor, loadSubgroups, type CharacteristicRow } from './chart-source';
 import { characteristicsByIds, latestLimitVersion, pointsFor, ruleList } from './chart-service';
 import { getCauseLists } from './cause-lists';
+import { patternTargets } from './ack-scope';
 import { flushDigests, notifyFollowers } from './signal-mail';
 import { boardScopes } from './spi-source';
 import { publishFloorEvent } from '../floor/events';
@@ -220,8 +221,10 @@ export interface AcknowledgeInput {
 	cause: string;
 	action: string;
 	note?: string;
-	/** Also acknowledge the other open signals of the same run. */
+	/** Also acknowledge the other open signals of the same run on the same chart. */
 	wholeRun?: boolean;
+	/** How many signals the person saw it would close; a different number is refused (409). */
+	expectedCount?: number;
 }
 
 /**
@@ -242,9 +245,11 @@ export function acknowledgeSignal(db: Db, id: number, input: AcknowledgeInput, a
 	}
 	const now = new Date();
 	const ids = db.transaction((tx) => {
-		const targets = input.wholeRun && row.runId
-			? tx.select({ id: spcSignals.id }).from(spcSignals).where(and(eq(spcSignals.runId, row.runId), isNull(spcSignals.ackAt))).all().map((r) => r.id)
-			: [id];
+		// The wider scope stays on this chart: the open signals of the same run of the same rule.
+		const targets = input.wholeRun ? patternTargets(tx, row) : [id];
+		if (input.expectedCount !== undefined && targets.length !== input.expectedCount) {
+			throw new AcknowledgeError(409, `This would now close ${targets.length} signals, not ${input.expectedCount}: the list changed; look again and confirm.`);
+		}
 		tx.update(spcSignals)
 			.set({
 				ackCause: input.cause,

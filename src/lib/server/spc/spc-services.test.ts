@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { desc } from 'drizzle-orm';
 import { openTestDatabase } from '../testing';
 import type { Db } from '../db';
-import { auditLog, mailOutbox } from '../db/schema';
+import { auditLog, mailOutbox, spcSignals } from '../db/schema';
 import type { Actor } from '$lib/access';
 import { addRuns, seedFactory } from './test-fixtures';
 import { createCharacteristic, CharacteristicInputError, setFollowing, updateCharacteristic } from './characteristics';
@@ -12,6 +12,8 @@ import { excludePoint, freezeLimits, LimitsError } from './limits-lifecycle';
 import { acknowledgeSignal, AcknowledgeError, evaluateSignalsFor, listSignals } from './signals';
 import { DIGEST_THRESHOLD, DIGEST_WINDOW_MS, flushDigests, notifyFollowers } from './signal-mail';
 import { getCauseLists, setCauseList } from './cause-lists';
+import { patternScopeCounts } from './ack-scope';
+import { acknowledgeBodySchema } from './api-shapes';
 
 // NIST/SEMATECH e-Handbook §6.3.2.2 individuals example (reference/spc/worked-examples.json).
 const examples = JSON.parse(readFileSync('reference/spc/worked-examples.json', 'utf8'));
@@ -190,6 +192,34 @@ describe('signals', () => {
 		}
 		setCauseList(db, 'actions', ['Wipe stencil', ' Wipe stencil ', 'Swap blade'], actor);
 		expect(getCauseLists(db).actions).toEqual(['Wipe stencil', 'Swap blade']);
+	});
+
+	it('acknowledge scope: one signal by default; the pattern scope stays on the chart and its count is checked', async () => {
+		const c = await driftScenario();
+		addRuns(db, { productId: f.product.id, lineId: f.line1.id, key: 'squeegeeSpeedMmS', start: new Date(start.getTime() + 3600_000) }, [56, 56.5]);
+		const created = await evaluateSignalsFor(db, [{ productId: f.product.id, lineId: f.line1.id }]);
+		const first = created[0];
+		const lists = getCauseLists(db);
+		const counts = patternScopeCounts(db, created.map((s) => s.id));
+		expect(counts.get(first.id)).toBe(2);
+		// Another chart's signal sharing the run id (forged) is never reached by the pattern scope.
+		const other = createCharacteristic(db, { name: 'Other side', productId: f.product.id, lineIds: [f.line1.id], measure: 'print-parameter', parameterKey: 'squeegeePressureKg', chartKind: 'i-mr' }, actor);
+		db.insert(spcSignals).values({ characteristicId: other.id, limitVersionId: first.limitVersionId, rule: first.rule, chartPart: 'location', pointKey: 'run:999999', pointKeys: ['run:999999'], boardIds: [], runId: first.runId }).run();
+		expect(() => acknowledgeSignal(db, first.id, { cause: lists.causes[0], action: 'Wipe stencil', wholeRun: true, expectedCount: 3 }, actor)).toThrow(/now close 2 signals, not 3/);
+		const one = acknowledgeSignal(db, first.id, { cause: lists.causes[0], action: 'Wipe stencil' }, actor);
+		expect(one.map((s) => s.id)).toEqual([first.id]);
+		const second = created[1];
+		const rest = acknowledgeSignal(db, second.id, { cause: lists.causes[0], action: 'Wipe stencil', wholeRun: true, expectedCount: 1 }, actor);
+		expect(rest.map((s) => s.id)).toEqual([second.id]);
+		expect(listSignals(db, { status: 'open', characteristicId: other.id })).toHaveLength(1);
+		void c;
+	});
+
+	it('the acknowledge body needs a cause and an action (nothing is chosen for the person)', () => {
+		expect(acknowledgeBodySchema.safeParse({ cause: '', action: 'Wipe stencil' }).success).toBe(false);
+		expect(acknowledgeBodySchema.safeParse({ action: 'Wipe stencil' }).success).toBe(false);
+		expect(acknowledgeBodySchema.safeParse({ cause: 'Aperture clogged' }).success).toBe(false);
+		expect(acknowledgeBodySchema.safeParse({ cause: 'Aperture clogged', action: 'Wipe stencil' }).success).toBe(true);
 	});
 
 	it('many runs within the window become one digest', async () => {

@@ -6,15 +6,20 @@ import { signalJson, signalQuery } from '$lib/server/spc/api-shapes';
 import { getCauseLists, setCauseList } from '$lib/server/spc/cause-lists';
 import { listCharacteristics } from '$lib/server/spc/chart-service';
 import { acknowledgeSignal, AcknowledgeError, listSignals } from '$lib/server/spc/signals';
+import { patternScopeCounts } from '$lib/server/spc/ack-scope';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const actor = requireActor(locals);
 	const db = getDb();
 	const filters = signalQuery(url);
+	const signals = listSignals(db, filters);
+	const counts = patternScopeCounts(db, signals.filter((s) => s.status === 'open').map((s) => s.id));
 	return {
 		filters: { status: filters.status ?? 'all', chart: filters.characteristicId ?? null, rule: filters.rule ?? '' },
-		signals: listSignals(db, filters).map(signalJson),
+		signals: signals.map(signalJson),
+		/** Open signals a "whole pattern" acknowledgement of each signal would close. */
+		patternCounts: Object.fromEntries(counts),
 		charts: listCharacteristics(db).map((c) => ({ id: c.id, name: c.name })),
 		lists: getCauseLists(db),
 		canEdit: hasRole(actor, SPC_EDITORS)
@@ -26,12 +31,18 @@ export const actions = {
 		const actor = requireActor(locals, SPC_EDITORS);
 		const form = await request.formData();
 		const id = Number(form.get('id'));
+		const wholeRun = form.get('scope') === 'pattern';
+		const count = Number(form.get('count'));
 		const input = {
-			cause: String(form.get('cause') ?? ''),
-			action: String(form.get('action') ?? ''),
+			cause: String(form.get('cause') ?? '').trim(),
+			action: String(form.get('action') ?? '').trim(),
 			note: String(form.get('note') ?? ''),
-			wholeRun: form.get('wholeRun') === 'on'
+			wholeRun,
+			expectedCount: wholeRun && Number.isInteger(count) && count > 0 ? count : undefined
 		};
+		// Nothing is chosen for the person: an empty cause or action is named, not defaulted.
+		if (!input.cause) return fail(422, { action: 'acknowledge', id, field: 'cause', error: 'Choose the assignable cause.' });
+		if (!input.action) return fail(422, { action: 'acknowledge', id, field: 'action', error: 'Choose the corrective action taken.' });
 		try {
 			const done = acknowledgeSignal(getDb(), id, input, actor);
 			return { action: 'acknowledge', id, ok: `Acknowledged ${done.length} signal${done.length === 1 ? '' : 's'}.` };
