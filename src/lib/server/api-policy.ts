@@ -5,6 +5,7 @@ import {
 	INSPECTION_IMPORTERS,
 	PRINT_LOGGERS,
 	SPC_EDITORS,
+	SIGNAL_ASSIGNERS,
 	type Role
 } from '../access';
 
@@ -21,6 +22,8 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/me': { GET: ALL_ROLES },
 	'/api/users': { GET: ADMIN_ONLY },
 	'/api/lines': { GET: ALL_ROLES, POST: ENGINEERING },
+	'/api/lines/overview': { GET: ALL_ROLES },
+	'/api/lines/stream': { GET: ALL_ROLES },
 	'/api/products': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/recipes': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/print-runs': { GET: ALL_ROLES, POST: PRINT_LOGGERS },
@@ -43,6 +46,7 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/charts/[id]': { GET: ALL_ROLES },
 	'/api/signals': { GET: ALL_ROLES },
 	'/api/signals/[id]/acknowledge': { POST: SPC_EDITORS },
+	'/api/signals/[id]/assignee': { PUT: SIGNAL_ASSIGNERS },
 	'/api/spi/imports': { GET: ALL_ROLES, POST: INSPECTION_IMPORTERS },
 	'/api/spi/imports/[id]': { GET: ALL_ROLES },
 	'/api/spi/imports/progress/[job]': { GET: ALL_ROLES },

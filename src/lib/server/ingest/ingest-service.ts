@@ -16,6 +16,7 @@ import type { Db } from '../db';
 import { checkStoredStencil } from '../stencils/evaluation';
 import { openArchiveWriter } from './archive';
 import { reportProgress } from './progress';
+import { publishFloorEvent } from '../floor/events';
 import { inlineParseDriver, threadedParseDriver, type ParseDriver } from './parse-driver';
 
 /** How a file came in. */
@@ -318,6 +319,7 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 
 		if (stored) {
 			finishProgress(request, sizeBytes, rows, w.importId, 'imported');
+			publishFloorEvent({ kind: 'spi-import', importId: w.importId, boardIds: stored.boardIds });
 			if (stored.boardIds.length > 0) {
 				// Charts judge the new boards at once (it logs its own failures, never throws).
 				const { evaluateSignalsAfterIngest } = await import('../spc/signals');
