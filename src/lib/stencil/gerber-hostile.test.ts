@@ -217,3 +217,32 @@ describe('geometry after unit conversion and open contours (issue 15)', () => {
 		expect(Math.abs(twice / 2)).toBeCloseTo(500_000, 3);
 	});
 });
+
+describe('macro work per layer', () => {
+	// A 99-circle macro whose first circle's diameter is the parameter $1.
+	const macro = `%AMMR*\n1,1,$1,0,0*\n${Array.from({ length: 98 }, (_, k) => `1,1,0.1,${((k + 1) / 100).toFixed(2)},0*`).join('\n')}%\n`;
+	const tools = (n: number, distinct: boolean) =>
+		Array.from(
+			{ length: n },
+			(_, k) =>
+				`%ADD${10 + k}MR,${distinct ? (0.1 + k / 10_000).toFixed(4) : '0.1'}*%\nD${10 + k}*\nX${k * 1000}Y0D03*`
+		).join('\n');
+
+	it('one shape flashed through 2,000 D-codes is computed once', () => {
+		const r = importGerberPasteLayer(`${H}${macro}${tools(2_000, false)}\nM02*\n`);
+		if ('errors' in r) throw new Error(JSON.stringify(r.errors.slice(0, 2)));
+		expect(r.apertures).toHaveLength(2_000);
+	});
+
+	it('distinct macro shapes are counted against the per-layer primitive budget (413)', () => {
+		const r = failed(`${H}${macro}${tools(300, true)}\nM02*\n`);
+		expect(r.overBudget).toBe(true);
+		// The 203rd distinct shape passes 20,000 primitives (202 × 99 = 19,998); it is defined on
+		// line 2 + 100 (macro) + 3 × 202 + 1.
+		expect(r.errors[0]).toMatchObject({ line: 709, budget: true });
+		expect(r.errors[0].message).toBe(
+			'line 709, D212: the macro apertures of the layer reach more than 20,000 primitives of ' +
+				'distinct shapes; the limit is 20,000 per layer'
+		);
+	});
+});

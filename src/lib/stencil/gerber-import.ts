@@ -26,6 +26,7 @@ import {
 } from './limits';
 import type {
 	GerberCommand,
+	GerberPadPrimitive,
 	GerberOutline,
 	GerberOutlineResult,
 	GerberUnits
@@ -174,6 +175,28 @@ function placeFlashes(
 	vertices: VertexBudget
 ) {
 	const outlines = new Map<string, GerberOutlineResult>();
+	// Macro outlines cost about 0.1 ms per primitive (hull and coverage test): the same shape is
+	// computed once, and the primitives of distinct shapes are counted against a budget first.
+	const byShape = new Map<string, GerberOutlineResult>();
+	let macroPrimitives = 0;
+	const macroOutline = (shape: GerberPadPrimitive[], tool: string) => {
+		const key = JSON.stringify(shape);
+		const known = byShape.get(key);
+		if (known) return known;
+		macroPrimitives += shape.length;
+		if (macroPrimitives > limits.maxMacroPrimitivesPerLayer) {
+			const definedAt = image.tools.get(tool)?.line ?? 0;
+			const message =
+				`the macro apertures of the layer reach more than ` +
+				`${formatCount(limits.maxMacroPrimitivesPerLayer)} primitives of distinct shapes; ` +
+				`the limit is ${formatCount(limits.maxMacroPrimitivesPerLayer)} per layer`;
+			errors.push({ ...gerberProblem(definedAt, `D${tool}`, message), budget: true });
+			return null;
+		}
+		const result = macroShapeOutline(shape, tolerance);
+		byShape.set(key, result);
+		return result;
+	};
 	const skipped = new Map<string, { count: number; firstLine: number }>();
 	const dark: Placed[] = [];
 	const clear: Omit<Placed, 'aperture'>[] = [];
@@ -181,7 +204,8 @@ function placeFlashes(
 		let result = outlines.get(fl.tool);
 		if (!result) {
 			const standard = image.tools.get(fl.tool)?.standard;
-			result = standard ?? macroShapeOutline(image.shapes.get(fl.tool) ?? [], tolerance);
+			result = standard ?? macroOutline(image.shapes.get(fl.tool) ?? [], fl.tool) ?? undefined;
+			if (!result) break;
 			if ('outline' in result && result.outline.kind === 'polygon') {
 				const n = result.outline.vertices.length;
 				if (n > limits.maxOutlineVertices) {

@@ -21,6 +21,8 @@ export interface StencilLimits {
 	maxVerticesPerStencil: number;
 	/** Primitives (and variable definitions) of one Gerber aperture macro. */
 	maxMacroPrimitives: number;
+	/** Primitives of all distinct flashed macro shapes of one Gerber layer (each costs a hull). */
+	maxMacroPrimitivesPerLayer: number;
 	/** Macro definitions plus aperture definitions in one Gerber file. */
 	maxApertureDefinitions: number;
 	/** Segments (lines and arcs) of one Gerber region, before arcs are cut into chords. */
@@ -47,6 +49,7 @@ export const DEFAULT_STENCIL_LIMITS: Readonly<StencilLimits> = Object.freeze({
 	maxVerticesPerImport: 500_000,
 	maxVerticesPerStencil: 500_000,
 	maxMacroPrimitives: 100,
+	maxMacroPrimitivesPerLayer: 20_000,
 	maxApertureDefinitions: 10_000,
 	maxRegionSegments: 100_000,
 	maxGerberWordChars: 65_536,
