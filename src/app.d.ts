@@ -18,6 +18,14 @@ declare global {
 declare module '@auth/core/types' {
 	interface Session {
 		user: { id: string; email?: string | null; name?: string | null };
+		/** The server-side session the cookie names (see $lib/server/sessions). */
+		sessionId?: string;
+	}
+}
+
+declare module '@auth/core/jwt' {
+	interface JWT {
+		sid?: string;
 	}
 }
 

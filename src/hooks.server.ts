@@ -6,19 +6,21 @@ import { getDb, isDatabaseBusy } from '$lib/server/db';
 import { apiPolicyFor } from '$lib/server/api-policy';
 import { databaseBusy, forbidden, unauthorized } from '$lib/server/api';
 import { verifyApiToken } from '$lib/server/tokens';
-import { findActiveUser } from '$lib/server/users';
+import { userForSession } from '$lib/server/sessions';
 import { boundRequestBody } from '$lib/server/request-body';
 import { startServices } from '$lib/server/startup';
+import { securityHeaders } from '$lib/server/security-headers';
 
 export const init: ServerInit = async () => {
 	await startServices();
 };
 
-const PUBLIC_PAGES = new Set(['/signin']);
+const PUBLIC_PAGES = new Set(['/signin', '/signin/reset']);
 const TOKEN_ERRORS = {
 	malformed: 'The Bearer token is malformed.',
 	unknown: 'The Bearer token is not known.',
-	revoked: 'The Bearer token has been revoked.'
+	revoked: 'The Bearer token has been revoked.',
+	expired: 'The Bearer token has expired.'
 } as const;
 
 const isApi = (path: string) => path === '/api' || path.startsWith('/api/');
@@ -65,8 +67,8 @@ const identify: Handle = async ({ event, resolve }) => {
 	}
 	if (!path.startsWith('/auth/')) {
 		const session = await event.locals.auth();
-		const userId = Number(session?.user?.id);
-		const user = Number.isSafeInteger(userId) ? findActiveUser(getDb(), userId) : undefined;
+		// The cookie alone is not enough: its server-side session must still be live.
+		const user = session ? userForSession(getDb(), session.sessionId) : undefined;
 		if (user) {
 			event.locals.actor = { kind: 'user', id: user.id, email: user.email, name: user.name, role: user.role };
 		}
@@ -150,7 +152,7 @@ const databaseBusyGuard: Handle = async ({ event, resolve }) => {
 	});
 };
 
-export const handle = sequence(databaseBusyGuard, crossSiteGuard, authBodyLimit, authHandle, identify, guard);
+export const handle = sequence(securityHeaders, databaseBusyGuard, crossSiteGuard, authBodyLimit, authHandle, identify, guard);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (isDatabaseBusy(error)) busyEvents.add(event); // answered 503 by databaseBusyGuard

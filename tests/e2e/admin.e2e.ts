@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { bearer, signIn, signInAs } from './helpers';
+import { bearer, demoUser, signIn, signInAs } from './helpers';
 
 test.describe('administration', () => {
 	test('an admin adds a person, who signs in; deactivated, they no longer can', async ({ browser }) => {
@@ -27,7 +27,16 @@ test.describe('administration', () => {
 		await adminPage.reload();
 		const row = adminPage.getByRole('row').filter({ hasText: email });
 		await row.getByRole('button', { name: 'Deactivate' }).click();
-		await expect(adminPage.getByRole('status')).toContainText('User deactivated');
+		// A confirmation names who goes; Cancel (the default focus) keeps them.
+		const dialog = adminPage.getByRole('dialog', { name: 'Deactivate Flo Hedgecroft?' });
+		await expect(dialog).toBeVisible();
+		await expect(dialog).toContainText(email);
+		await adminPage.keyboard.press('Enter');
+		await expect(dialog).toBeHidden();
+		await expect(row.getByRole('cell', { name: 'Active', exact: true })).toBeVisible();
+		await row.getByRole('button', { name: 'Deactivate' }).click();
+		await dialog.getByRole('button', { name: 'Deactivate Flo Hedgecroft' }).click();
+		await expect(adminPage.getByRole('status')).toContainText('Flo Hedgecroft deactivated');
 		await expect(row.getByRole('cell', { name: 'Deactivated' })).toBeVisible();
 
 		const again = await browser.newPage();
@@ -70,6 +79,9 @@ test.describe('administration', () => {
 		await signInAs(page, 'admin');
 		await page.goto('/admin/tokens');
 		await page.getByLabel('Name (who uses it)').fill('line 2 exporter');
+		// Least privilege: the form starts at the lowest role and 90 days.
+		await expect(page.getByLabel('Role')).toHaveValue('viewer');
+		await expect(page.getByLabel('Valid for (days)')).toHaveValue('90');
 		await page.getByLabel('Role').selectOption('quality');
 		await page.getByRole('button', { name: 'Make token' }).click();
 		const token = (await page.getByTestId('new-token').textContent())?.trim() ?? '';
@@ -82,11 +94,81 @@ test.describe('administration', () => {
 		await page.reload();
 		const row = page.getByRole('row').filter({ hasText: 'line 2 exporter' });
 		await row.getByRole('button', { name: 'Revoke' }).click();
+		const dialog = page.getByRole('dialog', { name: 'Revoke token “line 2 exporter”?' });
+		await expect(dialog).toContainText('stops working at once');
+		await page.keyboard.press('Escape');
+		await expect(dialog).toBeHidden();
+		expect((await request.get('/api/me', { headers: bearer(token) })).status()).toBe(200);
+		await row.getByRole('button', { name: 'Revoke' }).click();
+		await dialog.getByRole('button', { name: 'Revoke “line 2 exporter”' }).click();
 		await expect(row.getByRole('cell', { name: /^Revoked/ })).toBeVisible();
 
 		const after = await request.get('/api/me', { headers: bearer(token) });
 		expect(after.status()).toBe(401);
 		expect(await after.json()).toEqual({ error: 'The Bearer token has been revoked.' });
+	});
+
+	test('new people start as viewers; the last administrator cannot be demoted', async ({ page }) => {
+		await signInAs(page, 'admin');
+		await page.goto('/admin/users');
+		await expect(page.locator('form[action="?/createUser"]').getByLabel('Role')).toHaveValue('viewer');
+		const me = demoUser('admin');
+		const row = page.getByRole('row').filter({ hasText: me.email });
+		await row.getByLabel(`Role of ${me.name}`).selectOption('engineer');
+		await row.getByRole('button', { name: 'Change' }).click();
+		await expect(page.getByRole('alert')).toHaveText(
+			'This is the last active administrator; make someone else an administrator first.'
+		);
+		// Still an administrator, still signed in.
+		await page.reload();
+		await expect(page.getByTestId('viewer-role')).toHaveText('Administrator');
+		const status = await page.evaluate(async (id) => {
+			const body = new FormData();
+			body.set('userId', String(id));
+			body.set('active', 'false');
+			body.set('confirm', 'yes');
+			return (await fetch('/admin/users?/setActive', { method: 'POST', body, headers: { 'x-sveltekit-action': 'true' } })).json();
+		}, await row.locator('input[name="userId"]').first().inputValue());
+		expect(status).toMatchObject({ type: 'failure', status: 409 });
+	});
+
+	test('an administrator signs someone out everywhere; their copied cookie stops working', async ({ browser }) => {
+		const tech = await browser.newContext();
+		const techPage = await tech.newPage();
+		await signInAs(techPage, 'viewer');
+		const admin = await browser.newPage();
+		await signInAs(admin, 'admin');
+		await admin.goto('/admin/users');
+		const row = admin.getByRole('row').filter({ hasText: demoUser('viewer').email });
+		await expect(row.getByTestId('session-count')).not.toHaveText('0');
+		await row.getByRole('button', { name: /out everywhere/ }).click();
+		await expect(admin.getByRole('status')).toContainText('signed out everywhere');
+		await techPage.goto('/factory');
+		await expect(techPage).toHaveURL(/\/signin\?redirectTo=%2Ffactory/);
+		await tech.close();
+		await admin.close();
+	});
+
+	test('without JavaScript, revoking asks on a confirmation step first', async ({ browser }) => {
+		const context = await browser.newContext({ javaScriptEnabled: false });
+		const page = await context.newPage();
+		await signInAs(page, 'admin');
+		await page.goto('/admin/tokens');
+		await page.getByLabel('Name (who uses it)').fill('no-js exporter');
+		await page.getByRole('button', { name: 'Make token' }).click();
+		await expect(page.getByTestId('new-token')).toBeVisible();
+		await page.goto('/admin/tokens');
+		const row = page.getByRole('row').filter({ hasText: 'no-js exporter' });
+		await expect(row.getByRole('cell', { name: 'Viewer' })).toBeVisible();
+		await row.getByRole('button', { name: 'Revoke', exact: true }).click();
+		const step = page.getByRole('alertdialog', { name: 'Revoke token “no-js exporter”?' });
+		await expect(step).toContainText('stops working at once');
+		await page.goto('/admin/tokens');
+		await expect(page.getByRole('row').filter({ hasText: 'no-js exporter' }).getByRole('cell', { name: 'Active' })).toBeVisible();
+		await page.getByRole('row').filter({ hasText: 'no-js exporter' }).getByRole('button', { name: 'Revoke', exact: true }).click();
+		await step.getByRole('button', { name: 'Revoke “no-js exporter”' }).click();
+		await expect(page.getByRole('row').filter({ hasText: 'no-js exporter' }).getByRole('cell', { name: /^Revoked/ })).toBeVisible();
+		await context.close();
 	});
 
 	test('the outbox page explains where mail goes when no SMTP server is set', async ({ page }) => {

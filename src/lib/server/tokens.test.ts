@@ -32,3 +32,22 @@ describe('API tokens', () => {
 		expect(verifyApiToken(db, created.token)).toEqual({ ok: false, reason: 'revoked' });
 	});
 });
+
+describe('API token expiry', () => {
+	it('expires after 90 days by default, or after the days chosen; an expired token is refused', () => {
+		const made = Date.UTC(2026, 0, 1);
+		const byDefault = createApiToken(db, { name: 'default', role: 'viewer' }, null, made);
+		expect(byDefault.expiresAt.getTime() - made).toBe(90 * 86_400_000);
+		const past = createApiToken(db, { name: 'old', role: 'viewer', expiresInDays: 1 }, null, made);
+		// Made on 1 January 2026 with one day to live: refused now.
+		expect(verifyApiToken(db, past.token)).toEqual({ ok: false, reason: 'expired' });
+		const live = createApiToken(db, { name: 'live', role: 'viewer', expiresInDays: 7 }, null);
+		expect(verifyApiToken(db, live.token).ok).toBe(true);
+		expect(() => createApiToken(db, { name: 'x', role: 'viewer', expiresInDays: 0 }, null)).toThrow(
+			RangeError
+		);
+		expect(() => createApiToken(db, { name: 'x', role: 'viewer', expiresInDays: 1.5 }, null)).toThrow(
+			RangeError
+		);
+	});
+});

@@ -12,14 +12,34 @@ export function hashToken(token: string): string {
 	return createHash('sha256').update(token).digest('hex');
 }
 
-export type CreatedToken = { id: number; name: string; role: Role; token: string; prefix: string };
+export type CreatedToken = {
+	id: number;
+	name: string;
+	role: Role;
+	token: string;
+	prefix: string;
+	expiresAt: Date;
+};
 
-/** Create a token; the plain token is returned once and only its hash is stored. */
+/** A token lives this many days unless its maker chooses otherwise. */
+export const DEFAULT_TOKEN_DAYS = 90;
+export const MAX_TOKEN_DAYS = 730;
+
+/**
+ * Create a token; the plain token is returned once and only its hash is stored. It expires after
+ * `expiresInDays` (default 90, 1 to 730).
+ */
 export function createApiToken(
 	db: Db,
-	input: { name: string; role: Role },
-	actor: Actor | null
+	input: { name: string; role: Role; expiresInDays?: number },
+	actor: Actor | null,
+	now = Date.now()
 ): CreatedToken {
+	const days = input.expiresInDays ?? DEFAULT_TOKEN_DAYS;
+	if (!Number.isInteger(days) || days < 1 || days > MAX_TOKEN_DAYS) {
+		throw new RangeError(`expiresInDays must be a whole number from 1 to ${MAX_TOKEN_DAYS}.`);
+	}
+	const expiresAt = new Date(now + days * 86_400_000);
 	const token = 'rb_' + randomBytes(32).toString('base64url');
 	const prefix = token.slice(0, 8);
 	return db.transaction((tx) => {
@@ -30,7 +50,8 @@ export function createApiToken(
 				role: input.role,
 				tokenHash: hashToken(token),
 				prefix,
-				createdByUserId: actor?.kind === 'user' ? actor.id : null
+				createdByUserId: actor?.kind === 'user' ? actor.id : null,
+				expiresAt
 			})
 			.returning()
 			.get();
@@ -38,15 +59,15 @@ export function createApiToken(
 			action: 'create',
 			entity: 'api_token',
 			entityId: row.id,
-			after: { name: row.name, role: row.role, prefix }
+			after: { name: row.name, role: row.role, prefix, expiresAt: expiresAt.toISOString() }
 		});
-		return { id: row.id, name: row.name, role: row.role, token, prefix };
+		return { id: row.id, name: row.name, role: row.role, token, prefix, expiresAt };
 	});
 }
 
 export type TokenCheck =
 	| { ok: true; actor: Extract<Actor, { kind: 'token' }> }
-	| { ok: false; reason: 'malformed' | 'unknown' | 'revoked' };
+	| { ok: false; reason: 'malformed' | 'unknown' | 'revoked' | 'expired' };
 
 /** How often noted token use is written (at most once per this many ms). */
 export const TOKEN_USE_FLUSH_MS = 30_000;
@@ -118,6 +139,7 @@ export function verifyApiToken(db: Db, token: string): TokenCheck {
 	const row = db.select().from(apiTokens).where(eq(apiTokens.tokenHash, hashToken(token))).get();
 	if (!row) return { ok: false, reason: 'unknown' };
 	if (row.revokedAt) return { ok: false, reason: 'revoked' };
+	if (row.expiresAt && row.expiresAt.getTime() <= Date.now()) return { ok: false, reason: 'expired' };
 	noteTokenUse(db, row.id, Date.now());
 	return { ok: true, actor: { kind: 'token', id: row.id, name: row.name, role: row.role } };
 }
@@ -132,7 +154,8 @@ export function listApiTokens(db: Db) {
 			prefix: apiTokens.prefix,
 			createdAt: apiTokens.createdAt,
 			lastUsedAt: apiTokens.lastUsedAt,
-			revokedAt: apiTokens.revokedAt
+			revokedAt: apiTokens.revokedAt,
+			expiresAt: apiTokens.expiresAt
 		})
 		.from(apiTokens)
 		.orderBy(desc(apiTokens.createdAt))

@@ -8,7 +8,12 @@ import {
 	recordSignInFailure,
 	signInLockMinutes,
 	SIGN_IN_WINDOW_MS,
-	updateUser
+	updateUser,
+	changePassword,
+	countActiveAdmins,
+	LastAdminError,
+	pruneSignInFailures,
+	WrongPasswordError
 } from './users';
 import { auditLog, signInFailures, users } from './db/schema';
 import type { Db } from './db';
@@ -79,5 +84,42 @@ describe('sign-in throttle', () => {
 		expect(signInLockMinutes(db, 'a@x.example', 'ip', start + 5000)).toBe(15);
 		expect(signInLockMinutes(db, 'a@x.example', 'ip', start + SIGN_IN_WINDOW_MS - 1)).toBe(1);
 		expect(signInLockMinutes(db, 'a@x.example', 'ip', start + SIGN_IN_WINDOW_MS + 1)).toBe(0);
+	});
+});
+
+describe('least privilege and account safety', () => {
+	it('never lets the last active administrator be demoted or deactivated', async () => {
+		const root = await createUser(db, { ...alice, email: 'root@fenmoor.example', role: 'admin' }, null);
+		expect(() => updateUser(db, root.id, { role: 'engineer' }, null)).toThrow(LastAdminError);
+		expect(() => updateUser(db, root.id, { active: false }, null)).toThrow(LastAdminError);
+		const second = await createUser(db, { ...alice, email: 'two@fenmoor.example', role: 'admin' }, null);
+		expect(updateUser(db, root.id, { role: 'engineer' }, null)?.role).toBe('engineer');
+		expect(countActiveAdmins(db)).toBe(1);
+		expect(() => updateUser(db, second.id, { active: false }, null)).toThrow(LastAdminError);
+		// An inactive administrator does not count and may be changed freely.
+		expect(updateUser(db, second.id, { role: 'admin' }, null)?.role).toBe('admin');
+	});
+
+	it('changes a password only with the current one, and audits it', async () => {
+		const user = await createUser(db, alice, null);
+		await expect(changePassword(db, user.id, 'wrong', 'new long password', null)).rejects.toThrow(
+			WrongPasswordError
+		);
+		await changePassword(db, user.id, 'correct horse', 'new long password', null);
+		expect(await authenticate(db, alice.email, 'correct horse')).toBeNull();
+		expect((await authenticate(db, alice.email, 'new long password'))?.id).toBe(user.id);
+		const actions = db.select().from(auditLog).all().map((a) => a.action);
+		expect(actions).toContain('password-change');
+	});
+
+	it('prunes sign-in failures older than the throttle window', () => {
+		const now = Date.UTC(2026, 4, 1, 12);
+		recordSignInFailure(db, 'a@fenmoor.example', '10.0.0.1', now - SIGN_IN_WINDOW_MS - 1000);
+		recordSignInFailure(db, 'a@fenmoor.example', '10.0.0.1', now - 60_000);
+		expect(pruneSignInFailures(db, now)).toBe(1);
+		expect(db.select().from(signInFailures).all()).toHaveLength(1);
+		// Recording a failure prunes as well.
+		recordSignInFailure(db, 'b@fenmoor.example', '10.0.0.2', now + SIGN_IN_WINDOW_MS);
+		expect(db.select().from(signInFailures).all().map((r) => r.email)).toEqual(['b@fenmoor.example']);
 	});
 });

@@ -1,8 +1,9 @@
-import { and, asc, eq, gt, sql } from 'drizzle-orm';
+import { and, asc, eq, gt, lt, sql } from 'drizzle-orm';
 import type { Db } from './db';
 import { signInFailures, users } from './db/schema';
 import { hashPassword, verifyPassword } from './passwords';
 import { recordAudit } from './audit';
+import { endUserSessions } from './sessions';
 import type { Actor, Role } from '$lib/access';
 
 export type UserSummary = {
@@ -25,6 +26,10 @@ const summaryColumns = {
 
 export function listUsers(db: Db): UserSummary[] {
 	return db.select(summaryColumns).from(users).orderBy(asc(users.name)).all();
+}
+
+export function findUser(db: Db, id: number): UserSummary | undefined {
+	return db.select(summaryColumns).from(users).where(eq(users.id, id)).get();
 }
 
 export function findActiveUser(db: Db, id: number): UserSummary | undefined {
@@ -67,7 +72,19 @@ export async function createUser(
 	});
 }
 
-/** Change role or active flag; nothing is ever hard-deleted. */
+/** Refused: the change would leave no active administrator. */
+export class LastAdminError extends Error {
+	constructor() {
+		super('This is the last active administrator; make someone else an administrator first.');
+	}
+}
+
+/**
+ * Change role or active flag; nothing is ever hard-deleted. A change of either ends the user's
+ * sessions at once (they sign in again with the new role, or not at all). The last active
+ * administrator cannot be demoted or deactivated (LastAdminError), checked in the same
+ * transaction as the change.
+ */
 export function updateUser(
 	db: Db,
 	id: number,
@@ -77,6 +94,14 @@ export function updateUser(
 	return db.transaction((tx) => {
 		const before = tx.select(summaryColumns).from(users).where(eq(users.id, id)).get();
 		if (!before) return undefined;
+		const losesAdmin =
+			before.role === 'admin' &&
+			before.active &&
+			((change.role !== undefined && change.role !== 'admin') || change.active === false);
+		if (losesAdmin && countActiveAdmins(tx) <= 1) throw new LastAdminError();
+		const roleChanged = change.role !== undefined && change.role !== before.role;
+		const activeChanged = change.active !== undefined && change.active !== before.active;
+		if (roleChanged || activeChanged) endUserSessions(tx, id);
 		const after = tx
 			.update(users)
 			.set({ ...change, updatedAt: new Date() })
@@ -94,7 +119,7 @@ export function updateUser(
 	});
 }
 
-export function countActiveAdmins(db: Db): number {
+export function countActiveAdmins(db: Pick<Db, 'select'>): number {
 	return (
 		db
 			.select({ n: sql<number>`count(*)` })
@@ -104,6 +129,14 @@ export function countActiveAdmins(db: Db): number {
 	);
 }
 
+/**
+ * An argon2id hash of a random password with the same parameters as real ones: unknown and
+ * inactive accounts are checked against it, so sign-in does the same work (and takes as long)
+ * whether or not the account exists.
+ */
+export const DUMMY_PASSWORD_HASH =
+	'$argon2id$v=19$m=19456,t=2,p=1$sxvOl9N7IMM8j3KoX1FufA$6Z/dcUi7dvYCnEsKUmFlzN7cYnCgPwCtrluWZOsu7yM';
+
 /** Check a password; returns the active user or null (unknown, inactive and wrong look alike). */
 export async function authenticate(
 	db: Db,
@@ -112,8 +145,9 @@ export async function authenticate(
 ): Promise<UserSummary | null> {
 	const email = emailInput.trim().toLowerCase();
 	const row = db.select().from(users).where(eq(users.email, email)).get();
-	if (!row || !row.active) return null;
-	if (!(await verifyPassword(row.passwordHash, password))) return null;
+	const usable = !!row && row.active;
+	const matches = await verifyPassword(usable ? row.passwordHash : DUMMY_PASSWORD_HASH, password);
+	if (!usable || !matches) return null;
 	const { passwordHash: _omit, updatedAt: _u, ...summary } = row;
 	return summary;
 }
@@ -141,10 +175,61 @@ export function signInLockMinutes(db: Db, emailInput: string, ip: string, now = 
 	return Math.max(1, Math.ceil((unlockAt - now) / 60000));
 }
 
-export function recordSignInFailure(db: Db, emailInput: string, ip: string): void {
+export function recordSignInFailure(db: Db, emailInput: string, ip: string, now = Date.now()): void {
+	pruneSignInFailures(db, now);
 	db.insert(signInFailures)
-		.values({ email: emailInput.trim().toLowerCase(), ip, at: new Date() })
+		.values({ email: emailInput.trim().toLowerCase(), ip, at: new Date(now) })
 		.run();
+}
+
+/** Failures older than the throttle window no longer count for anything: drop them. */
+export function pruneSignInFailures(db: Db, now = Date.now()): number {
+	return db
+		.delete(signInFailures)
+		.where(lt(signInFailures.at, new Date(now - SIGN_IN_WINDOW_MS)))
+		.run().changes;
+}
+
+export class WrongPasswordError extends Error {
+	constructor() {
+		super('The current password is wrong.');
+	}
+}
+
+/**
+ * Set a new password (own account: `currentPassword` must match; reset link: null). Every session
+ * of the user ends, including the one that made the change.
+ */
+export async function changePassword(
+	db: Db,
+	userId: number,
+	currentPassword: string | null,
+	newPassword: string,
+	actor: Actor | null
+): Promise<void> {
+	const row = db.select().from(users).where(eq(users.id, userId)).get();
+	if (!row) throw new WrongPasswordError();
+	if (currentPassword !== null && !(await verifyPassword(row.passwordHash, currentPassword))) {
+		throw new WrongPasswordError();
+	}
+	const passwordHash = await hashPassword(newPassword);
+	db.transaction((tx) => {
+		tx.update(users).set({ passwordHash, updatedAt: new Date() }).where(eq(users.id, userId)).run();
+		endUserSessions(tx, userId);
+		recordAudit(tx, actor, {
+			action: currentPassword === null ? 'password-reset' : 'password-change',
+			entity: 'user',
+			entityId: userId
+		});
+	});
+}
+
+export function findUserByEmail(db: Db, emailInput: string): UserSummary | undefined {
+	return db
+		.select(summaryColumns)
+		.from(users)
+		.where(eq(users.email, emailInput.trim().toLowerCase()))
+		.get();
 }
 
 export function clearSignInFailures(db: Db, emailInput: string, ip: string): void {

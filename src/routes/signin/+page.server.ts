@@ -1,19 +1,29 @@
 import { fail, isRedirect, redirect } from '@sveltejs/kit';
 import { CredentialsSignin } from '@auth/sveltekit';
-import { signIn } from '$lib/server/auth';
+import { appOrigin, signIn } from '$lib/server/auth';
+import { sameOriginPath } from '$lib/server/safe-redirect';
 import { getDb } from '$lib/server/db';
 import { signInLockMinutes } from '$lib/server/users';
 import { signInSchema } from '$lib/schemas/users';
 import type { Actions, PageServerLoad } from './$types';
 
-/** Only same-site paths are followed after sign-in, never another host. */
+/** Only paths on ORIGIN are followed after sign-in, never another host (see safe-redirect.ts). */
 function safeRedirect(target: string | null): string {
-	return target && target.startsWith('/') && !target.startsWith('//') ? target : '/';
+	return sameOriginPath(target, appOrigin());
 }
 
 export const load: PageServerLoad = ({ locals, url }) => {
 	if (locals.actor) redirect(303, safeRedirect(url.searchParams.get('redirectTo')));
-	return { redirectTo: safeRedirect(url.searchParams.get('redirectTo')) };
+	const changed = url.searchParams.get('changed');
+	return {
+		redirectTo: safeRedirect(url.searchParams.get('redirectTo')),
+		notice:
+			changed === 'password'
+				? 'Your password is changed and every session of yours has ended. Sign in with the new password.'
+				: changed === 'sessions'
+					? 'You are signed out everywhere. Sign in again here.'
+					: null
+	};
 };
 
 export const actions = {

@@ -23,6 +23,7 @@ import { listStencilRefs, resolveLineProduct, stencilByName } from './lookups';
 import { asPasteEvents, getPasteLot, listPasteLots } from './paste-lots';
 import { currentRecipeFor, recipeById } from './recipes';
 import { PrintlogRequestError } from './request-error';
+import { writeCsv, type CsvCell } from '$lib/csv/write-csv';
 import { assessStencil, getStencilLife } from './stencil-life';
 
 /** A deviation as stored with a run: the pure check's result plus the technician's reason. */
@@ -612,28 +613,20 @@ export const RUN_CSV_COLUMNS = [
 ] as const;
 
 /**
- * Runs as CSV (RFC 4180: comma, CRLF, quotes doubled), one column per parameter, deviations and
- * their reasons in the last columns. Numbers unrounded; times ISO 8601 UTC.
+ * Runs as CSV through the one writer ($lib/csv/write-csv: RFC 4180, CRLF, formula-like text
+ * escaped), one column per parameter, deviations and their reasons in the last columns. Numbers
+ * unrounded; times ISO 8601 UTC.
  */
 export function runsToCsv(runs: readonly RunView[], parameterKeys: readonly string[]): string {
 	const header = [...RUN_CSV_COLUMNS, ...parameterKeys, 'deviations', 'warnings', 'corrections'];
-	const cell = (value: unknown): string => {
-		if (value === null || value === undefined) return '';
-		const text = value instanceof Date ? value.toISOString() : String(value);
-		// A leading = + - @ would run as a formula in a spreadsheet; quote it with a leading '.
-		const safe = /^[=+\-@]/.test(text) && Number.isNaN(Number(text)) ? `'${text}` : text;
-		return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-	};
-	const rows = runs.map((run) => [
-		...RUN_CSV_COLUMNS.map((c) => cell(run[c])),
-		...parameterKeys.map((k) => cell(run.parameters[k])),
-		cell(
-			run.deviations
-				.map((d) => `${d.parameter}=${d.value}${d.reason ? ` (${d.reason})` : ''}`)
-				.join('; ')
-		),
-		cell(run.warnings.join('; ')),
-		cell(run.corrections)
+	const rows: CsvCell[][] = runs.map((run) => [
+		...RUN_CSV_COLUMNS.map((c) => run[c] as CsvCell),
+		...parameterKeys.map((k) => run.parameters[k] as CsvCell),
+		run.deviations
+			.map((d) => `${d.parameter}=${d.value}${d.reason ? ` (${d.reason})` : ''}`)
+			.join('; '),
+		run.warnings.join('; '),
+		run.corrections as CsvCell
 	]);
-	return [header.map(cell), ...rows].map((r) => r.join(',')).join('\r\n') + '\r\n';
+	return writeCsv([header, ...rows]);
 }
