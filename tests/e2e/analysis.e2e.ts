@@ -77,6 +77,29 @@ test.describe('analysis API', () => {
 	});
 });
 
+test('stencil evidence: wear against prints and predicted TE per aperture; 404 and 400', async ({
+	request
+}) => {
+	const viewer = bearer(tokenFor('viewer'));
+	const stencils = (await (await request.get('/api/stencils', { headers: viewer })).json()).stencils as {
+		id: number;
+		name: string;
+	}[];
+	const id = stencils.find((s) => s.name === 'ST-SH220')!.id;
+	const wear = await (await request.get(`/api/analysis/stencil-wear?stencil=${id}`, { headers: viewer })).json();
+	expect(wear.points).toHaveLength(24);
+	expect(wear.points[1].printsBefore).toBe(12);
+	expect(typeof wear.flagged).toBe('boolean');
+	const predicted = await (
+		await request.get(`/api/analysis/predicted-te?stencil=${id}&floor=0.7`, { headers: viewer })
+	).json();
+	expect(predicted.apertures).toBe(305);
+	expect(predicted.belowFloor).toBeGreaterThan(0);
+	expect(predicted.listed[0].predictedTe).toBeLessThan(0.7);
+	expect((await request.get('/api/analysis/predicted-te?stencil=999999', { headers: viewer })).status()).toBe(404);
+	expect((await request.get('/api/analysis/stencil-wear?stencil=x', { headers: viewer })).status()).toBe(400);
+});
+
 test.describe('analysis pages', () => {
 	test('the TE chart with its learned limit, and the parameter scatter with its caution', async ({
 		page
@@ -96,6 +119,8 @@ test.describe('analysis pages', () => {
 		await expect(page.getByTestId('pa-summary')).toContainText('95 % CI');
 		await expect(page.getByTestId('pa-caution')).toContainText('not a cause');
 		await expect(page.getByTestId('scatter-chart').locator('svg').first()).toBeVisible();
+		await expect(page.getByTestId('wear-summary')).toContainText('24 runs');
+		await expect(page.getByTestId('predicted-summary')).toContainText('predicted below the floor');
 	});
 
 	test('board trace page', async ({ page }) => {

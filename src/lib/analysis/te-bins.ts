@@ -124,6 +124,11 @@ export interface TeAnalysis {
 		coefficients: TeFit['coefficients'];
 		residualSd: number;
 		degreesOfFreedom: number;
+		/** Covariance of (upper, lower, knee, ln scale), for bands at other area ratios. */
+		covariance: number[][];
+		/** Area-ratio range of the fitted bins (outside it the curve extrapolates). */
+		areaRatioMin: number;
+		areaRatioMax: number;
 		band: { areaRatio: number; fit: number; lower: number; upper: number }[];
 	} | null;
 	floor: number;
@@ -163,6 +168,9 @@ export function analyseTransferEfficiency(rows: readonly TeHistogramRow[], floor
 			coefficients: fit.coefficients,
 			residualSd: fit.residualSd,
 			degreesOfFreedom: fit.degreesOfFreedom,
+			covariance: fit.covariance,
+			areaRatioMin: fit.areaRatioMin,
+			areaRatioMax: fit.areaRatioMax,
 			band: teBand(
 				fit,
 				points.map((p) => p.areaRatio)

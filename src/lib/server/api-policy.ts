@@ -61,6 +61,8 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/boards/[id]': { GET: ALL_ROLES },
 	'/api/analysis/transfer-efficiency': { GET: ALL_ROLES },
 	'/api/analysis/parameters': { GET: ALL_ROLES },
+	'/api/analysis/stencil-wear': { GET: ALL_ROLES },
+	'/api/analysis/predicted-te': { GET: ALL_ROLES },
 	'/api/trace': { GET: ALL_ROLES }
 };
 

@@ -23,9 +23,9 @@ describe('analysis demo (SH-220 on SMT-2)', () => {
 		expect(one(`select count(*) from spi_boards where product_code = 'SH-220'`)).toBe(288);
 		expect(one(`select count(*) from spi_boards where product_code = 'SH-220' and (print_run_id is null or stencil_id is null)`)).toBe(0);
 	});
-	it('the laser-stainless data learn an area-ratio limit, lower with Type 5 powder', () => {
-		const t4 = transferEfficiency(t.db, { ...ALL, technology: 'laser-stainless', powder: 4 });
-		const t5 = transferEfficiency(t.db, { ...ALL, technology: 'laser-stainless', powder: 5 });
+	it('the laser-stainless data learn an area-ratio limit, lower with Type 5 powder', async () => {
+		const t4 = await transferEfficiency(t.db, { ...ALL, technology: 'laser-stainless', powder: 4 });
+		const t5 = await transferEfficiency(t.db, { ...ALL, technology: 'laser-stainless', powder: 5 });
 		expect(t4.reason).toBeNull();
 		expect(t5.reason).toBeNull();
 		// Invented knees 0.60 (Type 4) and 0.53 (Type 5), scale 0.05: the true limits at 0.70 are

@@ -27,3 +27,12 @@ export {
 	type BoardTrace,
 	type TraceAnswer
 } from './trace';
+export {
+	predictedTeForStencil,
+	readStencilQuery,
+	stencilWear,
+	DEFAULT_WEAR_DROP,
+	MAX_LISTED_APERTURES,
+	type PredictedTeAnswer,
+	type WearAnswer
+} from './stencil-evidence';

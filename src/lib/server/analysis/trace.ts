@@ -106,8 +106,10 @@ export function traceBoard(db: Db, serial: string): TraceAnswer {
 	const signalsOf = c.prepare(
 		`select s.id, ch.name as characteristic, s.rule, s.chart_part, s.point_at, s.ack_at
 		 from spc_signals s join spc_characteristics ch on ch.id = s.characteristic_id
-		 where exists (select 1 from json_each(s.board_ids) j where j.value = ?)
-		    or exists (select 1 from json_each(s.point_keys) k where k.value = ?)
+		 where (instr(s.board_ids, @idText) > 0
+		        and exists (select 1 from json_each(s.board_ids) j where j.value = @id))
+		    or (@runKey is not null and instr(s.point_keys, @runKey) > 0
+		        and exists (select 1 from json_each(s.point_keys) k where k.value = @runKey))
 		 order by s.id desc limit 50`
 	);
 	const boards = rows.slice(0, MAX_TRACE_BOARDS).map((b): BoardTrace => {
@@ -190,7 +192,11 @@ export function traceBoard(db: Db, serial: string): TraceAnswer {
 				volumePct: p.volume_centi_pct === null ? null : p.volume_centi_pct / 100
 			})),
 			signals: (
-				signalsOf.all(b.id, runId === null ? null : `run:${runId}`) as {
+				signalsOf.all({
+					idText: String(b.id),
+					id: b.id,
+					runKey: runId === null ? null : `run:${runId}`
+				}) as {
 					id: number;
 					characteristic: string;
 					rule: string;

@@ -23,7 +23,7 @@ const ALL: TeFilters = {
 describe('transferEfficiency (SQL aggregation over pads)', () => {
 	it('bins TE = volume_um3 ÷ aperture volume by area ratio and learns the limit', async () => {
 		const { expected } = await seedTeTestData(t.db, { curve: TRUTH, boards: 40 });
-		const r = transferEfficiency(t.db, ALL);
+		const r = await transferEfficiency(t.db, ALL);
 		expect(r.boardsMatched).toBe(40);
 		expect(r.boardsUsed).toBe(40);
 		expect(r.padsWithoutVolume).toBe(0);
@@ -48,20 +48,35 @@ describe('transferEfficiency (SQL aggregation over pads)', () => {
 
 	it('filters by technology and dates, and says why there is no limit', async () => {
 		await seedTeTestData(t.db, { curve: TRUTH, boards: 10 });
-		const none = transferEfficiency(t.db, { ...ALL, technology: 'laser-stainless' });
+		const none = await transferEfficiency(t.db, { ...ALL, technology: 'laser-stainless' });
 		expect(none.n).toBe(0);
 		expect(none.boardsMatched).toBe(0);
 		expect(none.learnedMinAreaRatio).toBeNull();
 		expect(none.reason).toMatch(/too few area-ratio bins/);
-		const later = transferEfficiency(t.db, { ...ALL, fromMs: Date.UTC(2026, 2, 1, 6, 5) });
+		const later = await transferEfficiency(t.db, { ...ALL, fromMs: Date.UTC(2026, 2, 1, 6, 5) });
 		expect(later.boardsMatched).toBe(5);
-		const paste = transferEfficiency(t.db, { ...ALL, paste: 'SAC305' });
+		const paste = await transferEfficiency(t.db, { ...ALL, paste: 'SAC305' });
 		expect(paste.boardsMatched).toBe(0); // the test boards have no print run, so no paste lot
 	}, 60_000);
 
-	it('leaves no rows in its temporary tables', async () => {
-		await seedTeTestData(t.db, { curve: TRUTH, boards: 3 });
-		transferEfficiency(t.db, ALL);
-		expect(t.db.$client.prepare('select count(*) from temp.analysis_te_pads').pluck().get()).toBe(0);
+	it('drops its temporary tables, and concurrent requests do not share them', async () => {
+		await seedTeTestData(t.db, { curve: TRUTH, boards: 12 });
+		const alone = await transferEfficiency(t.db, ALL);
+		const later = { ...ALL, fromMs: Date.UTC(2026, 2, 1, 6, 6) };
+		const aloneLater = await transferEfficiency(t.db, later);
+		// Slices of one board each, so the two scans interleave.
+		const one = { padsPerSlice: 1 };
+		const [a, b] = await Promise.all([
+			transferEfficiency(t.db, ALL, one),
+			transferEfficiency(t.db, later, one)
+		]);
+		// Same answers up to the order of floating-point sums (slices are summed separately).
+		const rounded = (v: unknown) =>
+			JSON.parse(JSON.stringify(v, (_k, x) => (typeof x === 'number' ? Number(x.toPrecision(9)) : x)));
+		expect(rounded(a)).toEqual(rounded(alone));
+		expect(rounded(b)).toEqual(rounded(aloneLater));
+		expect(
+			t.db.$client.prepare(`select count(*) from sqlite_temp_master where name like 'analysis_te_%'`).pluck().get()
+		).toBe(0);
 	}, 60_000);
 });

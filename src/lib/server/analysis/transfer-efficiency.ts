@@ -16,12 +16,16 @@ export interface TeFilters {
 }
 
 /**
- * Heavy-work bounds. The pad scan runs on the request thread (SQLite is synchronous), so it is
- * capped: when the matching boards hold more pads, the most recent boards up to the cap are used
- * and the answer says so (`boardsUsed` < `boardsMatched`). bench:analysis prints the time.
+ * Heavy-work bounds. SQLite is synchronous, so the pad scan runs in slices of PADS_PER_SLICE pads
+ * with the event loop free between them, and it is capped: when the matching boards hold more
+ * pads, the most recent boards up to the cap are used and the answer says so (`boardsUsed` <
+ * `boardsMatched`). bench:analysis prints the time.
  */
 export const MAX_PADS_SCANNED = 2_000_000;
 export const MAX_STENCILS = 200;
+/** Pads aggregated per synchronous slice (about 0.13 s measured); other requests run between. */
+export const PADS_PER_SLICE = 100_000;
+let requestCounter = 0;
 
 export interface TeAnswer extends TeAnalysis {
 	boardsMatched: number;
@@ -51,7 +55,12 @@ interface BoardRow {
  * The pad scan is one SQL aggregate over temporary tables (boards used, pad → aperture AR bin and
  * 1/volume), grouped by AR bin and TE bucket, so the answer is built from a few thousand rows.
  */
-export function transferEfficiency(db: Db, filters: TeFilters): TeAnswer {
+export async function transferEfficiency(
+	db: Db,
+	filters: TeFilters,
+	options: { padsPerSlice?: number } = {}
+): Promise<TeAnswer> {
+	const padsPerSlice = options.padsPerSlice ?? PADS_PER_SLICE;
 	const conn = db.$client;
 	const where: string[] = ['b.stencil_id is not null', 'b.te_count > 0'];
 	const params: (string | number)[] = [];
@@ -97,21 +106,21 @@ export function transferEfficiency(db: Db, filters: TeFilters): TeAnswer {
 	const stencilSet = new Set(stencilIds);
 	const boardsUsed = used.filter((b) => stencilSet.has(b.stencil_id));
 
-	conn.exec(`create temp table if not exists analysis_te_boards (
-		board_id integer primary key, stencil_id integer not null)`);
-	conn.exec(`create temp table if not exists analysis_te_pads (
+	// Per-request temporary tables (this connection is shared by concurrent requests, and the scan
+	// yields between slices).
+	const tag = ++requestCounter;
+	const boardsTable = `temp.analysis_te_boards_${tag}`;
+	const padsTable = `temp.analysis_te_pads_${tag}`;
+	conn.exec(`create table ${boardsTable} (board_id integer primary key, stencil_id integer not null)`);
+	conn.exec(`create table ${padsTable} (
 		stencil_id integer not null, pad_id integer not null, bin integer not null,
 		area_ratio real not null, inv_volume real not null,
 		primary key (stencil_id, pad_id)) without rowid`);
 	try {
-		conn.exec('delete from analysis_te_boards; delete from analysis_te_pads;');
-		const insertBoard = conn.prepare(`insert into analysis_te_boards values (?, ?)`);
-		const insertPad = conn.prepare(`insert or ignore into analysis_te_pads values (?, ?, ?, ?, ?)`);
-		const padsOf = conn.prepare(
-			`select id, refdes, pad from spi_pads where product_code = ?`
-		);
+		const insertBoard = conn.prepare(`insert into ${boardsTable} values (?, ?)`);
+		const insertPad = conn.prepare(`insert or ignore into ${padsTable} values (?, ?, ?, ?, ?)`);
+		const padsOf = conn.prepare(`select id, refdes, pad from spi_pads where product_code = ?`);
 		conn.transaction(() => {
-			for (const b of boardsUsed) insertBoard.run(b.id, b.stencil_id);
 			const products = new Map<number, Set<string>>();
 			for (const b of boardsUsed) {
 				let set = products.get(b.stencil_id);
@@ -136,27 +145,51 @@ export function transferEfficiency(db: Db, filters: TeFilters): TeAnswer {
 					}
 			}
 		})();
-		const rows = conn
-			.prepare(
-				`select p.bin as bin,
-				   min(cast(m.volume_um3 * p.inv_volume / ${TE_BUCKET_WIDTH} as integer), ${TE_BUCKET_MAX}) as bucket,
-				   count(*) as count, sum(m.volume_um3 * p.inv_volume) as teSum,
-				   sum(p.area_ratio) as areaRatioSum
-				 from analysis_te_boards tb
-				 join spi_pad_measurements m on m.board_id = tb.board_id
-				 join analysis_te_pads p on p.stencil_id = tb.stencil_id and p.pad_id = m.pad_id
-				 where m.volume_um3 is not null
-				 group by 1, 2`
-			)
-			.all() as TeHistogramRow[];
-		const allPads = (
-			conn
-				.prepare(
-					`select coalesce(sum(b.pad_count), 0) as n from analysis_te_boards tb
-					 join spi_boards b on b.id = tb.board_id`
-				)
-				.get() as { n: number }
-		).n;
+		const aggregate = conn.prepare(
+			`select p.bin as bin,
+			   min(cast(m.volume_um3 * p.inv_volume / ${TE_BUCKET_WIDTH} as integer), ${TE_BUCKET_MAX}) as bucket,
+			   count(*) as count, sum(m.volume_um3 * p.inv_volume) as teSum,
+			   sum(p.area_ratio) as areaRatioSum
+			 from ${boardsTable} tb
+			 cross join spi_pad_measurements m on m.board_id = tb.board_id
+			 cross join ${padsTable} p on p.stencil_id = tb.stencil_id and p.pad_id = m.pad_id
+			 where m.volume_um3 is not null
+			 group by 1, 2`
+		);
+		const padCount = conn.prepare(
+			`select coalesce(sum(b.pad_count), 0) from ${boardsTable} tb join spi_boards b on b.id = tb.board_id`
+		).pluck();
+		// Slices of about PADS_PER_SLICE pads, merged here; the event loop runs between slices.
+		// CROSS JOIN fixes the loop order (SQLite keeps it as written): the slice's boards outside,
+		// their pads by the measurement key, then the pad map; otherwise the planner, without
+		// statistics on the temporary tables, may scan every measurement for each slice.
+		const cells = new Map<number, TeHistogramRow>();
+		let allPads = 0;
+		for (let i = 0; i < boardsUsed.length; ) {
+			let slicePads = 0;
+			const slice: BoardRow[] = [];
+			while (i < boardsUsed.length && (slice.length === 0 || slicePads + boardsUsed[i].te_count <= padsPerSlice)) {
+				slicePads += boardsUsed[i].te_count;
+				slice.push(boardsUsed[i++]);
+			}
+			conn.exec(`delete from ${boardsTable}`);
+			conn.transaction(() => {
+				for (const b of slice) insertBoard.run(b.id, b.stencil_id);
+			})();
+			for (const r of aggregate.all() as TeHistogramRow[]) {
+				const key = r.bin * (TE_BUCKET_MAX + 1) + r.bucket;
+				const cell = cells.get(key);
+				if (!cell) cells.set(key, { ...r });
+				else {
+					cell.count += r.count;
+					cell.teSum += r.teSum;
+					cell.areaRatioSum += r.areaRatioSum;
+				}
+			}
+			allPads += padCount.get() as number;
+			if (i < boardsUsed.length) await new Promise((resolve) => setImmediate(resolve));
+		}
+		const rows = [...cells.values()];
 		const analysis = analyseTransferEfficiency(rows, filters.floor);
 		const padsInTe = rows.reduce((s, r) => s + r.count, 0);
 		return {
@@ -171,6 +204,6 @@ export function transferEfficiency(db: Db, filters: TeFilters): TeAnswer {
 					: null
 		};
 	} finally {
-		conn.exec('delete from analysis_te_boards; delete from analysis_te_pads;');
+		conn.exec(`drop table if exists ${boardsTable}; drop table if exists ${padsTable};`);
 	}
 }

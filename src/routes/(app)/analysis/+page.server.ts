@@ -16,6 +16,9 @@ export const load: PageServerLoad = async ({ locals }) => {
 		products: pluck(`select code from products order by code`) as string[],
 		lines: pluck(`select code from lines order by code`) as string[],
 		parameters: Object.entries(ANALYSIS_PARAMETERS).map(([value, label]) => ({ value, label })),
-		outcomes: Object.entries(ANALYSIS_OUTCOMES).map(([value, label]) => ({ value, label }))
+		outcomes: Object.entries(ANALYSIS_OUTCOMES).map(([value, label]) => ({ value, label })),
+		stencils: c
+			.prepare(`select id, name, revision, technology from stencils order by name, revision`)
+			.all() as { id: number; name: string; revision: string; technology: string }[]
 	};
 };
