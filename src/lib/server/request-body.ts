@@ -128,7 +128,8 @@ export async function boundRequestBody(
 	return new Request(request.url, {
 		method: request.method,
 		headers: request.headers,
-		body: bytes,
+		// Chunks from the socket are plain ArrayBuffer-backed arrays; the cast only narrows the type.
+		body: bytes as Uint8Array<ArrayBuffer>,
 		signal: request.signal
 	});
 }
