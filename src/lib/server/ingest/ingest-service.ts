@@ -283,6 +283,12 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 			// The one transaction that makes the import visible (a duplicate may have landed meanwhile).
 			await beginWrite(conn);
 			try {
+				const state = conn
+					.prepare(`select status from spi_imports where id = ?`)
+					.pluck()
+					.get(w.importId);
+				// Cleaned up meanwhile (a second server started on this database): never half-commit.
+				if (state !== 'importing') throw new Error('the import was cleaned up while it ran');
 				duplicateOf = earlierImport() ?? null;
 				if (duplicateOf === null) {
 					stored = w.finish(summary);
