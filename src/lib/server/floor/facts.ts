@@ -251,7 +251,9 @@ export function loadLineFacts(db: Db, nowMs: number, lineIds?: readonly number[]
 	const lines = (s.lines.all() as { id: number; code: string; name: string }[]).filter(
 		(l) => !wanted || wanted.has(l.id)
 	);
-	const runs = new Map((s.openRuns.all() as OpenRun[]).map((r) => [r.lineId, r]));
+	const runs = new Map(
+		(s.openRuns.all() as OpenRun[]).filter((r) => !wanted || wanted.has(r.lineId)).map((r) => [r.lineId, r])
+	);
 	const signals = openSignalsByLine(db);
 	const capability = capabilityStates(db, [...runs.values()].map((r) => ({ productId: r.productId, lineId: r.lineId })));
 	return lines.map((line) => {
