@@ -23,7 +23,7 @@ export function displayIdentity(db: Db, path: string, query: URLSearchParams): D
 	const token = query.get('token');
 	if (token === null) return null;
 	const check = verifyApiToken(db, token.trim());
-	if (!check.ok) return { error: `The display token is ${check.reason === 'malformed' ? 'malformed' : check.reason === 'revoked' ? 'revoked' : 'not known'}.` };
+	if (!check.ok) return { error: `The display token is ${check.reason === 'unknown' ? 'not known' : check.reason}.` };
 	if (check.actor.role !== 'viewer') {
 		return { error: 'A display token must be an API token of role viewer (read-only).' };
 	}

@@ -212,3 +212,22 @@ describe('signals with owners', () => {
 		expect(escalateAfterMinutes({ SIGNAL_ESCALATE_MINUTES: 'ten' })).toBe(60);
 	});
 });
+
+describe('display tokens', () => {
+	it('a viewer token in the query identifies a wall screen on the display paths only', async () => {
+		const { createApiToken } = await import('../tokens');
+		const { displayIdentity } = await import('./display-token');
+		const viewer = createApiToken(t.db, { name: 'wall', role: 'viewer' }, fx.actors.admin).token;
+		const engineer = createApiToken(t.db, { name: 'eng', role: 'engineer' }, fx.actors.admin).token;
+		const q = (token: string) => new URLSearchParams({ token });
+		expect(displayIdentity(t.db, '/wall', q(viewer))).toMatchObject({ actor: { kind: 'token', role: 'viewer' } });
+		expect(displayIdentity(t.db, '/api/lines/stream', q(viewer))).toMatchObject({ actor: { role: 'viewer' } });
+		expect(displayIdentity(t.db, '/api/lines/overview', q(engineer))).toEqual({
+			error: 'A display token must be an API token of role viewer (read-only).'
+		});
+		expect(displayIdentity(t.db, '/wall', q('rb_nonsense'))).toEqual({ error: 'The display token is malformed.' });
+		// Elsewhere the query is ignored: the Authorization header is the only way in.
+		expect(displayIdentity(t.db, '/api/print-runs', q(viewer))).toBeNull();
+		expect(displayIdentity(t.db, '/wall', new URLSearchParams())).toBeNull();
+	});
+});
