@@ -12,7 +12,7 @@ import {
 	type UploadResult
 } from '$lib/server/stencils';
 import type { Actor } from '$lib/access';
-import type { StencilLimits } from '$lib/stencil/limits';
+import { formatCount, type StencilLimits } from '$lib/stencil/limits';
 import { aperturesPayloadSchema, formatIssuePath } from '$lib/schemas/stencil';
 
 /** Every aperture with its figures (unrounded): `{ "apertures": [...] }`. */
@@ -39,6 +39,34 @@ const textField = (form: FormData, name: string) => {
 	const v = form.get(name);
 	return typeof v === 'string' && v.trim() !== '' ? v.trim() : null;
 };
+
+/**
+ * Count a JSON aperture list before it is validated (validation costs per vertex): more
+ * apertures or polygon vertices than the budgets allow is refused with 413 at once.
+ */
+function refuseOversizedList(body: unknown, limits: StencilLimits): void {
+	const list = (body as { apertures?: unknown } | null)?.apertures;
+	if (!Array.isArray(list)) return; // the schema words what is wrong
+	const tooMany = (what: string, count: number, limit: number, per: string) =>
+		new ApiError(413, {
+			error: `The request holds ${formatCount(count)} ${what}; the limit is ${formatCount(limit)} ${per}.`,
+			fields: [
+				{
+					field: 'apertures',
+					message: `${formatCount(count)} ${what}; the limit is ${formatCount(limit)} ${per}`
+				}
+			]
+		});
+	if (list.length > limits.maxAperturesPerStencil)
+		throw tooMany('apertures', list.length, limits.maxAperturesPerStencil, 'per import');
+	let vertices = 0;
+	for (const a of list) {
+		const v = (a as { verticesUm?: unknown } | null)?.verticesUm;
+		if (Array.isArray(v)) vertices += v.length;
+	}
+	if (vertices > limits.maxVerticesPerImport)
+		throw tooMany('polygon vertices', vertices, limits.maxVerticesPerImport, 'per import');
+}
 
 /** Store a parsed file upload (CSV or Gerber) all or nothing: 201 with the summary, or its errors. */
 async function importUploadedFile(
@@ -138,6 +166,7 @@ export const POST = apiRoute(async ({ params, request, url }, actor) => {
 	}
 	const body = await readJson(request);
 	const mode = modeOf((body as { mode?: unknown } | null)?.mode);
+	refuseOversizedList(body, stencilLimitsFromEnv());
 	const result = aperturesPayloadSchema.safeParse(body);
 	if (!result.success)
 		throw new ApiError(400, {
