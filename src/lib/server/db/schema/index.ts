@@ -4,3 +4,4 @@ export * from './stencils';
 export * from './printlog';
 export * from './spc';
 export * from './spi';
+export * from './cfx';
