@@ -27,6 +27,8 @@ describe('a write that finds the database locked by another process', () => {
 		expect(isDatabaseBusy(thrown)).toBe(true);
 		// Wrapped the way an ORM may wrap it: still recognised.
 		expect(isDatabaseBusy(new Error('query failed', { cause: thrown }))).toBe(true);
+		// As Auth.js wraps an error thrown while it checks credentials.
+		expect(isDatabaseBusy(new Error('callback', { cause: { err: thrown } }))).toBe(true);
 		expect(isDatabaseBusy(new Error('something else'))).toBe(false);
 		const res = errorResponse(thrown);
 		expect(res.status).toBe(503);

@@ -25,12 +25,12 @@ export const BUSY_TIMEOUT_MS = 750;
 
 /** Whether an error is SQLite's "database is locked/busy" (answered 503 + Retry-After). */
 export function isDatabaseBusy(err: unknown): boolean {
-	// Drizzle may wrap the driver's error: look through `cause` too.
-	for (let e = err, depth = 0; e && typeof e === 'object' && depth < 5; depth++) {
-		const code = (e as { code?: unknown }).code;
+	// Drizzle may wrap the driver's error in `cause`, Auth.js in `cause.err`: look through both.
+	for (let e = err, depth = 0; e && typeof e === 'object' && depth < 6; depth++) {
+		const { code, cause, err: inner } = e as { code?: unknown; cause?: unknown; err?: unknown };
 		if (typeof code === 'string' && (code === 'SQLITE_BUSY' || code.startsWith('SQLITE_BUSY_')))
 			return true;
-		e = (e as { cause?: unknown }).cause;
+		e = cause ?? inner;
 	}
 	return false;
 }
