@@ -21,6 +21,8 @@ export const INSPECTION_IMPORTERS: readonly Role[] = ['quality', 'engineer', 'ad
 export const ADMIN_ONLY: readonly Role[] = ['admin'];
 /** Who configures charts, freezes limits and acknowledges signals; everyone else reads. */
 export const SPC_EDITORS: readonly Role[] = ['quality', 'engineer', 'admin'];
+/** Who reads the audit trail (who changed which record, when, before and after). */
+export const AUDIT_READERS: readonly Role[] = ['quality', 'admin'];
 /** Who may take or hand on a signal on the floor (everyone who works there; viewers read). */
 export const SIGNAL_ASSIGNERS: readonly Role[] = ['technician', 'quality', 'engineer', 'admin'];
 
@@ -42,7 +44,7 @@ export type Section = { href: string; label: string; roles: readonly Role[]; ico
 
 /** Navigation groups, one per job; each role sees the groups that hold a page it may open. */
 export type NavGroup = {
-	id: 'stencils' | 'print' | 'inspection' | 'spc' | 'factory' | 'admin';
+	id: 'stencils' | 'print' | 'inspection' | 'spc' | 'factory' | 'audit' | 'admin';
 	label: string;
 	/** One line for the overview page: what the group is for. */
 	purpose: string;
@@ -97,6 +99,12 @@ export const NAV_GROUPS: readonly NavGroup[] = [
 		sections: [{ href: '/factory', label: 'Lines & products', roles: ALL_ROLES, icon: 'factory' }]
 	},
 	{
+		id: 'audit',
+		label: 'Audit',
+		purpose: 'Who changed which record, when, before and after; read only, with a CSV export.',
+		sections: [{ href: '/audit', label: 'Audit trail', roles: AUDIT_READERS, icon: 'history' }]
+	},
+	{
 		id: 'admin',
 		label: 'Admin',
 		purpose: 'People and roles, API tokens for machines, and the mail outbox.',
@@ -116,11 +124,11 @@ export const SECTIONS: readonly Section[] = [
 
 /** Which job comes first for each role, on the overview and in the menu. */
 const GROUP_ORDER: Record<Role, NavGroup['id'][]> = {
-	admin: ['admin', 'factory', 'stencils', 'print', 'inspection', 'spc'],
-	engineer: ['stencils', 'print', 'spc', 'inspection', 'factory', 'admin'],
-	technician: ['print', 'stencils', 'inspection', 'spc', 'factory', 'admin'],
-	quality: ['spc', 'inspection', 'print', 'stencils', 'factory', 'admin'],
-	viewer: ['spc', 'inspection', 'print', 'stencils', 'factory', 'admin']
+	admin: ['admin', 'factory', 'stencils', 'print', 'inspection', 'spc', 'audit'],
+	engineer: ['stencils', 'print', 'spc', 'inspection', 'factory', 'audit', 'admin'],
+	technician: ['print', 'stencils', 'inspection', 'spc', 'factory', 'audit', 'admin'],
+	quality: ['spc', 'inspection', 'print', 'stencils', 'factory', 'audit', 'admin'],
+	viewer: ['spc', 'inspection', 'print', 'stencils', 'factory', 'audit', 'admin']
 };
 
 /** The navigation for one role: its groups in its order, each with only the pages it may open. */
@@ -137,6 +145,7 @@ export function navigationFor(role: Role): NavGroup[] {
  */
 export const PAGE_POLICY: readonly { prefix: string; roles: readonly Role[] }[] = [
 	{ prefix: '/admin', roles: ADMIN_ONLY },
+	{ prefix: '/audit', roles: AUDIT_READERS },
 	{ prefix: '/runs/new', roles: PRINT_LOGGERS },
 	{ prefix: '/recipes/edit', roles: ENGINEERING },
 	{ prefix: '/spi/upload', roles: INSPECTION_IMPORTERS },

@@ -222,6 +222,7 @@ test.describe('sign-in and roles', () => {
 		const asked = Date.now() - 1000;
 		await page.goto('/signin');
 		await page.getByRole('link', { name: 'Forgot your password?' }).click();
+		await expect(page.getByRole('button', { name: 'Send the link' })).toBeVisible();
 		await page.getByLabel('E-mail').fill('nobody.here@fenmoor.example');
 		await page.getByRole('button', { name: 'Send the link' }).click();
 		const sameAnswer = await page.getByTestId('reset-sent').textContent();

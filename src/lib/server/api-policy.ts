@@ -1,6 +1,7 @@
 import {
 	ALL_ROLES,
 	ADMIN_ONLY,
+	AUDIT_READERS,
 	ENGINEERING,
 	INSPECTION_IMPORTERS,
 	PRINT_LOGGERS,
@@ -21,6 +22,8 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/health': { GET: 'public' },
 	'/api/me': { GET: ALL_ROLES },
 	'/api/users': { GET: ADMIN_ONLY },
+	'/api/audit': { GET: AUDIT_READERS },
+	'/api/audit/export.csv': { GET: AUDIT_READERS },
 	'/api/lines': { GET: ALL_ROLES, POST: ENGINEERING },
 	'/api/lines/overview': { GET: ALL_ROLES },
 	'/api/lines/stream': { GET: ALL_ROLES },

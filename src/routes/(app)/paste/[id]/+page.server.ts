@@ -3,6 +3,7 @@ import { ENGINEERING, hasRole, PRINT_LOGGERS } from '$lib/access';
 import { leadHandlingCaution, PASTE_EVENTS } from '$lib/printlog';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
+import { askConfirmation } from '$lib/server/confirm';
 import { addPasteEvent, getPasteLot, PrintlogRequestError, updatePasteHandling } from '$lib/server/printlog';
 import { fieldErrorsFromZod, pasteEventSchema } from '$lib/schemas/printlog';
 import type { Actions, PageServerLoad } from './$types';
@@ -30,6 +31,16 @@ export const actions = {
 		});
 		if (!parsed.success) {
 			return fail(400, { errors: fieldErrorsFromZod(parsed.error), warnings: [] as string[] });
+		}
+		if (parsed.data.event === 'discarded') {
+			const lot = getPasteLot(getDb(), params.id);
+			const name = lot?.lotNumber ?? params.id;
+			const ask = askConfirmation(data, '?/event', {
+				title: `Discard paste lot ${name}?`,
+				message: `Lot ${name} is marked discarded for good: no run can use it from now on, and its handling log ends here.`,
+				confirmLabel: `Discard ${name}`
+			});
+			if (ask) return ask;
 		}
 		try {
 			const { warnings } = addPasteEvent(getDb(), params.id, parsed.data, actor);
