@@ -135,7 +135,11 @@ for (const [count, vertices] of [
 	const label = `${count.toLocaleString('en-GB')} polygons × ${vertices.toLocaleString('en-GB')} vertices`;
 	time(`read ${label}: evaluate + sweep + powder`, 3, () => {
 		// As `checkStoredStencil` + `stencilAdvice`: geometry computed once, reused.
-		const evaluated = evaluateStencil(heavy, { thicknessUm: 127, thresholds });
+		const evaluated = evaluateStencil(heavy, {
+			thicknessUm: 127,
+			thresholds,
+			outlineCrossing: false
+		});
 		const sweep = thicknessSweep(heavy, { thresholds, geometries: evaluated });
 		const powder = suggestPowderType(
 			heavy,

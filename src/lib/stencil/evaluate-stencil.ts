@@ -31,6 +31,12 @@ export interface StencilSettings {
 	thicknessUm: number;
 	thresholds: PrintThresholds;
 	stepRegions?: StepRegion[];
+	/**
+	 * Test polygon outlines for crossing edges (default true). Reads of stored stencils turn it
+	 * off: every stored outline passed the full check when it was imported, and the test is the
+	 * costliest part of a read of many-vertex outlines.
+	 */
+	outlineCrossing?: boolean;
 }
 
 /**
@@ -53,8 +59,9 @@ export function evaluateStencil(
 		});
 	problems.push(...checkStepRegions(regions));
 	let extra = 0;
+	const checkOptions = { outlineCrossing: settings.outlineCrossing ?? true };
 	apertures.forEach((a, i) => {
-		const p = checkAperture(a, i);
+		const p = checkAperture(a, i, undefined, checkOptions);
 		if (problems.length + p.length <= MAX_REPORTED_PROBLEMS) problems.push(...p);
 		else extra += p.length;
 	});

@@ -4,6 +4,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkAperture } from './aperture-validation';
+import { evaluateStencil } from './evaluate-stencil';
+import { IPC_7525_THRESHOLDS } from './thresholds';
 import { parseApertureCsv } from './aperture-csv';
 import { parseCentroidCsv } from './centroid-csv';
 import { formatCount, withLimits } from './limits';
@@ -150,5 +152,26 @@ describe('aperture CSV: strict cells, counted vertices', () => {
 		expect(parseCentroidCsv('refdes,x,y\nU1,2500,0\n', 'mm')).toEqual({
 			errors: [{ row: 2, column: 'x', message: 'line 2, x: 2500 mm is beyond ±2000 mm' }]
 		});
+	});
+});
+
+describe('evaluateStencil: the crossing test on reads of stored outlines', () => {
+	// Edges 0 and 2 cross at (75, 75); the signed area is not zero, so only the crossing test
+	// refuses it.
+	const crossing = polygon([
+		[0, 0],
+		[300, 300],
+		[300, 0],
+		[0, 100]
+	]);
+	const settings = { thicknessUm: 100, thresholds: IPC_7525_THRESHOLDS };
+	it('is made by default, and left out when the caller says the outlines were checked on import', () => {
+		expect(() => evaluateStencil([crossing], settings)).toThrow(/intersects itself/);
+		expect(evaluateStencil([crossing], { ...settings, outlineCrossing: false })).toHaveLength(1);
+		// The other checks stay: a rotation out of range is refused either way.
+		const turned = polygon(ring(8, 100), { rotationDeg: 400 });
+		expect(() => evaluateStencil([turned], { ...settings, outlineCrossing: false })).toThrow(
+			/rotationDeg/
+		);
 	});
 });

@@ -49,7 +49,9 @@ export function checkStoredStencil(db: Db, stencilId: number): StencilCheck {
 	const results = evaluateStencil(stored, {
 		thicknessUm: stencil.thicknessUm,
 		thresholds,
-		stepRegions: stencil.stepRegions
+		stepRegions: stencil.stepRegions,
+		// Every stored outline passed the crossing test on import (`importApertures`).
+		outlineCrossing: false
 	});
 	const evaluated = stored.map((a, i) => {
 		const e = results[i];
