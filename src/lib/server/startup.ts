@@ -4,6 +4,7 @@ import { cleanArchiveTemp, recoverInterruptedImports, startSpiWatcher } from './
 import { warmParserThread } from './ingest/parse-driver';
 import { startLiveOverview } from './floor/live';
 import { startSignalEscalation } from './floor/signal-owners';
+import { backupScheduleFrom, startBackupSchedule } from './backup';
 
 /**
  * Everything the server needs before it answers: the database (migrations applied), the rows of
@@ -34,6 +35,24 @@ export async function startServices(): Promise<void> {
 	// The live overview listens to floor events from the start; overdue signals escalate by mail.
 	startLiveOverview(db);
 	startSignalEscalation(db);
+	startScheduledBackups(db);
+}
+
+/** BACKUP_EVERY / BACKUP_DIR / BACKUP_KEEP (see $lib/server/backup); a malformed value stops the start. */
+function startScheduledBackups(db: ReturnType<typeof getDb>): void {
+	let schedule;
+	try {
+		schedule = backupScheduleFrom(process.env, db.$client.name);
+	} catch (err) {
+		console.error(`[rollbead] ${(err as Error).message}`);
+		process.exit(1);
+	}
+	if (!schedule) return;
+	const stop = startBackupSchedule(db.$client, schedule);
+	console.log(
+		`[rollbead] backing up to ${schedule.dir} every ${schedule.everyMs / 60_000} min, keeping ${schedule.keep}`
+	);
+	process.once('sveltekit:shutdown', stop);
 }
 
 /**
