@@ -39,7 +39,7 @@ try {
 	const t = 100;
 	const stencil = createStencil(
 		db,
-		{ name: 'ST-BENCH', revision: 'A', thicknessUm: t, technology: 'laser-stainless', ratedLifePrints: null, notes: '' } as Parameters<typeof createStencil>[1],
+		{ name: 'ST-BENCH', revision: 'A', thicknessUm: t, technology: 'laser-stainless', notes: '' },
 		null
 	);
 	const aps = Array.from({ length: APERTURES }, (_, i) => {

@@ -90,6 +90,8 @@ test('stencil evidence: wear against prints and predicted TE per aperture; 404 a
 	expect(wear.points).toHaveLength(24);
 	expect(wear.points[1].printsBefore).toBe(12);
 	expect(typeof wear.flagged).toBe('boolean');
+	expect(wear.sinceWipe[0].printsSinceWipe).toBe(1);
+	expect(wear.sinceWipe.reduce((n: number, g: { boards: number }) => n + g.boards, 0)).toBe(288);
 	const predicted = await (
 		await request.get(`/api/analysis/predicted-te?stencil=${id}&floor=0.7`, { headers: viewer })
 	).json();
@@ -106,6 +108,9 @@ test.describe('analysis pages', () => {
 	}) => {
 		await signInAs(page, 'viewer');
 		await page.goto('/analysis');
+		// It opens on the most printed technology (laser-stainless in the demo) with a limit.
+		await expect(page.getByLabel('Stencil technology')).toHaveValue('laser-stainless');
+		await expect(page.getByTestId('te-learned')).toHaveText(/^0\.\d{3}$/);
 		await page.getByLabel('Stencil technology').selectOption('laser-stainless');
 		await page.getByLabel('Powder type').selectOption('4');
 		await expect(page.getByTestId('te-learned')).toHaveText(/^0\.\d{3}$/);

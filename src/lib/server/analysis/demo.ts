@@ -79,8 +79,9 @@ function sh220Apertures(): ApertureInput[] {
  * SAC305 Type 5 paste lot beside the Type 4 one, 24 ended SH-220 runs on SMT-2 whose logged
  * parameters vary inside the recipe, and 12 inspected boards per run through the real ingest.
  * Deposits follow a knee in area ratio (finer powder prints smaller openings), slower squeegee
- * and lighter pressure print a little more, and the stencil loses a little TE with use, so the
- * transfer-efficiency model, the parameter scatter and the board trace show something real.
+ * and lighter pressure print a little more, the stencil loses a little TE with use and paste
+ * builds up between wipes, so the transfer-efficiency model, the parameter scatter, the stencil
+ * wear and the board trace show something real.
  * Does nothing when SMT-2, SH-220, its recipe or the Type 4 demo lot is missing.
  */
 export async function seedDemoAnalysis(db: Db, nowMs = Date.now()): Promise<void> {
@@ -101,7 +102,7 @@ export async function seedDemoAnalysis(db: Db, nowMs = Date.now()): Promise<void
 			technology: 'laser-stainless',
 			ratedLifePrints: 60_000,
 			notes: 'SH-220 sensor hub, top side: wafer-level packages from 160 to 480 µm.'
-		} as Parameters<typeof createStencil>[1],
+		},
 		null
 	);
 	importApertures(
@@ -186,7 +187,9 @@ export async function seedDemoAnalysis(db: Db, nowMs = Date.now()): Promise<void
 		for (let b = 0; b < BOARDS_PER_RUN; b++) {
 			serial++;
 			const at = new Date(startedAt + ((b + 0.5) / BOARDS_PER_RUN) * 5 * HOUR).toISOString();
-			const boardFactor = 1 + 0.015 * rng.normal();
+			// Paste builds up under the foil between wipes: about 0.8 % more per print since the last.
+			const sinceWipe = b % (parameters.wipeIntervalPrints as number);
+			const boardFactor = (1 + 0.015 * rng.normal()) * (1 + 0.008 * sinceWipe);
 			for (const a of apertures) {
 				const base = predictTe(curve, a.areaRatio);
 				// Deposits scatter more below the knee (REFERENCE-FACTS §f).

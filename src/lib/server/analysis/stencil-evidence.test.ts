@@ -28,6 +28,18 @@ describe('stencilWear', () => {
 		// The demo's 2 % loss is hidden by run-to-run settings: not flagged at a 5-point limit.
 		expect(w.flagged).toBe(false);
 	});
+	it('groups boards by prints since the last wipe', () => {
+		const w = stencilWear(t.db, sh220, 0.05);
+		// Every demo board is in a run with a logged interval (2–10): all 288 are grouped.
+		expect(w.sinceWipe.reduce((s, g) => s + g.boards, 0)).toBe(288);
+		expect(w.sinceWipe[0].printsSinceWipe).toBe(1);
+		// The first board of each run is the first print after a wipe: at least 24 there.
+		expect(w.sinceWipe[0].boards).toBeGreaterThanOrEqual(24);
+		// Invented: deposits grow about 0.8 % per print since the wipe.
+		const first = w.sinceWipe[0].teMean!;
+		const second = w.sinceWipe[1].teMean!;
+		expect(second).toBeGreaterThan(first);
+	});
 	it('needs three runs with TE', () => {
 		const pb = t.db.$client.prepare(`select id from stencils where name = 'ST-PB100' and revision = 'A'`).pluck().get() as number;
 		const w = stencilWear(t.db, pb, 0.05);

@@ -52,7 +52,16 @@ export interface WearAnswer {
 	/** The loss exceeds `drop` and the slope's 95 % upper bound is below zero. */
 	flagged: boolean;
 	reason: string | null;
+	/**
+	 * Boards grouped by prints since the last under-stencil wipe (1 = first print after a wipe),
+	 * assuming boards are inspected in print order and the run wipes every `wipeIntervalPrints`
+	 * from its start; runs without a logged interval are left out.
+	 */
+	sinceWipe: { printsSinceWipe: number; boards: number; teMean: number | null; volumeMean: number | null }[];
 }
+
+/** Boards read for the since-wipe grouping (newest first). */
+export const MAX_WIPE_BOARDS = 200_000;
 
 /**
  * TE and volume against the stencil's print count. A run's print count is the sum of
@@ -86,7 +95,24 @@ export function stencilWear(db: Db, stencilId: number, drop: number): WearAnswer
 	});
 	const points = all.filter((p) => p.boards > 0).slice(-MAX_WEAR_RUNS);
 	const withTe = points.filter((p) => p.teMean !== null);
-	const base = { stencilId, points, drop };
+	const sinceWipe = (
+		db.$client
+			.prepare(
+				`with b as (
+				   select b.te_mean, b.te_count, b.volume_pct_mean, b.volume_pct_count,
+				     cast(json_extract(r.parameters, '$.wipeIntervalPrints') as integer) as every,
+				     row_number() over (partition by b.print_run_id order by b.inspected_at, b.id) - 1 as k
+				   from (select * from spi_boards where print_run_id in (select id from print_runs where stencil_id = ?)
+				         order by inspected_at desc limit ${MAX_WIPE_BOARDS}) b
+				   join print_runs r on r.id = b.print_run_id)
+				 select (k % every) + 1 as n, count(*) as boards,
+				   sum(te_mean * te_count) / nullif(sum(te_count), 0) as te,
+				   sum(volume_pct_mean * volume_pct_count) / nullif(sum(volume_pct_count), 0) as vol
+				 from b where every >= 1 group by 1 order by 1`
+			)
+			.all(stencilId) as { n: number; boards: number; te: number | null; vol: number | null }[]
+	).map((r) => ({ printsSinceWipe: r.n, boards: r.boards, teMean: r.te, volumeMean: r.vol }));
+	const base = { stencilId, points, drop, sinceWipe };
 	const xs = withTe.map((p) => p.printsBefore);
 	if (withTe.length < 3 || !(Math.max(...xs) > Math.min(...xs)))
 		return { ...base, fit: null, teDrop: null, flagged: false, reason: `${withTe.length} runs with transfer efficiency; a trend needs 3 at different print counts` };

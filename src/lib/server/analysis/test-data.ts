@@ -1,4 +1,5 @@
 import { predictTe, seededRandom, type TeCurve } from '$lib/analysis';
+import type { StencilTechnology } from '$lib/stencil';
 import type { Db } from '../db';
 import { ingestSpiFile } from '../ingest/ingest-service';
 import { importApertures } from '../stencils/apertures';
@@ -18,7 +19,7 @@ export async function seedTeTestData(
 		curve: TeCurve;
 		name?: string;
 		product?: string;
-		technology?: string;
+		technology?: StencilTechnology;
 		thicknessUm?: number;
 		boards?: number;
 		apertures?: number;
@@ -37,14 +38,7 @@ export async function seedTeTestData(
 	const arTo = options.arTo ?? 1.6;
 	const stencil = createStencil(
 		db,
-		{
-			name,
-			revision: 'A',
-			thicknessUm: t,
-			technology: options.technology ?? 'electroformed',
-			ratedLifePrints: null,
-			notes: ''
-		} as Parameters<typeof createStencil>[1],
+		{ name, revision: 'A', thicknessUm: t, technology: options.technology ?? 'electroformed', notes: '' },
 		null
 	);
 	const apertures = Array.from({ length: count }, (_, i) => {

@@ -17,6 +17,15 @@ export const load: PageServerLoad = async ({ locals }) => {
 		lines: pluck(`select code from lines order by code`) as string[],
 		parameters: Object.entries(ANALYSIS_PARAMETERS).map(([value, label]) => ({ value, label })),
 		outcomes: Object.entries(ANALYSIS_OUTCOMES).map(([value, label]) => ({ value, label })),
+		// The page opens on the technology with the most print runs (a few rows, not the pads).
+		defaultTechnology:
+			(c
+				.prepare(
+					`select s.technology from print_runs r join stencils s on s.id = r.stencil_id
+					 group by s.technology order by count(*) desc limit 1`
+				)
+				.pluck()
+				.get() as string | undefined) ?? '',
 		stencils: c
 			.prepare(`select id, name, revision, technology from stencils order by name, revision`)
 			.all() as { id: number; name: string; revision: string; technology: string }[]
