@@ -56,3 +56,43 @@ describe('compareRevisions', () => {
 		expect(() => compareRevisions([rect(0, 1)], [], { oldThicknessUm: 1, newThicknessUm: 1 })).toThrow(/U1\.1, lengthUm/);
 	});
 });
+
+describe('compareRevisions with apertures piled on one spot (hostile input)', () => {
+	const unnamed = (n: number, spread: (i: number) => number) =>
+		Array.from({ length: n }, (_, i) =>
+			circle(300, { refdes: '', pad: '', xUm: spread(i), yUm: 0 })
+		);
+
+	it('20,000 duplicates at one point pair up at once (a taken aperture leaves its cell)', () => {
+		const r = compareRevisions(
+			unnamed(20_000, () => 0),
+			unnamed(20_000, () => 0),
+			{
+				oldThicknessUm: 120,
+				newThicknessUm: 120
+			}
+		);
+		expect(r.unchangedCount).toBe(20_000);
+		expect(r.note).toBeUndefined();
+	});
+
+	it('7,000 apertures within one 50 µm cell stop matching by position after the test budget, and say so', () => {
+		// Distinct positions 0.005 µm apart, never equal: every new one measures every free old one.
+		const spread = (i: number) => i * 0.005;
+		const r = compareRevisions(
+			unnamed(7_000, spread),
+			unnamed(7_000, (i) => spread(i) + 0.0025),
+			{
+				oldThicknessUm: 120,
+				newThicknessUm: 120
+			}
+		);
+		expect(r.note).toMatch(
+			/^matching by position stopped at new aperture #\d+ after 20000000 distance tests/
+		);
+		const matched = r.unchangedCount + r.changed.length;
+		expect(matched + r.added.length).toBe(7_000);
+		expect(matched + r.removed.length).toBe(7_000);
+		expect(r.added.length).toBeGreaterThan(0);
+	});
+});

@@ -2,9 +2,9 @@
  * Compare two stencil revisions aperture by aperture: what was added, removed or changed.
  */
 import { effectiveShape, type ApertureInput } from './aperture';
-import { apertureGeometry } from './geometry';
+import { apertureGeometry, type ApertureGeometry } from './geometry';
 import { areaRatio, aspectRatio } from './area-ratio';
-import { apertureCentreUm } from './outline';
+import { validApertureCentreUm } from './outline';
 import { StencilInputError, type InputProblem } from './stencil-input-error';
 
 /** Options of `compareRevisions`. */
@@ -42,11 +42,22 @@ export interface RevisionComparison {
 	removed: { index: number; aperture: ApertureInput }[];
 	changed: ChangedAperture[];
 	unchangedCount: number;
+	/** Set when matching by position was cut short (see `MAX_POSITION_TESTS`). */
+	note?: string;
 }
+
+/** Most centre-distance tests spent on matching by position (see `compareRevisions`). */
+export const MAX_POSITION_TESTS = 20_000_000;
 
 const key = (a: ApertureInput) => `${a.refdes}\u0000${a.pad}`;
 
-function differences(a: ApertureInput, b: ApertureInput, tol: number): string[] {
+function differences(
+	a: ApertureInput,
+	b: ApertureInput,
+	tol: number,
+	[ax, ay]: [number, number],
+	[bx, by]: [number, number]
+): string[] {
 	const fields: string[] = [];
 	const near = (x?: number, y?: number) => Math.abs((x ?? 0) - (y ?? 0)) <= tol;
 	const sa = effectiveShape(a);
@@ -58,15 +69,12 @@ function differences(a: ApertureInput, b: ApertureInput, tol: number): string[] 
 		const va = a.verticesUm!;
 		const vb = b.verticesUm!;
 		const same = (p: [number, number], i: number) => near(p[0], vb[i][0]) && near(p[1], vb[i][1]);
-		if (va.length !== vb.length || !va.every(same))
-			fields.push('verticesUm');
+		if (va.length !== vb.length || !va.every(same)) fields.push('verticesUm');
 	} else {
 		if (!near(a.lengthUm, b.lengthUm)) fields.push('lengthUm');
 		if (!near(a.widthUm, b.widthUm)) fields.push('widthUm');
 		if (!near(a.cornerRadiusUm, b.cornerRadiusUm)) fields.push('cornerRadiusUm');
 	}
-	const [ax, ay] = apertureCentreUm(a);
-	const [bx, by] = apertureCentreUm(b);
 	if (Math.hypot(ax - bx, ay - by) > tol) fields.push('position');
 	// A rectangle turned by 180° is the same opening; a polygon needs a full turn; a circle any.
 	const period = sa === 'polygon' ? 360 : 180;
@@ -75,8 +83,12 @@ function differences(a: ApertureInput, b: ApertureInput, tol: number): string[] 
 	return fields;
 }
 
-function side(index: number, aperture: ApertureInput, thicknessUm: number): RevisionSide {
-	const g = apertureGeometry(aperture, index);
+function side(
+	index: number,
+	aperture: ApertureInput,
+	g: ApertureGeometry,
+	thicknessUm: number
+): RevisionSide {
 	return {
 		index,
 		aperture,
@@ -123,8 +135,10 @@ export function compareRevisions(
 			message: `must be a finite number ≥ 0 (got ${sizeTol})`
 		});
 	if (problems.length > 0) throw new StencilInputError(problems);
-	oldApertures.forEach((a, i) => apertureGeometry(a, i));
-	newApertures.forEach((a, i) => apertureGeometry(a, i));
+	// Checked and measured once each; centres and figures below reuse it.
+	const oldGeometry = oldApertures.map((a, i) => apertureGeometry(a, i));
+	const newGeometry = newApertures.map((a, i) => apertureGeometry(a, i));
+	const newCentres = newApertures.map((a) => validApertureCentreUm(a));
 
 	const pairs: [number, number, 'refdes-pad' | 'position'][] = [];
 	const oldUsed = new Array<boolean>(oldApertures.length).fill(false);
@@ -144,7 +158,7 @@ export function compareRevisions(
 
 	// Position matching of the leftovers: each new aperture takes the nearest free old one.
 	const grid = new Map<string, number[]>();
-	const oldCentres = oldApertures.map((a) => apertureCentreUm(a));
+	const oldCentres = oldApertures.map((a) => validApertureCentreUm(a));
 	oldCentres.forEach(([x, y], i) => {
 		if (oldUsed[i]) return;
 		const k = `${Math.floor(x / posTol)},${Math.floor(y / posTol)}`;
@@ -152,23 +166,42 @@ export function compareRevisions(
 		if (list) list.push(i);
 		else grid.set(k, [i]);
 	});
+	// Apertures piled within one tolerance cell would make matching quadratic: it stops after
+	// MAX_POSITION_TESTS distance tests and says so.
+	let tests = 0;
+	let stoppedAt: number | null = null;
 	newApertures.forEach((b, j) => {
-		if (newUsed[j]) return;
-		const [x, y] = apertureCentreUm(b);
+		if (newUsed[j] || stoppedAt !== null) return;
+		if (tests > MAX_POSITION_TESTS) {
+			stoppedAt = j;
+			return;
+		}
+		const [x, y] = newCentres[j];
 		const gx = Math.floor(x / posTol);
 		const gy = Math.floor(y / posTol);
 		let best = -1;
 		let bestD = Infinity;
-		for (let dx = -1; dx <= 1; dx++)
-			for (let dy = -1; dy <= 1; dy++)
-				for (const i of grid.get(`${gx + dx},${gy + dy}`) ?? []) {
-					if (oldUsed[i]) continue;
+		for (let dx = -1; dx <= 1 && bestD > 0; dx++)
+			for (let dy = -1; dy <= 1 && bestD > 0; dy++) {
+				const list = grid.get(`${gx + dx},${gy + dy}`);
+				if (!list) continue;
+				// Taken apertures leave their cell, so crowded cells shrink as they are matched.
+				for (let k = list.length - 1; k >= 0; k--) {
+					const i = list[k];
+					if (oldUsed[i]) {
+						list[k] = list[list.length - 1];
+						list.pop();
+						continue;
+					}
 					const d = Math.hypot(oldCentres[i][0] - x, oldCentres[i][1] - y);
-					if (d <= posTol && d < bestD) {
+					tests++;
+					if (d <= posTol && (d < bestD || (d === bestD && i < best))) {
 						best = i;
 						bestD = d;
+						if (d === 0) break;
 					}
 				}
+			}
 		if (best >= 0) {
 			oldUsed[best] = newUsed[j] = true;
 			pairs.push([best, j, 'position']);
@@ -178,14 +211,20 @@ export function compareRevisions(
 	const changed: ChangedAperture[] = [];
 	let unchangedCount = 0;
 	for (const [i, j, matchedBy] of pairs) {
-		const fields = differences(oldApertures[i], newApertures[j], sizeTol);
+		const fields = differences(
+			oldApertures[i],
+			newApertures[j],
+			sizeTol,
+			oldCentres[i],
+			newCentres[j]
+		);
 		if (fields.length === 0) unchangedCount++;
 		else
 			changed.push({
 				matchedBy,
 				fields,
-				old: side(i, oldApertures[i], options.oldThicknessUm),
-				new: side(j, newApertures[j], options.newThicknessUm)
+				old: side(i, oldApertures[i], oldGeometry[i], options.oldThicknessUm),
+				new: side(j, newApertures[j], newGeometry[j], options.newThicknessUm)
 			});
 	}
 	changed.sort((p, q) => p.new.index - q.new.index);
@@ -195,6 +234,14 @@ export function compareRevisions(
 			oldUsed[index] ? [] : [{ index, aperture }]
 		),
 		changed,
-		unchangedCount
+		unchangedCount,
+		...(stoppedAt !== null
+			? {
+					note:
+						`matching by position stopped at new aperture #${(stoppedAt as number) + 1} after ` +
+						`${MAX_POSITION_TESTS} distance tests (apertures piled on one spot); ` +
+						'the rest are listed as added or removed'
+				}
+			: {})
 	};
 }

@@ -24,6 +24,7 @@ export const load: PageServerLoad = ({ locals, url }) => {
 			changed: comparison.changed.length,
 			unchanged: comparison.unchangedCount
 		},
+		note: comparison.note ?? null,
 		changed: comparison.changed.slice(0, SHOWN),
 		added: comparison.added.slice(0, SHOWN).map((a) => a.aperture),
 		removed: comparison.removed.slice(0, SHOWN).map((a) => a.aperture),
