@@ -61,7 +61,7 @@ function facts(over: Partial<LineFacts> = {}): LineFacts {
 			state: 'on-stencil',
 			onStencilAtMs: NOW - 2 * HOUR,
 			maxOnStencilMinutes: 480,
-			minutesOutOfCold: 6 * 60,
+			outOfColdPeriods: [{ fromMs: NOW - 6 * HOUR, toMs: null }],
 			maxOutOfColdMinutes: 1440
 		},
 		boards: Array.from({ length: 20 }, (_, i) => board(i)),
@@ -114,6 +114,18 @@ describe('what is due', () => {
 	it('paste not yet on the stencil has no on-stencil clock', () => {
 		const f = facts({ pasteLot: { ...facts().pasteLot!, state: 'opened', onStencilAtMs: null } });
 		expect(item(f, 'paste-on-stencil')).toBeUndefined();
+	});
+
+	it('paste out of cold storage: the periods out summed up to now against the limit', () => {
+		const at = (periods: { fromMs: number; toMs: number | null }[]) =>
+			item(facts({ pasteLot: { ...facts().pasteLot!, outOfColdPeriods: periods } }), 'paste-out-of-cold');
+		expect(at([{ fromMs: NOW - 6 * HOUR, toMs: null }])).toMatchObject({ status: 'ok', remainingMinutes: 18 * 60 });
+		// 20 h out and back in, then 3.5 h out again: 23.5 h of 24 h.
+		expect(at([{ fromMs: NOW - 30 * HOUR, toMs: NOW - 10 * HOUR }, { fromMs: NOW - 3.5 * HOUR, toMs: null }])).toMatchObject({
+			status: 'soon',
+			remainingMinutes: 30
+		});
+		expect(at([{ fromMs: NOW - 25 * HOUR, toMs: null }])).toMatchObject({ status: 'late', remainingMinutes: -60 });
 	});
 
 	it('lot expiry: soon within 24 h, late from the expiry instant on', () => {

@@ -13,6 +13,8 @@
  * A due item is `ok`, `soon`, `due` (now) or `late` (past its limit).
  */
 
+import { minutesOutOfCold } from '../printlog/paste-events';
+
 /** Line states, in the order of urgency used to sort tiles. */
 export const LINE_STATES = ['stopped', 'attention', 'printing', 'idle'] as const;
 export type LineState = (typeof LINE_STATES)[number];
@@ -125,7 +127,8 @@ export interface LineFacts {
 		state: string;
 		onStencilAtMs: number | null;
 		maxOnStencilMinutes: number;
-		minutesOutOfCold: number;
+		/** Periods out of cold storage (`toMs` null while still out), so the time out moves with `nowMs`. */
+		outOfColdPeriods: { fromMs: number; toMs: number | null }[];
 		maxOutOfColdMinutes: number;
 	} | null;
 	/** The line's last boards (up to 100), newest first. */
@@ -334,8 +337,9 @@ export function dueItems(facts: LineFacts, nowMs: number, settings: FloorSetting
 						: `paste ${lot.lotNumber} on the stencil ${wordsForMinutes(on)} of ${wordsForMinutes(lot.maxOnStencilMinutes)}: ${wordsForMinutes(left)} left`
 			});
 		}
-		if (lot.state !== 'discarded' && lot.minutesOutOfCold > 0) {
-			const left = Math.floor(lot.maxOutOfColdMinutes - lot.minutesOutOfCold);
+		const outMinutes = minutesOutOfCold({ outOfColdPeriods: lot.outOfColdPeriods }, nowMs);
+		if (lot.state !== 'discarded' && outMinutes > 0) {
+			const left = Math.floor(lot.maxOutOfColdMinutes - outMinutes);
 			items.push({
 				key: 'paste-out-of-cold',
 				label: 'Paste time out of cold storage',

@@ -20,13 +20,29 @@ type Listener = (event: PublishedFloorEvent) => void;
 
 const listeners = new Set<Listener>();
 
+/** Events not yet taken by the tile cache; past MAX_UNREAD the cache is told to drop everything. */
+const MAX_UNREAD = 10_000;
+let unread: PublishedFloorEvent[] = [];
+let unreadOverflow = false;
+
+/** The events published since the last call (for the tile cache), and whether some were dropped. */
+export function takePublishedEvents(): { events: PublishedFloorEvent[]; overflow: boolean } {
+	const out = { events: unread, overflow: unreadOverflow };
+	unread = [];
+	unreadOverflow = false;
+	return out;
+}
+
 /**
  * Tell the floor something changed. Call after the write is committed.
  * @example publishFloorEvent({ kind: 'run', what: 'started', runId: 12 })
  */
 export function publishFloorEvent(event: FloorEvent): void {
-	if (listeners.size === 0) return;
 	const published = { ...event, publishedAtMs: Date.now() } as PublishedFloorEvent;
+	// Kept synchronously for the tile cache (overview.ts), so a read right after a write sees it.
+	if (unread.length < MAX_UNREAD) unread.push(published);
+	else unreadOverflow = true;
+	if (listeners.size === 0) return;
 	queueMicrotask(() => {
 		for (const listener of listeners) {
 			try {

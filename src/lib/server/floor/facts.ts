@@ -2,7 +2,6 @@ import type Database from 'better-sqlite3';
 import {
 	checkTensionReadings,
 	lotExpiresAtMs,
-	minutesOutOfCold,
 	replayPasteEvents
 } from '$lib/printlog';
 import type { BoardFact, CharacteristicFact, LineFacts, SignalFact } from '$lib/floor/tile';
@@ -236,7 +235,7 @@ function lotFacts(s: Statements, lotId: number, nowMs: number): LineFacts['paste
 		state: replay.ok ? replay.timeline.state : 'inconsistent',
 		onStencilAtMs: replay.ok ? replay.timeline.onStencilAtMs : null,
 		maxOnStencilMinutes: row.maxOnStencil,
-		minutesOutOfCold: replay.ok ? minutesOutOfCold(replay.timeline, nowMs) : 0,
+		outOfColdPeriods: replay.ok ? replay.timeline.outOfColdPeriods : [],
 		maxOutOfColdMinutes: row.maxOutOfCold
 	};
 }

@@ -8,7 +8,7 @@ import { addStencilLifeEntry } from '../printlog/stencil-life';
 import { spcCharacteristics, spcLimitVersions, spcSignals, mailOutbox } from '../db/schema';
 import { subscribeFloorEvents, type PublishedFloorEvent } from './events';
 import { eventsAfter, eventId, openStream, stopLiveOverview, DEBOUNCE_MS } from './live';
-import { lineOverview } from './overview';
+import { FACTS_MAX_AGE_MS, lineOverview } from './overview';
 import { assignSignal, AssignError, escalateAfterMinutes, escalateOverdueSignals } from './signal-owners';
 import { clearCapabilityCache } from './capability-cache';
 
@@ -92,6 +92,21 @@ describe('line overview from the database', () => {
 
 		endRun(t.db, run.id, { boardsPrinted: 10 }, fx.actors.technician);
 		expect(tileOf('L1')).toMatchObject({ state: 'idle', run: null });
+	});
+});
+
+describe('the facts cache', () => {
+	it('re-reads a line after an event at once, after a change without an event within 30 s', () => {
+		const now = Date.now();
+		expect(tileOf('L1', now).lineName).toBe('Line 1');
+		// A change behind the services' back (no event): the cached facts stand until they age out.
+		t.db.$client.prepare(`update lines set name = 'Line one' where code = 'L1'`).run();
+		expect(tileOf('L1', now + 1000).lineName).toBe('Line 1');
+		expect(tileOf('L1', now + FACTS_MAX_AGE_MS + 1).lineName).toBe('Line one');
+		t.db.$client.prepare(`update lines set name = 'Line uno' where code = 'L1'`).run();
+		// A run started on L1 publishes an event: the next read has the new facts.
+		startRun(t.db, runPayload() as never, fx.actors.technician);
+		expect(tileOf('L1', now + FACTS_MAX_AGE_MS + 2)).toMatchObject({ lineName: 'Line uno', run: { boardsPrinted: 0 } });
 	});
 });
 
