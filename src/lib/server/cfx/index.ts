@@ -1,0 +1,3 @@
+// The CFX endpoint (IPC-2591 over AMQP 1.0): receiver, storage, admin queries.
+export * from './store';
+export * from './receiver';
