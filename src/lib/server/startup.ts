@@ -4,6 +4,7 @@ import { cleanArchiveTemp, recoverInterruptedImports, startSpiWatcher } from './
 import { warmParserThread } from './ingest/parse-driver';
 import { startLiveOverview } from './floor/live';
 import { startSignalEscalation } from './floor/signal-owners';
+import { startCfxFromEnv } from './cfx/receiver';
 import { backupScheduleFrom, startBackupSchedule } from './backup';
 
 /**
@@ -36,6 +37,20 @@ export async function startServices(): Promise<void> {
 	startLiveOverview(db);
 	startSignalEscalation(db);
 	startScheduledBackups(db);
+	startCfxServices(db);
+}
+
+/** IPC-CFX machine messages over AMQP 1.0, only when CFX_URL is set; a malformed value stops the start. */
+function startCfxServices(db: ReturnType<typeof getDb>): void {
+	let cfx;
+	try {
+		cfx = startCfxFromEnv(db);
+	} catch (err) {
+		console.error(`[rollbead] cfx: ${(err as Error).message}`);
+		process.exit(1);
+	}
+	const receiver = cfx;
+	if (receiver) process.once('sveltekit:shutdown', () => void receiver.stop());
 }
 
 /** BACKUP_EVERY / BACKUP_DIR / BACKUP_KEEP (see $lib/server/backup); a malformed value stops the start. */
