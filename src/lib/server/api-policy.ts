@@ -66,6 +66,13 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/analysis/parameters': { GET: ALL_ROLES },
 	'/api/analysis/stencil-wear': { GET: ALL_ROLES },
 	'/api/analysis/predicted-te': { GET: ALL_ROLES },
+	'/api/cfx/status': { GET: ALL_ROLES },
+	'/api/cfx/endpoints': { GET: ALL_ROLES, POST: ADMIN_ONLY },
+	'/api/cfx/quarantine': { GET: ENGINEERING },
+	'/api/cfx/quarantine/[id]/retry': { POST: ADMIN_ONLY },
+	'/api/cfx/quarantine/[id]/discard': { POST: ADMIN_ONLY },
+	'/api/cfx/pending': { GET: ALL_ROLES },
+	'/api/cfx/pending/[id]/assign': { POST: INSPECTION_IMPORTERS },
 	'/api/trace': { GET: ALL_ROLES }
 };
 
