@@ -107,11 +107,12 @@ export const NAV_GROUPS: readonly NavGroup[] = [
 	{
 		id: 'admin',
 		label: 'Admin',
-		purpose: 'People and roles, API tokens for machines, and the mail outbox.',
+		purpose: 'People and roles, API tokens and IPC-CFX messages for machines, and the mail outbox.',
 		sections: [
 			{ href: '/admin/users', label: 'People', roles: ADMIN_ONLY, icon: 'users' },
 			{ href: '/admin/tokens', label: 'API tokens', roles: ADMIN_ONLY, icon: 'key' },
-			{ href: '/admin/outbox', label: 'Mail outbox', roles: ADMIN_ONLY, icon: 'mail' }
+			{ href: '/admin/outbox', label: 'Mail outbox', roles: ADMIN_ONLY, icon: 'mail' },
+			{ href: '/admin/cfx', label: 'Machine messages', roles: ADMIN_ONLY, icon: 'radio' }
 		]
 	}
 ];
