@@ -23,10 +23,10 @@ describe('seedDemoSpi (through seedDemoData)', () => {
 		expect(one(`select count(*) from spi_pads where aperture_id is null`)).toBe(0);
 		expect(one(`select count(*) from spi_boards where te_count = 0`)).toBe(0);
 		const early = one(
-			`select avg(volume_pct_mean) from (select volume_pct_mean from spi_boards order by inspected_at limit 30)`
+			`select avg(volume_pct_mean) from (select volume_pct_mean from spi_boards where product_code = 'PB-100' order by inspected_at limit 30)`
 		);
 		const late = one(
-			`select avg(volume_pct_mean) from (select volume_pct_mean from spi_boards order by inspected_at desc limit 30)`
+			`select avg(volume_pct_mean) from (select volume_pct_mean from spi_boards where product_code = 'PB-100' order by inspected_at desc limit 30)`
 		);
 		expect(early - late).toBeGreaterThan(5);
 		expect(one(`select count(*) from spi_imports where status = 'imported'`)).toBeGreaterThan(1);
