@@ -102,6 +102,27 @@ test('stencil evidence: wear against prints and predicted TE per aperture; 404 a
 	expect((await request.get('/api/analysis/stencil-wear?stencil=x', { headers: viewer })).status()).toBe(400);
 });
 
+test('first-pass yield by line; an unknown grouping is named', async ({ request }) => {
+	const viewer = bearer(tokenFor('viewer'));
+	const body = await (await request.get('/api/analysis/yield?by=line&product=SH-220', { headers: viewer })).json();
+	expect(body.groups.map((g: { key: string }) => g.key)).toEqual(['SMT-2']);
+	expect(body.total.boards).toBe(288);
+	const bad = await request.get('/api/analysis/yield?by=shift', { headers: viewer });
+	expect(bad.status()).toBe(400);
+	expect((await bad.json()).fields[0].field).toBe('by');
+});
+
+test('failure map: every SH-220 pad placed, Pareto by pad class', async ({ request }) => {
+	const viewer = bearer(tokenFor('viewer'));
+	const m = await (await request.get('/api/analysis/failure-map?product=SH-220', { headers: viewer })).json();
+	expect(m.boards).toBe(288);
+	expect(m.pads).toHaveLength(305);
+	expect(m.pads.every((p: { xUm: number | null }) => p.xUm !== null)).toBe(true);
+	// The small openings (wafer-level packages, U) fail most in the demo.
+	expect(m.byClass[0].padClass).toBe('U');
+	expect((await request.get('/api/analysis/failure-map', { headers: viewer })).status()).toBe(400);
+});
+
 test.describe('analysis pages', () => {
 	test('the TE chart with its learned limit, and the parameter scatter with its caution', async ({
 		page
@@ -126,6 +147,10 @@ test.describe('analysis pages', () => {
 		await expect(page.getByTestId('scatter-chart').locator('svg').first()).toBeVisible();
 		await expect(page.getByTestId('wear-summary')).toContainText('24 runs');
 		await expect(page.getByTestId('predicted-summary')).toContainText('predicted below the floor');
+		await expect(page.getByTestId('failure-map').locator('circle')).toHaveCount(305);
+		await expect(page.getByTestId('class-pareto').locator('tbody tr').first().locator('td').first()).toHaveText('U');
+		await page.getByLabel('Group by').selectOption('product');
+		await expect(page.getByTestId('yield-table').locator('tbody tr', { hasText: 'SH-220' })).toHaveCount(1);
 	});
 
 	test('board trace page', async ({ page }) => {

@@ -36,3 +36,19 @@ export {
 	type PredictedTeAnswer,
 	type WearAnswer
 } from './stencil-evidence';
+export {
+	firstPassYield,
+	readYieldFilters,
+	MAX_YIELD_BOARDS,
+	YIELD_GROUPINGS,
+	type YieldAnswer,
+	type YieldFilters
+} from './first-pass-yield';
+export {
+	failureMap,
+	padClassOf,
+	readFailureMapFilters,
+	MAX_MAP_PADS,
+	type FailureMapAnswer,
+	type FailureMapFilters
+} from './failure-map';

@@ -1,0 +1,148 @@
+import type { Db } from '../db';
+import { checkRange, QueryReader } from './query';
+
+/** Pads read per request (newest boards first) and per synchronous slice. */
+export const MAX_MAP_PADS = 2_000_000;
+export const MAP_PADS_PER_SLICE = 100_000;
+
+export interface FailureMapFilters {
+	product: string;
+	line: string | null;
+	fromMs: number | null;
+	toMs: number | null;
+}
+
+export function readFailureMapFilters(url: URL): FailureMapFilters {
+	const q = new QueryReader(url, ['product', 'line', 'from', 'to']);
+	const product = q.text('product');
+	if (product === null && !q.problems.some((p) => p.field === 'product'))
+		q.problems.push({ field: 'product', message: 'is required (one board layout per map)' });
+	const f = { product: product as string, line: q.text('line'), fromMs: q.instant('from'), toMs: q.instant('to', true) };
+	checkRange(q, f.fromMs, f.toMs);
+	q.finish();
+	return f;
+}
+
+export interface FailureMapAnswer {
+	product: string;
+	boards: number;
+	boardsMatched: number;
+	/** Every pad that was inspected, with its place when its aperture is known. */
+	pads: {
+		refdes: string;
+		pad: string;
+		panelIndex: number;
+		xUm: number | null;
+		yUm: number | null;
+		inspected: number;
+		fails: number;
+		warns: number;
+		failRate: number;
+	}[];
+	/** Pareto by pad class (the refdes letters: C, R, U, …), most fails first. */
+	byClass: { padClass: string; fails: number; warns: number; inspected: number; failRate: number }[];
+	note: string | null;
+}
+
+/** The letters a reference designator starts with (U12 → U, LED3 → LED); '?' when none. */
+export function padClassOf(refdes: string): string {
+	return /^[A-Za-z]+/.exec(refdes)?.[0].toUpperCase() ?? '?';
+}
+
+/**
+ * Where SPI failures gather across many boards of one product: per pad, inspections, fails and
+ * warnings, placed at its linked aperture's position; and a Pareto by pad class. The pad scan is
+ * bounded (newest boards up to MAX_MAP_PADS) and runs in slices with the event loop free between.
+ */
+export async function failureMap(db: Db, f: FailureMapFilters): Promise<FailureMapAnswer> {
+	const c = db.$client;
+	const where = ['b.product_code = ?'];
+	const params: (string | number)[] = [f.product];
+	if (f.line !== null) {
+		where.push('b.line_code = ?');
+		params.push(f.line);
+	}
+	if (f.fromMs !== null) {
+		where.push('b.inspected_at >= ?');
+		params.push(f.fromMs);
+	}
+	if (f.toMs !== null) {
+		where.push('b.inspected_at < ?');
+		params.push(f.toMs);
+	}
+	const boards = c
+		.prepare(`select b.id, b.pad_count from spi_boards b where ${where.join(' and ')} order by b.inspected_at desc`)
+		.all(...params) as { id: number; pad_count: number }[];
+	const used: number[] = [];
+	let pads = 0;
+	for (const b of boards) {
+		if (pads + b.pad_count > MAX_MAP_PADS) break;
+		pads += b.pad_count;
+		used.push(b.id);
+	}
+	const aggregate = c.prepare(
+		`select m.pad_id as padId, count(*) as n, sum(m.result = 2) as fails, sum(m.result = 1) as warns
+		 from json_each(?) j cross join spi_pad_measurements m on m.board_id = j.value
+		 group by m.pad_id`
+	);
+	const perPad = new Map<number, { n: number; fails: number; warns: number }>();
+	for (let i = 0; i < used.length; ) {
+		const slice: number[] = [];
+		let slicePads = 0;
+		while (i < used.length && (slice.length === 0 || slicePads + boards[i].pad_count <= MAP_PADS_PER_SLICE)) {
+			slicePads += boards[i].pad_count;
+			slice.push(used[i++]);
+		}
+		for (const r of aggregate.all(JSON.stringify(slice)) as { padId: number; n: number; fails: number; warns: number }[]) {
+			const cur = perPad.get(r.padId);
+			if (cur) {
+				cur.n += r.n;
+				cur.fails += r.fails;
+				cur.warns += r.warns;
+			} else perPad.set(r.padId, { n: r.n, fails: r.fails, warns: r.warns });
+		}
+		if (i < used.length) await new Promise((resolve) => setImmediate(resolve));
+	}
+	const padRows = c
+		.prepare(
+			`select p.id, p.refdes, p.pad, p.panel_index, a.x_um, a.y_um from spi_pads p
+			 left join apertures a on a.id = p.aperture_id where p.product_code = ?`
+		)
+		.all(f.product) as { id: number; refdes: string; pad: string; panel_index: number; x_um: number | null; y_um: number | null }[];
+	const out: FailureMapAnswer['pads'] = [];
+	const classes = new Map<string, { fails: number; warns: number; inspected: number }>();
+	for (const p of padRows) {
+		const s = perPad.get(p.id);
+		if (!s) continue;
+		out.push({
+			refdes: p.refdes,
+			pad: p.pad,
+			panelIndex: p.panel_index,
+			xUm: p.x_um,
+			yUm: p.y_um,
+			inspected: s.n,
+			fails: s.fails,
+			warns: s.warns,
+			failRate: s.fails / s.n
+		});
+		const k = padClassOf(p.refdes);
+		const cls = classes.get(k) ?? { fails: 0, warns: 0, inspected: 0 };
+		cls.fails += s.fails;
+		cls.warns += s.warns;
+		cls.inspected += s.n;
+		classes.set(k, cls);
+	}
+	return {
+		product: f.product,
+		boards: used.length,
+		boardsMatched: boards.length,
+		pads: out,
+		byClass: [...classes.entries()]
+			.map(([padClass, v]) => ({ padClass, ...v, failRate: v.fails / v.inspected }))
+			.sort((a, b) => b.fails - a.fails || a.padClass.localeCompare(b.padClass)),
+		note:
+			used.length < boards.length
+				? `Only the newest ${used.length} of ${boards.length} boards were read (at most ${MAX_MAP_PADS} pads): narrow the dates for older boards.`
+				: null
+	};
+}
