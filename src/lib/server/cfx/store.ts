@@ -22,6 +22,7 @@ import type { Db } from '../db';
 import { publishFloorEvent, type FloorEvent } from '../floor/events';
 import { ingestSpiFile, type IngestSource } from '../ingest/ingest-service';
 import { currentRecipeFor } from '../printlog/recipes';
+import { evaluateChartsForRun } from '../printlog/run-signals';
 import { productByCode, stencilByName } from '../printlog/lookups';
 
 /** The spi_imports.source of CFX measurements (the column is free text; the type names the file routes). */
@@ -614,6 +615,8 @@ export async function storeCfxMessage(
 		}
 	});
 	for (const event of out.events) publishFloorEvent(event);
+	// Print-parameter charts judge runs opened or ended by machines as they judge typed ones.
+	for (const event of out.events) if (event.kind === 'run') await evaluateChartsForRun(db, event.runId);
 	if (records.length === 0) return { status: 'ignored', reason: ignored[0] ?? 'nothing to store' };
 	return { status: 'stored', records: records.length, sentAtMs: first.timeStampMs };
 }
