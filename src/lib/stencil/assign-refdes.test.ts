@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { assignRefdesFromCentroids } from './assign-refdes';
-import { rect } from './test-fixtures';
+import { StencilBudgetError } from './limits';
+import { circle, rect } from './test-fixtures';
 
 // A 0603-like part R1 at (0, 0) with pads at x = ±800 µm, and a QFP U1 at (10000, 0).
 const flashes = [
@@ -39,5 +40,23 @@ describe('assignRefdesFromCentroids', () => {
 	});
 	it('rejects a bad radius', () => {
 		expect(() => assignRefdesFromCentroids(flashes, centroids, 0)).toThrow(/maxDistanceUm: must be a finite number greater than 0/);
+	});
+});
+
+describe('assignRefdesFromCentroids: piled components are refused by their count', () => {
+	it('5,000 apertures and 5,000 centroids on one spot need 25,000,000 tests: refused before any', () => {
+		const apertures = Array.from({ length: 5_000 }, () => circle(300, { refdes: '', pad: '' }));
+		const centroids = Array.from({ length: 5_000 }, (_, i) => ({ refdes: `U${i}`, xUm: 0, yUm: 0 }));
+		expect(() => assignRefdesFromCentroids(apertures, centroids, 10_000)).toThrow(
+			new StencilBudgetError(
+				'naming the apertures from the centroid file needs 25,000,000 distance tests ' +
+					'(components piled within 10000 µm of each other); the limit is 20,000,000',
+				413
+			)
+		);
+		// Spread out, the same counts are cheap and assigned.
+		const spread = centroids.map((c, i) => ({ ...c, xUm: i * 30_000 }));
+		const placed = apertures.map((a, i) => ({ ...a, xUm: i * 30_000 }));
+		expect(assignRefdesFromCentroids(placed, spread, 10_000).unassigned).toEqual([]);
 	});
 });

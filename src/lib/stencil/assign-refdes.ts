@@ -5,6 +5,10 @@ import type { ApertureInput } from './aperture';
 import type { ComponentCentroid } from './centroid-csv';
 import { apertureCentreUm } from './outline';
 import { StencilInputError } from './stencil-input-error';
+import { formatCount, StencilBudgetError } from './limits';
+
+/** Most aperture-to-centroid distance tests one assignment may make (about a second of work). */
+export const MAX_CENTROID_DISTANCE_TESTS = 20_000_000;
 
 /** Result of `assignRefdesFromCentroids`. */
 export interface RefdesAssignment {
@@ -26,7 +30,8 @@ export interface RefdesAssignment {
 export function assignRefdesFromCentroids(
 	apertures: readonly ApertureInput[],
 	centroids: readonly ComponentCentroid[],
-	maxDistanceUm: number
+	maxDistanceUm: number,
+	maxDistanceTests = MAX_CENTROID_DISTANCE_TESTS
 ): RefdesAssignment {
 	if (!Number.isFinite(maxDistanceUm) || maxDistanceUm <= 0)
 		throw new StencilInputError([
@@ -45,6 +50,22 @@ export function assignRefdesFromCentroids(
 		else grid.set(key, [i]);
 	});
 	const centres = apertures.map((a) => apertureCentreUm(a));
+	// Components piled within one radius make every aperture measure all of them: count the
+	// distance tests first and refuse before making them.
+	let pairs = 0;
+	for (const [x, y] of centres) {
+		const gx = Math.floor(x / cell);
+		const gy = Math.floor(y / cell);
+		for (let dx = -1; dx <= 1; dx++)
+			for (let dy = -1; dy <= 1; dy++) pairs += grid.get(`${gx + dx},${gy + dy}`)?.length ?? 0;
+	}
+	if (pairs > maxDistanceTests)
+		throw new StencilBudgetError(
+			`naming the apertures from the centroid file needs ${formatCount(pairs)} distance tests ` +
+				`(components piled within ${maxDistanceUm} µm of each other); ` +
+				`the limit is ${formatCount(maxDistanceTests)}`,
+			413
+		);
 	const owner: (number | null)[] = centres.map(([x, y]) => {
 		const gx = Math.floor(x / cell);
 		const gy = Math.floor(y / cell);

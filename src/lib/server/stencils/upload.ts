@@ -1,5 +1,9 @@
 import { importGerberPasteLayer } from '$lib/stencil/gerber-import';
-import { DEFAULT_STENCIL_LIMITS, type StencilLimits } from '$lib/stencil/limits';
+import {
+	DEFAULT_STENCIL_LIMITS,
+	StencilBudgetError,
+	type StencilLimits
+} from '$lib/stencil/limits';
 import {
 	assignRefdesFromCentroids,
 	parseApertureCsv,
@@ -172,7 +176,15 @@ export function parseApertureUpload(
 					message: e.message
 				}))
 			);
-		const assigned = assignRefdesFromCentroids(apertures, parsed.centroids, radius);
+		let assigned;
+		try {
+			assigned = assignRefdesFromCentroids(apertures, parsed.centroids, radius);
+		} catch (e) {
+			if (!(e instanceof StencilBudgetError)) throw e;
+			return refuse(413, `${c.fileName}: ${e.message}; nothing was imported.`, [
+				{ file: c.fileName, line: 0, column: null, message: `file, centroids: ${e.message}` }
+			]);
+		}
 		apertures = assigned.apertures;
 		if (assigned.unassigned.length > 0)
 			warnings.push(
