@@ -80,7 +80,13 @@ test.describe('print-log API', () => {
 			message: 'must be ≤ 90° (got 95)'
 		});
 
-		// Paste lots and their events.
+		// Paste lots and their events. An expiry decades ahead is implausible: confirmed on purpose.
+		const unconfirmed = await request.post('/api/paste-lots', {
+			headers: technician,
+			data: { lotNumber: lot, alloy: 'SAC305', powderType: 4, expiresOn: '2099-06-30', fluxClass: 'ROL0' }
+		});
+		expect(unconfirmed.status()).toBe(422);
+		expect(await unconfirmed.json()).toMatchObject({ needsConfirmation: true, fields: [{ field: 'expiresOn' }] });
 		const created = await request.post('/api/paste-lots', {
 			headers: technician,
 			data: {
@@ -88,7 +94,8 @@ test.describe('print-log API', () => {
 				alloy: 'SAC305',
 				powderType: 4,
 				expiresOn: '2099-06-30',
-				fluxClass: 'ROL0'
+				fluxClass: 'ROL0',
+				confirmDates: true
 			}
 		});
 		expect(created.status()).toBe(201);
@@ -101,7 +108,7 @@ test.describe('print-log API', () => {
 			(
 				await request.post('/api/paste-lots', {
 					headers: technician,
-					data: { lotNumber: lot, alloy: 'SAC305', powderType: 4, expiresOn: '2099-06-30' }
+					data: { lotNumber: lot, alloy: 'SAC305', powderType: 4, expiresOn: '2099-06-30', confirmDates: true }
 				})
 			).status()
 		).toBe(409);

@@ -22,10 +22,11 @@ describe('assessLotForRun boundaries (fixed timestamps)', () => {
 		['warming, 1 min before warm-up end', out, 239, [], ['warming-up']],
 		['exactly at warm-up end', out, 240, [], []],
 		['on stencil exactly 480 min', onStencil, 250 + 480, [], []],
-		['on stencil 481 min', onStencil, 250 + 481, [], ['over-time-on-stencil']],
+		// Issue 13: past its time on the stencil blocks the run (an engineer may override).
+		['on stencil 481 min', onStencil, 250 + 481, ['over-time-on-stencil'], []],
 		['out of cold exactly 1440 min', onStencil.slice(0, 2), 1440, [], []],
 		['out of cold 1441 min', onStencil.slice(0, 2), 1441, [], ['over-time-out-of-cold']],
-		['both limits over', onStencil, 1441, [], ['over-time-on-stencil', 'over-time-out-of-cold']],
+		['both limits over', onStencil, 1441, ['over-time-on-stencil'], ['over-time-out-of-cold']],
 		['discarded', [...out, { event: 'discarded', at: at(10) }], 20, ['discarded'], []],
 		['returned sealed', [...out, { event: 'returned', at: at(60) }], 120, [], ['back-in-cold-storage']],
 		['events after the run time are ignored', [...out, { event: 'discarded', at: at(500) }], 300, [], []]
@@ -61,6 +62,13 @@ describe('assessLotForRun expiry', () => {
 	it('refuses an unreadable expiry instead of crashing', () => {
 		const result = assessLotForRun({ lotNumber: 'PL-8', expiresOn: '31/03/2026' }, out, settings, at(300));
 		expect(result.refuse).toEqual([{ code: 'invalid-lot', message: 'paste lot PL-8 has no readable expiry date (got "31/03/2026")' }]);
+	});
+
+	it('expired and over-time refusals may be overridden by an engineer; discarded and unreadable may not', () => {
+		const expired = assessLotForRun({ lotNumber: 'PL-9', expiresOn: '2026-03-01' }, onStencil, settings, at(250 + 481));
+		expect(expired.refuse.map((r) => [r.code, r.canOverride ?? false])).toEqual([['expired', true], ['over-time-on-stencil', true]]);
+		const gone = assessLotForRun({ lotNumber: 'PL-9', expiresOn: '2026-03-31' }, [...out, { event: 'discarded', at: at(5) }], settings, at(10));
+		expect(gone.refuse.map((r) => r.canOverride ?? false)).toEqual([false]);
 	});
 
 	it('an expired and discarded lot gives both refusals', () => {

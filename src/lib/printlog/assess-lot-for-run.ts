@@ -24,6 +24,8 @@ export interface LotReason {
 		| 'over-time-on-stencil'
 		| 'over-time-out-of-cold';
 	message: string;
+	/** An engineer may use the lot anyway with a note (expired, over its time on the stencil). */
+	canOverride?: boolean;
 }
 
 /** Result of assessing a lot: refuse reasons block the run, warn reasons are shown. */
@@ -36,9 +38,10 @@ export interface LotAssessment {
  * Assess a paste lot for a run at time `at`. Boundaries: a lot is usable through its expiry day
  * (see lotExpiresAtMs); warm-up is complete at exactly `warmUpMinutes`; time on the stencil and
  * out of cold storage are over only when strictly longer than their limits.
- * - refuse: expired; discarded; unreadable expiry; inconsistent event history.
- * - warn: never taken out of cold storage (or put back); still warming up; over time on the
- *   stencil; over total time out of cold storage.
+ * - refuse: expired or over its time on the stencil (an engineer may override these with a
+ *   note: `canOverride`); discarded; unreadable expiry; inconsistent event history.
+ * - warn: never taken out of cold storage (or put back); still warming up; over total time out
+ *   of cold storage.
  * @throws {PrintlogInputError} when `at` is not a valid instant.
  * @example
  * assessLotForRun(lot, [{ event: 'out-of-cold-storage', at: '2026-03-02T06:00:00Z' }], DEFAULT_PASTE_HANDLING, '2026-03-02T09:00:00Z').warn[0].code // 'warming-up'
@@ -75,7 +78,7 @@ export function assessLotForRun(
 		});
 	}
 	if (expiresAtMs !== null && atMs >= expiresAtMs) {
-		refuse.push({ code: 'expired', message: `${lotName} expired (expiry ${lot.expiresOn})` });
+		refuse.push({ code: 'expired', message: `${lotName} expired (expiry ${lot.expiresOn})`, canOverride: true });
 	}
 
 	const replay = replayPasteEvents(events, atMs);
@@ -121,9 +124,10 @@ export function assessLotForRun(
 		const onStencilMinutes = (atMs - timeline.onStencilAtMs) / 60_000;
 		if (onStencilMinutes > settings.maxOnStencilMinutes) {
 			const limit = formatMinutes(settings.maxOnStencilMinutes);
-			warn.push({
+			refuse.push({
 				code: 'over-time-on-stencil',
-				message: `${lotName} has been on the stencil for ${formatMinutes(onStencilMinutes)}, over the ${limit} limit`
+				message: `${lotName} has been on the stencil for ${formatMinutes(onStencilMinutes)}, over the ${limit} limit`,
+				canOverride: true
 			});
 		}
 	}

@@ -73,6 +73,8 @@ export {
 	resolvePasteHandling,
 	validatePasteLot,
 	lotExpiresAtMs,
+	lotDateWarnings,
+	MAX_EXPIRY_AHEAD_DAYS,
 	type PasteLot,
 	type PasteHandlingSettings
 } from './paste-lot';

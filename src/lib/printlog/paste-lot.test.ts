@@ -3,6 +3,7 @@ import ref from '../../../reference/printlog/check-values.json';
 import { formatFieldError } from './field-error';
 import {
 	DEFAULT_PASTE_HANDLING,
+	lotDateWarnings,
 	FLUX_CLASS_PATTERN,
 	lotExpiresAtMs,
 	resolvePasteHandling,
@@ -108,5 +109,24 @@ describe('lotExpiresAtMs', () => {
 	});
 	it.each([['30.06.2026'], ['2026-06-30T12:00:00'], ['']])('refuses %j naming expiresOn', (text) => {
 		expect(() => lotExpiresAtMs(text)).toThrow(/^expiresOn: must be an ISO 8601 date/);
+	});
+});
+
+describe('lotDateWarnings (issue 13: dates to confirm at receipt)', () => {
+	const now = Date.parse('2026-12-03T10:00:00Z');
+	it.each([
+		['expiry in 2020, already past', { expiresOn: '2020-06-30' }, ['expiresOn']],
+		['expired yesterday', { expiresOn: '2026-12-02' }, ['expiresOn']],
+		['last day of use is today: still usable', { expiresOn: '2026-12-03' }, []],
+		['six months ahead', { expiresOn: '2027-06-03', receivedOn: '2026-12-01' }, []],
+		['more than 2 years ahead', { expiresOn: '2029-01-15' }, ['expiresOn']],
+		['received in the future', { expiresOn: '2027-06-03', receivedOn: '2026-12-20' }, ['receivedOn']],
+		['received in 2020', { expiresOn: '2027-06-03', receivedOn: '2020-01-10' }, ['receivedOn']],
+		['unreadable dates are validatePasteLot errors, not warnings', { expiresOn: '31/12/2027' }, []]
+	])('%s', (_name, lot, fields) => {
+		expect(lotDateWarnings(lot, now).map((w) => w.field)).toEqual(fields);
+	});
+	it('says why', () => {
+		expect(lotDateWarnings({ expiresOn: '2020-06-30' }, now)[0].message).toBe('the lot expired on 2020-06-30, before today (2026-12-03): it may not be used');
 	});
 });

@@ -155,6 +155,49 @@ export function validatePasteLot(lot: Partial<Record<keyof PasteLot, unknown>>):
 	return errors;
 }
 
+/** Expiry further ahead than this at receipt is implausible (pastes keep months, not years). */
+export const MAX_EXPIRY_AHEAD_DAYS = 2 * 365;
+
+/**
+ * Dates of a lot being received that are valid but implausible, to be confirmed before the lot
+ * is registered: already past its expiry; expiry more than two years ahead (solder paste keeps
+ * about six months refrigerated, so this is a typing slip, Rollbead plausibility limit); received
+ * in the future or more than two years ago. Unreadable dates are `validatePasteLot`'s errors.
+ * @example lotDateWarnings({ expiresOn: '2020-06-30' }, Date.parse('2026-12-03'))[0].field // 'expiresOn'
+ */
+export function lotDateWarnings(
+	lot: { expiresOn?: unknown; receivedOn?: unknown },
+	nowMs: number
+): FieldError[] {
+	const out: FieldError[] = [];
+	const day = 24 * 60 * 60 * 1000;
+	const read = (v: unknown): number | null => {
+		if (typeof v !== 'string' || !v.trim()) return null;
+		try {
+			return toEpochMs(v, 'date');
+		} catch {
+			return null;
+		}
+	};
+	const today = new Date(nowMs).toISOString().slice(0, 10);
+	if (typeof lot.expiresOn === 'string' && read(lot.expiresOn) !== null) {
+		const expiresAtMs = lotExpiresAtMs(lot.expiresOn);
+		if (expiresAtMs <= nowMs) {
+			out.push({ field: 'expiresOn', message: `the lot expired on ${lot.expiresOn.trim()}, before today (${today}): it may not be used` });
+		} else if (expiresAtMs - nowMs > MAX_EXPIRY_AHEAD_DAYS * day) {
+			out.push({ field: 'expiresOn', message: `${lot.expiresOn.trim()} is more than 2 years ahead: solder paste keeps months, check the date` });
+		}
+	}
+	const receivedMs = read(lot.receivedOn);
+	if (receivedMs !== null) {
+		if (receivedMs > nowMs + day) out.push({ field: 'receivedOn', message: `${String(lot.receivedOn).trim()} is in the future` });
+		else if (nowMs - receivedMs > MAX_EXPIRY_AHEAD_DAYS * day) {
+			out.push({ field: 'receivedOn', message: `${String(lot.receivedOn).trim()} is more than 2 years ago: check the date` });
+		}
+	}
+	return out;
+}
+
 /** Parse an optional/required date field, pushing an error instead of throwing. */
 function dateField(
 	value: unknown,

@@ -182,7 +182,9 @@ export const pasteLotSchema = z
 		receivedOn: z.string().trim().optional(),
 		warmUpMinutes: minutes,
 		maxOnStencilMinutes: minutes,
-		maxOutOfColdMinutes: minutes
+		maxOutOfColdMinutes: minutes,
+		/** The receiver confirms dates that look wrong (already expired, years ahead…). */
+		confirmDates: z.boolean().optional()
 	})
 	.superRefine((lot, ctx) => {
 		addFieldErrors(ctx, validatePasteLot(lot));

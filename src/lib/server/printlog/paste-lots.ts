@@ -4,6 +4,7 @@ import {
 	assessLotForRun,
 	checkNextPasteEvent,
 	isLeadBearing,
+	lotDateWarnings,
 	replayPasteEvents,
 	resolvePasteHandling,
 	type LotAssessment,
@@ -120,6 +121,16 @@ export function createPasteLot(
 	nowMs = Date.now()
 ): PasteLotView {
 	const { settings } = resolvePasteHandling(input);
+	// Valid but implausible dates (already expired, years ahead) are registered only when confirmed.
+	const dateWarnings = lotDateWarnings(input, nowMs);
+	if (dateWarnings.length && !input.confirmDates) {
+		throw new PrintlogRequestError(
+			422,
+			dateWarnings,
+			`Check the dates: ${dateWarnings.map((w) => w.message).join('; ')}. Send "confirmDates": true to register the lot anyway.`,
+			{ needsConfirmation: true }
+		);
+	}
 	return db.transaction((tx) => {
 		if (pasteLotIdByNumber(tx as unknown as Db, input.lotNumber) !== undefined) {
 			throw new PrintlogRequestError(409, [
@@ -145,7 +156,11 @@ export function createPasteLot(
 			action: 'create',
 			entity: 'paste_lot',
 			entityId: row.id,
-			after: { ...row, createdAt: row.createdAt.toISOString() }
+			after: {
+				...row,
+				createdAt: row.createdAt.toISOString(),
+				...(dateWarnings.length && { datesConfirmed: dateWarnings.map((w) => w.message) })
+			}
 		});
 		return toView(tx as unknown as Db, row, nowMs);
 	});

@@ -23,8 +23,9 @@ import { listStencilRefs, resolveLineProduct, stencilByName } from './lookups';
 import { asPasteEvents, getPasteLot, listPasteLots } from './paste-lots';
 import { currentRecipeFor, recipeById } from './recipes';
 import { PrintlogRequestError } from './request-error';
-import { writeCsv, type CsvCell } from '$lib/csv/write-csv';
 import { assessStencil, getStencilLife } from './stencil-life';
+import { publishFloorEvent } from '../floor/events';
+import { writeCsv, type CsvCell } from '$lib/csv/write-csv';
 
 /** A deviation as stored with a run: the pure check's result plus the technician's reason. */
 export type StoredDeviation = Deviation & { reason: string | null };
@@ -226,8 +227,9 @@ export type StartedRun = { id: number; deviations: ApiDeviation[]; warnings: str
 /**
  * Start (log) a print run. Checks, all reported together as 422 field errors: unknown line,
  * product, stencil or lot codes; values the recipe sets but the run lacks; deviations without a
- * reason (`deviationReasons.<parameter>`); an expired or discarded lot (`pasteLot`); a stencil
- * past its life or quarantined (`stencil`) unless an engineer or admin gives `overrideReason`;
+ * reason (`deviationReasons.<parameter>`); a discarded lot, or an expired one or one past its
+ * time on the stencil (`pasteLot`), and a stencil past its life or quarantined (`stencil`), the
+ * last ones unless an engineer or admin gives `overrideReason` (kept on the run, audited);
  * unreadable times. Then, in one transaction: 409 when the line already has an open run, else
  * the run is saved with its recipe version, deviations, reasons and warnings, and audited.
  * @throws PrintlogRequestError 422 / 409 as above.
@@ -290,20 +292,30 @@ export function startRun(
 		}
 	}
 
-	if (lot && lotByNumber) {
-		const assessment = assessLotForRun(lot, asPasteEvents(lot.events), lot.handling, startedAtMs);
-		for (const r of assessment.refuse) errors.push({ field: 'pasteLot', message: r.message });
-		warnings.push(...assessment.warn.map((w) => w.message));
-	}
-
 	const override = input.overrideReason?.trim() || null;
 	const mayOverride = actor.role === 'engineer' || actor.role === 'admin';
 	let overridden = false;
 	if (override && !mayOverride) {
 		errors.push({
 			field: 'overrideReason',
-			message: 'only an engineer or admin may override a stencil refusal'
+			message: 'only an engineer or admin may override a refusal'
 		});
+	}
+	if (lot && lotByNumber) {
+		const assessment = assessLotForRun(lot, asPasteEvents(lot.events), lot.handling, startedAtMs);
+		// Expired or over its time on the stencil: an engineer may go on with a note (kept on the
+		// run, audited); discarded or unreadable lots are never used.
+		const overridable = assessment.refuse.every((r) => r.canOverride);
+		for (const r of assessment.refuse) {
+			if (overridable && mayOverride && override) {
+				warnings.push(`${r.message}; used on the engineer's override: ${override}`);
+				overridden = true;
+			} else {
+				const how = r.canOverride ? (mayOverride ? ' (give an override reason to use it anyway)' : ' (an engineer can override with a reason)') : '';
+				errors.push({ field: 'pasteLot', message: r.message + how });
+			}
+		}
+		warnings.push(...assessment.warn.map((w) => w.message));
 	}
 	if (stencilRef) {
 		const life = getStencilLife(db, stencilRef.id)!;
@@ -317,7 +329,7 @@ export function startRun(
 			errors.push({ field: 'stencil', message: assessment.refuse.message + how });
 		}
 		if (assessment.warn) warnings.push(assessment.warn.message);
-		overridden = assessment.overridden;
+		overridden ||= assessment.overridden;
 	}
 
 	if (errors.length > 0) {
@@ -377,6 +389,7 @@ export function startRun(
 		});
 		return row.id;
 	});
+	publishFloorEvent({ kind: 'run', what: 'started', runId: id });
 	return { id, deviations: deviations.map(apiDeviation), warnings };
 }
 
@@ -430,6 +443,8 @@ export function endRun(
 			before: { endedAt: null, boardsPrinted: run.boardsPrinted },
 			after: { endedAt: after.endedAt!.toISOString(), boardsPrinted: after.boardsPrinted }
 		});
+		// Listeners run after this synchronous transaction has committed.
+		publishFloorEvent({ kind: 'run', what: 'ended', runId: id });
 		return after;
 	});
 }
@@ -589,6 +604,8 @@ export function correctRun(db: Db, id: number, input: RunCorrection, actor: Acto
 			before,
 			after: { ...afterSnapshot, correctionReason: input.reason.trim() }
 		});
+		// Listeners run after this synchronous transaction has committed.
+		publishFloorEvent({ kind: 'run', what: 'corrected', runId: id });
 		return after;
 	});
 }

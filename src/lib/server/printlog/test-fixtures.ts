@@ -55,12 +55,13 @@ export function seedPrintlogFixture(db: Db) {
 	saveRecipe(db, { line: 'L2', product: 'P1', parameters: RECIPE_PARAMETERS }, actors.engineer);
 	createPasteLot(
 		db,
-		{ lotNumber: 'LOT-OK', alloy: 'SAC305', powderType: 4, expiresOn: '2099-12-31' },
+		// Far-future and long-expired dates on purpose, so tests never age: confirmed at receipt.
+		{ lotNumber: 'LOT-OK', alloy: 'SAC305', powderType: 4, expiresOn: '2099-12-31', confirmDates: true },
 		actors.technician
 	);
 	createPasteLot(
 		db,
-		{ lotNumber: 'LOT-OLD', alloy: 'Sn63Pb37', powderType: 3, expiresOn: '2020-01-31' },
+		{ lotNumber: 'LOT-OLD', alloy: 'Sn63Pb37', powderType: 3, expiresOn: '2020-01-31', confirmDates: true },
 		actors.technician
 	);
 	return { actors, stencilIds: ids };

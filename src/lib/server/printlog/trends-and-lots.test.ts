@@ -30,6 +30,16 @@ afterEach(() => close());
 
 const T0 = Date.parse('2026-03-02T08:00:00Z');
 
+function refusal(fn: () => unknown): PrintlogRequestError {
+	try {
+		fn();
+	} catch (error) {
+		if (error instanceof PrintlogRequestError) return error;
+		throw error;
+	}
+	throw new Error('expected a PrintlogRequestError');
+}
+
 function status(fn: () => unknown): number {
 	try {
 		fn();
@@ -87,8 +97,24 @@ describe('paste lots', () => {
 			alloy: 'Sn63Pb37',
 			powderType: 3,
 			expiresOn: '2099-01-31',
+			// A far-future expiry so the tests never age; confirmed like an odd date at receipt.
+			confirmDates: true,
 			...extra
 		});
+
+	it('a lot received already expired, or with an expiry years ahead, needs the dates confirmed (issue 13)', () => {
+		const expired = refusal(() => createPasteLot(db, lot({ lotNumber: 'PL-OLD', expiresOn: '2020-06-30', confirmDates: false }), fx.actors.technician, T0));
+		expect(expired.status).toBe(422);
+		expect(expired.fields).toEqual([{ field: 'expiresOn', message: 'the lot expired on 2020-06-30, before today (2026-03-02): it may not be used' }]);
+		expect(expired.extra).toEqual({ needsConfirmation: true });
+		const far = refusal(() => createPasteLot(db, lot({ lotNumber: 'PL-FAR', confirmDates: false }), fx.actors.technician, T0));
+		expect(far.fields[0].message).toContain('more than 2 years ahead');
+		expect(getPasteLot(db, 'PL-OLD')).toBeUndefined();
+		const confirmed = createPasteLot(db, lot({ lotNumber: 'PL-OLD', expiresOn: '2020-06-30' }), fx.actors.technician, T0);
+		expect(confirmed.lotNumber).toBe('PL-OLD');
+		const plausible = createPasteLot(db, lot({ lotNumber: 'PL-OK', expiresOn: '2026-08-31', receivedOn: '2026-03-01', confirmDates: false }), fx.actors.technician, T0);
+		expect(plausible.expiresOn).toBe('2026-08-31');
+	});
 
 	it('keeps data-sheet handling settings, defaults the rest, flags lead and refuses duplicates', () => {
 		const created = createPasteLot(db, lot({ warmUpMinutes: 120 }), fx.actors.technician, T0);
@@ -309,7 +335,8 @@ describe('paste handling settings', () => {
 				lotNumber: 'PL-2',
 				alloy: 'SAC305',
 				powderType: 4,
-				expiresOn: '2099-01-31'
+				expiresOn: '2099-01-31',
+				confirmDates: true
 			}),
 			fx.actors.technician,
 			T0

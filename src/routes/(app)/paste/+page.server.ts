@@ -29,6 +29,14 @@ export const actions = {
 			lotNumber = createPasteLot(getDb(), form.data, actor).lotNumber;
 		} catch (err) {
 			if (!(err instanceof PrintlogRequestError)) throw err;
+			if (err.extra.needsConfirmation) {
+				// Odd but possible dates: say why beside each date and ask for a confirmation.
+				for (const f of err.fields) {
+					const key = f.field as 'expiresOn' | 'receivedOn';
+					form.errors[key] = [...(form.errors[key] ?? []), `Check: ${f.message}.`];
+				}
+				return fail(err.status, { form, needsConfirmation: true });
+			}
 			form.errors.lotNumber = err.fields.map((f) => f.message);
 			return fail(err.status, { form });
 		}
