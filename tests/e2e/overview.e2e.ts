@@ -80,6 +80,17 @@ test.describe('line overview', () => {
 		await expect(page.getByRole('link', { name: 'SPI imports' }).first()).toBeVisible();
 	});
 
+	test('the page says since when the stream is lost and reconnects by itself', async ({ page }) => {
+		await signInAs(page, 'viewer');
+		// The server refuses the stream at first (as while it restarts): the browser gives up, the page retries.
+		await page.route('**/api/lines/stream**', (route) => route.fulfill({ status: 503, body: 'restarting' }));
+		await page.goto('/');
+		await expect(page.locator('[data-testid="line-tile"][data-line="SMT-1"]')).toBeVisible();
+		await expect(page.getByTestId('connection')).toContainText('Connection lost since');
+		await page.unroute('**/api/lines/stream**');
+		await expect(page.getByTestId('connection')).toContainText('Live', { timeout: 25_000 });
+	});
+
 	test('GET /api/lines/overview answers every line as JSON; the line view shows what is due', async ({ page, request }) => {
 		const response = await request.get('/api/lines/overview', { headers: bearer(tokenFor('viewer')) });
 		expect(response.status()).toBe(200);
