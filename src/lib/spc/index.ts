@@ -103,6 +103,7 @@ export {
 } from './capability-assessment';
 
 export { pointKeyWords } from './point-key';
+export { paretoRows, type ParetoRow } from './pareto';
 
 // API core
 export {

@@ -216,7 +216,16 @@ export function parseApertureCsv(
 	limits: StencilLimits = DEFAULT_STENCIL_LIMITS
 ): { apertures: ApertureInput[] } | { errors: CsvError[]; overBudget?: boolean } {
 	const table = readCsvRows(text, Math.min(MAX_APERTURES_PER_FILE, limits.maxAperturesPerStencil));
-	if ('errors' in table) return table;
+	if ('errors' in table) {
+		// Control bytes or invalid UTF-8: a binary file (a spreadsheet, an image), said as such.
+		const binary = /holds (a control character|bytes that are not valid UTF-8)/;
+		return {
+			...table,
+			errors: table.errors.map((e) =>
+				binary.test(e.message) ? { ...e, message: `this is not a CSV file: ${e.message}` } : e
+			)
+		};
+	}
 	const missing = APERTURE_CSV_REQUIRED_COLUMNS.filter((c) => !table.header.includes(c));
 	if (missing.length > 0)
 		return {

@@ -19,16 +19,35 @@ const revB = [
 
 describe('compareRevisions', () => {
 	const c = compareRevisions(revA, revB, { oldThicknessUm: 120, newThicknessUm: 100 });
-	it('added, removed and unchanged', () => {
-		expect(c.added.map((a) => a.aperture.refdes)).toEqual(['C9']);
-		expect(c.removed.map((a) => a.aperture.refdes)).toEqual(['C1']);
-		expect(c.unchangedCount).toBe(2);
+	const sameFoil = compareRevisions(revA, revB, { oldThicknessUm: 120, newThicknessUm: 120 });
+	it('added, removed and unchanged (same foil)', () => {
+		expect(sameFoil.added.map((a) => a.aperture.refdes)).toEqual(['C9']);
+		expect(sameFoil.removed.map((a) => a.aperture.refdes)).toEqual(['C1']);
+		expect(sameFoil.unchangedCount).toBe(2);
+		expect(sameFoil.stencilChanges).toEqual([]);
 	});
-	it('changed pairs name the fields and carry both sides’ ratios at their own thickness', () => {
-		expect(c.changed.map((x) => [x.matchedBy, x.fields])).toEqual([
-			['refdes-pad', ['widthUm']],
+	it('same foil: changed pairs name the geometry fields and the ratios that follow', () => {
+		expect(sameFoil.changed.map((x) => [x.matchedBy, x.fields])).toEqual([
+			['refdes-pad', ['widthUm', 'areaRatio', 'aspectRatio']],
 			['position', ['position']]
 		]);
+	});
+	it('a thinner foil changes every ratio: every matched aperture is changed, and the thickness is named (issue 13)', () => {
+		expect(c.unchangedCount).toBe(0);
+		expect(c.changed.map((x) => [x.matchedBy, x.fields])).toEqual([
+			['refdes-pad', ['widthUm', 'areaRatio', 'aspectRatio']],
+			['refdes-pad', ['areaRatio', 'aspectRatio']],
+			['refdes-pad', ['areaRatio', 'aspectRatio']],
+			['position', ['position', 'areaRatio', 'aspectRatio']]
+		]);
+		expect(c.stencilChanges).toEqual([{ field: 'thicknessUm', old: 120, new: 100 }]);
+	});
+	it('a technology change is named', () => {
+		const t = compareRevisions(revA, revA, { oldThicknessUm: 120, newThicknessUm: 120, oldTechnology: 'laser-cut', newTechnology: 'electroformed' });
+		expect(t.stencilChanges).toEqual([{ field: 'technology', old: 'laser-cut', new: 'electroformed' }]);
+		expect(t.unchangedCount).toBe(revA.length);
+	});
+	it('changed pairs carry both sides’ ratios at their own thickness', () => {
 		const u1 = c.changed[0];
 		expect(u1.old.areaRatio).toBeCloseTo(200000 / (2400 * 120), 12);
 		expect(u1.new.areaRatio).toBeCloseTo(180000 / (2360 * 100), 12);

@@ -16,6 +16,16 @@ export interface CompareRevisionsOptions {
 	positionToleranceUm?: number;
 	/** Sizes and positions closer than this count as equal, µm; default 0.5 µm. */
 	sizeToleranceUm?: number;
+	/** Technology of each revision (e.g. laser-cut, electroformed); a change is reported. */
+	oldTechnology?: string;
+	newTechnology?: string;
+}
+
+/** A stencil-level difference (foil thickness, technology). */
+export interface StencilChange {
+	field: 'thicknessUm' | 'technology';
+	old: number | string;
+	new: number | string;
 }
 
 /** The ratios and sizes of one side of a changed pair. */
@@ -42,6 +52,8 @@ export interface RevisionComparison {
 	removed: { index: number; aperture: ApertureInput }[];
 	changed: ChangedAperture[];
 	unchangedCount: number;
+	/** Foil thickness or technology changes (each changes every aperture's print, not its cut). */
+	stencilChanges: StencilChange[];
 	/** Set when matching by position was cut short (see `MAX_POSITION_TESTS`). */
 	note?: string;
 }
@@ -102,8 +114,10 @@ function side(
 /**
  * Match apertures of two revisions, first by refdes + pad (both non-empty; the first
  * occurrence of a duplicate name), then the rest by nearest centre within the position
- * tolerance. A pair is "changed" when its geometry differs (shape, size, position, rotation);
- * a foil thickness change alone does not mark apertures changed (it is a stencil-level change).
+ * tolerance. A pair is "changed" when its geometry differs (shape, size, position, rotation)
+ * or one of its ratios does (`areaRatio`, `aspectRatio`: a foil thickness change alone changes
+ * every ratio, so every matched aperture is changed); thickness and technology changes are also
+ * listed once in `stencilChanges`.
  * O(n) via hashing and a position grid.
  * @throws {StencilInputError} for invalid apertures, thicknesses or tolerances.
  * @example compareRevisions(revA, revB, { oldThicknessUm: 120, newThicknessUm: 100 }).changed.length
@@ -210,6 +224,8 @@ export function compareRevisions(
 
 	const changed: ChangedAperture[] = [];
 	let unchangedCount = 0;
+	// Ratios equal to this relative difference are the same (only rounding differs).
+	const sameRatio = (a: number, b: number) => Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b));
 	for (const [i, j, matchedBy] of pairs) {
 		const fields = differences(
 			oldApertures[i],
@@ -218,14 +234,20 @@ export function compareRevisions(
 			oldCentres[i],
 			newCentres[j]
 		);
+		const before = side(i, oldApertures[i], oldGeometry[i], options.oldThicknessUm);
+		const after = side(j, newApertures[j], newGeometry[j], options.newThicknessUm);
+		if (!sameRatio(before.areaRatio, after.areaRatio)) fields.push('areaRatio');
+		if (!sameRatio(before.aspectRatio, after.aspectRatio)) fields.push('aspectRatio');
 		if (fields.length === 0) unchangedCount++;
-		else
-			changed.push({
-				matchedBy,
-				fields,
-				old: side(i, oldApertures[i], oldGeometry[i], options.oldThicknessUm),
-				new: side(j, newApertures[j], newGeometry[j], options.newThicknessUm)
-			});
+		else changed.push({ matchedBy, fields, old: before, new: after });
+	}
+	const stencilChanges: StencilChange[] = [];
+	if (Math.abs(options.oldThicknessUm - options.newThicknessUm) > sizeTol) {
+		stencilChanges.push({ field: 'thicknessUm', old: options.oldThicknessUm, new: options.newThicknessUm });
+	}
+	const tech = (t?: string) => (t ?? '').trim().toLowerCase();
+	if (tech(options.oldTechnology) !== tech(options.newTechnology)) {
+		stencilChanges.push({ field: 'technology', old: options.oldTechnology ?? '', new: options.newTechnology ?? '' });
 	}
 	changed.sort((p, q) => p.new.index - q.new.index);
 	return {
@@ -235,6 +257,7 @@ export function compareRevisions(
 		),
 		changed,
 		unchangedCount,
+		stencilChanges,
 		...(stoppedAt !== null
 			? {
 					note:

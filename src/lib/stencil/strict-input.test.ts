@@ -102,7 +102,7 @@ describe('aperture CSV: strict cells, counted vertices', () => {
 					row: 2,
 					column: null,
 					message:
-						'line 2, row: column 2 holds a control character (U+0000); the file must be UTF-8 text'
+						'this is not a CSV file: line 2, row: column 2 holds a control character (U+0000); the file must be UTF-8 text'
 				}
 			]
 		});
@@ -112,6 +112,13 @@ describe('aperture CSV: strict cells, counted vertices', () => {
 				{ row: 2, message: expect.stringMatching(/column 2 holds bytes that are not valid UTF-8/) }
 			]
 		});
+	});
+
+	it('a binary file (zip bytes) uploaded as an aperture CSV is one error: not a CSV file (issue 13)', () => {
+		const zip = 'PK\u0003\u0004\u0014\u0000\u0008\u0000\uFFFD\uFFFDrefdes,pad';
+		const r = parseApertureCsv(zip, 'mm');
+		expect(r).toMatchObject({ errors: [{ row: 1, message: expect.stringMatching(/^this is not a CSV file: /) }] });
+		expect('errors' in r && r.errors).toHaveLength(1);
 	});
 
 	it('a polygon cell over the vertex limit is refused by counting its separators', () => {

@@ -326,6 +326,8 @@ export function failurePareto(
 	pads: ParetoEntry[];
 	refdes: { refdes: string; fails: number; warns: number }[];
 	boards: number;
+	/** Failures of every pad, shown or not: the base of the cumulative percentage. */
+	totalFails: number;
 } {
 	const limit = Math.min(Math.max(1, options.limit ?? 25), 200);
 	const from = options.from.getTime();
@@ -358,7 +360,8 @@ export function failurePareto(
 			.filter((r) => r.fails > 0)
 			.sort((a, b) => b.fails - a.fails || a.refdes.localeCompare(b.refdes))
 			.slice(0, limit),
-		boards
+		boards,
+		totalFails: rows.reduce((s, r) => s + r.fails, 0)
 	};
 }
 
