@@ -128,8 +128,11 @@ const authBodyLimit: Handle = async ({ event, resolve }) => {
 	return resolveWithBoundedBody(event, resolve);
 };
 
-/** Requests whose error was SQLite's busy timeout (another process held the write lock). */
-const busyEvents = new WeakSet<object>();
+/**
+ * Requests whose error was SQLite's busy timeout (another process held the write lock), by their
+ * `locals` (the one object every hook and handleError share; the event may be a copy per hook).
+ */
+const busyRequests = new WeakSet<object>();
 
 /**
  * SQLITE_BUSY anywhere (a hook, a load, an action, an API route) answers 503 + Retry-After, never
@@ -141,10 +144,10 @@ const databaseBusyGuard: Handle = async ({ event, resolve }) => {
 		response = await resolve(event);
 	} catch (err) {
 		if (!isDatabaseBusy(err)) throw err;
-		busyEvents.add(event);
+		busyRequests.add(event.locals);
 		response = new Response(null, { status: 500 });
 	}
-	if (response.status !== 500 || !busyEvents.has(event)) return response;
+	if (response.status !== 500 || !busyRequests.has(event.locals)) return response;
 	if (isApi(event.url.pathname)) return databaseBusy();
 	return new Response('The database is busy with another write; try again in a moment.', {
 		status: 503,
@@ -155,7 +158,7 @@ const databaseBusyGuard: Handle = async ({ event, resolve }) => {
 export const handle = sequence(securityHeaders, databaseBusyGuard, crossSiteGuard, authBodyLimit, authHandle, identify, guard);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
-	if (isDatabaseBusy(error)) busyEvents.add(event); // answered 503 by databaseBusyGuard
+	if (isDatabaseBusy(error)) busyRequests.add(event.locals); // answered 503 by databaseBusyGuard
 	if (status === 404) return { message: 'This page does not exist.' };
 	console.error('[rollbead] unexpected error', error);
 	return { message: status >= 500 ? 'Something went wrong on our side; it has been logged.' : message };

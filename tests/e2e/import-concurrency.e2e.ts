@@ -2,6 +2,7 @@ import { expect, test } from '@playwright/test';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import Database from 'better-sqlite3';
 import { demoUser } from './helpers';
 import {
 	freePort,
@@ -145,4 +146,57 @@ test('token requests, sign-ins and writes during a large import: no 500, none wa
 	// Each kind of request really ran while the file was being imported.
 	for (const kind of ['token read', 'write: new line', 'failed sign-in', 'sign-in'])
 		expect(samples.filter((s) => s.kind === kind && s.duringImport).length, kind).toBeGreaterThanOrEqual(2);
+});
+
+test('a write that finds the database locked by another process is answered 503 with Retry-After', async () => {
+	dir = mkdtempSync(join(tmpdir(), 'rollbead-busy-'));
+	const databaseFile = join(dir, 'rollbead.db');
+	const engineer = makeTokenIn(databaseFile, 'engineer');
+	server = await startServer({ databaseFile, port: await freePort(), demo: false });
+	const url = server.url;
+	// Another process (here: this one) holds the write lock longer than the server's busy timeout.
+	const other = new Database(databaseFile);
+	other.exec('BEGIN IMMEDIATE');
+	try {
+		const line = await fetch(`${url}/api/lines`, {
+			method: 'POST',
+			headers: { authorization: `Bearer ${engineer}`, 'content-type': 'application/json' },
+			body: JSON.stringify({ code: 'BUSY-1', name: 'Busy line' })
+		});
+		expect(line.status).toBe(503);
+		expect(line.headers.get('retry-after')).toBe('1');
+		expect(await line.json()).toEqual({
+			error: 'The database is busy with another write; try again in a moment.'
+		});
+		// A failed sign-in records the failure: a page request, answered 503 as well.
+		const signIn = await fetch(`${url}/signin`, {
+			method: 'POST',
+			redirect: 'manual',
+			headers: {
+				origin: url,
+				accept: 'text/html',
+				'content-type': 'application/x-www-form-urlencoded'
+			},
+			body: new URLSearchParams({
+				providerId: 'credentials',
+				redirectTo: '/',
+				email: 'nobody@fenmoor.example',
+				password: 'not-the-password'
+			}).toString()
+		});
+		expect(signIn.status).toBe(503);
+		expect(signIn.headers.get('retry-after')).toBe('1');
+		// Reads are never blocked (WAL).
+		const read = await fetch(`${url}/api/lines`, { headers: { authorization: `Bearer ${engineer}` } });
+		expect(read.status).toBe(200);
+	} finally {
+		other.exec('ROLLBACK');
+		other.close();
+	}
+	const after = await fetch(`${url}/api/lines`, {
+		method: 'POST',
+		headers: { authorization: `Bearer ${engineer}`, 'content-type': 'application/json' },
+		body: JSON.stringify({ code: 'BUSY-1', name: 'Busy line' })
+	});
+	expect(after.status).toBe(201);
 });
