@@ -246,3 +246,24 @@ describe('macro work per layer', () => {
 		);
 	});
 });
+
+describe('macro variables', () => {
+	it('a chain of variables $2 = $1 × $1 … is read; defining $10 and up is named, not lost', () => {
+		const ok = importGerberPasteLayer(
+			`${H}%AMV*\n$2=$1x$1*\n1,1,$2,0,0*%\n%ADD10V,0.5*%\nD10*\nX0Y0D03*\nM02*\n`
+		);
+		if ('errors' in ok) throw new Error(JSON.stringify(ok.errors));
+		expect(ok.apertures[0]).toMatchObject({ shape: 'circle', diameterUm: 250 });
+		const vars = Array.from({ length: 90 }, (_, k) => `$${k + 2}=$${k + 1}x$${k + 1}*`).join('\n');
+		const r = failed(`${H}%AMV*\n${vars}\n1,1,$91,0,0*%\n%ADD10V,2*%\nD10*\nX0Y0D03*\nM02*\n`);
+		expect(r.errors[0].message).toBe(
+			'line 12, %AMV: defining $10: macro variables from $10 up cannot be defined here'
+		);
+		// Ten parameters, the tenth used as $10: read correctly.
+		const tenth = importGerberPasteLayer(
+			`${H}%AMV*\n1,1,$10,0,0*%\n%ADD10V,0.7X1X1X1X1X1X1X1X1X0.5*%\nD10*\nX0Y0D03*\nM02*\n`
+		);
+		if ('errors' in tenth) throw new Error(JSON.stringify(tenth.errors));
+		expect(tenth.apertures[0]).toMatchObject({ shape: 'circle', diameterUm: 500 });
+	});
+});

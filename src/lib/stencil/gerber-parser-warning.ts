@@ -63,9 +63,11 @@ export function classifyGerberParserWarning(message: string): GerberWarningActio
 		if (refused) return { kind: 'error', message: `${refused[1]} (${quote(block)})` };
 		return { kind: 'error', message: `unsupported or unknown command ${quote(block)}` };
 	}
-	const primitive = /^(.*) is an unrecognized primitive for a macro aperture$/.exec(message);
+	const primitive = /^(.*) is an unrecognized primitive for a macro aperture$/s.exec(message);
 	if (primitive) {
-		const message = `macro primitive code ${quote(primitive[1])} is not supported`;
+		// A primitive the parser could not split comes back as its evaluator's source text.
+		const code = /^function/.test(primitive[1]) ? 'with an expression' : quote(primitive[1]);
+		const message = `macro primitive code ${code} is not supported`;
 		return { kind: 'error', message };
 	}
 	// The rest (deprecated forms, assumed zero suppression) are recoverable: pass them on.

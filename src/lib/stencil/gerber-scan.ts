@@ -131,6 +131,14 @@ export function scanGerberText(text: string, limits: StencilLimits, maxErrors: n
 			fail(line, what, message);
 			return;
 		}
+		// The parser cannot read a definition of `$10` or higher (it loses the primitive): refuse
+		// it by name rather than lose it. Using `$10` and up as a parameter works.
+		const wide = /^\$(\d{2,})\s*=/.exec(word);
+		if (wide) {
+			const message = `defining $${wide[1]}: macro variables from $10 up cannot be defined here`;
+			fail(line, what, message);
+			return;
+		}
 		const fields = word.split(',').map((f) => f.trim());
 		for (const f of fields)
 			for (const literal of f.match(/\d*\.?\d+\.?\d*/g) ?? [])
