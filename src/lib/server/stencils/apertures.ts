@@ -50,6 +50,16 @@ export class ApertureImportError extends Error {
 }
 
 /**
+ * Rows stored before rotations were limited to ±360° (e.g. 450°, or 1e308 through the old API)
+ * are read as the same turn inside the range, so such a stencil stays readable.
+ */
+function foldLegacyRotation(deg: number): number {
+	if (Math.abs(deg) <= 360 || !Number.isFinite(deg)) return deg;
+	const r = deg % 360;
+	return r === 0 ? 0 : r;
+}
+
+/**
  * The stored apertures of a stencil in import order, as `ApertureInput` plus the row id.
  * Columns that do not apply to a shape are left out (not null), so JSON stays clean.
  */
@@ -70,7 +80,7 @@ export function loadApertures(db: Db, stencilId: number): StoredAperture[] {
 			shape: r[3] as ApertureInput['shape'],
 			xUm: r[9] as number,
 			yUm: r[10] as number,
-			rotationDeg: r[11] as number
+			rotationDeg: foldLegacyRotation(r[11] as number)
 		};
 		if (r[4] !== null) a.lengthUm = r[4] as number;
 		if (r[5] !== null) a.widthUm = r[5] as number;

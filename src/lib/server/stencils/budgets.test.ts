@@ -158,3 +158,17 @@ describe('reading a stencil of heavy outlines', () => {
 		expect(advice.sweep.series.every((p) => p.total === 500)).toBe(true);
 	});
 });
+
+describe('rows stored before the rotation range', () => {
+	it('a stored rotation of 450° or 1e308° reads as the same turn inside ±360°, so the stencil stays readable', () => {
+		const id = stencil();
+		importApertures(db, id, polygons(2, 8), { source: 'json', mode: 'append' }, engineer);
+		db.$client.prepare('update apertures set rotation_deg = 450 where refdes = ?').run('P1');
+		db.$client.prepare('update apertures set rotation_deg = 1e308 where refdes = ?').run('P2');
+		const read = loadApertures(db, id);
+		expect(read[0].rotationDeg).toBe(90);
+		expect(Math.abs(read[1].rotationDeg)).toBeLessThan(360);
+		expect(read[1].rotationDeg).toBe(1e308 % 360);
+		expect(checkStoredStencil(db, id).apertures).toHaveLength(2);
+	});
+});

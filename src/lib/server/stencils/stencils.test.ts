@@ -391,7 +391,9 @@ describe('revisions', () => {
 		);
 		const { comparison } = compareStoredRevisions(db, a.id, b.id);
 		expect(comparison.removed.map((r) => r.aperture.pad)).toEqual(['2']);
-		expect(comparison.changed[0].fields).toEqual(['widthUm']);
+		// The width changed, and with it and the foil (127 → 100 µm) both ratios (da2329e: a
+		// ratio change marks the pair changed).
+		expect(comparison.changed[0].fields).toEqual(['widthUm', 'areaRatio', 'aspectRatio']);
 		// 0.25 × 1.0 mm at 100 µm: 250000 / (2500 × 100) = 1.0; old 0.2 × 1.0 at 127: 83.333/127.
 		expect(comparison.changed[0].new.areaRatio).toBeCloseTo(1.0, 12);
 		expect(comparison.changed[0].old.areaRatio).toBeCloseTo(200000 / (2400 * 127), 12);
