@@ -163,4 +163,46 @@ test.describe('analysis pages', () => {
 		await expect(page.getByTestId('trace-lot')).toContainText('PL-2026-0390');
 		await expect(page.getByTestId('trace-operator')).toHaveText('Cleo Marrowby');
 	});
+
+	test('an engineer adopts the learned limit (audited); a viewer has no button and is refused', async ({
+		page,
+		browser,
+		request
+	}) => {
+		const engineerApi = bearer(tokenFor('engineer'));
+		const before = (await (await request.get('/api/stencil-thresholds', { headers: engineerApi })).json())
+			.thresholds;
+		try {
+			await signInAs(page, 'engineer');
+			await page.goto('/analysis');
+			await expect(page.getByLabel('Stencil technology')).toHaveValue('laser-stainless');
+			const button = page.getByRole('button', { name: /^Adopt 0\.\d\d as the laser-stainless minimum$/ });
+			await expect(button).toBeVisible();
+			const value = Number(/Adopt (0\.\d\d)/.exec((await button.textContent()) ?? '')![1]);
+			await button.click();
+			await expect(page.getByTestId('te-adopted')).toContainText(`minimum area ratio ${value.toFixed(2)}`);
+			const after = (await (await request.get('/api/stencil-thresholds', { headers: engineerApi })).json())
+				.thresholds;
+			expect(after['laser-stainless'].minAreaRatio).toBe(value);
+			await expect(page.getByTestId('te-site-limit')).toContainText(value.toFixed(2));
+			const audit = await (
+				await request.get('/api/audit?kind=setting', { headers: bearer(tokenFor('quality')) })
+			).json();
+			expect(audit.entries[0].after['laser-stainless'].minAreaRatio).toBe(value);
+		} finally {
+			// Other specs read the demo thresholds: put them back.
+			await request.put('/api/stencil-thresholds', { headers: engineerApi, data: { thresholds: before } });
+		}
+		const viewer = await browser.newPage();
+		await signInAs(viewer, 'viewer');
+		await viewer.goto('/analysis');
+		await expect(viewer.getByTestId('te-learned')).toHaveText(/^0\.\d{3}$/);
+		await expect(viewer.getByRole('button', { name: /^Adopt/ })).toHaveCount(0);
+		const refused = await viewer.request.post('/analysis?/adopt', {
+			form: { technology: 'laser-stainless' },
+			headers: { origin: new URL(viewer.url()).origin }
+		});
+		expect(refused.status()).toBe(403);
+		await viewer.close();
+	});
 });

@@ -1,13 +1,23 @@
-import { STENCIL_TECHNOLOGIES } from '$lib/stencil';
+import { fail } from '@sveltejs/kit';
+import { ENGINEERING, hasRole } from '$lib/access';
+import { STENCIL_TECHNOLOGIES, type StencilTechnology } from '$lib/stencil';
+import { ApiError } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
-import { ANALYSIS_OUTCOMES, ANALYSIS_PARAMETERS } from '$lib/server/analysis';
-import type { PageServerLoad } from './$types';
+import {
+	ANALYSIS_OUTCOMES,
+	ANALYSIS_PARAMETERS,
+	readTeFilters,
+	transferEfficiency
+} from '$lib/server/analysis';
+import { saveSiteThresholds, siteThresholds } from '$lib/server/stencils';
+import type { Actions, PageServerLoad } from './$types';
 
 /** Filter choices only; the figures come from the API on the client as the filters change. */
 export const load: PageServerLoad = async ({ locals }) => {
-	requireActor(locals);
-	const c = getDb().$client;
+	const actor = requireActor(locals);
+	const db = getDb();
+	const c = db.$client;
 	const pluck = (sql: string) => c.prepare(sql).pluck().all() as (string | number)[];
 	return {
 		technologies: STENCIL_TECHNOLOGIES,
@@ -28,6 +38,50 @@ export const load: PageServerLoad = async ({ locals }) => {
 				.get() as string | undefined) ?? '',
 		stencils: c
 			.prepare(`select id, name, revision, technology from stencils order by name, revision`)
-			.all() as { id: number; name: string; revision: string; technology: string }[]
+			.all() as { id: number; name: string; revision: string; technology: string }[],
+		siteMinAreaRatio: Object.fromEntries(
+			Object.entries(siteThresholds(db)).map(([t, v]) => [t, v.minAreaRatio])
+		) as Record<StencilTechnology, number>,
+		canAdopt: hasRole(actor, ENGINEERING)
 	};
+};
+
+export const actions: Actions = {
+	/**
+	 * Adopt the learned limit as the site's minimum area ratio for one technology (engineers;
+	 * audited by the thresholds service). The limit is computed again here from the posted
+	 * filters, never taken from the form, and rounded up to 0.01 (the safer side).
+	 */
+	adopt: async ({ request, locals }) => {
+		const actor = requireActor(locals, ENGINEERING);
+		const form = await request.formData();
+		const params = new URLSearchParams();
+		for (const key of ['technology', 'paste', 'powder', 'from', 'to', 'floor']) {
+			const v = form.get(key);
+			if (typeof v === 'string' && v.trim() !== '') params.set(key, v.slice(0, 200));
+		}
+		let filters;
+		try {
+			filters = readTeFilters(new URL(`http://local/?${params}`));
+		} catch (err) {
+			if (err instanceof ApiError)
+				return fail(400, {
+					adoptError: ((err.body.fields as { field: string; message: string }[]) ?? [])
+						.map((f) => `${f.field} ${f.message}`)
+						.join('; ')
+				});
+			throw err;
+		}
+		if (filters.technology === null)
+			return fail(400, { adoptError: 'choose one stencil technology to adopt a limit for' });
+		const db = getDb();
+		const te = await transferEfficiency(db, filters);
+		if (te.learnedMinAreaRatio === null)
+			return fail(422, { adoptError: `no learned limit to adopt: ${te.reason}` });
+		const technology = filters.technology as StencilTechnology;
+		const minAreaRatio = Math.ceil(te.learnedMinAreaRatio * 100 - 1e-9) / 100;
+		const current = siteThresholds(db);
+		saveSiteThresholds(db, { ...current, [technology]: { ...current[technology], minAreaRatio } }, actor);
+		return { adopted: { technology, minAreaRatio, learned: te.learnedMinAreaRatio } };
+	}
 };
