@@ -6,7 +6,8 @@ const benches = [
 	['stencil check', 'scripts/bench-stencil.ts'],
 	['SPI parse + validate', 'src/lib/ingest/parse-bench.ts'],
 	['SPI ingest end to end', 'scripts/bench-ingest.ts'],
-	['SPC chart API and rules', 'scripts/bench-spc.ts']
+	['SPC chart API and rules', 'scripts/bench-spc.ts'],
+	['analysis: TE scan and board trace', 'scripts/bench-analysis.ts']
 ];
 
 let failed = 0;
