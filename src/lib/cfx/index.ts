@@ -2,3 +2,4 @@
 export * from './decode';
 export * from './map';
 export * from './spi-csv';
+export * from './oee';
