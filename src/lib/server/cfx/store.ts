@@ -494,47 +494,84 @@ function cfxOpened(db: Db, runId: number): boolean {
 	);
 }
 
-/** The SPI part of a message: per inspected record, ingest the canonical CSV or hold the units. */
+/**
+ * The product and print run of an inspected unit: the printed unit with the same identifier on
+ * the line (SPI results join their print by unit identifier, not by transaction), else the open
+ * run on the line, else the recipe name when it is a product code.
+ */
+function inspectedUnitContext(
+	db: Db,
+	ep: CfxEndpoint,
+	unitIdentifier: string,
+	recipeName: string | null
+): { productId: number; productCode: string; runId: number | null; stencilName: string | null } | null {
+	const printed = db.$client
+		.prepare(
+			`select u.product_id as productId, p.code as productCode, u.print_run_id as runId, s.name as stencilName
+			   from cfx_units u join products p on p.id = u.product_id
+			   left join print_runs r on r.id = u.print_run_id left join stencils s on s.id = r.stencil_id
+			  where u.line_id = ? and u.unit_identifier = ? and u.product_id is not null order by u.id desc limit 1`
+		)
+		.get(ep.lineId, unitIdentifier) as
+		| { productId: number; productCode: string; runId: number | null; stencilName: string | null }
+		| undefined;
+	if (printed) return printed;
+	const product = productFor(db, ep.lineId, recipeName);
+	if (!product) return null;
+	return {
+		productId: product.productId,
+		productCode: product.productCode,
+		runId: product.run?.id ?? null,
+		stencilName: product.run ? product.run.stencilName : (currentStencilOfLine(db, ep.lineId)?.name ?? null)
+	};
+}
+
+/** The SPI part of a message: ingest the units whose product is known, hold the others. */
 async function storeInspections(
 	db: Db,
 	ep: CfxEndpoint,
 	rec: Extract<CfxRecord, { kind: 'units-inspected' }>,
 	messageKey: string
 ): Promise<{ pending: InspectedUnit[][] } | { reason: string }> {
-	const product = productFor(db, ep.lineId, rec.recipeName);
-	const bySerial = new Map<string, InspectedUnit[]>();
+	// One CSV per (product, run, stencil): a board's rows must agree on them.
+	const groups = new Map<string, { ctx: NonNullable<ReturnType<typeof inspectedUnitContext>>; units: InspectedUnit[] }>();
+	const unknown = new Map<string, InspectedUnit[]>();
 	for (const u of rec.units) {
 		if (u.pads.length === 0) continue;
-		bySerial.set(u.unitIdentifier, [...(bySerial.get(u.unitIdentifier) ?? []), u]);
+		const ctx = inspectedUnitContext(db, ep, u.unitIdentifier, rec.recipeName);
+		if (!ctx) {
+			unknown.set(u.unitIdentifier, [...(unknown.get(u.unitIdentifier) ?? []), u]);
+			continue;
+		}
+		const key = `${ctx.productId}|${ctx.runId}|${ctx.stencilName}`;
+		const group = groups.get(key) ?? { ctx, units: [] };
+		group.units.push(u);
+		groups.set(key, group);
 	}
-	if (!product) return { pending: [...bySerial.values()] };
-	const stencil = product.run
-		? product.run.stencilName
-		: (currentStencilOfLine(db, ep.lineId)?.name ?? null);
-	const csv = spiCsvForUnits(
-		rec.units.filter((u) => u.pads.length > 0),
-		{
+	let part = 0;
+	for (const { ctx, units } of groups.values()) {
+		const csv = spiCsvForUnits(units, {
 			inspectedAtMs: rec.atMs,
 			lineCode: ep.line,
-			productCode: product.productCode,
-			stencilName: stencil,
-			printRunId: product.run?.id ?? null
+			productCode: ctx.productCode,
+			stencilName: ctx.stencilName,
+			printRunId: ctx.runId
+		});
+		const outcome = await ingestSpiFile(db, {
+			source: CFX_SOURCE,
+			fileName: `cfx-${ep.handle}-${messageKey.slice(0, 60)}${groups.size > 1 ? `-${++part}` : ''}.csv`,
+			body: (async function* () {
+				yield Buffer.from(csv, 'utf8');
+			})(),
+			createdBy: `cfx:${ep.handle}`,
+			totalBytes: Buffer.byteLength(csv)
+		});
+		if (outcome.status === 'rejected') {
+			const first = outcome.errors.slice(0, 3).map(formatIngestIssue).join('; ');
+			return { reason: `SPI ingest refused the measurements (${outcome.errorCount} error(s)): ${first}` };
 		}
-	);
-	const outcome = await ingestSpiFile(db, {
-		source: CFX_SOURCE,
-		fileName: `cfx-${ep.handle}-${messageKey.slice(0, 60)}.csv`,
-		body: (async function* () {
-			yield Buffer.from(csv, 'utf8');
-		})(),
-		createdBy: `cfx:${ep.handle}`,
-		totalBytes: Buffer.byteLength(csv)
-	});
-	if (outcome.status === 'rejected') {
-		const first = outcome.errors.slice(0, 3).map(formatIngestIssue).join('; ');
-		return { reason: `SPI ingest refused the measurements (${outcome.errorCount} error(s)): ${first}` };
 	}
-	return { pending: [] };
+	return { pending: [...unknown.values()] };
 }
 
 /**
