@@ -73,6 +73,8 @@ export const API_POLICY: Record<string, Partial<Record<HttpMethod, MethodPolicy>
 	'/api/cfx/quarantine/[id]/discard': { POST: ADMIN_ONLY },
 	'/api/cfx/pending': { GET: ALL_ROLES },
 	'/api/cfx/pending/[id]/assign': { POST: INSPECTION_IMPORTERS },
+	'/api/cfx/oee': { GET: ALL_ROLES },
+	'/api/cfx/changeovers': { GET: ALL_ROLES },
 	'/api/analysis/yield': { GET: ALL_ROLES },
 	'/api/analysis/failure-map': { GET: ALL_ROLES },
 	'/api/trace': { GET: ALL_ROLES }

@@ -1,0 +1,32 @@
+import { json } from '@sveltejs/kit';
+import { parseDay, parseMinutes, parseShiftStarts } from '$lib/cfx/query-params';
+import { ApiError, apiRoute } from '$lib/server/api';
+import { getDb } from '$lib/server/db';
+import { OeeRequestError, printerOee } from '$lib/server/cfx';
+
+const KNOWN = new Set(['day', 'line', 'shifts', 'idleMinutes']);
+
+/** OEE per printer and shift of one UTC day, each factor with how it was computed. */
+export const GET = apiRoute(({ url }) => {
+	const unknown = [...url.searchParams.keys()].filter((k) => !KNOWN.has(k));
+	const day = parseDay(url.searchParams.get('day'));
+	const shifts = parseShiftStarts(url.searchParams.get('shifts'));
+	const idle = parseMinutes(url.searchParams.get('idleMinutes'), 'idleMinutes', 5, 1, 240);
+	const fields = [
+		...unknown.map((k) => ({ field: k, message: 'is not a parameter of this route' })),
+		...[day, shifts, idle].filter((r) => !r.ok).map((r) => ({ field: (r as { field: string }).field, message: (r as { message: string }).message }))
+	];
+	if (fields.length || !day.ok || !shifts.ok || !idle.ok) throw new ApiError(400, { error: 'The query has invalid parameters.', fields });
+	try {
+		const printers = printerOee(getDb(), {
+			day: day.value,
+			shiftStarts: shifts.value,
+			line: url.searchParams.get('line'),
+			idleAfterMs: idle.value * 60_000
+		});
+		return json({ day: day.value, shifts: shifts.value, idleMinutes: idle.value, printers });
+	} catch (err) {
+		if (err instanceof OeeRequestError) throw new ApiError(422, { error: err.message });
+		throw err;
+	}
+});
