@@ -149,6 +149,19 @@ test.describe('analysis pages', () => {
 		await expect(page.getByTestId('predicted-summary')).toContainText('predicted below the floor');
 		await expect(page.getByTestId('failure-map').locator('circle')).toHaveCount(305);
 		await expect(page.getByTestId('class-pareto').locator('tbody tr').first().locator('td').first()).toHaveText('U');
+		// The CSV of the TE bins is the table's figures, one row per bin.
+		await page.getByLabel('Stencil technology').selectOption('laser-stainless');
+		await expect(page.getByTestId('te-learned')).toHaveText(/^0\.\d{3}$/);
+		await page.getByText('Bins', { exact: true }).click();
+		const download = page.waitForEvent('download');
+		await page.getByTestId('te-bins').locator('xpath=..').getByRole('button', { name: 'CSV' }).click();
+		const csv = await (await download).createReadStream().then(async (stream) => {
+			let text = '';
+			for await (const chunk of stream) text += chunk;
+			return text;
+		});
+		expect(csv.split('\r\n')[0]).toBe('area_ratio,te_mean,te_p10,te_p90,pads,left_out');
+		expect(csv.trim().split('\r\n').length).toBeGreaterThan(10);
 		await page.getByLabel('Group by').selectOption('product');
 		await expect(page.getByTestId('yield-table').locator('tbody tr', { hasText: 'SH-220' })).toHaveCount(1);
 	});
