@@ -129,6 +129,10 @@ test.describe('sign-in and roles', () => {
 
 		// A forged redirectTo posted with the form and forged Host headers do not steer Auth.js.
 		const base = new URL(page.url()).origin;
+		// A forged Host header on the redirect to sign-in (this request context is not signed in yet).
+		const bounced = await request.get('/factory', { headers: { host: 'evil.example' }, maxRedirects: 0 });
+		expect(bounced.status()).toBe(303);
+		expect(bounced.headers()['location']).toBe('/signin?redirectTo=%2Ffactory');
 		const response = await request.post('/signin', {
 			form: { email: user.email, password: user.password, providerId: 'credentials', redirectTo: '/\\evil.example' },
 			headers: {
@@ -144,6 +148,15 @@ test.describe('sign-in and roles', () => {
 		expect(new URL(location, base).origin).toBe(base);
 		expect(location).not.toContain('evil');
 		expect(response.headers()['set-cookie']).not.toContain('evil');
+
+		// A forged Host header on the Auth.js sign-out.
+		const signedOut = await request.post('/signout', {
+			form: { redirectTo: '/signin' },
+			headers: { accept: 'text/html', origin: base, host: 'evil.example', 'x-forwarded-host': 'evil.example' },
+			maxRedirects: 0
+		});
+		expect([302, 303]).toContain(signedOut.status());
+		expect(new URL(signedOut.headers()['location'], base).origin).toBe(base);
 	});
 
 	test('signing out ends the session: a copied cookie no longer works', async ({ browser }) => {
