@@ -133,4 +133,4 @@ export {
 	boardSerialProblem,
 	parseBoardSerial
 } from './board-serial';
-export { runChanges, describeRunChange, type RunChange } from './run-changes';
+export { runChanges, describeRunChange, parameterLabel, type RunChange } from './run-changes';

@@ -1,3 +1,4 @@
+import { parameterLabel } from './run-changes';
 import { describe, expect, it } from 'vitest';
 import { describeRunChange, runChanges } from './run-changes';
 
@@ -68,4 +69,13 @@ describe('runChanges', () => {
 			'Squeegee speed: 40 → 45'
 		]);
 	});
+});
+
+describe('parameterLabel (issue 13: words, not keys)', () => {
+	it.each([
+		['squeegeeSpeedMmS', 'Squeegee speed'],
+		['squeegeePressureKg', 'Squeegee pressure'],
+		['ambientTempC', 'Ambient temperature'],
+		['someNewKeyMm', 'some new key mm']
+	])('%s → %s', (key, label) => expect(parameterLabel(key)).toBe(label));
 });

@@ -39,10 +39,15 @@ function same(a: unknown, b: unknown): boolean {
 	return JSON.stringify(norm(a)) === JSON.stringify(norm(b));
 }
 
-function parameterLabel(key: string): string {
+/**
+ * What a user calls a print parameter ("Squeegee speed"), never its key; an unknown key is
+ * split into words ("fooBarMm" → "foo bar mm").
+ * @example parameterLabel('squeegeeSpeedMmS') // 'Squeegee speed'
+ */
+export function parameterLabel(key: string): string {
 	if (isWindowedParameterKey(key)) return NUMERIC_PARAMETERS[key].label;
 	if (isCategoricalParameterKey(key)) return CATEGORICAL_LABELS[key];
-	return key;
+	return key.replace(/([a-z0-9])([A-Z])/g, '$1 $2').toLowerCase();
 }
 
 /**

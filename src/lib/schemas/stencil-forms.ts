@@ -45,7 +45,7 @@ export function parseStepRegionsText(text: string): { regions: StepRegion[] } | 
 		const v = lines[i].split(/[\s,]+/).map(Number);
 		if (v.length !== 5 || !v.every(Number.isFinite))
 			return {
-				error: `step region ${regions.length + 1}: write five numbers "xMin yMin xMax yMax thickness" (got "${lines[i]}")`
+				error: `step region ${regions.length + 1}: write five numbers, the left, bottom, right and top edge in mm and the thickness in µm (got "${lines[i]}")`
 			};
 		regions.push({
 			xMinUm: v[0] * 1000,

@@ -20,6 +20,7 @@ import {
 	type OpenSignalRef,
 	type Violation
 } from '$lib/spc';
+import { parameterLabel } from '$lib/printlog';
 import { countPadsOutOfSpec, samplePadValues } from './spi-source';
 import { getCapabilityThresholds } from './capability-settings';
 import { summaryCapability } from './summary-capability';
@@ -94,7 +95,7 @@ export function summarize(db: Db, rows: CharacteristicRow[]): CharacteristicSumm
 		lineCodes: c.lineIds.map((id) => lineCodes.get(id) ?? `#${id}`),
 		measureLabel:
 			c.measure === 'print-parameter'
-				? `Print parameter ${c.parameterKey}`
+				? `${parameterLabel(c.parameterKey ?? '')} (print log)`
 				: (MEASURE_DEFAULTS[c.measure as Measure]?.label ?? c.measure)
 	}));
 }
@@ -256,7 +257,7 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 	if (subgroups.length === 0) {
 		const message =
 			c.measure === 'print-parameter'
-				? `No print runs of ${c.productCode} with ${c.parameterKey} logged yet.`
+				? `No print runs of ${c.productCode} with ${parameterLabel(c.parameterKey ?? '').toLowerCase()} logged yet.`
 				: 'No inspection data for this product and these lines yet.';
 		return { ...base, chart: null, capability: noCapability(c, message, empty), message };
 	}

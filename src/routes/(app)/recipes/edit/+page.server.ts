@@ -24,8 +24,13 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	// A new recipe starts from the catalogue's common-practice windows.
 	const defaults = Object.fromEntries(
 		WINDOW_KEYS.flatMap((k) => {
-			const w = NUMERIC_PARAMETERS[k].defaultWindow;
-			return w && k !== 'ambientTempC' && k !== 'relativeHumidityPct' ? [[k, w]] : [];
+			const spec = NUMERIC_PARAMETERS[k];
+			const w = spec.defaultWindow;
+			// Offered at the field's precision (a pressure window derived from N/mm is 4.5887… kg):
+			// min rounded up and max down, so the offer stays inside the common-practice window.
+			const f = 10 ** spec.decimals;
+			const offered = w && { min: Math.ceil(w.min * f - 1e-9) / f, target: Math.round(w.target * f) / f, max: Math.floor(w.max * f + 1e-9) / f };
+			return offered && k !== 'ambientTempC' && k !== 'relativeHumidityPct' ? [[k, offered]] : [];
 		})
 	);
 	return {
