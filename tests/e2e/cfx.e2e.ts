@@ -57,7 +57,9 @@ test.describe('IPC-CFX API without CFX_URL', () => {
 		await page.getByLabel('Line', { exact: true }).selectOption('SMT-1');
 		await page.getByRole('button', { name: 'Map handle' }).click();
 		await expect(page.getByRole('status')).toContainText('fenmoor.page.printer → SMT-1 (printer)');
-		await expect(page.getByRole('cell', { name: 'fenmoor.page.printer' })).toBeVisible();
+		await expect(page.getByRole('cell', { name: 'fenmoor.page.printer', exact: true })).toBeVisible();
+		// Today's OEE lists the new printer once per shift, each factor saying why it is unknown.
+		await expect(page.getByRole('cell', { name: 'fenmoor.page.printer (SMT-1)' })).toHaveCount(3);
 	});
 });
 
@@ -169,6 +171,19 @@ test.describe('IPC-CFX with a real broker and node build', () => {
 		const list = runs.runs ?? runs;
 		expect(list).toHaveLength(1);
 		expect(list[0]).toMatchObject({ line: 'L7', product: 'FW-CTRL-200', boardsPrinted: 10 });
+		// OEE of the printer for the morning shift: 10 boards, every first SPI inspection failed
+		// (U3.7 of the reference message), so quality is 0 and says why.
+		const oee = (await api('/api/cfx/oee?day=2026-12-03&line=L7')).body;
+		const morning = oee.printers.find((p: { shift: { start: string } }) => p.shift.start === '2026-12-03T06:00:00.000Z');
+		expect(morning).toMatchObject({ printer: 'fenmoor.l1.printer', boards: 10, inspected: 10, firstPassed: 0, quality: { value: 0 } });
+		expect(morning.quality.how).toBe('0 of 10 inspected boards passed SPI at their first inspection = 0.0 %');
+		const bad = await api('/api/cfx/oee?day=2026-13-01&shift=06:00');
+		expect(bad.status).toBe(400);
+		expect(bad.body.fields).toEqual([
+			{ field: 'shift', message: 'is not a parameter of this route' },
+			{ field: 'day', message: '2026-13-01 is not a calendar day (1970–2100)' }
+		]);
+		expect((await api('/api/cfx/changeovers?from=2026-12-03&to=2026-12-04&line=L7')).body).toEqual({ changeovers: [] });
 		const trace = (await api('/api/trace?serial=FW-E2E-0009')).body;
 		expect(trace.match).toBe('exact');
 		expect(trace.boards).toHaveLength(1);

@@ -12,6 +12,7 @@ import {
 	listEndpoints,
 	listPendingInspections,
 	listQuarantine,
+	printerOee,
 	recentLineEvents,
 	retryQuarantined,
 	saveEndpoint
@@ -28,6 +29,14 @@ export const load: PageServerLoad = async ({ locals }) => {
 		quarantine: listQuarantine(db, { limit: 100 }),
 		pending: listPendingInspections(db, 100),
 		events: recentLineEvents(db, null, 30),
+		// Today's shifts (UTC); OeeRequestError past the read budget shows as no table.
+		oee: (() => {
+			try {
+				return printerOee(db, { day: new Date().toISOString().slice(0, 10) });
+			} catch {
+				return [];
+			}
+		})(),
 		lines: db.$client.prepare(`select code, name from lines where active = 1 order by code`).all() as { code: string; name: string }[],
 		products: db.$client.prepare(`select code, name from products where active = 1 order by code`).all() as { code: string; name: string }[]
 	};
