@@ -22,7 +22,7 @@ import { join } from 'node:path';
 import { parseArgs } from 'node:util';
 import { gzipSync } from 'node:zlib';
 import rhea from 'rhea';
-import type { Sender } from 'rhea';
+import type { ConnectionOptions, Sender } from 'rhea';
 
 export interface CfxSimulationOptions {
 	broker: string;
@@ -72,14 +72,15 @@ function envelope(name: string, source: string, body: Record<string, unknown>) {
 
 async function openSender(broker: string, address: string) {
 	const url = new URL(broker);
-	const conn = rhea.create_container({ id: `rollbead-cfx-sim-${process.pid}` }).connect({
+	const base = {
 		host: url.hostname,
 		port: Number(url.port || (url.protocol === 'amqps:' ? 5671 : 5672)),
 		...(url.username && { username: decodeURIComponent(url.username) }),
 		...(url.password && { password: decodeURIComponent(url.password) }),
-		...(url.protocol === 'amqps:' && { transport: 'tls' as const }),
 		reconnect: true
-	});
+	};
+	const options: ConnectionOptions = url.protocol === 'amqps:' ? { ...base, transport: 'tls' } : base;
+	const conn = rhea.create_container({ id: `rollbead-cfx-sim-${process.pid}` }).connect(options);
 	const sender: Sender = conn.open_sender({ target: { address } });
 	await new Promise<void>((resolve, reject) => {
 		sender.once('sendable', () => resolve());

@@ -8,7 +8,7 @@
  */
 // rhea is CommonJS: under Node's ESM loader only its default export exists.
 import rhea from 'rhea';
-import type { Connection, Delivery, EventContext, Receiver } from 'rhea';
+import type { Connection, ConnectionOptions, Delivery, EventContext, Receiver } from 'rhea';
 import type { Db } from '../db';
 import { bodyBytes, cfxMessageKey, storeCfxMessage } from './store';
 
@@ -195,15 +195,16 @@ export function startCfxReceiver(
 		if (stopped) return;
 		let conn: Connection;
 		try {
-			conn = container.connect({
+			const base = {
 				host: config.host,
 				port: config.port,
 				...(config.username !== null && { username: config.username }),
 				...(config.password !== null && { password: config.password }),
-				...(config.tls && { transport: 'tls' as const }),
 				reconnect: false,
 				idle_time_out: 30_000
-			});
+			};
+			const options: ConnectionOptions = config.tls ? { ...base, transport: 'tls' } : base;
+			conn = container.connect(options);
 		} catch (err) {
 			scheduleReconnect(`cannot connect to ${config.display}: ${(err as Error).message}`);
 			return;
