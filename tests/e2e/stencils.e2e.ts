@@ -31,7 +31,9 @@ test.describe('stencil design check', () => {
 		await create.getByLabel('Technology').selectOption('laser-stainless');
 		await create.getByRole('button', { name: 'Create stencil' }).click();
 		await expect(page.getByRole('heading', { level: 1 })).toContainText(name);
-		await expect(page.getByText('No apertures yet')).toBeVisible();
+		await expect(
+			page.getByRole('region', { name: 'Aperture map' }).getByText('No apertures yet')
+		).toBeVisible();
 
 		// Gerber with a centroid file: 7 apertures, named U7, U1, C3, J2.
 		const panel = page.getByTestId('import-form');
@@ -438,7 +440,9 @@ test.describe('stencil design check', () => {
 		const { id } = await created.json();
 		await signInAs(page, 'engineer');
 		await page.goto(`/stencils/${id}`);
-		await expect(page.getByText('No apertures yet')).toBeVisible();
+		await expect(
+			page.getByRole('region', { name: 'Aperture map' }).getByText('No apertures yet')
+		).toBeVisible();
 
 		const form = page.locator('form[action="?/addAperture"]');
 		await form.getByLabel('Refdes').fill('R1');
@@ -476,7 +480,9 @@ test.describe('stencil design check', () => {
 
 		await table.getByRole('button', { name: 'Remove R1.1' }).click();
 		await expect(page.getByRole('status').filter({ hasText: 'Aperture removed.' })).toBeVisible();
-		await expect(page.getByText('No apertures yet')).toBeVisible();
+		await expect(
+			page.getByRole('region', { name: 'Aperture map' }).getByText('No apertures yet')
+		).toBeVisible();
 		expect(
 			(await (await page.request.get(`/api/stencils/${id}/apertures`)).json()).apertures
 		).toEqual([]);
