@@ -160,10 +160,18 @@ describe('storeCfxMessage', () => {
 		expect(reasons[1]).toMatch(/inflates beyond/);
 		expect(reasons[2]).toBe('envelope 2: X: envelope has no Source (the sender\'s CFX handle)');
 		expect(reasons[3]).toMatch(/Measurements\[0\] \(R1\.1\): Vol and EVol must be numbers$/);
+		const impossible = await storeCfxMessage(
+			db,
+			msg(envelope('units-processed-print.json', (e) => (e.MessageBody.UnitProcessData[0].UnitProcessData.Strokes[0].PrintSpeed = 0)))
+		);
+		expect(impossible.status === 'quarantined' && impossible.reason).toMatch(
+			/^CFX\.Production\.Processing\.UnitsProcessed: unit FW-PNL-000101: squeegeeSpeedMmS must be > 0/
+		);
 		expect(count(`select count(*) from cfx_units`) + count(`select count(*) from spi_boards`)).toBe(0);
-		expect(cfxCounts(db).quarantined).toBe(4);
+		expect(count(`select count(*) from print_runs`)).toBe(0);
+		expect(cfxCounts(db).quarantined).toBe(5);
 		discardQuarantined(db, listQuarantine(db)[0].id, admin);
-		expect(cfxCounts(db).quarantined).toBe(3);
+		expect(cfxCounts(db).quarantined).toBe(4);
 	});
 
 	it('SPI values the ingest refuses quarantine the message with the ingest’s words', async () => {

@@ -16,7 +16,7 @@ import {
 	type InspectedUnit
 } from '$lib/cfx';
 import { formatIngestIssue } from '$lib/ingest';
-import { checkRunAgainstRecipe, type Deviation } from '$lib/printlog';
+import { checkRunAgainstRecipe, validateRunParameters, type Deviation } from '$lib/printlog';
 import { recordAudit } from '../audit';
 import type { Db } from '../db';
 import { publishFloorEvent, type FloorEvent } from '../floor/events';
@@ -606,6 +606,18 @@ export async function storeCfxMessage(
 		}
 		if (mapped.status === 'ignored') ignored.push(mapped.reason);
 		else records.push({ rec: mapped.record, ep });
+	}
+	// Physically impossible print parameters (a speed of 0, 400 kg) are a sender's fault, not a
+	// deviation: the message is held, naming the unit and the value.
+	for (const { rec } of records) {
+		if (rec.kind !== 'units-processed') continue;
+		for (const u of rec.units) {
+			const errors = validateRunParameters({ ...u.parameters });
+			if (errors.length) {
+				const what = errors.map((e) => `${e.field.replace(/^parameters\./, '')} ${e.message}`).join('; ');
+				return quarantine(db, msg, rec.handle, rec.messageName, `${rec.messageName}: unit ${u.unitIdentifier}: ${what}`, retryOf);
+			}
+		}
 	}
 	const first = decoded.envelopes[0];
 	const names = [...new Set(decoded.envelopes.map((e) => e.messageName))].join(',').slice(0, 500);
