@@ -1037,7 +1037,7 @@ export function createSpiRowParser(options: SpiRowParserOptions): SpiRowParser {
 		const offset = lineOffset;
 		lineOffset += to - from + (final ? 0 : 1);
 		let start = from;
-		let end = to > from && bytes[to - 1] === 13 ? to - 1 : to;
+		const end = to > from && bytes[to - 1] === 13 ? to - 1 : to;
 		if (firstLine) {
 			firstLine = false;
 			firstText = false;

@@ -54,7 +54,8 @@ export function rectangleFromCorners(
 	if (rotationDeg <= -90) rotationDeg += 180;
 	// The plotter rounds corner coordinates to 1e-8; snap the angle to a micro-degree.
 	rotationDeg = round(rotationDeg, 1e-6);
-	if (Object.is(rotationDeg, -0) || rotationDeg === -0) rotationDeg = 0;
+	// -0 would print as "-0" and compare unequal under Object.is.
+	if (Object.is(rotationDeg, -0)) rotationDeg = 0;
 	return {
 		cx: (p0[0] + p1[0] + p2[0] + p3[0]) / 4,
 		cy: (p0[1] + p1[1] + p2[1] + p3[1]) / 4,
