@@ -30,6 +30,8 @@ const MAX_ADDRESSES = 50;
 const CREDIT_WINDOW = 20;
 const BACKOFF_START_MS = 500;
 const BACKOFF_MAX_MS = 30_000;
+/** A connection not open after this long is given up and tried again (a broker mid-start). */
+const OPEN_TIMEOUT_MS = 10_000;
 
 /**
  * Read CFX_URL / CFX_ADDRESSES. Null when CFX_URL is unset (nothing starts).
@@ -210,7 +212,19 @@ export function startCfxReceiver(
 			return;
 		}
 		connection = conn;
+		const openTimer = setTimeout(() => {
+			if (connection !== conn || connected) return;
+			connection = null;
+			try {
+				conn.close();
+			} catch {
+				/* not open */
+			}
+			scheduleReconnect(`connection to ${config.display} not open after ${OPEN_TIMEOUT_MS} ms`);
+		}, OPEN_TIMEOUT_MS);
+		openTimer.unref?.();
 		conn.on('connection_open', () => {
+			clearTimeout(openTimer);
 			backoffMs = BACKOFF_START_MS;
 			setConnected(true);
 			log(`connected to ${config.display}; listening on ${config.addresses.join(', ')}`);
@@ -227,6 +241,7 @@ export function startCfxReceiver(
 			}
 		});
 		const lost = (what: string) => (ctx: EventContext) => {
+			clearTimeout(openTimer);
 			if (connection !== conn) return;
 			connection = null;
 			const error = ctx.connection?.error ?? (ctx as { error?: unknown }).error;
