@@ -59,7 +59,7 @@ if (!reachable) {
 const ref = (name: string) => JSON.parse(readFileSync(`reference/cfx/${name}`, 'utf8'));
 
 /** A publisher on its own connection, sending data sections (as the CFX SDK does). */
-async function openPublisher(): Promise<{ send: (m: { id: string; body: Buffer; gzip?: boolean }) => Promise<void>; close: () => void }> {
+async function openPublisher(address = QUEUE): Promise<{ send: (m: { id: string; body: Buffer; gzip?: boolean }) => Promise<void>; close: () => void }> {
 	const url = new URL(BROKER_URL);
 	const container = rhea.create_container({ id: 'rollbead-it-publisher' });
 	const conn: Connection = container.connect({
@@ -69,7 +69,7 @@ async function openPublisher(): Promise<{ send: (m: { id: string; body: Buffer; 
 		password: decodeURIComponent(url.password),
 		reconnect: false
 	});
-	const sender: Sender = conn.open_sender({ target: { address: QUEUE } });
+	const sender: Sender = conn.open_sender({ target: { address } });
 	await new Promise<void>((resolve, reject) => {
 		sender.once('sendable', () => resolve());
 		conn.once('connection_error', (ctx) => reject(ctx.connection.error));
@@ -235,6 +235,28 @@ describe.skipIf(!reachable)('CFX endpoint with a real broker', () => {
 		await until('stored after the reconnect', () => count(`select count(*) from cfx_messages`) === before + 1);
 		await receiver.idle();
 		expect(receiver.status()).toMatchObject({ connected: true, stored: 1 });
+		await receiver.stop();
+	});
+
+	it.skipIf(!controllable)('CFX_DURABLE=1: messages queued while Rollbead is down survive a broker restart', async () => {
+		const name = `rollbead-it-durable-${process.pid}-${Date.now()}`;
+		const config = cfxConfigFromEnv({ CFX_URL: BROKER_URL, CFX_ADDRESSES: `/queue/${name}`, CFX_DURABLE: '1' })!;
+		let receiver = startCfxReceiver(db, config, () => {});
+		await receiver.whenConnected();
+		await receiver.stop(); // Rollbead down; the durable queue stays
+		const machines = await openPublisher(`/amq/queue/${name}`);
+		await machines.send({ id: 'durable-1', body: Buffer.from(JSON.stringify(board(700).printer)) });
+		await machines.send({ id: 'durable-2', body: Buffer.from(JSON.stringify(board(701).printer)), gzip: true });
+		machines.close();
+		publisher.close();
+		execFileSync('rabbitmqctl', ['stop_app'], { stdio: 'ignore', timeout: 60_000 });
+		execFileSync('rabbitmqctl', ['start_app'], { stdio: 'ignore', timeout: 60_000 });
+		publisher = await openPublisher();
+		receiver = startCfxReceiver(db, config, () => {});
+		await receiver.whenConnected();
+		await until('both stored', () => count(`select count(*) from cfx_messages where message_key in ('id:durable-1', 'id:durable-2') and outcome = 'stored'`) === 2);
+		await receiver.idle();
+		expect(receiver.status()).toMatchObject({ stored: 2, duplicates: 0 });
 		await receiver.stop();
 	});
 

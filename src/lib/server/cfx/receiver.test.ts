@@ -27,6 +27,7 @@ describe('CFX_URL and CFX_ADDRESSES', () => {
 			password: 'p@ss',
 			tls: false,
 			addresses: ['/queue/a', '/queue/b'],
+			durable: false,
 			display: 'amqp://rollbead@broker.factory.example:5673'
 		});
 		expect(cfxConfigFromEnv({ CFX_URL: 'amqps://h' })).toMatchObject({ port: 5671, tls: true, username: null, addresses: [DEFAULT_CFX_ADDRESS] });
@@ -36,6 +37,8 @@ describe('CFX_URL and CFX_ADDRESSES', () => {
 		expect(() => cfxConfigFromEnv({ CFX_URL: 'broker:5672' })).toThrow('CFX_URL must start with amqp:// or amqps://');
 		expect(() => cfxConfigFromEnv({ CFX_URL: 'http://h' })).toThrow('CFX_URL must start with amqp:// or amqps:// (got http://)');
 		expect(() => cfxConfigFromEnv({ CFX_URL: 'not a url' })).toThrow('CFX_URL is not a URL');
+		expect(cfxConfigFromEnv({ CFX_URL: 'amqp://h', CFX_DURABLE: '1' })?.durable).toBe(true);
+		expect(() => cfxConfigFromEnv({ CFX_URL: 'amqp://h', CFX_DURABLE: 'maybe' })).toThrow('CFX_DURABLE must be 1 or 0 (got "maybe")');
 		expect(() => cfxConfigFromEnv({ CFX_URL: 'amqp://h', CFX_ADDRESSES: '/queue/a b' })).toThrow('CFX_ADDRESSES: "/queue/a b" is not an address');
 	});
 });

@@ -19,6 +19,12 @@ export interface CfxConfig {
 	password: string | null;
 	tls: boolean;
 	addresses: string[];
+	/**
+	 * CFX_DURABLE=1: attach `/queue/NAME` addresses with a durable source (RabbitMQ then declares
+	 * a durable queue, whose durable messages survive a broker restart; machines publish to
+	 * `/amq/queue/NAME`, which does not declare).
+	 */
+	durable: boolean;
 	/** The URL without its password, for logs and the status. */
 	display: string;
 }
@@ -75,8 +81,16 @@ export function cfxConfigFromEnv(env: Record<string, string | undefined> = proce
 		password: url.password ? decode(url.password) : null,
 		tls,
 		addresses: addresses.length ? [...new Set(addresses)] : [DEFAULT_CFX_ADDRESS],
+		durable: durableFrom(env.CFX_DURABLE),
 		display: `${url.protocol}//${url.username ? `${decode(url.username)}@` : ''}${url.host}`
 	};
+}
+
+function durableFrom(value: string | undefined): boolean {
+	const v = (value ?? '').trim().toLowerCase();
+	if (v === '' || v === '0' || v === 'false' || v === 'no') return false;
+	if (v === '1' || v === 'true' || v === 'yes') return true;
+	throw new Error(`CFX_DURABLE must be 1 or 0 (got "${value!.slice(0, 20)}")`);
 }
 
 export interface CfxStatus {
@@ -230,7 +244,10 @@ export function startCfxReceiver(
 			log(`connected to ${config.display}; listening on ${config.addresses.join(', ')}`);
 			for (const address of config.addresses) {
 				const receiver: Receiver = conn.open_receiver({
-					source: { address },
+					source:
+						config.durable && address.startsWith('/queue/')
+							? { address, durable: 2, expiry_policy: 'never' }
+							: { address },
 					autoaccept: false,
 					credit_window: CREDIT_WINDOW
 				});
