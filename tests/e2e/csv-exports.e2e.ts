@@ -99,6 +99,52 @@ test.describe('CSV exports over HTTP', () => {
 		expect(back.map((a) => a.xUm).sort()).toEqual(apertures.map((a) => a.xUm ?? 0).sort());
 	});
 
+	test('the print-run CSV writes a hostile board serial as text', async ({ request }) => {
+		const n = Date.now() % 100000;
+		const line = `CSV-L${n}`;
+		const product = `CSV-P${n}`;
+		const engineer = bearer(tokenFor('engineer'));
+		const technician = bearer(tokenFor('technician'));
+		await request.post('/api/lines', { headers: engineer, data: { code: line, name: 'csv line' } });
+		await request.post('/api/products', { headers: engineer, data: { code: product, name: 'csv board' } });
+		const parameters = { squeegeeAngleDeg: 60, squeegeeSpeedMmS: 40, squeegeePressureKg: 7.5, separationSpeedMmS: 1, printStroke: 'alternating' };
+		const windows = {
+			squeegeeAngleDeg: { min: 45, target: 60, max: 60 },
+			squeegeeSpeedMmS: { min: 20, target: 40, max: 100 },
+			squeegeePressureKg: { min: 4.5, target: 7.5, max: 10.5 },
+			separationSpeedMmS: { min: 0.5, target: 1, max: 3 },
+			printStroke: 'alternating'
+		};
+		expect((await request.post('/api/recipes', { headers: engineer, data: { line, product, parameters: windows } })).status()).toBe(201);
+		const serials = ['=HYPERLINK("http://evil.example","open")', '+SUM(1,2)', '@cmd', '-2+3', 'FW-P1-000777'];
+		for (const [i, boardSerial] of serials.entries()) {
+			const started = await request.post('/api/print-runs', {
+				headers: technician,
+				data: {
+					line,
+					product,
+					stencil: 'ST-PB100',
+					pasteLot: 'PL-2026-0412',
+					parameters,
+					boardSerial,
+					startedAt: `2026-01-07T0${i}:00:00Z`
+				}
+			});
+			expect(started.status(), await started.text()).toBe(201);
+			// One open run per line: end it before the next.
+			const ended = await request.post(`/api/print-runs/${(await started.json()).id}/end`, {
+				headers: technician,
+				data: { endedAt: `2026-01-07T0${i}:30:00Z`, boardsPrinted: 10 }
+			});
+			expect(ended.status()).toBe(200);
+		}
+		const csv = await request.get(`/api/print-runs/export.csv?line=${line}`, { headers: bearer(tokenFor('viewer')) });
+		const rows = readCsv(await csv.text());
+		const column = rows[0].indexOf('boardSerial');
+		expect(rows.slice(1).map((r) => r[column]).sort()).toEqual(serials.map(escaped).sort());
+		expect(escaped('=HYPERLINK("http://evil.example","open")')).toBe(`'=HYPERLINK("http://evil.example","open")`);
+	});
+
 	test("the chart's CSV download in the browser is written by the same writer", async ({ page }) => {
 		await signInAs(page, 'quality');
 		await page.goto('/charts');
