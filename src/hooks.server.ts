@@ -10,6 +10,7 @@ import { userForSession } from '$lib/server/sessions';
 import { boundRequestBody } from '$lib/server/request-body';
 import { startServices } from '$lib/server/startup';
 import { securityHeaders } from '$lib/server/security-headers';
+import { displayIdentity } from '$lib/server/floor/display-token';
 
 export const init: ServerInit = async () => {
 	await startServices();
@@ -55,6 +56,15 @@ const identify: Handle = async ({ event, resolve }) => {
 	event.locals.actor = null;
 	const path = event.url.pathname;
 	const authorization = event.request.headers.get('authorization');
+	// Wall screens: a viewer token in the query, on the read-only display paths only.
+	const display = authorization ? null : displayIdentity(getDb(), path, event.url.searchParams);
+	if (display) {
+		if ('error' in display) {
+			return isApi(path) ? json({ error: display.error }, { status: 401 }) : new Response(display.error, { status: 401 });
+		}
+		event.locals.actor = display.actor;
+		return resolve(event);
+	}
 	if (authorization && isApi(path)) {
 		const match = /^Bearer\s+(\S+)\s*$/i.exec(authorization);
 		if (!match) {
