@@ -16,6 +16,8 @@ import { linesOfEvent } from './lines-of';
  * the state) is computed from the facts at every request, so the clock is always current.
  */
 export const FACTS_MAX_AGE_MS = 30_000;
+/** Aged lines re-read per request at most. */
+const AGED_PER_REQUEST = 10;
 
 type Cache = { facts: Map<number, { facts: LineFacts; atMs: number }> };
 const caches = new WeakMap<Database.Database, Cache>();
@@ -47,10 +49,17 @@ export function lineTiles(db: Db, nowMs = Date.now(), lineIds?: readonly number[
 	// Which lines are active: one small indexed read, always current (lines are added or retired).
 	const active = db.$client.prepare(`select id from lines where active = 1 order by code`).pluck().all() as number[];
 	const wanted = lineIds ? active.filter((id) => lineIds.includes(id)) : active;
-	const missing = wanted.filter((id) => {
-		const entry = cache.facts.get(id);
-		return !entry || nowMs - entry.atMs > FACTS_MAX_AGE_MS || nowMs < entry.atMs;
-	});
+	const missing = wanted.filter((id) => !cache.facts.has(id));
+	// Aged facts are refreshed a few at a time, oldest first, so lines that went quiet together do
+	// not all come due on one request (the others keep their facts until a later one).
+	const aged = wanted
+		.filter((id) => {
+			const entry = cache.facts.get(id);
+			return entry && (nowMs - entry.atMs > FACTS_MAX_AGE_MS || nowMs < entry.atMs);
+		})
+		.sort((a, b) => cache.facts.get(a)!.atMs - cache.facts.get(b)!.atMs)
+		.slice(0, AGED_PER_REQUEST);
+	missing.push(...aged);
 	if (missing.length) {
 		for (const facts of loadLineFacts(db, nowMs, missing)) {
 			cache.facts.set(facts.line.id, { facts, atMs: nowMs });
