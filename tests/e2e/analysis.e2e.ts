@@ -218,4 +218,35 @@ test.describe('analysis pages', () => {
 		expect(refused.status()).toBe(403);
 		await viewer.close();
 	});
+
+	test('print-ready run report and weekly line report', async ({ page, request }) => {
+		const viewer = bearer(tokenFor('viewer'));
+		const trace = await (await request.get('/api/trace?serial=FW-SH220-0000001', { headers: viewer })).json();
+		const runId = trace.boards[0].run.id;
+		await signInAs(page, 'viewer');
+		await page.goto(`/analysis/reports/runs/${runId}`);
+		await expect(page.getByRole('heading', { level: 1 })).toHaveText(`Print run ${runId}: SH-220 on SMT-2`);
+		await expect(page.getByTestId('report-stencil')).toContainText('ST-SH220 rev A');
+		await expect(page.getByTestId('report-parameters')).toContainText('squeegeeSpeedMmS');
+		await expect(page.getByTestId('report-parameters')).toContainText('25–80 (target 50)');
+		await expect(page.getByTestId('report-outcome')).toContainText('12');
+		await expect(page.getByTestId('report-failing').locator('tbody tr').first()).toBeVisible();
+		await expect(page.getByRole('button', { name: 'Print or save as PDF' })).toBeVisible();
+		expect((await page.goto('/analysis/reports/runs/999999'))?.status()).toBe(404);
+
+		// The analysis page's form leads to the weekly report.
+		await page.goto('/analysis');
+		await page.locator('#rp-line').selectOption('SMT-2');
+		await page.getByRole('button', { name: 'Weekly line report' }).click();
+		await expect(page).toHaveURL(/\/analysis\/reports\/line-week\?line=SMT-2&week=\d{4}-W\d{2}$/);
+		const week = new Date(trace.boards[0].run.startedAt);
+		// The ISO week of the first SH-220 run, computed here independently of the server.
+		const thursday = new Date(Date.UTC(week.getUTCFullYear(), week.getUTCMonth(), week.getUTCDate() + 3 - ((week.getUTCDay() + 6) % 7)));
+		const n = Math.ceil(((thursday.getTime() - Date.UTC(thursday.getUTCFullYear(), 0, 1)) / 86_400_000 + 1) / 7);
+		const isoWeek = `${thursday.getUTCFullYear()}-W${String(n).padStart(2, '0')}`;
+		await page.goto(`/analysis/reports/line-week?line=SMT-2&week=${isoWeek}`);
+		await expect(page.getByRole('heading', { level: 1 })).toHaveText(`SMT-2, week ${isoWeek}`);
+		await expect(page.getByTestId('week-runs').locator('tbody tr', { hasText: `run ${runId}` })).toHaveCount(1);
+		expect((await page.goto('/analysis/reports/line-week?line=SMT-2&week=2026-W60'))?.status()).toBe(400);
+	});
 });

@@ -50,6 +50,40 @@ export function padClassOf(refdes: string): string {
 }
 
 /**
+ * Inspections, fails and warnings per pad id over the given boards (their pad counts bound the
+ * work), in slices with the event loop free between them.
+ */
+export async function padFailures(
+	db: Db,
+	boards: readonly { id: number; pad_count: number }[]
+): Promise<Map<number, { n: number; fails: number; warns: number }>> {
+	const aggregate = db.$client.prepare(
+		`select m.pad_id as padId, count(*) as n, sum(m.result = 2) as fails, sum(m.result = 1) as warns
+		 from json_each(?) j cross join spi_pad_measurements m on m.board_id = j.value
+		 group by m.pad_id`
+	);
+	const perPad = new Map<number, { n: number; fails: number; warns: number }>();
+	for (let i = 0; i < boards.length; ) {
+		const slice: number[] = [];
+		let slicePads = 0;
+		while (i < boards.length && (slice.length === 0 || slicePads + boards[i].pad_count <= MAP_PADS_PER_SLICE)) {
+			slicePads += boards[i].pad_count;
+			slice.push(boards[i++].id);
+		}
+		for (const r of aggregate.all(JSON.stringify(slice)) as { padId: number; n: number; fails: number; warns: number }[]) {
+			const cur = perPad.get(r.padId);
+			if (cur) {
+				cur.n += r.n;
+				cur.fails += r.fails;
+				cur.warns += r.warns;
+			} else perPad.set(r.padId, { n: r.n, fails: r.fails, warns: r.warns });
+		}
+		if (i < boards.length) await new Promise((resolve) => setImmediate(resolve));
+	}
+	return perPad;
+}
+
+/**
  * Where SPI failures gather across many boards of one product: per pad, inspections, fails and
  * warnings, placed at its linked aperture's position; and a Pareto by pad class. The pad scan is
  * bounded (newest boards up to MAX_MAP_PADS) and runs in slices with the event loop free between.
@@ -80,29 +114,7 @@ export async function failureMap(db: Db, f: FailureMapFilters): Promise<FailureM
 		pads += b.pad_count;
 		used.push(b.id);
 	}
-	const aggregate = c.prepare(
-		`select m.pad_id as padId, count(*) as n, sum(m.result = 2) as fails, sum(m.result = 1) as warns
-		 from json_each(?) j cross join spi_pad_measurements m on m.board_id = j.value
-		 group by m.pad_id`
-	);
-	const perPad = new Map<number, { n: number; fails: number; warns: number }>();
-	for (let i = 0; i < used.length; ) {
-		const slice: number[] = [];
-		let slicePads = 0;
-		while (i < used.length && (slice.length === 0 || slicePads + boards[i].pad_count <= MAP_PADS_PER_SLICE)) {
-			slicePads += boards[i].pad_count;
-			slice.push(used[i++]);
-		}
-		for (const r of aggregate.all(JSON.stringify(slice)) as { padId: number; n: number; fails: number; warns: number }[]) {
-			const cur = perPad.get(r.padId);
-			if (cur) {
-				cur.n += r.n;
-				cur.fails += r.fails;
-				cur.warns += r.warns;
-			} else perPad.set(r.padId, { n: r.n, fails: r.fails, warns: r.warns });
-		}
-		if (i < used.length) await new Promise((resolve) => setImmediate(resolve));
-	}
+	const perPad = await padFailures(db, boards.slice(0, used.length));
 	const padRows = c
 		.prepare(
 			`select p.id, p.refdes, p.pad, p.panel_index, a.x_um, a.y_um from spi_pads p

@@ -46,9 +46,19 @@ export {
 } from './first-pass-yield';
 export {
 	failureMap,
+	padFailures,
 	padClassOf,
 	readFailureMapFilters,
 	MAX_MAP_PADS,
 	type FailureMapAnswer,
 	type FailureMapFilters
 } from './failure-map';
+export {
+	isoWeekStartMs,
+	lineWeekReport,
+	runReport,
+	MAX_REPORT_BOARDS,
+	type LineWeekReport,
+	type ReportSignal,
+	type RunReport
+} from './reports';

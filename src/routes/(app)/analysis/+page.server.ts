@@ -42,7 +42,8 @@ export const load: PageServerLoad = async ({ locals }) => {
 		siteMinAreaRatio: Object.fromEntries(
 			Object.entries(siteThresholds(db)).map(([t, v]) => [t, v.minAreaRatio])
 		) as Record<StencilTechnology, number>,
-		canAdopt: hasRole(actor, ENGINEERING)
+		canAdopt: hasRole(actor, ENGINEERING),
+		thisWeek: c.prepare(`select strftime('%G-W%V', 'now')`).pluck().get() as string
 	};
 };
 
