@@ -22,17 +22,13 @@ let refreshTimer: ReturnType<typeof setTimeout> | null = null;
 function assess(db: Db, id: number): Entry['fact'] | null {
 	try {
 		const d = chartDetail(db, id);
-		// The one capability assessment (verdict) when the chart service gives it; before that
-		// the capability reading's level. Read loosely so either shape works.
-		const loose = d as unknown as {
-			capability: { assessment?: { verdict?: string } | null; result: { reading?: { level?: string } } | null };
-		};
 		const cap = d.capability.result;
 		return {
 			id,
 			name: d.characteristic.name,
 			measure: d.characteristic.measure,
-			level: loose.capability.assessment?.verdict ?? loose.capability.result?.reading?.level ?? 'not-assessed',
+			// The one capability assessment's verdict, as the chart page shows it.
+			level: d.capability.assessment.verdict,
 			cpk: cap?.cpk ?? null,
 			ppk: cap?.ppk ?? null,
 			target: d.characteristic.target

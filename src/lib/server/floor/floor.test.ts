@@ -95,6 +95,30 @@ describe('line overview from the database', () => {
 	});
 });
 
+describe('key characteristics on the tile', () => {
+	it('each active chart of the run\'s product and line with the capability verdict and its target', async () => {
+		const { createCharacteristic } = await import('../spc/characteristics');
+		const chart = createCharacteristic(
+			t.db,
+			{ name: 'Paste volume · P1', productId: 1, lineIds: [], measure: 'volume-pct', chartKind: 'i-mr', lsl: 60, target: 105, usl: 140 },
+			fx.actors.engineer
+		);
+		startRun(t.db, runPayload() as never, fx.actors.technician);
+		const now = Date.now();
+		const times = Array.from({ length: 12 }, (_, i) => now - (12 - i) * 30_000);
+		await ingestSpiFile(t.db, { source: 'api', fileName: 'c.csv', body: once(spiFile('CH', times)), createdBy: 'user:1' });
+		const tile = tileOf('L1');
+		expect(tile.characteristics).toHaveLength(1);
+		const c = tile.characteristics[0];
+		expect(c).toMatchObject({ id: chart.id, name: 'Paste volume · P1', measure: 'volume-pct', openSignals: 0 });
+		expect(['not-stable', 'capable', 'marginal', 'not-capable', 'not-assessed']).toContain(c.level);
+		// The chart's own target replaces the nominal 100 % for the volume mean.
+		expect(tile.spi.volumePct.target).toBe(105);
+		// L2 runs nothing: no characteristics shown.
+		expect(tileOf('L2').characteristics).toEqual([]);
+	});
+});
+
 describe('the facts cache', () => {
 	it('re-reads a line after an event at once, after a change without an event within 30 s', () => {
 		const now = Date.now();
