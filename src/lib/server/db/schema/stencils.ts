@@ -73,7 +73,9 @@ export const apertures = sqliteTable(
 		verticesUm: text('vertices_um', { mode: 'json' }).$type<[number, number][]>(),
 		xUm: real('x_um').notNull().default(0),
 		yUm: real('y_um').notNull().default(0),
-		rotationDeg: real('rotation_deg').notNull().default(0)
+		rotationDeg: real('rotation_deg').notNull().default(0),
+		/** 1 when the opening was painted with Gerber draws and united into a polygon. */
+		drawn: integer('drawn', { mode: 'boolean' }).notNull().default(false)
 	},
 	(t) => [index('apertures_stencil_refdes_idx').on(t.stencilId, t.refdes, t.pad)]
 );

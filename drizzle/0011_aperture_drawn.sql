@@ -1,0 +1,1 @@
+ALTER TABLE `apertures` ADD `drawn` integer DEFAULT false NOT NULL;
