@@ -10,78 +10,24 @@
  * BENCH_INGEST_ROWS=N changes the row count (multiple of 5,000); BENCH_INGEST_GB=1 runs the
  * ~1 GB variant (about 11.6 M rows) for the memory check instead. BENCH_INGEST_REPEAT=N times
  * Rollbead and sqlite3 in turn N times (default 3; 1 for the 1 GB file) and compares medians.
+ * `npm run bench:ingest -- --http` (or `npm run bench:ingest:http`) sends the file to the built
+ * server over HTTP instead (scripts/bench-ingest-http.ts).
  */
-import { execFileSync, spawnSync } from 'node:child_process';
-import { createReadStream, createWriteStream, mkdtempSync, rmSync, statSync } from 'node:fs';
+import { createReadStream, mkdtempSync, rmSync, statSync } from 'node:fs';
 import { cpus, tmpdir, totalmem } from 'node:os';
 import { join } from 'node:path';
-import { once } from 'node:events';
 import { openDatabase } from '../src/lib/server/db';
 import { ingestSpiFile } from '../src/lib/server/ingest/ingest-service';
 import { warmParserThread } from '../src/lib/server/ingest/parse-driver';
-
-const PADS_PER_BOARD = 5000;
-const HEADER =
-	'board_serial,inspected_at,line,product,panel_index,refdes,pad,volume_pct,area_pct,height_um,offset_x_um,offset_y_um,result\n';
-
-function rowsWanted(): number {
-	if (process.env.BENCH_INGEST_GB === '1') return 11_600_000;
-	const n = Number(process.env.BENCH_INGEST_ROWS ?? 1_000_000);
-	return Math.max(PADS_PER_BOARD, Math.round(n / PADS_PER_BOARD) * PADS_PER_BOARD);
-}
-
-/** Small deterministic PRNG (mulberry32), so every run writes the same file. */
-function prng(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
-}
-
-async function writeFile(path: string, rows: number): Promise<number> {
-	const out = createWriteStream(path);
-	const rnd = prng(42);
-	const start = Date.parse('2026-03-02T06:00:00Z');
-	out.write(HEADER);
-	const boards = rows / PADS_PER_BOARD;
-	for (let b = 0; b < boards; b++) {
-		const serial = `FW-PB100-${String(b + 1).padStart(7, '0')}`;
-		const at = new Date(start + b * 25_000).toISOString();
-		const prefix = `${serial},${at},SMT-1,PB-100,0,`;
-		let chunk = '';
-		for (let p = 0; p < PADS_PER_BOARD; p++) {
-			const refdes = `C${(p >> 1) + 1}`;
-			const pad = (p & 1) + 1;
-			const vol = (95 + rnd() * 15).toFixed(2);
-			const area = (97 + rnd() * 6).toFixed(2);
-			const height = (118 + rnd() * 8).toFixed(2);
-			const ox = (rnd() * 40 - 20).toFixed(2);
-			const oy = (rnd() * 40 - 20).toFixed(2);
-			const result = rnd() < 0.002 ? 'fail' : rnd() < 0.01 ? 'warn' : 'pass';
-			chunk += `${prefix}${refdes},${pad},${vol},${area},${height},${ox},${oy},${result}\n`;
-		}
-		if (!out.write(chunk)) await once(out, 'drain');
-	}
-	out.end();
-	await once(out, 'finish');
-	return statSync(path).size;
-}
-
-function hasSqlite3(): boolean {
-	return spawnSync('sqlite3', ['-version']).status === 0;
-}
-
-function sqliteImportSeconds(csv: string, dir: string): number {
-	const db = join(dir, 'plain.db');
-	rmSync(db, { force: true }); // a fresh table each time (an existing one would take the header as data)
-	const t0 = performance.now();
-	execFileSync('sqlite3', [db, '.mode csv', `.import ${csv} t`]);
-	return (performance.now() - t0) / 1000;
-}
+import {
+	NO_SQLITE3,
+	hasSqlite3,
+	listSeconds,
+	median,
+	rowsWanted,
+	sqliteImportSeconds,
+	writeBenchFile
+} from './bench-ingest-file';
 
 async function main() {
 	const rows = rowsWanted();
@@ -89,7 +35,7 @@ async function main() {
 	try {
 		const csv = join(dir, 'spi.csv');
 		process.stdout.write(`generating ${rows.toLocaleString('en')} rows … `);
-		const bytes = await writeFile(csv, rows);
+		const bytes = await writeBenchFile(csv, rows);
 		console.log(`${(bytes / 1e6).toFixed(1)} MB`);
 
 		const dbFile = join(dir, 'bench.db');
@@ -179,8 +125,8 @@ async function main() {
 				again.$client.close();
 				theirs.push(sqliteImportSeconds(csv, dir));
 			}
-			const mid = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
-			const list = (xs: number[]) => xs.map((x) => x.toFixed(2)).join(', ');
+			const mid = median;
+			const list = listSeconds;
 			console.log(
 				`sqlite3 .import of the same file (untyped table): ${list(theirs)} s, median ${mid(theirs).toFixed(2)} s = ${Math.round(rows / mid(theirs)).toLocaleString('en')} rows/s`
 			);
@@ -188,11 +134,19 @@ async function main() {
 				`Rollbead, timed in turn with it: ${list(ours)} s, median ${mid(ours).toFixed(2)} s = ${Math.round(rows / mid(ours)).toLocaleString('en')} rows/s; ratio of medians Rollbead/sqlite3 = ${(mid(ours) / mid(theirs)).toFixed(2)}`
 			);
 		} else {
-			console.log('sqlite3 command-line tool not found: no .import comparison');
+			console.log(NO_SQLITE3);
 		}
 	} finally {
 		rmSync(dir, { recursive: true, force: true });
 	}
 }
 
-void main();
+// `-- --http`: the same file through a running server and a real HTTP client (bench-ingest-http.ts).
+if (process.argv.includes('--http'))
+	import('./bench-ingest-http')
+		.then((m) => m.runHttpBench())
+		.catch((err) => {
+			console.error(err);
+			process.exitCode = 1;
+		});
+else void main();
