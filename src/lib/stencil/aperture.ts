@@ -56,6 +56,11 @@ export interface ApertureInput {
 	xUm: number;
 	yUm: number;
 	rotationDeg: number;
+	/**
+	 * True when the opening was painted with draws (D01 strokes) on a Gerber layer and united
+	 * into a polygon, rather than flashed or filled as a region; absent otherwise.
+	 */
+	drawn?: boolean;
 }
 
 /**

@@ -7,6 +7,7 @@ import gerberPlotter from 'gerber-plotter';
 import { gerberProblem, type GerberProblem } from './gerber-message';
 import { standardApertureOutline } from './gerber-standard-outline';
 import { DEFAULT_STENCIL_LIMITS, formatCount, type StencilLimits } from './limits';
+import type { GerberDraw } from './gerber-draws';
 import type {
 	GerberCommand,
 	GerberOutlineResult,
@@ -57,6 +58,8 @@ export interface GerberImage {
 	shapes: Map<string, GerberPadPrimitive[]>;
 	draws: number;
 	firstDrawLine: number;
+	/** The draws (D01 outside regions) with their pens, for `importDraws`. */
+	strokes: GerberDraw[];
 	errors: GerberProblem[];
 	warnings: GerberProblem[];
 	/** Openings the flashes and regions make, step-and-repeat copies included (before skips). */
@@ -130,6 +133,11 @@ export function readGerberImage(
 	let doneLine = 0;
 	let draws = 0;
 	let firstDrawLine = 0;
+	const strokes: GerberDraw[] = [];
+	// The current point and interpolation state, so each draw keeps its own line.
+	let point: GerberPoint = [0, 0];
+	let mode: 'i' | 'cw' | 'ccw' = 'i';
+	let quadrant: 'single' | 'multi' = 'multi';
 	const shapes = new Map<string, GerberPadPrimitive[]>();
 	const flashes: GerberFlash[] = [];
 	const regions: GerberRegion[] = [];
@@ -141,6 +149,17 @@ export function readGerberImage(
 	const budget = (at: number, what: string, message: string) => {
 		overBudget = true;
 		errors.push({ ...gerberProblem(at, what, message), budget: true });
+	};
+	// Only round and (deprecated) rectangular standard apertures can draw (specification,
+	// "Apertures"); others draw nothing here.
+	const penOf = (tool: string | null): GerberDraw['pen'] => {
+		const std = tool === null ? null : tools.get(tool)?.standard;
+		if (!std || !('outline' in std)) return null;
+		const o = std.outline;
+		if (o.kind === 'circle') return { kind: 'circle', diameter: o.diameter };
+		if (o.kind === 'rectangle' && o.cornerRadius === 0 && o.rotationDeg === 0)
+			return { kind: 'rect', x: o.length, y: o.width };
+		return null;
 	};
 	const requireUnits = (what: string) => {
 		if (units || unitsReported) return;
@@ -161,6 +180,8 @@ export function readGerberImage(
 			} else if ((cmd.prop === 'nota' || cmd.prop === 'backupNota') && v === 'I') {
 				fail(line, 'notation', 'incremental coordinates (deprecated) are not supported');
 			} else if (cmd.prop === 'epsilon') formatSeen = true;
+			else if (cmd.prop === 'mode') mode = v as 'i' | 'cw' | 'ccw';
+			else if (cmd.prop === 'arc') quadrant = v === 's' ? 'single' : 'multi';
 			else if (cmd.prop === 'region') {
 				if (v === true) {
 					if (inRegion) fail(line, 'G36', 'region started inside another region');
@@ -258,10 +279,27 @@ export function readGerberImage(
 					fail(line, 'D03', 'flash with no aperture selected');
 				}
 			}
+			const next: GerberPoint = [cmd.coord.x ?? point[0], cmd.coord.y ?? point[1]];
 			if (op === 'int' && !inRegion) {
 				draws++;
 				if (firstDrawLine === 0) firstDrawLine = line;
+				if (draws * copies > limits.maxDrawSegmentsPerLayer) {
+					budget(
+						line,
+						'D01',
+						`the layer has more than ${formatCount(limits.maxDrawSegmentsPerLayer)} draws ` +
+							`(step-and-repeat copies included); the limit is ` +
+							`${formatCount(limits.maxDrawSegmentsPerLayer)} stroke segments per layer`
+					);
+					break;
+				}
+				const arc =
+					mode === 'i'
+						? null
+						: { i: cmd.coord.i ?? 0, j: cmd.coord.j ?? 0, dir: mode, quadrant };
+				strokes.push({ line, seq, clear, offsets, start: point, end: next, pen: penOf(currentTool), arc });
 			}
+			point = next;
 			lastOp = op;
 		} else if (cmd.type === 'done') {
 			doneLine = line;
@@ -286,7 +324,18 @@ export function readGerberImage(
 		if (doneLine) break;
 	}
 
-	const image = { units, flashes, regions, tools, shapes, draws, firstDrawLine, errors, warnings };
+	const image = {
+		units,
+		flashes,
+		regions,
+		tools,
+		shapes,
+		draws,
+		firstDrawLine,
+		strokes,
+		errors,
+		warnings
+	};
 	// Over a budget the rest of the file was not read: the end checks would only add noise.
 	if (overBudget) return { ...image, openings };
 	if (!units && !unitsReported) {
@@ -295,7 +344,7 @@ export function readGerberImage(
 	if (!formatSeen) fail(1, 'format', 'the coordinate format statement (%FS…*%) is missing');
 	if (inRegion) fail(regionLine, 'G36', 'the region is never closed with G37');
 	if (!doneLine) fail(lastLine, 'end', 'the file ends without M02; it may be truncated');
-	if (errors.length === 0 && flashes.length === 0 && regions.length === 0) {
+	if (errors.length === 0 && flashes.length === 0 && regions.length === 0 && draws === 0) {
 		const drawNote =
 			draws > 0 ? ` (${draws} draw(s) with D01 found; a paste layer needs flashes or regions)` : '';
 		fail(0, 'content', `no flashes (D03) or regions (G36/G37) found: nothing to import${drawNote}`);
@@ -308,6 +357,7 @@ export function readGerberImage(
 		shapes,
 		draws,
 		firstDrawLine,
+		strokes,
 		errors,
 		warnings,
 		openings

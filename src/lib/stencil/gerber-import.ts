@@ -18,6 +18,7 @@ import { nameGerberApertures } from './gerber-naming';
 import { classifyGerberParserWarning } from './gerber-parser-warning';
 import { rewriteMacroUnaryMinus } from './gerber-unary-minus';
 import { scanGerberText } from './gerber-scan';
+import { importDraws, type DrawnResult } from './gerber-draws';
 import {
 	DEFAULT_STENCIL_LIMITS,
 	formatCount,
@@ -68,6 +69,8 @@ export interface GerberImportSuccess {
 	units: GerberUnits;
 	/** How the apertures came about. */
 	counts: { flashes: number; regionContours: number; flashesSkipped: number; drawsSkipped: number };
+	/** Openings painted with draws: islands made, draws used, line-like islands left out. */
+	drawn: { openings: number; drawsUsed: number; lineLikeIslands: number };
 }
 
 /** A failed import: every error found, sorted by line. */
@@ -434,6 +437,19 @@ export function importGerberPasteLayer(
 	const flashes = placeFlashes(image, f, tolerance, warnings, errors, limits, vertices);
 	const regions = placeRegions(image, f, tolerance, errors, warnings, limits, vertices);
 	if (errors.length > 0) return failure(errors);
+	let drawn: DrawnResult;
+	try {
+		drawn = importDraws(image.strokes, f, toleranceUm, limits, (n, line) =>
+			vertices.take(n, line, 'D01')
+		);
+	} catch (e) {
+		if (!(e instanceof StencilBudgetError)) throw e;
+		const line = Number(/^line (\d+)/.exec(e.message)?.[1] ?? image.firstDrawLine);
+		const message = e.message.replace(/^line \d+: /, '');
+		return failure([{ ...gerberProblem(line, 'D01', message), budget: true }]);
+	}
+	if (errors.length > 0) return failure(errors);
+	for (const w of drawn.warnings) warnings.push(gerberProblem(w.line, w.what, w.message));
 
 	// Clear polarity only cuts what was drawn before it; Rollbead cannot cut, so say where.
 	const dark = [...flashes.dark, ...regions.dark];
@@ -455,27 +471,41 @@ export function importGerberPasteLayer(
 	if (clear.length > 0) {
 		warnings.push(gerberProblem(0, '%LPC', `${clear.length} clear-polarity object(s) skipped`));
 	}
-	if (image.draws > 0) {
+	const lineLikeIslands = drawn.islands.filter((i) => i.lineLike).length;
+	if (drawn.apertures.length > 0) {
 		const message =
-			`${image.draws} draw(s) outside regions skipped; ` +
-			'a paste layer should hold only flashes and regions';
+			`${drawn.apertures.length} opening(s) painted with ${drawn.drawsUsed} draw(s) ` +
+			'were united into polygons (marked as drawn)';
 		warnings.push(gerberProblem(image.firstDrawLine, 'D01', message));
 	}
-	if (dark.length === 0) {
+	if (dark.length === 0 && drawn.apertures.length === 0 && image.flashes.length === 0) {
+		if (image.regions.length === 0) {
+			const message =
+				`no flashes (D03) or regions (G36/G37), and the ${image.draws} draw(s) with D01 make ` +
+				`no pad-sized island (${lineLikeIslands} line-like; the warnings say why): nothing to import`;
+			return failure([gerberProblem(0, 'content', message), ...warnings]);
+		}
+	}
+	if (dark.length === 0 && drawn.apertures.length === 0) {
 		// The reasons are in the warnings; without apertures they become the errors.
 		const message = 'no usable apertures: every flash and region was skipped';
 		const none = gerberProblem(0, 'content', message);
 		return failure([none, ...warnings]);
 	}
 	return {
-		apertures: nameGerberApertures(dark.map((d) => d.aperture)),
+		apertures: nameGerberApertures([...dark.map((d) => d.aperture), ...drawn.apertures]),
 		warnings: warnings.sort((a, b) => a.line - b.line).map((w) => w.message),
 		units,
 		counts: {
 			flashes: flashes.dark.length,
 			regionContours: regions.dark.length,
 			flashesSkipped: flashes.flashesSkipped,
-			drawsSkipped: image.draws
+			drawsSkipped: drawn.drawsLeftOut
+		},
+		drawn: {
+			openings: drawn.apertures.length,
+			drawsUsed: drawn.drawsUsed,
+			lineLikeIslands
 		}
 	};
 }

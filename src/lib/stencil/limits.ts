@@ -27,6 +27,11 @@ export interface StencilLimits {
 	maxApertureDefinitions: number;
 	/** Segments (lines and arcs) of one Gerber region, before arcs are cut into chords. */
 	maxRegionSegments: number;
+	/**
+	 * Stroke segments of one Gerber layer's draws (D01 outside regions, arcs cut into chords,
+	 * step-and-repeat copies included): each becomes a polygon united with its neighbours.
+	 */
+	maxDrawSegmentsPerLayer: number;
 	/** Characters of one Gerber command word (between two `*`), so no line can be endless. */
 	maxGerberWordChars: number;
 	/** Parser thread: wall-clock deadline for one upload, ms. */
@@ -52,6 +57,7 @@ export const DEFAULT_STENCIL_LIMITS: Readonly<StencilLimits> = Object.freeze({
 	maxMacroPrimitivesPerLayer: 20_000,
 	maxApertureDefinitions: 10_000,
 	maxRegionSegments: 100_000,
+	maxDrawSegmentsPerLayer: 20_000,
 	maxGerberWordChars: 65_536,
 	parseDeadlineMs: 30_000,
 	parseHeapMb: 512

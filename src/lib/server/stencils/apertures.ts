@@ -68,7 +68,8 @@ export function loadApertures(db: Db, stencilId: number): StoredAperture[] {
 	const rows = db.$client
 		.prepare(
 			`select id, refdes, pad, shape, length_um, width_um, corner_radius_um, diameter_um,
-			 vertices_um, x_um, y_um, rotation_deg from apertures where stencil_id = ? order by id`
+			 vertices_um, x_um, y_um, rotation_deg, drawn from apertures where stencil_id = ?
+			 order by id`
 		)
 		.raw()
 		.all(stencilId) as (string | number | null)[][];
@@ -87,6 +88,7 @@ export function loadApertures(db: Db, stencilId: number): StoredAperture[] {
 		if (r[6] !== null) a.cornerRadiusUm = r[6] as number;
 		if (r[7] !== null) a.diameterUm = r[7] as number;
 		if (r[8] !== null) a.verticesUm = JSON.parse(r[8] as string) as PointUm[];
+		if (r[12] === 1) a.drawn = true;
 		return a;
 	});
 }
@@ -186,8 +188,8 @@ export function importApertures(
 		// in well under a second, where building drizzle inserts took seconds.
 		const insert = db.$client.prepare(
 			`insert into apertures (stencil_id, refdes, pad, shape, length_um, width_um,
-			 corner_radius_um, diameter_um, vertices_um, x_um, y_um, rotation_deg)
-			 values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
+			 corner_radius_um, diameter_um, vertices_um, x_um, y_um, rotation_deg, drawn)
+			 values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
 		);
 		for (const a of list)
 			insert.run(
@@ -202,7 +204,8 @@ export function importApertures(
 				a.verticesUm ? JSON.stringify(a.verticesUm) : null,
 				a.xUm,
 				a.yUm,
-				a.rotationDeg
+				a.rotationDeg,
+				a.drawn === true ? 1 : 0
 			);
 		const record = tx
 			.insert(apertureImports)

@@ -207,9 +207,9 @@ export function createRevision(
 		// One INSERT … SELECT: copying 20,000 rows this way takes milliseconds.
 		tx.run(sql`insert into ${apertures}
 			(stencil_id, refdes, pad, shape, length_um, width_um, corner_radius_um, diameter_um,
-			 vertices_um, x_um, y_um, rotation_deg)
+			 vertices_um, x_um, y_um, rotation_deg, drawn)
 			select ${id}, refdes, pad, shape, length_um, width_um, corner_radius_um, diameter_um,
-			 vertices_um, x_um, y_um, rotation_deg
+			 vertices_um, x_um, y_um, rotation_deg, drawn
 			from ${apertures} where stencil_id = ${from.id} order by id`);
 		const created = getStencil(tx, id);
 		tx.insert(apertureImports)
