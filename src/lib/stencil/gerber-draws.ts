@@ -6,7 +6,7 @@
  * library); an island of pad size becomes a polygon opening marked `drawn`, and line-like islands
  * (a board outline, a long thin stroke) are left out and reported with their lines.
  */
-import polygonClipping from 'polygon-clipping';
+import { unite } from './polygon-union';
 import type { ApertureInput, PointUm } from './aperture';
 import { convexHull, polygonCentroid, polygonSignedArea } from './polygon';
 import { formatCount, StencilBudgetError, type StencilLimits } from './limits';
@@ -67,6 +67,8 @@ export interface DrawnIsland {
 /** What the draws of a layer make. */
 export interface DrawnResult {
 	apertures: ApertureInput[];
+	/** First draw line of each opening in `apertures`. */
+	apertureLines: number[];
 	islands: DrawnIsland[];
 	/** Draws whose islands became openings. */
 	drawsUsed: number;
@@ -263,25 +265,6 @@ function touchingGroups(pieces: readonly Piece[], maxCells: number): number[][] 
 	return [...groups.values()];
 }
 
-/**
- * Union of polygons with `polygon-clipping`. Its sweep can trip over float noise (a vertex at
- * -6e-16); vertices are snapped to a 1 nm grid first, and to 10 nm, then 100 nm, if it still
- * fails: far below the 0.5 µm chord tolerance, so areas do not move.
- */
-export function unite(polys: readonly PointUm[][]): [number, number][][][] {
-	let last: unknown;
-	for (const grid of [1e-3, 1e-2, 1e-1]) {
-		const snap = (v: number) => Math.round(v / grid) * grid;
-		const geoms = polys.map((p) => [p.map(([x, y]) => [snap(x), snap(y)] as [number, number])]);
-		try {
-			return polygonClipping.union(geoms[0], ...geoms.slice(1)) as [number, number][][][];
-		} catch (e) {
-			last = e;
-		}
-	}
-	throw last;
-}
-
 /** Longest distance between two points of the hull (O(h²); hulls of islands are small). */
 function hullDiameter(points: readonly PointUm[]): number {
 	const hull = convexHull(points);
@@ -421,6 +404,7 @@ export function importDraws(
 	}
 
 	const apertures: ApertureInput[] = [];
+	const apertureLines: number[] = [];
 	const usedLines = new Set<number>();
 	const leftOutLines = new Set<number>();
 	let lineLikeIslands = 0;
@@ -445,6 +429,7 @@ export function importDraws(
 		if (!takeVertices(island.outer.length, Math.min(...island.lines))) break;
 		island.lines.forEach((l) => usedLines.add(l));
 		const [cx, cy] = polygonCentroid(island.outer);
+		apertureLines.push(Math.min(...island.lines));
 		apertures.push({
 			refdes: '',
 			pad: '',
@@ -471,6 +456,7 @@ export function importDraws(
 		});
 	return {
 		apertures,
+		apertureLines,
 		islands,
 		drawsUsed: draws.length - drawsLeftOut,
 		drawsLeftOut,

@@ -19,6 +19,9 @@ import { classifyGerberParserWarning } from './gerber-parser-warning';
 import { rewriteMacroUnaryMinus } from './gerber-unary-minus';
 import { scanGerberText } from './gerber-scan';
 import { importDraws, type DrawnResult } from './gerber-draws';
+import { findApertureOverlaps, liesWithin } from './overlaps';
+import { validApertureGeometry } from './geometry';
+import { validApertureOutlineUm } from './outline';
 import {
 	DEFAULT_STENCIL_LIMITS,
 	formatCount,
@@ -71,6 +74,11 @@ export interface GerberImportSuccess {
 	counts: { flashes: number; regionContours: number; flashesSkipped: number; drawsSkipped: number };
 	/** Openings painted with draws: islands made, draws used, line-like islands left out. */
 	drawn: { openings: number; drawsUsed: number; lineLikeIslands: number };
+	/**
+	 * Flashes merged into the region they lie in (one pad), and pairs of openings that still
+	 * overlap with the area they share (µm²); both are also in `warnings` with their lines.
+	 */
+	overlaps: { merged: number; pairs: number; sharedAreaUm2: number };
 }
 
 /** A failed import: every error found, sorted by line. */
@@ -370,6 +378,63 @@ function overlapFinder(dark: readonly Placed[]) {
 }
 
 /**
+ * Relate the openings of a layer: a flash lying wholly inside a region is the same pad (a
+ * custom pad drawn as a region with a flash on it) and is merged into the region; other
+ * overlapping openings stay, each pair named by its lines in one warning, since the stencil's
+ * summed paste area counts what they share twice (it also shows their union).
+ */
+function relateOpenings(
+	flashes: readonly Placed[],
+	regions: readonly Placed[],
+	drawn: DrawnResult,
+	warnings: GerberProblem[]
+) {
+	const all = [
+		...flashes.map((d) => ({ a: d.aperture, line: d.line, flash: true })),
+		...regions.map((d) => ({ a: d.aperture, line: d.line, flash: false })),
+		...drawn.apertures.map((a, k) => ({ a, line: drawn.apertureLines[k], flash: false }))
+	];
+	const areas = all.map((o) => validApertureGeometry(o.a).areaUm2);
+	const report = findApertureOverlaps(
+		all.map((o) => o.a),
+		areas
+	);
+	const merged = new Set<number>();
+	const regionStart = flashes.length;
+	const regionEnd = flashes.length + regions.length;
+	const isRegion = (i: number) => i >= regionStart && i < regionEnd;
+	for (const { a, b } of report.pairs) {
+		const [f, r] = all[a].flash && isRegion(b) ? [a, b] : all[b].flash && isRegion(a) ? [b, a] : [-1, -1];
+		if (f < 0 || merged.has(f)) continue;
+		if (!liesWithin(validApertureOutlineUm(all[f].a, 16), validApertureOutlineUm(all[r].a, 16)))
+			continue;
+		merged.add(f);
+		const message =
+			`the flash lies wholly inside the region of line ${all[r].line} (one pad); ` +
+			'merged into it as one opening';
+		warnings.push(gerberProblem(all[f].line, 'D03', message));
+	}
+	const rest = report.pairs.filter((p) => !merged.has(p.a) && !merged.has(p.b));
+	const sharedAreaUm2 = rest.reduce((s, p) => s + p.areaUm2, 0);
+	if (rest.length > 0) {
+		const shown = rest
+			.slice(0, 8)
+			.map((p) => `lines ${all[p.a].line} and ${all[p.b].line}`)
+			.join('; ');
+		const more = rest.length > 8 ? `; and ${rest.length - 8} more` : '';
+		const message =
+			`${rest.length} pair(s) of openings overlap, sharing ${(sharedAreaUm2 / 1e6).toFixed(4)} mm² ` +
+			`(${shown}${more}); the summed paste area counts it twice, the union once`;
+		warnings.push(gerberProblem(all[rest[0].a].line, 'overlap', message));
+	}
+	if (!report.complete && report.note) warnings.push(gerberProblem(0, 'overlap', report.note));
+	return {
+		kept: all.filter((_, i) => !merged.has(i)).map((o) => o.a),
+		overlaps: { merged: merged.size, pairs: rest.length, sharedAreaUm2 }
+	};
+}
+
+/**
  * Import a Gerber RS-274X solder-paste layer (text) as stencil apertures in µm.
  * Used when a process engineer uploads the paste Gerber of a board; the lead's code can then
  * replace the positional names with real refdes from a centroid file.
@@ -492,8 +557,9 @@ export function importGerberPasteLayer(
 		const none = gerberProblem(0, 'content', message);
 		return failure([none, ...warnings]);
 	}
+	const relation = relateOpenings(flashes.dark, regions.dark, drawn, warnings);
 	return {
-		apertures: nameGerberApertures([...dark.map((d) => d.aperture), ...drawn.apertures]),
+		apertures: nameGerberApertures(relation.kept),
 		warnings: warnings.sort((a, b) => a.line - b.line).map((w) => w.message),
 		units,
 		counts: {
@@ -506,6 +572,7 @@ export function importGerberPasteLayer(
 			openings: drawn.apertures.length,
 			drawsUsed: drawn.drawsUsed,
 			lineLikeIslands
-		}
+		},
+		overlaps: relation.overlaps
 	};
 }

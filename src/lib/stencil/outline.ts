@@ -64,6 +64,14 @@ function roundedRectanglePoints(l: number, w: number, r: number, perQuarter: num
  */
 export function apertureOutlineUm(aperture: ApertureInput, segmentsPerQuarter = 8): PointUm[] {
 	apertureGeometry(aperture); // validates
+	return validApertureOutlineUm(aperture, segmentsPerQuarter);
+}
+
+/**
+ * `apertureOutlineUm` without validation, for apertures already checked (stored ones).
+ * @example validApertureOutlineUm(circle(500), 4).length // 16
+ */
+export function validApertureOutlineUm(aperture: ApertureInput, segmentsPerQuarter = 8): PointUm[] {
 	const place = placer(aperture);
 	const n = Math.max(1, Math.floor(segmentsPerQuarter));
 	switch (effectiveShape(aperture)) {

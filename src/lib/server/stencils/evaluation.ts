@@ -11,6 +11,7 @@ import {
 	type ThicknessSweep,
 	type ThresholdFailure
 } from '$lib/stencil';
+import { findApertureOverlaps } from '$lib/stencil/overlaps';
 import { loadApertures, type StoredAperture } from './apertures';
 import { getStencil, type StencilRecord } from './stencils';
 import { siteThresholds } from './thresholds';
@@ -71,10 +72,52 @@ export function checkStoredStencil(db: Db, stencilId: number): StencilCheck {
 	return { stencil, thresholds, apertures: evaluated, summary: summarizeStencil(results) };
 }
 
-/** The stencil-wide advice: thickness sweep and powder type. */
+/** One overlapping pair, by row id and label. */
+export interface OverlapPair {
+	a: { id: number; refdes: string; pad: string };
+	b: { id: number; refdes: string; pad: string };
+	areaUm2: number;
+}
+
+/** Openings that overlap, and the paste area summed and as a union (shared parts once). */
+export interface StencilOverlaps {
+	sumAreaUm2: number;
+	unionAreaUm2: number;
+	pairCount: number;
+	/** The first `MAX_LISTED_OVERLAPS` pairs. */
+	pairs: OverlapPair[];
+	complete: boolean;
+	note?: string;
+}
+
+/** Pairs listed on the page and in the API; the count is always complete. */
+export const MAX_LISTED_OVERLAPS = 200;
+
+/** The stencil-wide advice: thickness sweep, powder type and overlapping openings. */
 export interface StencilAdvice {
 	sweep: ThicknessSweep;
 	powder: PowderSuggestion;
+	overlaps: StencilOverlaps;
+}
+
+/** Overlapping openings of an evaluated stencil (grid of boxes, then exact intersections). */
+export function stencilOverlaps(check: StencilCheck): StencilOverlaps {
+	const list = check.apertures;
+	const report = findApertureOverlaps(
+		list,
+		list.map((a) => a.areaUm2)
+	);
+	const ref = (i: number) => ({ id: list[i].id, refdes: list[i].refdes, pad: list[i].pad });
+	return {
+		sumAreaUm2: report.sumAreaUm2,
+		unionAreaUm2: report.unionAreaUm2,
+		pairCount: report.pairs.length,
+		pairs: report.pairs
+			.slice(0, MAX_LISTED_OVERLAPS)
+			.map((p) => ({ a: ref(p.a), b: ref(p.b), areaUm2: p.areaUm2 })),
+		complete: report.complete,
+		...(report.note ? { note: report.note } : {})
+	};
 }
 
 /**
@@ -96,6 +139,7 @@ export function stencilAdvice(check: StencilCheck): StencilAdvice {
 			check.apertures,
 			undefined,
 			check.apertures.map((a) => a.minDimensionUm)
-		)
+		),
+		overlaps: stencilOverlaps(check)
 	};
 }

@@ -43,6 +43,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		summary: check.summary,
 		sweep: advice.sweep,
 		powder: advice.powder,
+		overlaps: advice.overlaps,
 		revisions: listRevisions(db, check.stencil.name),
 		imports: listImports(db, id),
 		canEdit: hasRole(actor, ENGINEERING),

@@ -8,7 +8,10 @@ import {
 	withStencilErrors
 } from '$lib/server/stencils';
 
-/** The stencil with its thresholds, summary, thickness sweep, powder advice and import history. */
+/**
+ * The stencil with its thresholds, summary, thickness sweep, powder advice, overlapping openings
+ * (paste area summed and as a union) and import history.
+ */
 export const GET = apiRoute(async ({ params }) => {
 	const id = idParam(params.id, 'stencil');
 	return withStencilErrors(() => {
@@ -21,6 +24,7 @@ export const GET = apiRoute(async ({ params }) => {
 			summary: check.summary,
 			thicknessSweep: advice.sweep,
 			powder: advice.powder,
+			overlaps: advice.overlaps,
 			imports: listImports(db, id)
 		});
 	});
