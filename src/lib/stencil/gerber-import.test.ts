@@ -158,7 +158,7 @@ describe('importGerberPasteLayer: what it skips with a warning', () => {
 		expect(r.warnings).toEqual([expect.stringMatching(/^line 7, D01: 2 draw\(s\) outside regions skipped/)]);
 	});
 
-	it('skips clear-polarity objects and says which earlier apertures they would cut', () => {
+	it('a clear-polarity object that would leave a hole is ignored, naming the aperture it would cut', () => {
 		const r = ok(
 			importGerberPasteLayer(
 				`${header}%ADD10R,2X2*%\n%ADD11C,0.5*%\nD10*\nX0Y0D03*\nX10000000Y0D03*\n%LPC*%\nD11*\nX0Y0D03*\nM02*\n`
@@ -166,8 +166,29 @@ describe('importGerberPasteLayer: what it skips with a warning', () => {
 		);
 		expect(r.apertures.length).toBe(2);
 		const text = r.warnings.join('\n');
-		expect(text).toContain('line 10, %LPC: a clear-polarity object overlaps 1 earlier aperture(s) (first from line 6)');
-		expect(text).toContain('1 clear-polarity object(s) skipped');
+		expect(text).toContain(
+			'line 10, %LPC: a clear-polarity object would leave a hole in 1 earlier aperture(s) (first from line 6), which an opening cannot have'
+		);
+		expect(text).toContain('1 clear-polarity object(s) applied as cuts, none an opening');
+	});
+
+	it('a clear-polarity object cuts what was drawn before it: the rest is a polygon, a wholly cleared flash is gone', () => {
+		// 2 × 2 mm square at (0, 0), cut by a 2 × 2 mm clear square at (1, 0): left is x −1…0,
+		// 1 × 2 mm = 2 mm² centred on (−0.5, 0). The flash at (10, 0) is cleared wholly.
+		// The flash at (20, 0) comes after the clear one and is not cut.
+		const r = ok(
+			importGerberPasteLayer(
+				`${header}%ADD10R,2X2*%\n%ADD11R,1X1*%\nD10*\nX0Y0D03*\nD11*\nX10000000Y0D03*\n%LPC*%\nD10*\nX1000000Y0D03*\nX10000000Y0D03*\n%LPD*%\nX20000000Y0D03*\nM02*\n`
+			)
+		);
+		expect(r.apertures).toHaveLength(2);
+		const [cutOne, later] = r.apertures;
+		expect(cutOne.shape).toBe('polygon');
+		expect(apertureGeometry(cutOne).areaUm2).toBeCloseTo(2_000_000, 3);
+		expect(cutOne.xUm).toBeCloseTo(-500, 6);
+		expect(later).toMatchObject({ shape: 'rectangle', xUm: 20000, lengthUm: 2000 });
+		expect(r.warnings.join('\n')).toContain('line 11, %LPC: a clear-polarity object cuts 1 earlier aperture(s) (first from line 6)');
+		expect(r.warnings.join('\n')).toContain('line 12, %LPC: a clear-polarity object cuts 1 earlier aperture(s) (first from line 8)');
 	});
 
 	it('skips apertures with a hole and names the aperture and its definition line', () => {

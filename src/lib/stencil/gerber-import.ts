@@ -7,7 +7,13 @@
 import gerberParser from 'gerber-parser';
 import type { ApertureInput, PointUm } from './aperture';
 import { MICROMETRES_PER } from '../units';
-import { findSelfIntersection, polygonCentroid, polygonSignedArea } from './polygon';
+import {
+	findSelfIntersection,
+	polygonAreaUm2,
+	polygonCentroid,
+	polygonSignedArea
+} from './polygon';
+import { clippedArea, openRing, subtract, type ClippedPolygon } from './polygon-union';
 import { gerberProblem, type GerberProblem } from './gerber-message';
 import { checkGerberText } from './gerber-text-check';
 import { readGerberImage, type GerberImage } from './gerber-image';
@@ -25,6 +31,7 @@ import { validApertureOutlineUm } from './outline';
 import {
 	DEFAULT_STENCIL_LIMITS,
 	formatCount,
+	RELATIVE_TOLERANCE,
 	StencilBudgetError,
 	type StencilLimits
 } from './limits';
@@ -104,6 +111,10 @@ interface Placed {
 	box: number[];
 	seq: number;
 	line: number;
+	/** What is left after clear-polarity cuts (placed µm outlines); unset when never cut. */
+	pieces?: PointUm[][];
+	/** A clear object would have left a hole in it (ignored, so its area is overstated). */
+	holed?: boolean;
 }
 
 function failure(errors: readonly GerberProblem[]): GerberImportFailure {
@@ -210,7 +221,7 @@ function placeFlashes(
 	};
 	const skipped = new Map<string, { count: number; firstLine: number }>();
 	const dark: Placed[] = [];
-	const clear: Omit<Placed, 'aperture'>[] = [];
+	const clear: Placed[] = [];
 	for (const fl of image.flashes) {
 		let result = outlines.get(fl.tool);
 		if (!result) {
@@ -242,11 +253,8 @@ function placeFlashes(
 		for (const [ox, oy] of fl.offsets) {
 			const [x, y] = [fl.x + ox, fl.y + oy];
 			const box = gerberOutlineBox(result.outline, x, y);
-			if (fl.clear) clear.push({ box, seq: fl.seq, line: fl.line });
-			else {
-				const aperture = gerberOutlineToAperture(result.outline, x, y, f);
-				dark.push({ aperture, box, seq: fl.seq, line: fl.line });
-			}
+			const aperture = gerberOutlineToAperture(result.outline, x, y, f);
+			(fl.clear ? clear : dark).push({ aperture, box, seq: fl.seq, line: fl.line });
 		}
 	}
 	for (const [tool, s] of skipped) {
@@ -272,7 +280,7 @@ function placeRegions(
 	budget: VertexBudget
 ) {
 	const dark: Placed[] = [];
-	const clear: Omit<Placed, 'aperture'>[] = [];
+	const clear: Placed[] = [];
 	for (const region of image.regions) {
 		let contours;
 		try {
@@ -315,11 +323,8 @@ function placeRegions(
 			};
 			for (const [ox, oy] of region.offsets) {
 				const box = gerberOutlineBox(outline, ox, oy);
-				if (region.clear) clear.push({ box, seq: region.seq, line: region.line });
-				else {
-					const aperture = gerberOutlineToAperture(outline, ox, oy, f);
-					dark.push({ aperture, box, seq: region.seq, line: region.line });
-				}
+				const aperture = gerberOutlineToAperture(outline, ox, oy, f);
+				(region.clear ? clear : dark).push({ aperture, box, seq: region.seq, line: region.line });
 			}
 		});
 	}
@@ -378,6 +383,69 @@ function overlapFinder(dark: readonly Placed[]) {
 }
 
 /**
+ * Cut clear-polarity object `c` out of the earlier dark apertures `hit` (their boxes overlap):
+ * each keeps what remains, as polygons; a cut that would leave a hole is ignored (warned).
+ */
+function cutByClear(c: Placed, hit: readonly Placed[], warnings: GerberProblem[]) {
+	const cutter = validApertureOutlineUm(c.aperture, 16);
+	const cut: Placed[] = [];
+	const holed: Placed[] = [];
+	for (const d of hit) {
+		const current = d.pieces ?? [validApertureOutlineUm(d.aperture, 16)];
+		if (current.length === 0) continue;
+		let rest: ClippedPolygon[];
+		try {
+			rest = subtract(current, cutter);
+		} catch {
+			holed.push(d);
+			continue;
+		}
+		const before = current.reduce((sum, p) => sum + polygonAreaUm2(p), 0);
+		if (before - clippedArea(rest) <= RELATIVE_TOLERANCE * before) continue;
+		if (rest.some((p) => p.length > 1)) {
+			d.holed = true;
+			holed.push(d);
+			continue;
+		}
+		d.pieces = rest.map((p) => openRing(p[0]));
+		cut.push(d);
+	}
+	if (cut.length > 0) {
+		const message =
+			`a clear-polarity object cuts ${cut.length} earlier aperture(s) (first from line ` +
+			`${cut[0].line}); each keeps what remains, as polygons`;
+		warnings.push(gerberProblem(c.line, '%LPC', message));
+	}
+	if (holed.length > 0) {
+		const message =
+			`a clear-polarity object would leave a hole in ${holed.length} earlier aperture(s) ` +
+			`(first from line ${holed[0].line}), which an opening cannot have; the cut-out is ` +
+			'ignored, so their areas are overstated';
+		warnings.push(gerberProblem(c.line, '%LPC', message));
+	}
+}
+
+/** A dark aperture as it is after clear-polarity cuts: itself, its remaining pieces, or none. */
+function afterCuts(d: Placed): Placed[] {
+	if (!d.pieces) return [d];
+	return d.pieces
+		.filter((p) => p.length >= 3 && polygonAreaUm2(p) > 0)
+		.map((p) => {
+			const [cx, cy] = polygonCentroid(p);
+			const aperture: ApertureInput = {
+				refdes: '',
+				pad: '',
+				shape: 'polygon',
+				verticesUm: p.map(([x, y]) => [x - cx, y - cy] as PointUm),
+				xUm: cx,
+				yUm: cy,
+				rotationDeg: 0
+			};
+			return { ...d, aperture, pieces: undefined };
+		});
+}
+
+/**
  * Relate the openings of a layer: a flash lying wholly inside a region is the same pad (a
  * custom pad drawn as a region with a flash on it) and is merged into the region; other
  * overlapping openings stay, each pair named by its lines in one warning, since the stencil's
@@ -390,9 +458,14 @@ function relateOpenings(
 	warnings: GerberProblem[]
 ) {
 	const all = [
-		...flashes.map((d) => ({ a: d.aperture, line: d.line, flash: true })),
-		...regions.map((d) => ({ a: d.aperture, line: d.line, flash: false })),
-		...drawn.apertures.map((a, k) => ({ a, line: drawn.apertureLines[k], flash: false }))
+		...flashes.map((d) => ({ a: d.aperture, line: d.line, flash: true, holed: false })),
+		...regions.map((d) => ({ a: d.aperture, line: d.line, flash: false, holed: !!d.holed })),
+		...drawn.apertures.map((a, k) => ({
+			a,
+			line: drawn.apertureLines[k],
+			flash: false,
+			holed: false
+		}))
 	];
 	const areas = all.map((o) => validApertureGeometry(o.a).areaUm2);
 	const report = findApertureOverlaps(
@@ -405,7 +478,7 @@ function relateOpenings(
 	const isRegion = (i: number) => i >= regionStart && i < regionEnd;
 	for (const { a, b } of report.pairs) {
 		const [f, r] = all[a].flash && isRegion(b) ? [a, b] : all[b].flash && isRegion(a) ? [b, a] : [-1, -1];
-		if (f < 0 || merged.has(f)) continue;
+		if (f < 0 || merged.has(f) || all[r].holed) continue;
 		if (!liesWithin(validApertureOutlineUm(all[f].a, 16), validApertureOutlineUm(all[r].a, 16)))
 			continue;
 		merged.add(f);
@@ -516,7 +589,8 @@ export function importGerberPasteLayer(
 	if (errors.length > 0) return failure(errors);
 	for (const w of drawn.warnings) warnings.push(gerberProblem(w.line, w.what, w.message));
 
-	// Clear polarity only cuts what was drawn before it; Rollbead cannot cut, so say where.
+	// Clear polarity cuts what was drawn before it: the cut aperture becomes what remains (one or
+	// more polygons), unless the cut would leave a hole, which an opening cannot have.
 	const dark = [...flashes.dark, ...regions.dark];
 	const clear = [...flashes.clear, ...regions.clear];
 	const overlaps = overlapFinder(dark);
@@ -527,14 +601,11 @@ export function importGerberPasteLayer(
 			break;
 		}
 		const hit = overlaps.find(c);
-		if (hit.length === 0) continue;
-		const message =
-			`a clear-polarity object overlaps ${hit.length} earlier aperture(s) (first from line ` +
-			`${hit[0].line}); the cut-out is ignored, so their areas are overstated`;
-		warnings.push(gerberProblem(c.line, '%LPC', message));
+		if (hit.length > 0) cutByClear(c, hit, warnings);
 	}
 	if (clear.length > 0) {
-		warnings.push(gerberProblem(0, '%LPC', `${clear.length} clear-polarity object(s) skipped`));
+		const message = `${clear.length} clear-polarity object(s) applied as cuts, none an opening`;
+		warnings.push(gerberProblem(0, '%LPC', message));
 	}
 	const lineLikeIslands = drawn.islands.filter((i) => i.lineLike).length;
 	if (drawn.apertures.length > 0) {
@@ -557,7 +628,12 @@ export function importGerberPasteLayer(
 		const none = gerberProblem(0, 'content', message);
 		return failure([none, ...warnings]);
 	}
-	const relation = relateOpenings(flashes.dark, regions.dark, drawn, warnings);
+	const relation = relateOpenings(
+		flashes.dark.flatMap(afterCuts),
+		regions.dark.flatMap(afterCuts),
+		drawn,
+		warnings
+	);
 	return {
 		apertures: nameGerberApertures(relation.kept),
 		warnings: warnings.sort((a, b) => a.line - b.line).map((w) => w.message),

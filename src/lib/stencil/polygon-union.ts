@@ -57,3 +57,22 @@ export function clippedArea(polys: readonly ClippedPolygon[]): number {
 		});
 	return sum;
 }
+
+/**
+ * What is left of `pieces` (simple polygons, one shape) after cutting `cut` out of it.
+ * @example clippedArea(subtract([[[0,0],[2,0],[2,2],[0,2]]], [[1,0],[3,0],[3,2],[1,2]])) // 2
+ */
+export function subtract(pieces: readonly PointUm[][], cut: readonly PointUm[]): ClippedPolygon[] {
+	return withSnapping([...pieces, cut as PointUm[]], (g) => {
+		const subject = g.slice(0, -1);
+		return polygonClipping.difference(subject as never, g[g.length - 1]) as ClippedPolygon[];
+	});
+}
+
+/** A ring from polygon-clipping (closed, first point repeated) as an open vertex list. */
+export function openRing(ring: readonly [number, number][]): PointUm[] {
+	const out = ring.map(([x, y]) => [x, y] as PointUm);
+	const [a, b] = [out[0], out[out.length - 1]];
+	if (out.length > 1 && a[0] === b[0] && a[1] === b[1]) out.pop();
+	return out;
+}
