@@ -11,6 +11,7 @@ import {
 	listImports,
 	multipartFile,
 	rawBody,
+	readAhead,
 	resolveImportProfile,
 	type UploadedFile
 } from '$lib/server/ingest';
@@ -61,12 +62,16 @@ export const POST = apiRoute(async ({ request, url }, actor) => {
 	const outcome = await ingestSpiFile(db, {
 		source: request.headers.get('x-import-source') === 'upload' ? 'upload' : 'api',
 		fileName: file.fileName,
-		body: limitBytes(file.body, limit),
+		// Read ahead in ~1 MB batches: socket chunks are 64 KB at most (see readAhead).
+		body: limitBytes(readAhead(file.body), limit),
 		profile,
 		profileId,
 		createdBy: actorLabel(actor),
 		userId: actor.kind === 'user' ? actor.id : null,
 		totalBytes: declared,
+		// A chunked body declares no size: parse it on the parser thread (kept warm) as a large
+		// file would be, rather than guess it small and parse it on this thread.
+		threaded: declared === null ? true : undefined,
 		job: isJobKey(job) ? job : null
 	});
 	if (outcome.status === 'imported') {
