@@ -82,6 +82,20 @@ test.describe('IPC-CFX with a real broker and node build', () => {
 		server = null;
 	});
 
+	test('a malformed CFX_URL stops the start with a message naming it', async () => {
+		rmSync(`${dir}-bad`, { recursive: true, force: true });
+		mkdirSync(`${dir}-bad`, { recursive: true });
+		const started = startServer({
+			databaseFile: `${dir}-bad/rollbead.db`,
+			port: await freePort(),
+			demo: false,
+			env: { CFX_URL: 'http://broker.factory.example:5672' }
+		});
+		await expect(started).rejects.toThrow(
+			'[rollbead] cfx: CFX_URL must start with amqp:// or amqps:// (got http://)'
+		);
+	});
+
 	test('a line with no typing: messages become runs, boards and measurements; a restart loses and doubles nothing', async () => {
 		test.skip(!(await brokerAnswers()), `no AMQP broker at ${BROKER_URL} (.ci/run starts one)`);
 		rmSync(dir, { recursive: true, force: true });
