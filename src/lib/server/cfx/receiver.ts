@@ -10,7 +10,7 @@
 import rhea from 'rhea';
 import type { Connection, ConnectionOptions, Delivery, EventContext, Receiver } from 'rhea';
 import type { Db } from '../db';
-import { bodyBytes, cfxMessageKey, storeCfxMessage } from './store';
+import { REMEMBER_IDS_MS, bodyBytes, cfxMessageKey, pruneReceivedIds, storeCfxMessage } from './store';
 
 export interface CfxConfig {
 	host: string;
@@ -278,6 +278,17 @@ export function startCfxReceiver(
 	};
 
 	open();
+	// Ids older than 30 days are forgotten hourly (the table would otherwise grow for ever).
+	const prune = () => {
+		try {
+			pruneReceivedIds(db, Date.now() - REMEMBER_IDS_MS);
+		} catch (err) {
+			log(`could not forget old message ids: ${(err as Error).message}`);
+		}
+	};
+	prune();
+	const pruneTimer = setInterval(prune, 3_600_000);
+	pruneTimer.unref?.();
 
 	return {
 		status: () => ({
@@ -289,6 +300,7 @@ export function startCfxReceiver(
 		}),
 		async stop() {
 			stopped = true;
+			clearInterval(pruneTimer);
 			if (retryTimer) clearTimeout(retryTimer);
 			await queue;
 			const conn = connection;
@@ -312,6 +324,7 @@ export function startCfxReceiver(
 		},
 		dropConnection() {
 			stopped = true;
+			clearInterval(pruneTimer);
 			if (retryTimer) clearTimeout(retryTimer);
 			const conn = connection;
 			connection = null;

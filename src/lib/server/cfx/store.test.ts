@@ -13,6 +13,7 @@ import {
 	discardQuarantined,
 	listPendingInspections,
 	listQuarantine,
+	pruneReceivedIds,
 	recentLineEvents,
 	retryQuarantined,
 	saveEndpoint,
@@ -123,6 +124,14 @@ describe('storeCfxMessage', () => {
 		expect(cfxMessageKey(undefined, Buffer.from('x'))).toBe(
 			'sha256:2d711642b726b04401627ca9fbac32f5c8530fb1903cc4db02258717921a4881'
 		);
+	});
+
+	it('forgets settled ids older than the window, never held ones', async () => {
+		await storeCfxMessage(db, { ...msg(envelope('work-started.json'), 'old'), receivedAtMs: 1_000 });
+		await storeCfxMessage(db, { ...msg(Buffer.from('nope'), 'old-bad'), receivedAtMs: 1_000 });
+		await storeCfxMessage(db, msg(envelope('fault-occurred.json'), 'new'));
+		expect(pruneReceivedIds(db, 2_000)).toBe(1);
+		expect(db.$client.prepare(`select message_key from cfx_messages order by message_key`).pluck().all()).toEqual(['new', 'old-bad']);
 	});
 
 	it('an unmapped handle is quarantined, then stored once mapped and retried', async () => {

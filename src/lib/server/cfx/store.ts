@@ -670,6 +670,27 @@ export async function storeCfxMessage(
 	return { status: 'stored', records: records.length, sentAtMs: first.timeStampMs };
 }
 
+/** How long a settled message's id is remembered (a broker redelivers within minutes or hours). */
+export const REMEMBER_IDS_MS = 30 * 24 * 3_600_000;
+const PRUNE_BATCH = 5_000;
+
+/**
+ * Forget the ids of messages settled before `beforeMs` (quarantine rows stay), a batch at a time
+ * so no write holds the database for long. Returns how many were forgotten.
+ */
+export function pruneReceivedIds(db: Db, beforeMs: number): number {
+	let total = 0;
+	for (;;) {
+		const n = db.$client
+			.prepare(
+				`delete from cfx_messages where rowid in (select rowid from cfx_messages where received_at < ? and outcome != 'quarantined' limit ${PRUNE_BATCH})`
+			)
+			.run(beforeMs).changes;
+		total += n;
+		if (n < PRUNE_BATCH) return total;
+	}
+}
+
 export interface QuarantinedMessage {
 	id: number;
 	messageKey: string;
