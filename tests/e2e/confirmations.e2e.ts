@@ -80,4 +80,29 @@ test.describe('confirmations before destructive actions', () => {
 		await expect(page.getByText(`paste lot ${lot} was discarded`)).toBeVisible();
 		await expect(page.getByRole('button', { name: 'Log event' })).toHaveCount(0);
 	});
+
+	test('without JavaScript, discarding a lot comes back as a confirmation step first', async ({ browser, request }) => {
+		const lot = `PL-NOJS-${Date.now() % 1_000_000}`;
+		const created = await request.post('/api/paste-lots', {
+			headers: bearer(tokenFor('technician')),
+			data: { lotNumber: lot, alloy: 'SAC305', powderType: 4, expiresOn: '2099-06-30', fluxClass: 'ROL0', confirmDates: true }
+		});
+		const { id } = await created.json();
+		const context = await browser.newContext({ javaScriptEnabled: false });
+		const page = await context.newPage();
+		await signInAs(page, 'technician');
+		await page.goto(`/paste/${id}`);
+		await page.getByLabel('Event').selectOption('discarded');
+		await page.getByRole('button', { name: 'Log event' }).click();
+		const step = page.getByRole('alertdialog', { name: `Discard paste lot ${lot}?` });
+		await expect(step).toContainText('no run can use it');
+		// Nothing happened yet.
+		const lotNow = async () =>
+			(await request.get(`/api/paste-lots/${id}`, { headers: bearer(tokenFor('viewer')) })).json();
+		expect((await lotNow()).state).not.toBe('discarded');
+		await step.getByRole('button', { name: `Discard ${lot}` }).click();
+		await expect(page.getByText(`paste lot ${lot} was discarded`)).toBeVisible();
+		expect((await lotNow()).state).toBe('discarded');
+		await context.close();
+	});
 });
