@@ -1,4 +1,5 @@
 import Database from 'better-sqlite3';
+import { Worker } from 'node:worker_threads';
 import {
 	CANONICAL_PROFILE,
 	addMeasureValue,
@@ -85,11 +86,12 @@ type PadMap = Map<string, Map<string, number>>;
 
 const ROWS_PER_INSERT = 64;
 /**
- * Pad rows written per short write transaction (~20-40 ms of work). A transaction is opened and
+ * Pad rows written per short write transaction (~5-10 ms of work, so requests arriving meanwhile
+ * wait at most that long: bench:responsive prints the figures). A transaction is opened and
  * committed within one turn of the event loop, never across an await, so other connections of
  * this process never find the database locked and other processes wait at most one chunk.
  */
-const CHUNK_ROWS = 16_384;
+const CHUNK_ROWS = 4096;
 /** Board ids per delete transaction when a failed or interrupted import's rows are removed. */
 const DISCARD_BOARDS_PER_STEP = 8;
 /** How long a chunk waits, in all, for a write lock another process holds before giving up. */
@@ -228,18 +230,26 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 		let held: SpiRowBatch[] = [];
 		let heldRows = 0;
 		const writeHeld = async () => {
-			if (held.length === 0) return;
-			const batches = held;
-			held = [];
-			heldRows = 0;
-			await inWriteTransaction(conn, () => {
-				for (const batch of batches) {
-					w.write(batch);
-					rows += batch.length;
+			while (held.length > 0) {
+				// At most about CHUNK_ROWS per transaction, then a turn of the event loop for others.
+				let take = 0;
+				let taken = 0;
+				while (take < held.length && (taken === 0 || taken + held[take].length <= CHUNK_ROWS)) {
+					taken += held[take].length;
+					take++;
 				}
-				w.flush();
-				w.reserve();
-			});
+				const batches = held.splice(0, take);
+				heldRows -= taken;
+				await inWriteTransaction(conn, () => {
+					for (const batch of batches) {
+						w.write(batch);
+						rows += batch.length;
+					}
+					w.flush();
+					w.reserve();
+				});
+				if (held.length > 0) await new Promise((resolve) => setImmediate(resolve));
+			}
 		};
 		const writeAll = async (batches: SpiRowBatch[]) => {
 			for (const batch of batches) {
@@ -473,12 +483,47 @@ export async function recoverInterruptedImports(db: Db): Promise<number> {
  * follows a big commit, turned off on this connection).
  */
 function checkpointAndClose(conn: Database.Database): void {
+	const file = conn.name;
+	conn.close();
+	// Copying 100 MB of pages takes a few hundred ms: done on a thread of its own (with its own
+	// connection), so the event loop keeps answering; once it holds the checkpoint lock, the
+	// automatic checkpoints of other connections skip instead of doing the copy themselves.
+	let worker: Worker;
 	try {
-		conn.pragma('wal_checkpoint(PASSIVE)');
+		worker = new Worker(CHECKPOINT_THREAD_CODE, { eval: true, workerData: { file } });
+	} catch (err) {
+		return checkpointInline(file, err);
+	}
+	worker.once('message', (outcome: { ok: boolean; error?: string }) => {
+		if (!outcome.ok) console.warn('[rollbead] WAL checkpoint after an SPI import failed:', outcome.error);
+	});
+	worker.once('error', (err) => checkpointInline(file, err));
+	worker.unref();
+}
+
+/** The checkpoint thread: plain CommonJS, so it runs the same under vitest and `node build`. */
+const CHECKPOINT_THREAD_CODE = `
+const { parentPort, workerData } = require('node:worker_threads');
+const Database = require('better-sqlite3');
+try {
+	const db = new Database(workerData.file);
+	db.pragma('busy_timeout = 0');
+	db.pragma('wal_checkpoint(PASSIVE)');
+	db.close();
+	parentPort.postMessage({ ok: true });
+} catch (err) {
+	parentPort.postMessage({ ok: false, error: String(err && err.message) });
+}
+`;
+
+function checkpointInline(file: string, cause: unknown): void {
+	console.warn('[rollbead] checkpoint thread did not start, checkpointing here:', String(cause));
+	try {
+		const db = new Database(file);
+		db.pragma('wal_checkpoint(PASSIVE)');
+		db.close();
 	} catch (err) {
 		console.warn('[rollbead] WAL checkpoint after an SPI import failed:', (err as Error).message);
-	} finally {
-		conn.close();
 	}
 }
 
