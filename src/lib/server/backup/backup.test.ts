@@ -12,7 +12,8 @@ import {
 	listBackups,
 	pruneBackups,
 	restoreDatabase,
-	RestoreRefusedError
+	RestoreRefusedError,
+	startBackupSchedule
 } from './backup';
 
 const HEADER =
@@ -168,5 +169,20 @@ describe('backups', { timeout: 120_000 }, () => {
 		expect(() => backupScheduleFrom({ BACKUP_EVERY: 'daily' }, 'x.db')).toThrow(/30m, 6h or 1d/);
 		expect(() => backupScheduleFrom({ BACKUP_EVERY: '1m' }, 'x.db')).toThrow(/at least 5m/);
 		expect(() => backupScheduleFrom({ BACKUP_EVERY: '1h', BACKUP_KEEP: '0' }, 'x.db')).toThrow(/BACKUP_KEEP/);
+	});
+
+	it('the schedule backs up on its interval and keeps the newest BACKUP_KEEP', async () => {
+		const dir = join(t.dir, 'scheduled');
+		const logged: string[] = [];
+		const stop = startBackupSchedule(t.db.$client, { dir, everyMs: 40, keep: 2 }, (m) => logged.push(m));
+		for (let waited = 0; logged.length < 4 && waited < 10_000; waited += 20) {
+			await new Promise((r) => setTimeout(r, 20));
+		}
+		stop();
+		expect(logged.length).toBeGreaterThanOrEqual(4);
+		expect(logged.slice(-1)[0]).toMatch(/removed 1 older/);
+		const kept = listBackups(dir);
+		expect(kept).toHaveLength(2);
+		for (const backup of kept) expect(checkDatabaseFile(backup.file).ok).toBe(true);
 	});
 });
