@@ -42,4 +42,9 @@ test('the squeegee-speed chart: not stable, open signals listed, observed out-of
 	await expect(page.getByTestId('ppm-observed')).not.toHaveText(/^0 ppm/);
 	await expect(page.getByTestId('ppm-expected')).toContainText('overall spread');
 	await expect(page.getByTestId('cpk-lower')).not.toHaveText('–');
+	// Limits with a history: which version is in force, since when, from how many subgroups.
+	const inForce = page.getByTestId('limits-in-force');
+	await expect(inForce).toContainText('In force: version 1');
+	await expect(inForce).toContainText('from 9 subgroups');
+	await expect(page.getByText('Preliminary: 9 subgroups, fewer than the 20')).toBeVisible();
 });

@@ -53,3 +53,40 @@ export function setCapabilityThresholds(db: Db, t: CapabilityThresholds, actor: 
 	});
 	return t;
 }
+
+const BASELINE_KEY = 'spc.minBaselineSubgroups';
+
+/**
+ * Fewest subgroups a baseline needs before limits may be frozen: 20 by default (Montgomery, ISQC
+ * §6.2: trial limits from 20–25 subgroups; from memory). Sites may set 10–200.
+ */
+export const DEFAULT_MIN_BASELINE_SUBGROUPS = 20;
+
+export function getMinBaselineSubgroups(db: Db): number {
+	const row = db
+		.select({ value: settings.value })
+		.from(settings)
+		.where(and(isNull(settings.siteId), eq(settings.key, BASELINE_KEY)))
+		.get();
+	const v = row?.value;
+	return typeof v === 'number' && Number.isInteger(v) && v >= 10 && v <= 200 ? v : DEFAULT_MIN_BASELINE_SUBGROUPS;
+}
+
+/** @throws ThresholdsError unless a whole number 10–200. */
+export function setMinBaselineSubgroups(db: Db, n: number, actor: Actor): number {
+	if (!Number.isInteger(n) || n < 10 || n > 200) {
+		throw new ThresholdsError('minBaselineSubgroups', 'Subgroups to freeze limits must be a whole number from 10 to 200.');
+	}
+	const before = getMinBaselineSubgroups(db);
+	db.transaction((tx) => {
+		const existing = tx
+			.select({ id: settings.id })
+			.from(settings)
+			.where(and(isNull(settings.siteId), eq(settings.key, BASELINE_KEY)))
+			.get();
+		if (existing) tx.update(settings).set({ value: n, updatedAt: new Date() }).where(eq(settings.id, existing.id)).run();
+		else tx.insert(settings).values({ siteId: null, key: BASELINE_KEY, value: n, updatedAt: new Date() }).run();
+		recordAudit(tx, actor, { action: 'update', entity: 'setting', entityId: BASELINE_KEY, before: { value: before }, after: { value: n } });
+	});
+	return n;
+}

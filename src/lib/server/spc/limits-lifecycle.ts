@@ -5,6 +5,7 @@ import type { Db } from '../db';
 import { spcExclusions, spcLimitVersions } from '../db/schema';
 import { recordAudit } from '../audit';
 import { loadSubgroups } from './chart-source';
+import { getMinBaselineSubgroups } from './capability-settings';
 import {
 	getCharacteristic,
 	latestLimitVersion,
@@ -31,13 +32,16 @@ export interface FreezeOptions {
 	note?: string;
 	/** Newest subgroups considered (as on the chart page); default 200. */
 	limit?: number;
+	/** Fewest baseline subgroups; default the site setting (20). */
+	minSubgroups?: number;
 }
 
 /**
  * Phase I → II: compute limits from the baseline (period, minus excluded points) and store them
  * as the next numbered version (audited). New data is then judged against them; a later
  * recalculation stores another version, never changing this one.
- * @throws LimitsError when there is too little data or no variation.
+ * @throws LimitsError when the baseline has fewer subgroups than the minimum (default 20, a
+ *   site setting), too little data or no variation.
  */
 export function freezeLimits(db: Db, id: number, options: FreezeOptions, actor: Actor | null): LimitVersionSummary {
 	const c = getCharacteristic(db, id);
@@ -57,6 +61,14 @@ export function freezeLimits(db: Db, id: number, options: FreezeOptions, actor: 
 		throw new LimitsError('baseline', 'Zero variation in the baseline: the limits would collapse onto the centre line.');
 	}
 	const used = limits.baselineIndices.map((i) => subgroups[i]);
+	const minimum = options.minSubgroups ?? getMinBaselineSubgroups(db);
+	if (used.length < minimum) {
+		const left = subgroups.length - used.length;
+		throw new LimitsError(
+			'baseline',
+			`The baseline has ${used.length} subgroup${used.length === 1 ? '' : 's'}${left ? ` (${left} left out: excluded or outside the period)` : ''}; at least ${minimum} are needed for limits to hold. Widen the period or wait for more data.`
+		);
+	}
 	const times = used.map((s) => s.at?.getTime()).filter((t): t is number => t !== undefined);
 	const excluded = exclusions.filter((e) => subgroups.some((s) => s.key === e.key));
 	const row = db.transaction((tx) => {

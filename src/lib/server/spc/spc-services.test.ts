@@ -13,6 +13,7 @@ import { acknowledgeSignal, AcknowledgeError, evaluateSignalsFor, listSignals } 
 import { DIGEST_THRESHOLD, DIGEST_WINDOW_MS, flushDigests, notifyFollowers } from './signal-mail';
 import { getCauseLists, setCauseList } from './cause-lists';
 import { patternScopeCounts } from './ack-scope';
+import { getMinBaselineSubgroups, setMinBaselineSubgroups } from './capability-settings';
 import { acknowledgeBodySchema } from './api-shapes';
 
 // NIST/SEMATECH e-Handbook §6.3.2.2 individuals example (reference/spc/worked-examples.json).
@@ -128,8 +129,12 @@ describe('chart of logged print parameters', () => {
 		expect(detail.chart!.limits.location.cl).toBeCloseTo(nist.mean, 6);
 		expect(detail.chart!.limits.location.ucl).toBeCloseTo(nist.ucl, 2);
 		expect(detail.chart!.points[10].excluded).toBe(true);
-		const v1 = freezeLimits(db, c.id, { note: 'first baseline' }, actor);
-		const v2 = freezeLimits(db, c.id, {}, actor);
+		// Issue 13: 20 subgroups by default; the NIST set has 10, so the minimum is set to 10 here.
+		expect(() => freezeLimits(db, c.id, {}, actor)).toThrow(
+			'The baseline has 10 subgroups (1 left out: excluded or outside the period); at least 20 are needed'
+		);
+		const v1 = freezeLimits(db, c.id, { note: 'first baseline', minSubgroups: 10 }, actor);
+		const v2 = freezeLimits(db, c.id, { minSubgroups: 10 }, actor);
 		expect([v1.version, v2.version]).toEqual([1, 2]);
 		expect(v1.baselinePoints).toBe(10);
 		expect(chartDetail(db, c.id).chart?.phase).toBe('II');
@@ -138,12 +143,24 @@ describe('chart of logged print parameters', () => {
 	});
 });
 
+describe('baseline minimum (site setting)', () => {
+	it('the site sets how many subgroups a baseline needs; 10–200 only', () => {
+		const c = flowChart();
+		addRuns(db, { productId: f.product.id, lineId: f.line1.id, key: 'squeegeeSpeedMmS', start }, nist.values);
+		expect(() => freezeLimits(db, c.id, {}, actor)).toThrow(LimitsError);
+		expect(() => setMinBaselineSubgroups(db, 5, actor)).toThrow('whole number from 10 to 200');
+		setMinBaselineSubgroups(db, 10, actor);
+		expect(getMinBaselineSubgroups(db)).toBe(10);
+		expect(freezeLimits(db, c.id, {}, actor).baselinePoints).toBe(10);
+	});
+});
+
 describe('signals', () => {
 	async function driftScenario(extra: Record<string, unknown> = {}) {
 		const c = flowChart(extra);
 		setFollowing(db, c.id, f.engineer.id, true);
 		addRuns(db, { productId: f.product.id, lineId: f.line1.id, key: 'squeegeeSpeedMmS', start }, nist.values);
-		freezeLimits(db, c.id, {}, actor);
+		freezeLimits(db, c.id, { minSubgroups: 10 }, actor);
 		return c;
 	}
 

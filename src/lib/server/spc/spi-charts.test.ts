@@ -103,7 +103,7 @@ describe('SPI characteristics', () => {
 		addBoards(baseline);
 		const c = createCharacteristic(db, { name: 'Volume PB-100', productId: f.product.id, lineIds: [f.line1.id], measure: 'volume-pct', chartKind: 'between-within' }, actor);
 		setFollowing(db, c.id, f.engineer.id, true);
-		freezeLimits(db, c.id, {}, actor);
+		freezeLimits(db, c.id, { minSubgroups: baseline.length }, actor);
 		const ucl = chartDetail(db, c.id).chart!.limits.location.ucl;
 		const ids = addBoards([[ucl + 5, ucl + 6, ucl + 5, ucl + 6]], 100);
 		const created = await evaluateSignalsAfterIngest(db, ids);

@@ -2,14 +2,25 @@ import { fail } from '@sveltejs/kit';
 import { hasRole, SPC_EDITORS } from '$lib/access';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
-import { getCapabilityThresholds, setCapabilityThresholds, ThresholdsError } from '$lib/server/spc/capability-settings';
+import {
+	getCapabilityThresholds,
+	getMinBaselineSubgroups,
+	setCapabilityThresholds,
+	setMinBaselineSubgroups,
+	ThresholdsError
+} from '$lib/server/spc/capability-settings';
 import { chartSummary } from '$lib/server/spc/summary';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals }) => {
 	const actor = requireActor(locals);
 	const db = getDb();
-	return { charts: chartSummary(db), thresholds: getCapabilityThresholds(db), canEdit: hasRole(actor, SPC_EDITORS) };
+	return {
+		charts: chartSummary(db),
+		thresholds: getCapabilityThresholds(db),
+		minBaseline: getMinBaselineSubgroups(db),
+		canEdit: hasRole(actor, SPC_EDITORS)
+	};
 };
 
 /** A decimal typed in a form field: digits with an optional point, nothing else. */
@@ -29,6 +40,7 @@ export const actions = {
 		};
 		try {
 			setCapabilityThresholds(getDb(), input, actor);
+			setMinBaselineSubgroups(getDb(), decimal(form.get('minBaseline')), actor);
 		} catch (err) {
 			if (err instanceof ThresholdsError) return fail(422, { action: 'thresholds', field: err.field, error: err.message });
 			throw err;

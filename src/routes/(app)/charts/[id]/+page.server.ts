@@ -6,6 +6,7 @@ import { chartDetail, NotFoundError } from '$lib/server/spc/chart-service';
 import { listFollowers, setFollowing } from '$lib/server/spc/characteristics';
 import { excludePoint, freezeLimits, includePoint, LimitsError } from '$lib/server/spc/limits-lifecycle';
 import { listSignals } from '$lib/server/spc/signals';
+import { getMinBaselineSubgroups } from '$lib/server/spc/capability-settings';
 import type { Actions, PageServerLoad } from './$types';
 
 function chartId(raw: string): number {
@@ -47,7 +48,8 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 			openSignals: listSignals(db, { status: 'open', characteristicId: id, limit: 50 }),
 			following: actor.kind === 'user' && listFollowers(db, id).some((f) => f.userId === actor.id),
 			followers: listFollowers(db, id).map((f) => f.name),
-			canEdit: hasRole(actor, SPC_EDITORS)
+			canEdit: hasRole(actor, SPC_EDITORS),
+			minBaseline: getMinBaselineSubgroups(db)
 		};
 	} catch (err) {
 		if (err instanceof NotFoundError) error(404, err.message);
