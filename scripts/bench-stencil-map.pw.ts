@@ -67,7 +67,7 @@ async function profileLoad(page: Page, path: string): Promise<void> {
 	await cdp.send('Profiler.start');
 	await page.goto(path);
 	await page.waitForFunction(
-		() => document.querySelector('[data-testid="aperture-map"] path[data-count]') !== null,
+		() => document.querySelector('[data-testid="map-layer"][data-painted]') !== null,
 		undefined,
 		{ timeout: 120_000 }
 	);
@@ -90,7 +90,7 @@ async function profileLoad(page: Page, path: string): Promise<void> {
 	await browser.startTracing(page, { categories: ['devtools.timeline', 'blink', 'v8'] });
 	await page.goto(path);
 	await page.waitForFunction(
-		() => document.querySelector('[data-testid="aperture-map"] path[data-count]') !== null,
+		() => document.querySelector('[data-testid="map-layer"][data-painted]') !== null,
 		undefined,
 		{ timeout: 120_000 }
 	);
@@ -138,13 +138,10 @@ test('stencil page with 20,000 apertures', async ({ page, request }) => {
 		// Counted either way the map may be built: one path per aperture, or paths with data-count.
 		await page.waitForFunction(
 			(n) => {
-				const map = document.querySelector('[data-testid="aperture-map"]');
-				if (!map) return false;
-				const counted = [...map.querySelectorAll('path[data-count]')].reduce(
-					(sum, p) => sum + Number(p.getAttribute('data-count')),
-					0
-				);
-				return counted === n || map.querySelectorAll('path[data-status]').length === n;
+				// The canvas map: its counts, and a full rendering shown (data-painted).
+				const c = document.querySelector('[data-testid="map-layer"]') as HTMLElement | null;
+				if (!c || !c.dataset.painted) return false;
+				return Number(c.dataset.passCount) + Number(c.dataset.failCount) === n;
 			},
 			COUNT,
 			{ timeout: 120_000, polling: 50 }
@@ -177,8 +174,8 @@ test('stencil page with 20,000 apertures', async ({ page, request }) => {
 		const frame = () =>
 			new Promise((done) => requestAnimationFrame(() => requestAnimationFrame(done)));
 		const svg = document.querySelector(
-			'[data-testid="aperture-map"] svg[role="application"]'
-		) as SVGSVGElement;
+			'[data-testid="aperture-map"] canvas[role="application"]'
+		) as HTMLCanvasElement;
 		svg.scrollIntoView({ block: 'center' });
 		await frame();
 		const timed = async (steps: number, act: (k: number) => void) => {
@@ -217,7 +214,7 @@ test('stencil page with 20,000 apertures', async ({ page, request }) => {
 
 	// The same through real input (Playwright's keyboard and mouse): this adds the browser's input
 	// pipeline, which with one element per aperture includes hit-testing thousands of elements.
-	const svg = page.locator('[data-testid="aperture-map"] svg[role="application"]');
+	const svg = page.locator('[data-testid="aperture-map"] canvas[role="application"]');
 	await svg.focus();
 	const realZoom: number[] = [];
 	for (let k = 0; k < 10; k++) {

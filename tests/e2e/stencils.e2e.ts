@@ -4,14 +4,19 @@ import { bearer, signInAs, tokenFor } from './helpers';
 
 const FIXTURES = 'tests/fixtures/stencil';
 
-/** Where a stencil point (µm, y up) is on screen, through the map's own transform. */
+/**
+ * Where a stencil point (µm, y up) is on screen, through the canvas map's own transform
+ * (`data-transform`: user units per CSS pixel, then the user point at the top-left corner).
+ */
 async function pointOnMap(page: Page, xUm: number, yUm: number): Promise<{ x: number; y: number }> {
 	const layer = page.getByTestId('map-layer');
 	await layer.scrollIntoViewIfNeeded();
+	await expect(layer).toHaveAttribute('data-painted', /\d+/);
 	return layer.evaluate(
-		(g, [x, y]) => {
-			const p = new DOMPoint(x, y).matrixTransform((g as SVGGraphicsElement).getScreenCTM()!);
-			return { x: p.x, y: p.y };
+		(c, [x, y]) => {
+			const [scale, ox, oy] = (c.getAttribute('data-transform') ?? '').split(' ').map(Number);
+			const r = c.getBoundingClientRect();
+			return { x: r.left + (x - ox) / scale, y: r.top + (-y - oy) / scale };
 		},
 		[xUm, yUm]
 	);
@@ -68,15 +73,11 @@ test.describe('stencil design check', () => {
 
 		// Failing at 127 µm: two 0.25 mm circles (0.49), two 1.0 × 0.2 mm pads (0.656), two 0201 pads (0.570).
 		await expect(page.getByTestId('fail-count')).toHaveText('✕ 6 fail');
-		// One path per status holds every outline of that status; data-count says how many.
+		// The canvas map draws one path per status; its data attributes say how many outlines each.
 		const map = page.getByTestId('aperture-map');
-		await expect(map.locator('path[data-status="fail"]')).toHaveAttribute('data-count', '6');
-		await expect(map.locator('path[data-status="pass"]')).toHaveAttribute('data-count', '5');
-		await expect(map.locator('path[data-status="fail"]')).toHaveAttribute(
-			'fill',
-			'url(#fail-hatch)'
-		);
-		await expect(map.locator('path[data-status="fail"]')).toHaveAttribute('d', /^(M[^M]+){6}$/);
+		const canvas = page.getByTestId('map-layer');
+		await expect(canvas).toHaveAttribute('data-fail-count', '6');
+		await expect(canvas).toHaveAttribute('data-pass-count', '5');
 		await expect(map).toContainText('Fail (hatched)');
 
 		const table = page.getByTestId('aperture-table');
@@ -108,20 +109,19 @@ test.describe('stencil design check', () => {
 		await expect(selected).toHaveAttribute('id', `aperture-row-${target.id}`);
 		await expect(map.getByTestId('map-selected')).toHaveCount(1);
 		// Away from every aperture the tooltip goes; a click there selects nothing new.
-		const box = (await map.locator('svg[role="application"]').boundingBox())!;
+		const box = (await map.locator('canvas[role="application"]').boundingBox())!;
 		await page.mouse.move(box.x + 3, box.y + 3);
 		await expect(map.getByRole('tooltip')).toHaveCount(0);
-		// Zoom keeps the paths and moves only the viewBox; the same aperture is still found.
-		const viewBefore = await map.locator('svg[role="application"]').getAttribute('viewBox');
-		await map.locator('svg[role="application"]').focus();
+		// Zoom keeps the paths and moves only the view; the same aperture is still found.
+		const viewBefore = await canvas.getAttribute('data-view');
+		const drawnBefore = await canvas.getAttribute('data-transform');
+		await canvas.focus();
 		await page.keyboard.press('+');
-		await expect(map.locator('svg[role="application"]')).not.toHaveAttribute(
-			'viewBox',
-			viewBefore!
-		);
-		await expect(map.locator('path[data-status="fail"]')).toHaveAttribute('data-count', '6');
+		await expect(canvas).not.toHaveAttribute('data-view', viewBefore!);
+		await expect(canvas).not.toHaveAttribute('data-transform', drawnBefore!);
+		await expect(canvas).toHaveAttribute('data-fail-count', '6');
 		await page.keyboard.press('0');
-		await expect(map.locator('svg[role="application"]')).toHaveAttribute('viewBox', viewBefore!);
+		await expect(canvas).toHaveAttribute('data-view', viewBefore!);
 
 		const [download] = await Promise.all([
 			page.waitForEvent('download'),
@@ -459,9 +459,7 @@ test.describe('stencil design check', () => {
 		const table = page.getByTestId('aperture-table');
 		await expect(table.locator('tbody tr[data-status="fail"]')).toHaveCount(1);
 		await expect(table).toContainText('R1.1');
-		await expect(
-			page.getByTestId('aperture-map').locator('path[data-status="fail"]')
-		).toHaveAttribute('data-count', '1');
+		await expect(page.getByTestId('map-layer')).toHaveAttribute('data-fail-count', '1');
 
 		// A corner radius above half the width is refused beside its field; nothing is added.
 		await form.getByLabel('Refdes').fill('R2');
