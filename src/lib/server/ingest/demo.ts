@@ -38,17 +38,20 @@ export async function seedDemoSpi(db: Db, nowMs = Date.now()): Promise<void> {
 	// Place boards inside the line's recent print runs when there are any, else over 5 days.
 	const runs = db.$client
 		.prepare(
-			`select started_at as s, coalesce(ended_at, ?) as e from print_runs
-			 where line_id = ? and started_at < ? order by started_at desc limit 10`
+			`select started_at as s, coalesce(ended_at, ?) as e, board_serial as serial from print_runs
+			 where line_id = ? and started_at < ?
+			 and product_id = (select id from products where code = 'PB-100')
+			 order by started_at desc limit 10`
 		)
-		.all(nowMs, line.id, nowMs) as { s: number; e: number }[];
+		.all(nowMs, line.id, nowMs) as { s: number; e: number; serial: string | null }[];
 	runs.reverse();
 	const windows =
 		runs.length > 0
 			? runs
 			: Array.from({ length: 5 }, (_, d) => ({
 					s: nowMs - (5 - d) * DAY + 6 * 60 * 60 * 1000,
-					e: nowMs - (5 - d) * DAY + 14 * 60 * 60 * 1000
+					e: nowMs - (5 - d) * DAY + 14 * 60 * 60 * 1000,
+					serial: null as string | null
 				}));
 	const perWindow = Math.ceil(BOARDS / windows.length);
 	const noise = gaussian(20260302);
@@ -58,7 +61,12 @@ export async function seedDemoSpi(db: Db, nowMs = Date.now()): Promise<void> {
 		const span = Math.max(60_000, w.e - w.s);
 		for (let j = 0; j < perWindow && board < BOARDS; j++, board++) {
 			const at = new Date(w.s + ((j + 0.5) / perWindow) * span).toISOString();
-			const serial = `FW-PB100-${String(100001 + board).padStart(7, '0')}`;
+			// The boards of a run carry its serials: the run logs its first board's serial, the
+			// inspected boards follow it, so a serial found in SPI leads to its run (and stencil, lot).
+			const first = w.serial ? /^(.*?)(\d+)$/.exec(w.serial) : null;
+			const serial = first
+				? `${first[1]}${String(Number(first[2]) + j).padStart(first[2].length, '0')}`
+				: `FW-PB100-${String(100001 + board).padStart(7, '0')}`;
 			const drift = 103 - (11 * board) / BOARDS; // slow loss of volume (e.g. paste drying)
 			for (const a of apertures) {
 				const bga = a.refdes === 'U2';
