@@ -114,24 +114,23 @@ export interface ImportMeta {
 }
 
 /**
- * Store apertures in one transaction, all or nothing, with an import record and an audit entry.
- * Every aperture is checked again here (whatever parsed it), so nothing invalid is ever stored.
- * @throws StencilNotFoundError; ApertureImportError naming `apertures[i]` and the field when an
- * aperture is invalid, the list is empty, the stencil would exceed 50,000 apertures, or the
- * polygon vertices of the import or the stencil would exceed their budgets (`limits.ts`).
- * @example importApertures(db, 4, parsed.apertures, { source: 'csv', mode: 'append', unit: 'mm' }, actor)
+ * Checks made before anything is written: the list's size, its polygon vertices (counted before
+ * any polygon is checked) and every aperture. Returns the vertex count.
+ * @throws ApertureImportError naming `apertures[i]` and the field.
  */
-export function importApertures(
-	db: Db,
-	stencilId: number,
-	list: readonly ApertureInput[],
-	meta: ImportMeta,
-	actor: Actor | null,
-	limits: StencilLimits = stencilLimitsFromEnv()
-): ImportSummary {
+function precheckImport(list: readonly ApertureInput[], limits: StencilLimits): number {
+	const vertices = precheckSizes(list, limits);
 	const problems: InputProblem[] = [];
 	if (list.length === 0)
 		problems.push({ where: 'import', field: 'apertures', message: 'holds no apertures' });
+	for (let i = 0; i < list.length && problems.length < 100; i++)
+		problems.push(...checkAperture(list[i], i, limits.maxOutlineVertices));
+	if (problems.length > 0) throw new ApertureImportError(problems.slice(0, 100));
+	return vertices;
+}
+
+/** The list's size and polygon vertices against the budgets; returns the vertex count. */
+function precheckSizes(list: readonly ApertureInput[], limits: StencilLimits): number {
 	if (list.length > limits.maxAperturesPerStencil)
 		throw new ApertureImportError([
 			{
@@ -155,19 +154,59 @@ export function importApertures(
 					`the limit is ${formatCount(limits.maxVerticesPerImport)} per import`
 			}
 		]);
-	for (let i = 0; i < list.length && problems.length < 100; i++)
-		problems.push(...checkAperture(list[i], i, limits.maxOutlineVertices));
-	if (problems.length > 0) throw new ApertureImportError(problems.slice(0, 100));
+	return vertices;
+}
+
+/**
+ * Store apertures in one transaction, all or nothing, with an import record and an audit entry.
+ * Every aperture is checked again here (whatever parsed it), so nothing invalid is ever stored.
+ * @throws StencilNotFoundError; ApertureImportError naming `apertures[i]` and the field when an
+ * aperture is invalid, the list is empty, the stencil would exceed 50,000 apertures, or the
+ * polygon vertices of the import or the stencil would exceed their budgets (`limits.ts`).
+ * @example importApertures(db, 4, parsed.apertures, { source: 'csv', mode: 'append', unit: 'mm' }, actor)
+ */
+export function importApertures(
+	db: Db,
+	stencilId: number,
+	list: readonly ApertureInput[],
+	meta: ImportMeta,
+	actor: Actor | null,
+	limits: StencilLimits = stencilLimitsFromEnv()
+): ImportSummary {
+	const vertices = precheckImport(list, limits);
+	return storeImport(db, stencilId, list.length, vertices, meta, actor, limits, () => {
+		// One prepared statement on the same connection (inside this transaction): 20,000 rows
+		// in well under a second, where building drizzle inserts took seconds.
+		const insert = db.$client.prepare(INSERT_APERTURE_SQL);
+		for (const a of list) insert.run(stencilId, ...apertureRow(a));
+	});
+}
+
+/**
+ * The all-or-nothing end of an import, in one transaction: the stencil's counts checked again,
+ * its apertures removed on `replace`, the rows written by `writeRows`, the import record and the
+ * audit entry.
+ */
+function storeImport(
+	db: Db,
+	stencilId: number,
+	count: number,
+	vertices: number,
+	meta: ImportMeta,
+	actor: Actor | null,
+	limits: StencilLimits,
+	writeRows: () => void
+): ImportSummary {
 	return db.transaction((tx) => {
 		const stencil = getStencil(tx, stencilId);
 		const before = meta.mode === 'replace' ? 0 : stencil.apertureCount;
-		if (before + list.length > limits.maxAperturesPerStencil)
+		if (before + count > limits.maxAperturesPerStencil)
 			throw new ApertureImportError([
 				{
 					where: 'import',
 					field: 'apertures',
 					message:
-						`the stencil would hold ${before + list.length} apertures; ` +
+						`the stencil would hold ${before + count} apertures; ` +
 						`at most ${limits.maxAperturesPerStencil} are allowed`
 				}
 			]);
@@ -184,29 +223,7 @@ export function importApertures(
 			]);
 		if (meta.mode === 'replace')
 			tx.delete(apertures).where(eq(apertures.stencilId, stencilId)).run();
-		// One prepared statement on the same connection (inside this transaction): 20,000 rows
-		// in well under a second, where building drizzle inserts took seconds.
-		const insert = db.$client.prepare(
-			`insert into apertures (stencil_id, refdes, pad, shape, length_um, width_um,
-			 corner_radius_um, diameter_um, vertices_um, x_um, y_um, rotation_deg, drawn)
-			 values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
-		);
-		for (const a of list)
-			insert.run(
-				stencilId,
-				a.refdes,
-				a.pad,
-				a.shape,
-				a.lengthUm ?? null,
-				a.widthUm ?? null,
-				a.cornerRadiusUm ?? null,
-				a.diameterUm ?? null,
-				a.verticesUm ? JSON.stringify(a.verticesUm) : null,
-				a.xUm,
-				a.yUm,
-				a.rotationDeg,
-				a.drawn === true ? 1 : 0
-			);
+		writeRows();
 		const record = tx
 			.insert(apertureImports)
 			.values({
@@ -215,7 +232,7 @@ export function importApertures(
 				fileName: meta.fileName ?? null,
 				unit: meta.unit ?? null,
 				mode: meta.mode,
-				apertureCount: list.length,
+				apertureCount: count,
 				warnings: meta.warnings ?? [],
 				createdBy: actorLabel(actor)
 			})
@@ -225,7 +242,7 @@ export function importApertures(
 			action: 'import-apertures',
 			entity: 'stencil',
 			entityId: stencilId,
-			after: { importId: record.id, source: meta.source, mode: meta.mode, count: list.length }
+			after: { importId: record.id, source: meta.source, mode: meta.mode, count }
 		});
 		return {
 			importId: record.id,
@@ -234,12 +251,104 @@ export function importApertures(
 			fileName: record.fileName,
 			unit: record.unit,
 			mode: meta.mode,
-			count: list.length,
-			totalApertures: before + list.length,
+			count,
+			totalApertures: before + count,
 			warnings: record.warnings,
 			createdAt: record.createdAt
 		};
 	});
+}
+
+
+const APERTURE_COLUMNS = `refdes, pad, shape, length_um, width_um, corner_radius_um, diameter_um,
+	 vertices_um, x_um, y_um, rotation_deg, drawn`;
+
+const INSERT_APERTURE_SQL = `insert into apertures (stencil_id, ${APERTURE_COLUMNS})
+	 values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`;
+
+/** The column values of one aperture row after `stencil_id`, in `APERTURE_COLUMNS` order. */
+function apertureRow(a: ApertureInput): (string | number | null)[] {
+	return [
+		a.refdes,
+		a.pad,
+		a.shape,
+		a.lengthUm ?? null,
+		a.widthUm ?? null,
+		a.cornerRadiusUm ?? null,
+		a.diameterUm ?? null,
+		a.verticesUm ? JSON.stringify(a.verticesUm) : null,
+		a.xUm,
+		a.yUm,
+		a.rotationDeg,
+		a.drawn === true ? 1 : 0
+	];
+}
+
+/** Rows staged per chunk of a large import; each chunk is one short write, then the loop yields. */
+export const IMPORT_CHUNK_ROWS = 2_000;
+
+const yieldToEventLoop = () => new Promise<void>((done) => setImmediate(done));
+
+let stagingToken = 0;
+
+/**
+ * `importApertures` for large lists without holding the request thread: the apertures are
+ * checked and staged in chunks of `IMPORT_CHUNK_ROWS` rows in a connection-private temporary
+ * table, yielding to the event loop between chunks (so /api/health and other requests are
+ * answered meanwhile), then moved into `apertures` with the import record and audit entry in one
+ * short transaction (one INSERT … SELECT). All or nothing: staged rows of a failed import are
+ * dropped and nothing reaches `apertures`. Lists of one chunk or less are stored at once.
+ * @throws the same errors as `importApertures`.
+ * @example await importAperturesStaged(db, 4, parsed.apertures, { source: 'gerber', mode: 'replace' }, actor)
+ */
+export async function importAperturesStaged(
+	db: Db,
+	stencilId: number,
+	list: readonly ApertureInput[],
+	meta: ImportMeta,
+	actor: Actor | null,
+	limits: StencilLimits = stencilLimitsFromEnv(),
+	chunkRows = IMPORT_CHUNK_ROWS
+): Promise<ImportSummary> {
+	if (list.length <= chunkRows) return importApertures(db, stencilId, list, meta, actor, limits);
+	// Size and vertices first (cheap), then every aperture, a chunk at a time.
+	const vertices = precheckSizes(list, limits);
+	const problems: InputProblem[] = [];
+	for (let i = 0; i < list.length && problems.length < 100; i += chunkRows) {
+		for (let k = i; k < Math.min(list.length, i + chunkRows) && problems.length < 100; k++)
+			problems.push(...checkAperture(list[k], k, limits.maxOutlineVertices));
+		await yieldToEventLoop();
+	}
+	if (problems.length > 0) throw new ApertureImportError(problems.slice(0, 100));
+	getStencil(db, stencilId); // 404 before any staging
+	const client = db.$client;
+	client.exec(`create temp table if not exists aperture_stage (token integer not null,
+		seq integer not null, ${APERTURE_COLUMNS})`);
+	const token = ++stagingToken;
+	const stage = client.prepare(
+		`insert into temp.aperture_stage (token, seq, ${APERTURE_COLUMNS})
+		 values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`
+	);
+	const stageChunk = client.transaction((from: number) => {
+		for (let k = from; k < Math.min(list.length, from + chunkRows); k++)
+			stage.run(token, k, ...apertureRow(list[k]));
+	});
+	try {
+		for (let from = 0; from < list.length; from += chunkRows) {
+			stageChunk(from);
+			await yieldToEventLoop();
+		}
+		return storeImport(db, stencilId, list.length, vertices, meta, actor, limits, () => {
+			client
+				.prepare(
+					`insert into apertures (stencil_id, ${APERTURE_COLUMNS})
+					 select ?, ${APERTURE_COLUMNS} from temp.aperture_stage where token = ? order by seq`
+				)
+				.run(stencilId, token);
+		});
+	} finally {
+		client.prepare('delete from temp.aperture_stage where token = ?').run(token);
+	}
 }
 
 /** Remove one aperture (typed in by mistake), audited. Returns whether a row was removed. */

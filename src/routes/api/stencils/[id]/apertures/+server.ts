@@ -4,7 +4,7 @@ import { getDb } from '$lib/server/db';
 import {
 	checkStoredStencil,
 	getStencil,
-	importApertures,
+	importAperturesStaged,
 	parseApertureUploadOffThread,
 	stencilLimitsFromEnv,
 	withStencilErrors,
@@ -79,7 +79,7 @@ async function importUploadedFile(
 ): Promise<Response> {
 	if (!parsed.ok) throw new ApiError(parsed.status, { error: parsed.error, errors: parsed.errors });
 	const summary = await withStencilErrors(() =>
-		importApertures(
+		importAperturesStaged(
 			db,
 			stencilId,
 			parsed.apertures,
@@ -177,7 +177,7 @@ export const POST = apiRoute(async ({ params, request, url }, actor) => {
 			}))
 		});
 	const summary = await withStencilErrors(() =>
-		importApertures(db, id, result.data.apertures, { source: 'json', mode }, actor)
+		importAperturesStaged(db, id, result.data.apertures, { source: 'json', mode }, actor)
 	);
 	return json(summary, { status: 201 });
 });
