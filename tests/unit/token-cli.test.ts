@@ -23,7 +23,12 @@ describe('npm run token', () => {
 		const lines = stdout.trim().split('\n');
 		expect(lines[lines.length - 1]).toMatch(/^rb_[A-Za-z0-9_-]{43}$/);
 		const list = token(['list']);
-		expect(list.stdout).toMatch(/\tquality\tactive\tline 1 SPI/);
+		const listed = /\tquality\tactive until (\S+)\tline 1 SPI/.exec(list.stdout);
+		expect(listed, list.stdout).not.toBeNull();
+		// Tokens expire after 90 days unless --days says otherwise (README, Security).
+		const daysLeft = (Date.parse(listed![1]) - Date.now()) / 86_400_000;
+		expect(daysLeft).toBeGreaterThan(89.9);
+		expect(daysLeft).toBeLessThanOrEqual(90);
 	}, 30_000);
 
 	it.each([

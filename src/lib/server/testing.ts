@@ -12,7 +12,8 @@ export function openTestDatabase(): { db: Db; dir: string; close: () => void } {
 		dir,
 		close: () => {
 			db.$client.close();
-			rmSync(dir, { recursive: true, force: true });
+			// A background checkpoint thread may still hold the file for a moment after an import.
+			rmSync(dir, { recursive: true, force: true, maxRetries: 10, retryDelay: 50 });
 		}
 	};
 }

@@ -506,7 +506,8 @@ const CHECKPOINT_THREAD_CODE = `
 const { parentPort, workerData } = require('node:worker_threads');
 const Database = require('better-sqlite3');
 try {
-	const db = new Database(workerData.file);
+	// Never create the file: the database may have been moved or removed meanwhile.
+	const db = new Database(workerData.file, { fileMustExist: true });
 	db.pragma('busy_timeout = 0');
 	db.pragma('wal_checkpoint(PASSIVE)');
 	db.close();
@@ -519,7 +520,7 @@ try {
 function checkpointInline(file: string, cause: unknown): void {
 	console.warn('[rollbead] checkpoint thread did not start, checkpointing here:', String(cause));
 	try {
-		const db = new Database(file);
+		const db = new Database(file, { fileMustExist: true });
 		db.pragma('wal_checkpoint(PASSIVE)');
 		db.close();
 	} catch (err) {
