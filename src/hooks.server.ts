@@ -6,7 +6,7 @@ import { getDb, isDatabaseBusy } from '$lib/server/db';
 import { apiPolicyFor } from '$lib/server/api-policy';
 import { databaseBusy, forbidden, unauthorized } from '$lib/server/api';
 import { verifyApiToken } from '$lib/server/tokens';
-import { userForSession } from '$lib/server/sessions';
+import { userForSession } from '$lib/server/users';
 import { boundRequestBody } from '$lib/server/request-body';
 import { startServices } from '$lib/server/startup';
 import { securityHeaders } from '$lib/server/security-headers';

@@ -10,8 +10,8 @@ import {
 	resetPassword,
 	ResetLinkError
 } from './password-reset';
-import { authenticate, createUser, updateUser } from './users';
-import { createSession, userForSession } from './sessions';
+import { authenticate, createUser, updateUser, userForSession } from './users';
+import { createSession } from './sessions';
 import { mailOutbox, passwordResets } from './db/schema';
 import type { Db } from './db';
 

@@ -5,10 +5,9 @@ import {
 	createSession,
 	endSession,
 	endUserSessions,
-	sessionTimeouts,
-	userForSession
+	sessionTimeouts
 } from './sessions';
-import { changePassword, createUser, updateUser } from './users';
+import { changePassword, createUser, updateUser, userForSession } from './users';
 import { sessions } from './db/schema';
 import type { Db } from './db';
 

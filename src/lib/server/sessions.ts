@@ -2,7 +2,6 @@ import { createHash, randomBytes } from 'node:crypto';
 import { eq, lt, or, sql } from 'drizzle-orm';
 import type { Db } from './db';
 import { sessions } from './db/schema';
-import { findActiveUser, type UserSummary } from './users';
 
 /** Positive number from the environment, else the default (a typo never removes a timeout). */
 function positiveSetting(value: string | undefined, fallback: number): number {
@@ -39,15 +38,16 @@ export function createSession(db: Db, userId: number, now = Date.now()): string 
 }
 
 /**
- * The active user a session id belongs to, or undefined when the session was ended, timed out, or
- * its user is gone or deactivated. Touches lastSeenAt (at most once a minute).
+ * The user id a live session belongs to, or undefined when the session was ended or timed out
+ * (a timed-out row is removed). Touches lastSeenAt (at most once a minute). Whether that user may
+ * still sign in is users.ts's question (`userForSession`), so this module needs nothing of it.
  */
-export function userForSession(
+export function sessionUserId(
 	db: Db,
 	sessionId: unknown,
 	now = Date.now(),
 	timeouts = sessionTimeouts()
-): UserSummary | undefined {
+): number | undefined {
 	if (typeof sessionId !== 'string' || sessionId.length === 0 || sessionId.length > 100) return undefined;
 	const row = db.select().from(sessions).where(eq(sessions.idHash, hashId(sessionId))).get();
 	if (!row) return undefined;
@@ -57,12 +57,10 @@ export function userForSession(
 		db.delete(sessions).where(eq(sessions.id, row.id)).run();
 		return undefined;
 	}
-	const user = findActiveUser(db, row.userId);
-	if (!user) return undefined;
 	if (now - row.lastSeenAt.getTime() > TOUCH_EVERY_MS) {
 		db.update(sessions).set({ lastSeenAt: new Date(now) }).where(eq(sessions.id, row.id)).run();
 	}
-	return user;
+	return row.userId;
 }
 
 /** End one session (sign-out). */

@@ -3,7 +3,7 @@ import type { Db } from './db';
 import { signInFailures, users } from './db/schema';
 import { hashPassword, verifyPassword } from './passwords';
 import { recordAudit } from './audit';
-import { endUserSessions } from './sessions';
+import { endUserSessions, sessionTimeouts, sessionUserId } from './sessions';
 import type { Actor, Role } from '$lib/access';
 
 export type UserSummary = {
@@ -38,6 +38,20 @@ export function findActiveUser(db: Db, id: number): UserSummary | undefined {
 		.from(users)
 		.where(and(eq(users.id, id), eq(users.active, true)))
 		.get();
+}
+
+/**
+ * The active user a session id belongs to, or undefined when the session was ended, timed out, or
+ * its user is gone or deactivated (see sessions.ts for the session rules).
+ */
+export function userForSession(
+	db: Db,
+	sessionId: unknown,
+	now = Date.now(),
+	timeouts = sessionTimeouts()
+): UserSummary | undefined {
+	const userId = sessionUserId(db, sessionId, now, timeouts);
+	return userId === undefined ? undefined : findActiveUser(db, userId);
 }
 
 export class DuplicateEmailError extends Error {
