@@ -4,20 +4,9 @@ import { lines, printRuns, spcCharacteristics } from '../db/schema';
 import { isSpiMeasure } from './measures';
 import { loadSpiSubgroups } from './spi-source';
 
-/** One subgroup of a characteristic's data, oldest first, with what the chart shows about it. */
-export interface SourceSubgroup {
-	/** Stable key: "run:12" (print log) or "board:88" (SPI); exclusions and signals use it. */
-	key: string;
-	label: string;
-	boardId: number | null;
-	boardIds: number[];
-	at: Date | null;
-	values: number[];
-	/** Per-board aggregates instead of values (SPI, all pads): n, mean, sd, range. */
-	stats?: { n: number; mean: number; sd: number; range: number };
-}
+import type { CharacteristicRow, SourceSubgroup } from './source-types';
 
-export type CharacteristicRow = typeof spcCharacteristics.$inferSelect;
+export type { CharacteristicRow, SourceSubgroup };
 
 /** Values per plotted point: n for consecutive subgroups, else 1 (print log) or the pads. */
 export const valuesPerPoint = (c: CharacteristicRow) =>

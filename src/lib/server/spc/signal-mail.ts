@@ -5,7 +5,9 @@ import { mailOutbox, spcMailQueue, spcSignals, users } from '../db/schema';
 import { sendMail } from '../mail';
 import { characteristicsByIds, chartDetail, type CharacteristicSummary } from './chart-service';
 import { listFollowers } from './characteristics';
-import type { SignalRow } from './signals';
+
+/** A stored signal (signals.ts has the same alias; not imported from there to keep one direction). */
+type SignalRow = typeof spcSignals.$inferSelect;
 
 /** Mails about signals to one person within this window before further ones wait for a digest. */
 export const DIGEST_WINDOW_MS = 5 * 60 * 1000;

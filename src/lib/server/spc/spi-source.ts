@@ -2,7 +2,7 @@ import { and, eq, inArray, isNotNull } from 'drizzle-orm';
 import { apertureGeometry, areaRatio, type ApertureInput } from '$lib/stencil';
 import type { Db } from '../db';
 import { apertures, products, spiBoards, spiPadMeasurements, spiPads, stencils } from '../db/schema';
-import type { CharacteristicRow, SourceSubgroup } from './chart-source';
+import type { CharacteristicRow, SourceSubgroup } from './source-types';
 
 /** Per-board aggregate columns and pad-measurement column of each SPI measure. */
 const COLUMNS = {
