@@ -18,7 +18,8 @@
  * timing `ingestSpiFile` in this process on the same files (which shows what HTTP adds on a
  * machine whose speed changes with other work); `--quiet-wait S` (default 60, 0 = off): before
  * each timing, wait up to S seconds for the machine's CPUs to be nearly idle. BENCH_INGEST_ROWS
- * changes the size as for the in-process benchmark. The server is stopped on every way out.
+ * changes the size as for the in-process benchmark; BENCH_HTTP_BUILD=dir runs that build folder
+ * instead (an older commit's, for before/after). The server is stopped on every way out.
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { once } from 'node:events';
@@ -80,9 +81,16 @@ function freePort(): Promise<number> {
 	});
 }
 
-/** Build if needed and copy the build aside, both under the shared lock. */
+/**
+ * Build if needed and copy the build aside, both under the shared lock; or copy the build folder
+ * given in BENCH_HTTP_BUILD (e.g. an older commit's, built in a git worktree, for before/after).
+ */
 function prepareBuild(appDir: string): void {
-	const built = spawnSync(
+	const given = process.env.BENCH_HTTP_BUILD;
+	if (given) cpSync(given, join(appDir, 'build'), { recursive: true });
+	const built = given
+		? { status: 0, stdout: '' }
+		: spawnSync(
 		'flock',
 		[LOCK, 'sh', '-c', `node scripts/ensure-build.js 2>&1 && cp -r build "${appDir}/build"`],
 		{ cwd: ROOT, encoding: 'utf8', maxBuffer: 64 << 20 }
@@ -377,7 +385,11 @@ export async function runHttpBench(): Promise<void> {
 	try {
 		const appDir = join(dir, 'app');
 		mkdirSync(appDir);
-		process.stdout.write('build (under the e2e lock) … ');
+		process.stdout.write(
+			process.env.BENCH_HTTP_BUILD
+				? `build from ${process.env.BENCH_HTTP_BUILD} … `
+				: 'build (under the e2e lock) … '
+		);
 		prepareBuild(appDir);
 		console.log('copied');
 		const databaseUrl = join(dir, 'db', 'bench.db');
