@@ -91,10 +91,10 @@ function prepareBuild(appDir: string): void {
 	const built = given
 		? { status: 0, stdout: '' }
 		: spawnSync(
-		'flock',
-		[LOCK, 'sh', '-c', `node scripts/ensure-build.js 2>&1 && cp -r build "${appDir}/build"`],
-		{ cwd: ROOT, encoding: 'utf8', maxBuffer: 64 << 20 }
-	);
+				'flock',
+				[LOCK, 'sh', '-c', `node scripts/ensure-build.js 2>&1 && cp -r build "${appDir}/build"`],
+				{ cwd: ROOT, encoding: 'utf8', maxBuffer: 64 << 20 }
+			);
 	if (built.status !== 0) throw new Error(`the build failed:\n${built.stdout.slice(-4000)}`);
 	// The copy resolves its packages and module type through these.
 	symlinkSync(join(ROOT, 'node_modules'), join(appDir, 'node_modules'));
@@ -187,7 +187,8 @@ function procSwitches(pid: number): number {
 	for (const tid of readdirSync(`/proc/${pid}/task`)) {
 		try {
 			const text = readFileSync(`/proc/${pid}/task/${tid}/status`, 'utf8');
-			for (const m of text.matchAll(/^(?:non)?voluntary_ctxt_switches:\s+(\d+)/gm)) n += Number(m[1]);
+			for (const m of text.matchAll(/^(?:non)?voluntary_ctxt_switches:\s+(\d+)/gm))
+				n += Number(m[1]);
 		} catch {
 			// the thread ended meanwhile
 		}
@@ -196,7 +197,12 @@ function procSwitches(pid: number): number {
 }
 
 function cpuTicks(): { busy: number; total: number } {
-	const f = readFileSync('/proc/stat', 'utf8').split('\n')[0].trim().split(/\s+/).slice(1).map(Number);
+	const f = readFileSync('/proc/stat', 'utf8')
+		.split('\n')[0]
+		.trim()
+		.split(/\s+/)
+		.slice(1)
+		.map(Number);
 	const total = f.reduce((a, b) => a + b, 0);
 	return { busy: total - f[3] - (f[4] ?? 0), total }; // minus idle and iowait
 }
@@ -264,7 +270,7 @@ function upload(opts: {
 					// chunked: no content-length, so node sends Transfer-Encoding: chunked
 					...(opts.mode === 'chunked'
 						? {}
-						: { 'content-length': String(head.length + opts.bytes + tail.length) }),
+						: { 'content-length': String(head.length + opts.bytes + tail.length) })
 				}
 			},
 			(r) => {
@@ -312,7 +318,9 @@ function profileSummary(path: string, top: number): string[] {
 		const n = byNode.get(prof.samples[i]);
 		if (!n) continue;
 		const f = n.callFrame;
-		const where = f.url ? `${f.url.replace(/^.*\/(build|node_modules)\//, '$1/')}:${f.lineNumber + 1}` : '';
+		const where = f.url
+			? `${f.url.replace(/^.*\/(build|node_modules)\//, '$1/')}:${f.lineNumber + 1}`
+			: '';
 		const key = `${f.functionName || '(anonymous)'} ${where}`.trim();
 		selfUs.set(key, (selfUs.get(key) ?? 0) + (prof.timeDeltas[i] ?? 0));
 	}
@@ -322,8 +330,14 @@ function profileSummary(path: string, top: number): string[] {
 		.filter(([key]) => key !== '(idle)')
 		.sort((a, b) => b[1] - a[1])
 		.slice(0, top)
-		.map(([key, us]) => `  ${(us / 1000).toFixed(0).padStart(7)} ms ${((100 * us) / total).toFixed(1).padStart(5)} %  ${key}`);
-	return [`busy ${(total / 1e6).toFixed(2)} s of ${((prof.endTime - prof.startTime) / 1e6).toFixed(2)} s`, ...lines];
+		.map(
+			([key, us]) =>
+				`  ${(us / 1000).toFixed(0).padStart(7)} ms ${((100 * us) / total).toFixed(1).padStart(5)} %  ${key}`
+		);
+	return [
+		`busy ${(total / 1e6).toFixed(2)} s of ${((prof.endTime - prof.startTime) / 1e6).toFixed(2)} s`,
+		...lines
+	];
 }
 
 /** The same file through `ingestSpiFile` in this process (as `npm run bench:ingest` times it). */
@@ -369,7 +383,10 @@ export async function runHttpBench(): Promise<void> {
 			: modeArg === 'both'
 				? ['multipart', 'raw']
 				: modeArg.split(',').filter((m): m is Mode => ['multipart', 'raw', 'chunked'].includes(m));
-	if (modes.length === 0) throw new Error(`--mode: multipart, raw, chunked (comma-separated), both or all; got "${modeArg}"`);
+	if (modes.length === 0)
+		throw new Error(
+			`--mode: multipart, raw, chunked (comma-separated), both or all; got "${modeArg}"`
+		);
 	const rows = rowsWanted();
 	const dir = mkdtempSync(join(tmpdir(), 'rollbead-bench-http-'));
 	const profileDir = values.profile ? mkdtempSync(join(tmpdir(), 'rollbead-bench-prof-')) : null;
@@ -445,7 +462,10 @@ export async function runHttpBench(): Promise<void> {
 					: { seconds: NaN, cpuSeconds: NaN };
 				if (session && profileDir) {
 					const { profile } = await session.post('Profiler.stop');
-					writeFileSync(join(profileDir, `in-process-${fileNo}.cpuprofile`), JSON.stringify(profile));
+					writeFileSync(
+						join(profileDir, `in-process-${fileNo}.cpuprofile`),
+						JSON.stringify(profile)
+					);
 					session.disconnect();
 				}
 				if (local) {
@@ -474,7 +494,9 @@ export async function runHttpBench(): Promise<void> {
 				`quiet start: each timing waited up to ${quietSeconds} s for half a second with the CPUs < 15 % busy; ${busy} of ${busyAtStart.length} started busier (at most ${(100 * Math.max(...busyAtStart)).toFixed(0)} %)`
 			);
 		}
-		console.log(`file: ${rows.toLocaleString('en')} rows, ${(bytes / 1e6).toFixed(1)} MB per upload`);
+		console.log(
+			`file: ${rows.toLocaleString('en')} rows, ${(bytes / 1e6).toFixed(1)} MB per upload`
+		);
 		const all = modes.flatMap((m) => ours[m]);
 		const allSqlite = modes.flatMap((m) => theirs[m]);
 		for (const mode of modes) {
@@ -509,7 +531,9 @@ export async function runHttpBench(): Promise<void> {
 		rmSync(dir, { recursive: true, force: true });
 	}
 	if (profileDir) {
-		for (const f of readdirSync(profileDir).filter((f) => f.endsWith('.cpuprofile')).sort()) {
+		for (const f of readdirSync(profileDir)
+			.filter((f) => f.endsWith('.cpuprofile'))
+			.sort()) {
 			console.log(`\nprofile ${join(profileDir, f)}`);
 			for (const line of profileSummary(join(profileDir, f), 25)) console.log(line);
 		}
