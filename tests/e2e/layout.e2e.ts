@@ -66,3 +66,18 @@ test('a board page pages its pads with a count and a filter; failing outlines st
 	const height = await page.evaluate(() => document.documentElement.scrollHeight);
 	expect(height).toBeLessThan(6000);
 });
+
+test('the stencil page pages its apertures: a page of rows, with count and filter, not thousands', async ({ page }) => {
+	await signInAs(page, 'viewer');
+	await page.goto('/stencils');
+	const href = await page.locator('main a[href^="/stencils/"]').evaluateAll((as) =>
+		as.map((a) => a.getAttribute('href') ?? '').find((h) => /^\/stencils\/\d+$/.test(h))
+	);
+	expect(href).toBeTruthy();
+	await page.goto(href!);
+	await page.waitForLoadState('networkidle');
+	const rows = await page.locator('main table tbody tr').count();
+	expect(rows).toBeLessThan(400);
+	const height = await page.evaluate(() => document.documentElement.scrollHeight);
+	expect(height).toBeLessThan(8000);
+});
