@@ -25,6 +25,16 @@ test('the charts list and every chart page show the API assessment; none contrad
 		const reading = page.getByTestId('capability-reading');
 		await expect(reading, c.name).toHaveAttribute('data-verdict', c.level);
 		await expect(page.getByTestId('capability-verdict'), c.name).toHaveText(`${c.assessment.headline}.`);
+		// Chart labels never overlap: the histogram's spec labels have disjoint boxes.
+		const boxes = await page.getByTestId('capability').locator('svg text.font-semibold').evaluateAll((ts) =>
+			ts.map((t) => t.getBoundingClientRect()).map((r) => ({ l: r.left, r: r.right, t: r.top, b: r.bottom }))
+		);
+		for (let i = 0; i < boxes.length; i++)
+			for (let j = i + 1; j < boxes.length; j++) {
+				const [p, q] = [boxes[i], boxes[j]];
+				const overlap = p.l < q.r && q.l < p.r && p.t < q.b && q.t < p.b;
+				expect(overlap, `${c.name}: spec labels ${i} and ${j} overlap`).toBe(false);
+			}
 		// "Highly capable", the old Cpk-only words, appear nowhere.
 		await expect(page.locator('main')).not.toContainText('Highly capable');
 	}
