@@ -50,8 +50,9 @@ for (const role of ROLES) {
 			await page.waitForLoadState('networkidle');
 			const text = await page.locator('body').evaluate((b) => {
 				const svgText = [...b.querySelectorAll('svg text')].map((t) => t.textContent ?? '').join('\n');
-				// Raw records shown on purpose (the audit trail's before/after JSON) are not labels.
-				const pres = [...b.querySelectorAll('pre')];
+				// Raw records shown on purpose (the audit trail's before/after JSON) and literal
+				// values in <code> (a token's random prefix, a file name) are not labels.
+				const pres = [...b.querySelectorAll('pre, code')] as HTMLElement[];
 				for (const pre of pres) pre.style.display = 'none';
 				const text = (b as HTMLElement).innerText;
 				for (const pre of pres) pre.style.display = '';
