@@ -227,7 +227,7 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 			});
 		};
 		// Batches wait here until a chunk's worth is ready; then one short transaction writes them.
-		let held: SpiRowBatch[] = [];
+		const held: SpiRowBatch[] = [];
 		let heldRows = 0;
 		const writeHeld = async () => {
 			while (held.length > 0) {

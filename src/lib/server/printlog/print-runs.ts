@@ -1,5 +1,4 @@
 import { and, asc, desc, eq, gte, inArray, isNull, lte, type SQL } from 'drizzle-orm';
-import { alias } from 'drizzle-orm/sqlite-core';
 import type { Actor } from '$lib/access';
 import {
 	assessLotForRun,
@@ -80,8 +79,6 @@ export type RunFilters = {
 	stencilId?: number;
 	limit?: number;
 };
-
-const overrider = alias(users, 'overrider');
 
 function runQuery(db: Db) {
 	return db
