@@ -219,7 +219,9 @@ function touchingGroups(pieces: readonly Piece[], maxCells: number): number[][] 
 		while (parent[i] !== i) i = parent[i] = parent[parent[i]];
 		return i;
 	};
-	const sizes = pieces.map((p) => Math.max(p.box[2] - p.box[0], p.box[3] - p.box[1])).sort((a, b) => a - b);
+	const sizes = pieces
+		.map((p) => Math.max(p.box[2] - p.box[0], p.box[3] - p.box[1]))
+		.sort((a, b) => a - b);
 	const cell = Math.max(1, sizes[Math.floor(sizes.length / 2)] ?? 1);
 	const cells = new Map<string, number[]>();
 	let filed = 0;
@@ -394,7 +396,9 @@ export function importDraws(
 			const outer = openRing(rings[0]);
 			if (outer.length < 3) continue;
 			if (polygonSignedArea(outer) < 0) outer.reverse();
-			const areaUm2 = polygonSignedArea(outer) - rings.slice(1).reduce((s, h) => s + Math.abs(polygonSignedArea(openRing(h))), 0);
+			const areaUm2 =
+				polygonSignedArea(outer) -
+				rings.slice(1).reduce((s, h) => s + Math.abs(polygonSignedArea(openRing(h))), 0);
 			const extentUm = hullDiameter(outer);
 			const elongation = areaUm2 > 0 ? (extentUm * extentUm) / areaUm2 : Infinity;
 			const holes = rings.length - 1;

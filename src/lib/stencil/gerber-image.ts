@@ -294,10 +294,17 @@ export function readGerberImage(
 					break;
 				}
 				const arc =
-					mode === 'i'
-						? null
-						: { i: cmd.coord.i ?? 0, j: cmd.coord.j ?? 0, dir: mode, quadrant };
-				strokes.push({ line, seq, clear, offsets, start: point, end: next, pen: penOf(currentTool), arc });
+					mode === 'i' ? null : { i: cmd.coord.i ?? 0, j: cmd.coord.j ?? 0, dir: mode, quadrant };
+				strokes.push({
+					line,
+					seq,
+					clear,
+					offsets,
+					start: point,
+					end: next,
+					pen: penOf(currentTool),
+					arc
+				});
 			}
 			point = next;
 			lastOp = op;

@@ -477,7 +477,8 @@ function relateOpenings(
 	const regionEnd = flashes.length + regions.length;
 	const isRegion = (i: number) => i >= regionStart && i < regionEnd;
 	for (const { a, b } of report.pairs) {
-		const [f, r] = all[a].flash && isRegion(b) ? [a, b] : all[b].flash && isRegion(a) ? [b, a] : [-1, -1];
+		const [f, r] =
+			all[a].flash && isRegion(b) ? [a, b] : all[b].flash && isRegion(a) ? [b, a] : [-1, -1];
 		if (f < 0 || merged.has(f) || all[r].holed) continue;
 		if (!liesWithin(validApertureOutlineUm(all[f].a, 16), validApertureOutlineUm(all[r].a, 16)))
 			continue;

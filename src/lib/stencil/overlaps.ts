@@ -87,7 +87,11 @@ export function findApertureOverlaps(
 		const [c0, r0, c1, r1] = boxes[i].map((v) => Math.floor(v / cell));
 		filed += (c1 - c0 + 1) * (r1 - r0 + 1);
 		if (filed > limits.maxCellsFiled)
-			return done([], sumAreaUm2, `overlap check stopped: the openings cover more than ${formatCount(limits.maxCellsFiled)} grid cells`);
+			return done(
+				[],
+				sumAreaUm2,
+				`overlap check stopped: the openings cover more than ${formatCount(limits.maxCellsFiled)} grid cells`
+			);
 		for (let r = r0; r <= r1; r++)
 			for (let c = c0; c <= c1; c++) {
 				const key = keyOf(c, r);
@@ -117,7 +121,9 @@ export function findApertureOverlaps(
 				const [a, b] = [boxes[i], boxes[j]];
 				if (!(a[0] < b[2] && b[0] < a[2] && a[1] < b[3] && b[1] < a[3])) continue;
 				// Test each pair only in the cell holding the corner where the two boxes start.
-				const [cx, cy] = [Math.max(a[0], b[0]), Math.max(a[1], b[1])].map((v) => Math.floor(v / cell));
+				const [cx, cy] = [Math.max(a[0], b[0]), Math.max(a[1], b[1])].map((v) =>
+					Math.floor(v / cell)
+				);
 				if (cx !== c || cy !== r) continue;
 				let shared: number;
 				try {

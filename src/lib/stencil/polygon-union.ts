@@ -31,10 +31,7 @@ function withSnapping<T>(polys: readonly PointUm[][], run: (geoms: ClippedPolygo
  * @example unite([[[0,0],[2,0],[2,1],[0,1]], [[1,0],[3,0],[3,1],[1,1]]]).length // 1
  */
 export function unite(polys: readonly PointUm[][]): ClippedPolygon[] {
-	return withSnapping(
-		polys,
-		(g) => polygonClipping.union(g[0], ...g.slice(1)) as ClippedPolygon[]
-	);
+	return withSnapping(polys, (g) => polygonClipping.union(g[0], ...g.slice(1)) as ClippedPolygon[]);
 }
 
 /**
@@ -42,8 +39,9 @@ export function unite(polys: readonly PointUm[][]): ClippedPolygon[] {
  * @example clippedArea(intersect([[0,0],[2,0],[2,2],[0,2]], [[1,1],[3,1],[3,3],[1,3]])) // 1
  */
 export function intersect(a: readonly PointUm[], b: readonly PointUm[]): ClippedPolygon[] {
-	return withSnapping([a as PointUm[], b as PointUm[]], (g) =>
-		polygonClipping.intersection(g[0], g[1]) as ClippedPolygon[]
+	return withSnapping(
+		[a as PointUm[], b as PointUm[]],
+		(g) => polygonClipping.intersection(g[0], g[1]) as ClippedPolygon[]
 	);
 }
 

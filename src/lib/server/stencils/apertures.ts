@@ -259,7 +259,6 @@ function storeImport(
 	});
 }
 
-
 const APERTURE_COLUMNS = `refdes, pad, shape, length_um, width_um, corner_radius_um, diameter_um,
 	 vertices_um, x_um, y_um, rotation_deg, drawn`;
 
