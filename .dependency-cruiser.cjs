@@ -19,14 +19,24 @@ module.exports = {
 			comment:
 				'Domain computation is framework-free: no server code, SvelteKit, Svelte or Drizzle imports.',
 			from: { path: PURE, pathNot: '\\.test\\.ts$' },
-			to: { path: ['^src/lib/server/', '^node_modules/(@sveltejs|svelte|drizzle-orm|better-sqlite3)/', '^\\$app', '^\\$env'] }
+			to: {
+				path: [
+					'^src/lib/server/',
+					'^node_modules/(@sveltejs|svelte|drizzle-orm|better-sqlite3)/',
+					'^\\$app',
+					'^\\$env'
+				]
+			}
 		}
 	],
 	options: {
 		doNotFollow: { path: 'node_modules' },
 		tsPreCompilationDeps: true,
 		tsConfig: { fileName: 'tsconfig.json' },
-		enhancedResolveOptions: { exportsFields: ['exports'], conditionNames: ['import', 'require', 'node', 'default', 'types'] },
+		enhancedResolveOptions: {
+			exportsFields: ['exports'],
+			conditionNames: ['import', 'require', 'node', 'default', 'types']
+		},
 		exclude: { path: ['\\.svelte-kit', 'node_modules'] }
 	}
 };

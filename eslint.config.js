@@ -40,6 +40,14 @@ export default ts.config(
 		}
 	},
 	{
-		ignores: ['build/', '.svelte-kit/', 'node_modules/', '.e2e/', '.test-results/', 'data/', 'drizzle/']
+		ignores: [
+			'build/',
+			'.svelte-kit/',
+			'node_modules/',
+			'.e2e/',
+			'.test-results/',
+			'data/',
+			'drizzle/'
+		]
 	}
 );

@@ -47,8 +47,16 @@ export default defineConfig({
 		}
 	},
 	projects: [
-		{ name: 'desktop', use: { viewport: { width: 1280, height: 800 } }, testIgnore: '**/*.tablet.e2e.ts' },
-		{ name: 'tablet', use: { ...devices['Galaxy Tab S4'], browserName: 'chromium' }, testMatch: '**/*.tablet.e2e.ts' }
+		{
+			name: 'desktop',
+			use: { viewport: { width: 1280, height: 800 } },
+			testIgnore: '**/*.tablet.e2e.ts'
+		},
+		{
+			name: 'tablet',
+			use: { ...devices['Galaxy Tab S4'], browserName: 'chromium' },
+			testMatch: '**/*.tablet.e2e.ts'
+		}
 	],
 	webServer: {
 		// A throw-away database on every run; the real app, built and started with `node build`.

@@ -19,7 +19,9 @@ async function main(): Promise<void> {
 		console.error(`error: no database at ${source} (DATABASE_URL).`);
 		process.exit(1);
 	}
-	const dir = resolve(values.dir ?? (process.env.BACKUP_DIR?.trim() || join(dirname(source), 'backups')));
+	const dir = resolve(
+		values.dir ?? (process.env.BACKUP_DIR?.trim() || join(dirname(source), 'backups'))
+	);
 	// Its own connection: the running server's connections go on reading and writing meanwhile.
 	const db = new Database(source, { fileMustExist: true });
 	db.pragma('busy_timeout = 5000');
@@ -33,7 +35,8 @@ async function main(): Promise<void> {
 		const keep = Number(process.env.BACKUP_KEEP);
 		if (Number.isInteger(keep) && keep >= 1) {
 			const removed = pruneBackups(dir, keep);
-			if (removed.length) console.log(`  removed ${removed.length} older backup(s) (BACKUP_KEEP=${keep})`);
+			if (removed.length)
+				console.log(`  removed ${removed.length} older backup(s) (BACKUP_KEEP=${keep})`);
 		}
 	} finally {
 		db.close();

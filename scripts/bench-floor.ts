@@ -26,7 +26,8 @@ const { values } = parseArgs({
 });
 const LINES = Number(values.lines);
 const MINUTES = Number(values.minutes);
-if (!Number.isInteger(LINES) || LINES < 1 || !(MINUTES > 0)) throw new Error('--lines N (whole) and --minutes M (> 0)');
+if (!Number.isInteger(LINES) || LINES < 1 || !(MINUTES > 0))
+	throw new Error('--lines N (whole) and --minutes M (> 0)');
 
 async function freePort(): Promise<number> {
 	return new Promise((resolve, reject) => {
@@ -44,10 +45,13 @@ const quantile = (xs: number[], q: number) => {
 	const s = [...xs].sort((a, b) => a - b);
 	return s[Math.min(s.length - 1, Math.floor(q * s.length))];
 };
-const fmt = (v: number, unit = 'ms') => (Number.isFinite(v) ? `${v.toFixed(v < 10 ? 1 : 0)} ${unit}` : '–');
+const fmt = (v: number, unit = 'ms') =>
+	Number.isFinite(v) ? `${v.toFixed(v < 10 ? 1 : 0)} ${unit}` : '–';
 
 console.log('[bench:floor] building when sources changed (under the e2e lock)…');
-execFileSync('flock', ['/tmp/rollbead-e2e.lock', 'node', 'scripts/ensure-build.js'], { stdio: 'inherit' });
+execFileSync('flock', ['/tmp/rollbead-e2e.lock', 'node', 'scripts/ensure-build.js'], {
+	stdio: 'inherit'
+});
 
 const dir = mkdtempSync(join(tmpdir(), 'rollbead-bench-floor-'));
 const database = join(dir, 'floor.db');
@@ -62,10 +66,14 @@ const env = {
 	ROLLBEAD_DEMO: '0',
 	SIGNAL_ESCALATE_MINUTES: '0'
 };
-const token = execFileSync('npx', ['tsx', 'scripts/token.ts', 'create', '--name', 'bench floor', '--role', 'engineer'], {
-	env,
-	encoding: 'utf8'
-})
+const token = execFileSync(
+	'npx',
+	['tsx', 'scripts/token.ts', 'create', '--name', 'bench floor', '--role', 'engineer'],
+	{
+		env,
+		encoding: 'utf8'
+	}
+)
 	.trim()
 	.split('\n')
 	.pop()!;
@@ -92,36 +100,42 @@ for (let i = 0; ; i++) {
 	if (i > 300) throw new Error(`the server did not start:\n${serverLog}`);
 	await new Promise((r) => setTimeout(r, 200));
 }
-console.log(`[bench:floor] server on ${base} (pid ${server.pid}); ${LINES} lines for ${MINUTES} min`);
+console.log(
+	`[bench:floor] server on ${base} (pid ${server.pid}); ${LINES} lines for ${MINUTES} min`
+);
 
 // Stream: each `line` event closes the oldest unanswered-by-event POST of its line.
 const pendingSends = new Map<string, number[]>();
 const eventDelays: number[] = [];
 let lineEvents = 0;
 let streamText = '';
-const stream = httpRequest(`${base}/api/lines/stream`, { headers: { authorization: `Bearer ${token}` } }, (res) => {
-	res.setEncoding('utf8');
-	res.on('data', (chunk: string) => {
-		streamText += chunk;
-		let end: number;
-		while ((end = streamText.indexOf('\n\n')) !== -1) {
-			const frame = streamText.slice(0, end);
-			streamText = streamText.slice(end + 2);
-			if (!frame.includes('event: line')) continue;
-			lineEvents++;
-			const data = /^data: (.*)$/m.exec(frame)?.[1];
-			if (!data) continue;
-			const code = /"lineCode":"([^"]+)"/.exec(data)?.[1];
-			const sends = code ? pendingSends.get(code) : undefined;
-			if (sends?.length) {
-				const now = Date.now();
-				// The tile carries every file sent before it was computed: the earliest counts.
-				eventDelays.push(now - sends[0]);
-				pendingSends.set(code!, []);
+const stream = httpRequest(
+	`${base}/api/lines/stream`,
+	{ headers: { authorization: `Bearer ${token}` } },
+	(res) => {
+		res.setEncoding('utf8');
+		res.on('data', (chunk: string) => {
+			streamText += chunk;
+			let end: number;
+			while ((end = streamText.indexOf('\n\n')) !== -1) {
+				const frame = streamText.slice(0, end);
+				streamText = streamText.slice(end + 2);
+				if (!frame.includes('event: line')) continue;
+				lineEvents++;
+				const data = /^data: (.*)$/m.exec(frame)?.[1];
+				if (!data) continue;
+				const code = /"lineCode":"([^"]+)"/.exec(data)?.[1];
+				const sends = code ? pendingSends.get(code) : undefined;
+				if (sends?.length) {
+					const now = Date.now();
+					// The tile carries every file sent before it was computed: the earliest counts.
+					eventDelays.push(now - sends[0]);
+					pendingSends.set(code!, []);
+				}
 			}
-		}
-	});
-});
+		});
+	}
+);
 stream.end();
 
 let inFlight = 0;
@@ -145,7 +159,9 @@ const overviewLoop = (async () => {
 	while (sampling) {
 		const start = performance.now();
 		try {
-			const r = await fetch(`${base}/api/lines/overview`, { headers: { authorization: `Bearer ${token}` } });
+			const r = await fetch(`${base}/api/lines/overview`, {
+				headers: { authorization: `Bearer ${token}` }
+			});
 			await r.arrayBuffer();
 			if (r.ok) overviewTimes.push(performance.now() - start);
 		} catch {
@@ -182,9 +198,13 @@ clearInterval(rssTimer);
 rss.push({ atS: elapsedS(), mb: readRssMb() });
 stream.destroy();
 
-const overviewBody = await (await fetch(`${base}/api/lines/overview`, { headers: { authorization: `Bearer ${token}` } })).json();
+const overviewBody = await (
+	await fetch(`${base}/api/lines/overview`, { headers: { authorization: `Bearer ${token}` } })
+).json();
 console.log('\n== bench:floor ==');
-console.log(`lines ${LINES}, ${MINUTES} min, machine: ${(await import('node:os')).cpus().length} cores`);
+console.log(
+	`lines ${LINES}, ${MINUTES} min, machine: ${(await import('node:os')).cpus().length} cores`
+);
 console.log(`simulated: ${JSON.stringify(result)}`);
 console.log(`overview tiles at the end: ${overviewBody.lines.length}`);
 console.log(
@@ -196,7 +216,9 @@ console.log(
 console.log(
 	`SPI import answer: p50 ${fmt(quantile(importTimes, 0.5))}, p95 ${fmt(quantile(importTimes, 0.95))}, max ${fmt(Math.max(...importTimes))}`
 );
-console.log(`ingest backlog (files sent, not answered) every 5 s: ${backlog.map((b) => b.inFlight).join(' ')}`);
+console.log(
+	`ingest backlog (files sent, not answered) every 5 s: ${backlog.map((b) => b.inFlight).join(' ')}`
+);
 console.log(`server RSS (MB) every 10 s: ${rss.map((r) => r.mb.toFixed(0)).join(' ')}`);
 stopServer();
 process.exit(0);

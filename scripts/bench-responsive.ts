@@ -123,7 +123,12 @@ async function main() {
 			const res = await fetch(`${server.url}/api/stencils`, {
 				method: 'POST',
 				headers: { authorization: `Bearer ${engineer}`, 'content-type': 'application/json' },
-				body: JSON.stringify({ name, revision: 'A', thicknessUm: 120, technology: 'laser-stainless' })
+				body: JSON.stringify({
+					name,
+					revision: 'A',
+					thicknessUm: 120,
+					technology: 'laser-stainless'
+				})
 			});
 			stencilIds.push(((await res.json()) as { id: number }).id);
 		}
@@ -133,7 +138,14 @@ async function main() {
 		const spi = (name: string) =>
 			uploadPaced(server!.url, quality, spiBody, name, { pieceBytes: 1 << 20, pauseMs: 0 }).done;
 
-		await probeDuring(server, quality, chartId, 'idle (3 s)', new Promise((r) => setTimeout(r, 3000)), samples);
+		await probeDuring(
+			server,
+			quality,
+			chartId,
+			'idle (3 s)',
+			new Promise((r) => setTimeout(r, 3000)),
+			samples
+		);
 
 		const spiStart = performance.now();
 		const spiRun = spi('responsive-1.csv');
@@ -150,15 +162,24 @@ async function main() {
 		// The same file again would be a duplicate: shift its serials for the combined phase.
 		const spiBody2 = Buffer.from(spiBody.toString('latin1').replaceAll('RSP-', 'RSQ-'), 'latin1');
 		const both = Promise.all([
-			uploadPaced(server.url, quality, spiBody2, 'responsive-2.csv', { pieceBytes: 1 << 20, pauseMs: 0 }).done,
+			uploadPaced(server.url, quality, spiBody2, 'responsive-2.csv', {
+				pieceBytes: 1 << 20,
+				pauseMs: 0
+			}).done,
 			uploadGerber(server, engineer, stencilIds[1], gerber)
 		]);
 		await probeDuring(server, quality, chartId, 'SPI + Gerber at once', both, samples);
 		const [spi2, gerber2] = await both;
 
-		console.log(`Rollbead responsiveness under load (${new Date().toISOString()}, load average ${readFileSync('/proc/loadavg', 'utf8').split(' ').slice(0, 3).join(' ')})`);
-		console.log(`SPI file: ${rows.toLocaleString('en-US')} pad rows, ${(spiBytes / 1e6).toFixed(1)} MB → ${spiOutcome.status} ${String(spiOutcome.body.status ?? '')} in ${spiSeconds.toFixed(1)} s; again with Gerber: ${spi2.status} ${String(spi2.body.status ?? '')}`);
-		console.log(`Gerber layer: ${flashes.toLocaleString('en-US')} flashes, ${(gerber.length / 1e6).toFixed(1)} MB → ${gerberOutcome.status} (${gerberOutcome.count ?? gerberOutcome.error} apertures) in ${gerberSeconds.toFixed(1)} s; again with SPI: ${gerber2.status}`);
+		console.log(
+			`Rollbead responsiveness under load (${new Date().toISOString()}, load average ${readFileSync('/proc/loadavg', 'utf8').split(' ').slice(0, 3).join(' ')})`
+		);
+		console.log(
+			`SPI file: ${rows.toLocaleString('en-US')} pad rows, ${(spiBytes / 1e6).toFixed(1)} MB → ${spiOutcome.status} ${String(spiOutcome.body.status ?? '')} in ${spiSeconds.toFixed(1)} s; again with Gerber: ${spi2.status} ${String(spi2.body.status ?? '')}`
+		);
+		console.log(
+			`Gerber layer: ${flashes.toLocaleString('en-US')} flashes, ${(gerber.length / 1e6).toFixed(1)} MB → ${gerberOutcome.status} (${gerberOutcome.count ?? gerberOutcome.error} apertures) in ${gerberSeconds.toFixed(1)} s; again with SPI: ${gerber2.status}`
+		);
 		console.log(`Probes every ${PROBE_EVERY_MS} ms; target p95 < ${TARGET_P95_MS} ms.\n`);
 		console.log('| phase | endpoint | n | p50 ms | p95 ms | max ms | non-200 | p95 target |');
 		console.log('| --- | --- | --- | --- | --- | --- | --- | --- |');

@@ -44,20 +44,38 @@ const product = db.insert(products).values({ code: 'BX-1', name: 'Bench board' }
 const line = db.insert(lines).values({ code: 'BL-1', name: 'Bench line' }).returning().get();
 const importId = db
 	.insert(spiImports)
-	.values({ source: 'api', fileName: 'bench', sha256: 'bench', sizeBytes: 0, status: 'imported', createdBy: 'system', startedAt: new Date(), finishedAt: new Date() })
+	.values({
+		source: 'api',
+		fileName: 'bench',
+		sha256: 'bench',
+		sizeBytes: 0,
+		status: 'imported',
+		createdBy: 'system',
+		startedAt: new Date(),
+		finishedAt: new Date()
+	})
 	.returning()
 	.get().id;
 
-const insertPad = sqlite.prepare('insert into spi_pads (product_code, panel_index, refdes, pad) values (?, 0, ?, ?)');
+const insertPad = sqlite.prepare(
+	'insert into spi_pads (product_code, panel_index, refdes, pad) values (?, 0, ?, ?)'
+);
 const padIds: number[] = [];
 sqlite.transaction(() => {
-	for (let p = 0; p < PADS; p++) padIds.push(Number(insertPad.run('BX-1', `R${Math.floor(p / 2) + 1}`, String((p % 2) + 1)).lastInsertRowid));
+	for (let p = 0; p < PADS; p++)
+		padIds.push(
+			Number(
+				insertPad.run('BX-1', `R${Math.floor(p / 2) + 1}`, String((p % 2) + 1)).lastInsertRowid
+			)
+		);
 })();
 
-const insertBoard = sqlite.prepare(`insert into spi_boards (serial, inspected_at, line_code, product_code, line_id, product_id,
+const insertBoard =
+	sqlite.prepare(`insert into spi_boards (serial, inspected_at, line_code, product_code, line_id, product_id,
 	import_id, pad_count, pass_count, warn_count, fail_count, volume_pct_count, volume_pct_mean, volume_pct_sd,
 	volume_pct_min, volume_pct_max, volume_pct_range) values (?, ?, 'BL-1', 'BX-1', ?, ?, ?, ?, ?, 0, 0, ?, ?, ?, ?, ?, ?)`);
-const insertMeasurement = sqlite.prepare(`insert into spi_pad_measurements (board_id, pad_id, volume_centi_pct,
+const insertMeasurement =
+	sqlite.prepare(`insert into spi_pad_measurements (board_id, pad_id, volume_centi_pct,
 	area_centi_pct, height_centi_um, offset_x_centi_um, offset_y_centi_um, result) values (?, ?, ?, 10000, 12000, 0, 0, 0)`);
 const start = Date.parse('2026-11-01T00:00:00Z');
 
@@ -79,7 +97,21 @@ function addBoard(i: number, shift = 0): number {
 	let ss = 0;
 	for (let p = 0; p < PADS; p++) ss += (values[p] / 100 - mean) ** 2;
 	const boardId = Number(
-		insertBoard.run(`BX-${String(i).padStart(6, '0')}`, start + i * 30_000, line.id, product.id, importId, PADS, PADS, PADS, mean, Math.sqrt(ss / (PADS - 1)), min / 100, max / 100, (max - min) / 100).lastInsertRowid
+		insertBoard.run(
+			`BX-${String(i).padStart(6, '0')}`,
+			start + i * 30_000,
+			line.id,
+			product.id,
+			importId,
+			PADS,
+			PADS,
+			PADS,
+			mean,
+			Math.sqrt(ss / (PADS - 1)),
+			min / 100,
+			max / 100,
+			(max - min) / 100
+		).lastInsertRowid
 	);
 	for (let p = 0; p < PADS; p++) insertMeasurement.run(boardId, padIds[p], values[p]);
 	return boardId;
@@ -92,12 +124,23 @@ for (let b = 0; b < BOARDS; b += 100) {
 	})();
 }
 const fillS = (performance.now() - t0) / 1000;
-const padRows = (sqlite.prepare('select count(*) n from spi_pad_measurements').get() as { n: number }).n;
-console.log(`data: ${BOARDS} boards, ${padRows.toLocaleString('en')} pad rows written in ${fillS.toFixed(1)} s; database ${(statSync(file).size / 1e6).toFixed(0)} MB`);
+const padRows = (
+	sqlite.prepare('select count(*) n from spi_pad_measurements').get() as { n: number }
+).n;
+console.log(
+	`data: ${BOARDS} boards, ${padRows.toLocaleString('en')} pad rows written in ${fillS.toFixed(1)} s; database ${(statSync(file).size / 1e6).toFixed(0)} MB`
+);
 
 const chart = createCharacteristic(
 	db,
-	{ name: 'Bench volume', productId: product.id, lineIds: [line.id], measure: 'volume-pct', chartKind: 'between-within', rules: [...RULE_IDS] },
+	{
+		name: 'Bench volume',
+		productId: product.id,
+		lineIds: [line.id],
+		measure: 'volume-pct',
+		chartKind: 'between-within',
+		rules: [...RULE_IDS]
+	},
 	null
 );
 freezeLimits(db, chart.id, { limit: 1000 }, null);
@@ -117,7 +160,9 @@ for (let r = 0; r < 25; r++) {
 	points = (JSON.parse(body).points as unknown[]).length;
 }
 const chartCpuEach = cpuMs(chartCpu) / chartTimes.length;
-console.log(`chart API path, ${points} subgroups, limits + 12 rules + capability + histogram + JSON: median ${ms(median(chartTimes))}, min ${ms(Math.min(...chartTimes))}, CPU ${ms(chartCpuEach)} per request (target < 50 ms)`);
+console.log(
+	`chart API path, ${points} subgroups, limits + 12 rules + capability + histogram + JSON: median ${ms(median(chartTimes))}, min ${ms(Math.min(...chartTimes))}, CPU ${ms(chartCpuEach)} per request (target < 50 ms)`
+);
 
 // Warm-up, not timed: the first signal loads the mail module (once per server process).
 await evaluateSignalsAfterIngest(db, [sqlite.transaction(() => addBoard(BOARDS, 40))()]);
@@ -133,12 +178,16 @@ for (let r = 0; r < 40; r++) {
 	evalCpuTotal += cpuMs(cpu);
 }
 const p90 = [...evalTimes].sort((a, b) => a - b)[Math.floor(evalTimes.length * 0.9)];
-console.log(`rule evaluation for one new board (evaluateSignalsAfterIngest): median ${ms(median(evalTimes))}, 90th percentile ${ms(p90)}, max ${ms(Math.max(...evalTimes))}, CPU ${ms(evalCpuTotal / evalTimes.length)} per board on average (target < 5 ms); ${signals} signals stored (boards 10, 20, 30 and 40 of the 40 are shifted by +40 %)`);
+console.log(
+	`rule evaluation for one new board (evaluateSignalsAfterIngest): median ${ms(median(evalTimes))}, 90th percentile ${ms(p90)}, max ${ms(Math.max(...evalTimes))}, CPU ${ms(evalCpuTotal / evalTimes.length)} per board on average (target < 5 ms); ${signals} signals stored (boards 10, 20, 30 and 40 of the 40 are shifted by +40 %)`
+);
 
 // The ad-hoc study (POST /api/spc/analyze) on 1,000 subgroups of 5, all rules, capability.
 const study = {
 	chart: 'xbar-r',
-	subgroups: Array.from({ length: 1000 }, (_, i) => Array.from({ length: 5 }, (_, j) => 100 + Math.sin(i * 7.1 + j * 3.3) * 2)),
+	subgroups: Array.from({ length: 1000 }, (_, i) =>
+		Array.from({ length: 5 }, (_, j) => 100 + Math.sin(i * 7.1 + j * 3.3) * 2)
+	),
 	lsl: 90,
 	usl: 110,
 	rules: [...RULE_IDS]
@@ -150,7 +199,9 @@ for (let r = 0; r < 20; r++) {
 	if (!analyzeStudy(study).ok) throw new Error('bench study was refused');
 	studyTimes.push(performance.now() - a);
 }
-console.log(`ad-hoc study (analyzeStudy), X-bar/R 1000 × 5, 12 rules + capability: median ${ms(median(studyTimes))}, min ${ms(Math.min(...studyTimes))}`);
+console.log(
+	`ad-hoc study (analyzeStudy), X-bar/R 1000 × 5, 12 rules + capability: median ${ms(median(studyTimes))}, min ${ms(Math.min(...studyTimes))}`
+);
 
 // The largest study the work budget lets in: MAX_STUDY_VALUES individual values, all rules.
 const largest = {
@@ -166,8 +217,13 @@ for (let r = 0; r < 5; r++) {
 	if (!analyzeStudy(largest).ok) throw new Error('bench study at the budget was refused');
 	largestTimes.push(performance.now() - a);
 }
-console.log(`ad-hoc study at the work budget (I-MR, ${MAX_STUDY_VALUES.toLocaleString('en-US')} values, 12 rules + capability): median ${ms(median(largestTimes))}, max ${ms(Math.max(...largestTimes))} on the request loop`);
+console.log(
+	`ad-hoc study at the work budget (I-MR, ${MAX_STUDY_VALUES.toLocaleString('en-US')} values, 12 rules + capability): median ${ms(median(largestTimes))}, max ${ms(Math.max(...largestTimes))} on the request loop`
+);
 
-if (process.env.BENCH_SPC_KEEP) { console.log(file); process.exit(0); }
+if (process.env.BENCH_SPC_KEEP) {
+	console.log(file);
+	process.exit(0);
+}
 db.$client.close();
 rmSync(dir, { recursive: true, force: true });

@@ -18,6 +18,8 @@ function newestMtime(path) {
 const builtAt = existsSync(BUILD_ENTRY) ? statSync(BUILD_ENTRY).mtimeMs : 0;
 const changedAt = Math.max(...SOURCES.filter(existsSync).map(newestMtime));
 if (changedAt > builtAt) {
-	console.log(builtAt ? 'Sources changed since the last build; rebuilding…' : 'No build yet; building…');
+	console.log(
+		builtAt ? 'Sources changed since the last build; rebuilding…' : 'No build yet; building…'
+	);
 	execSync('npm run build', { stdio: 'inherit' });
 }

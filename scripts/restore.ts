@@ -18,7 +18,9 @@ async function main(): Promise<void> {
 	}
 	const check = checkDatabaseFile(file);
 	if (!check.ok) {
-		console.error(`error: ${file} was not restored: ${check.problems.join('; ')}. Nothing was changed.`);
+		console.error(
+			`error: ${file} was not restored: ${check.problems.join('; ')}. Nothing was changed.`
+		);
 		process.exit(1);
 	}
 	const target = databasePath();
@@ -26,11 +28,15 @@ async function main(): Promise<void> {
 	console.log(
 		`Restored ${file}\n  into ${result.restored}\n  integrity_check ok; ${check.migrations} migrations; ` +
 			`${check.counts.users} users, ${check.counts.audit_log} audit entries, ${check.counts.spi_boards ?? 0} SPI boards` +
-			(result.previousKeptAs ? `\n  the database it replaced is kept as ${result.previousKeptAs}` : '')
+			(result.previousKeptAs
+				? `\n  the database it replaced is kept as ${result.previousKeptAs}`
+				: '')
 	);
 }
 
 main().catch((err) => {
-	console.error(`error: ${(err as Error).message}${err instanceof RestoreRefusedError ? ' Nothing was changed.' : ''}`);
+	console.error(
+		`error: ${(err as Error).message}${err instanceof RestoreRefusedError ? ' Nothing was changed.' : ''}`
+	);
 	process.exit(1);
 });

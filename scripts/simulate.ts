@@ -22,7 +22,13 @@ export interface SimulationOptions {
 	/** Seconds between boards on a line: uniform in [min, max]. */
 	boardEverySeconds?: [number, number];
 	/** Called when an SPI file is posted and when its answer arrives (the benchmark's figures). */
-	onImport?: (e: { line: string; sentAtMs: number; answeredAtMs: number | null; status: number; pads: number }) => void;
+	onImport?: (e: {
+		line: string;
+		sentAtMs: number;
+		answeredAtMs: number | null;
+		status: number;
+		pads: number;
+	}) => void;
 	onImportSent?: (e: { line: string; sentAtMs: number }) => void;
 	log?: (message: string) => void;
 	seed?: number;
@@ -67,7 +73,15 @@ export async function runSimulation(options: SimulationOptions): Promise<Simulat
 	const [minS, maxS] = options.boardEverySeconds ?? [20, 40];
 	const base = options.url.replace(/\/$/, '');
 	const auth = { authorization: `Bearer ${options.token}` };
-	const result: SimulationResult = { boards: 0, pads: 0, failedPosts: 0, runsStarted: 0, lotEvents: 0, stencilEvents: 0, shifts: 0 };
+	const result: SimulationResult = {
+		boards: 0,
+		pads: 0,
+		failedPosts: 0,
+		runsStarted: 0,
+		lotEvents: 0,
+		stencilEvents: 0,
+		shifts: 0
+	};
 	const tag = Date.now().toString(36);
 
 	async function call(method: string, path: string, body?: unknown, okStatuses = [200, 201]) {
@@ -91,20 +105,37 @@ export async function runSimulation(options: SimulationOptions): Promise<Simulat
 
 	// Factory: products, lines, stencils (409 = made by an earlier simulation: reused).
 	for (let p = 1; p <= PRODUCTS; p++) {
-		await call('POST', '/api/products', { code: `SIM-P${String(p).padStart(2, '0')}`, name: `Simulated board ${p}` }, [201, 409]);
+		await call(
+			'POST',
+			'/api/products',
+			{ code: `SIM-P${String(p).padStart(2, '0')}`, name: `Simulated board ${p}` },
+			[201, 409]
+		);
 	}
 	const stencilIds = new Map<string, number>();
-	const existingStencils = (await call('GET', '/api/stencil-life')).json as { stencils?: { id: number; name: string }[] };
+	const existingStencils = (await call('GET', '/api/stencil-life')).json as {
+		stencils?: { id: number; name: string }[];
+	};
 	for (const s of existingStencils.stencils ?? []) stencilIds.set(s.name, s.id);
 	const lines = Array.from({ length: options.lines }, (_, i) => {
 		const code = `SIM-${pad3(i + 1)}`;
 		const productIndex = (i % PRODUCTS) + 1;
 		// 300–2,000 pads, fixed per product (its pad dictionary stays the same from board to board).
 		const pads = 300 + Math.round(((productIndex - 1) / (PRODUCTS - 1)) * 1700);
-		return { code, product: `SIM-P${String(productIndex).padStart(2, '0')}`, pads, stencil: `SIM-ST-${pad3(i + 1)}-${i % 2 ? 'B' : 'T'}` };
+		return {
+			code,
+			product: `SIM-P${String(productIndex).padStart(2, '0')}`,
+			pads,
+			stencil: `SIM-ST-${pad3(i + 1)}-${i % 2 ? 'B' : 'T'}`
+		};
 	});
 	for (const line of lines) {
-		await call('POST', '/api/lines', { code: line.code, name: `Simulated line ${line.code.slice(4)}` }, [201, 409]);
+		await call(
+			'POST',
+			'/api/lines',
+			{ code: line.code, name: `Simulated line ${line.code.slice(4)}` },
+			[201, 409]
+		);
 		if (!stencilIds.has(line.stencil)) {
 			const created = await call('POST', '/api/stencils', {
 				name: line.stencil,
@@ -129,7 +160,10 @@ export async function runSimulation(options: SimulationOptions): Promise<Simulat
 			expiresOn: new Date(now + 120 * 86_400_000).toISOString().slice(0, 10)
 		});
 		const event = (event: string, minutesAgo: number) =>
-			call('POST', `/api/paste-lots/${encodeURIComponent(lotNumber)}/events`, { event, at: new Date(now - minutesAgo * 60_000).toISOString() });
+			call('POST', `/api/paste-lots/${encodeURIComponent(lotNumber)}/events`, {
+				event,
+				at: new Date(now - minutesAgo * 60_000).toISOString()
+			});
 		await event('out-of-cold-storage', 300);
 		await event('opened', 50);
 		await event('on-stencil', 45 - Math.floor(rand() * 40));
@@ -138,7 +172,9 @@ export async function runSimulation(options: SimulationOptions): Promise<Simulat
 	}
 
 	async function startRun(line: (typeof lines)[number], lotNumber: string): Promise<number> {
-		const open = (await call('GET', `/api/print-runs?line=${line.code}&open=true`)).json as { runs?: { id: number }[] };
+		const open = (await call('GET', `/api/print-runs?line=${line.code}&open=true`)).json as {
+			runs?: { id: number }[];
+		};
 		for (const r of open.runs ?? []) await call('POST', `/api/print-runs/${r.id}/end`, {});
 		const started = await call('POST', '/api/print-runs', {
 			line: line.code,
@@ -208,15 +244,30 @@ export async function runSimulation(options: SimulationOptions): Promise<Simulat
 				result.failedPosts++;
 				log(`[simulate] ${line.code}: import failed: ${(err as Error).message}`);
 			}
-			options.onImport?.({ line: line.code, sentAtMs, answeredAtMs: Date.now(), status, pads: line.pads });
+			options.onImport?.({
+				line: line.code,
+				sentAtMs,
+				answeredAtMs: Date.now(),
+				status,
+				pads: line.pads
+			});
 			try {
 				const r = rand();
 				if (r < 0.03) {
-					await call('POST', `/api/stencil-life/${stencilIds.get(line.stencil)}/entries`, { kind: 'cleaning', detail: 'under-stencil wipe, manual IPA clean' });
+					await call('POST', `/api/stencil-life/${stencilIds.get(line.stencil)}/entries`, {
+						kind: 'cleaning',
+						detail: 'under-stencil wipe, manual IPA clean'
+					});
 					result.stencilEvents++;
 				} else if (r < 0.04) {
-					const readings = Array.from({ length: 5 }, () => Math.round((38 + gauss() * 2) * 10) / 10);
-					await call('POST', `/api/stencil-life/${stencilIds.get(line.stencil)}/entries`, { kind: 'tension', readingsNPerCm: readings });
+					const readings = Array.from(
+						{ length: 5 },
+						() => Math.round((38 + gauss() * 2) * 10) / 10
+					);
+					await call('POST', `/api/stencil-life/${stencilIds.get(line.stencil)}/entries`, {
+						kind: 'tension',
+						readingsNPerCm: readings
+					});
 					result.stencilEvents++;
 				} else if (r < 0.05) {
 					// A new jar and a new run: the old run ends with what was printed.
@@ -235,7 +286,13 @@ export async function runSimulation(options: SimulationOptions): Promise<Simulat
 		void index;
 	}
 
-	await Promise.all(lines.map((line, i) => feed(line, i).catch((err) => log(`[simulate] ${line.code} stopped: ${(err as Error).message}`))));
+	await Promise.all(
+		lines.map((line, i) =>
+			feed(line, i).catch((err) =>
+				log(`[simulate] ${line.code} stopped: ${(err as Error).message}`)
+			)
+		)
+	);
 	return result;
 }
 
@@ -250,9 +307,14 @@ async function main(): Promise<void> {
 	});
 	const lines = Number(values.lines);
 	const minutes = Number(values.minutes);
-	if (!Number.isInteger(lines) || lines < 1 || lines > 999) throw new Error('--lines must be a whole number from 1 to 999');
-	if (!Number.isFinite(minutes) || minutes <= 0 || minutes > 24 * 60) throw new Error('--minutes must be a number of minutes > 0 (at most a day)');
-	if (!values.token) throw new Error('give an engineer or admin API token: --token rb_… or ROLLBEAD_TOKEN (npm run token -- create --name sim --role engineer)');
+	if (!Number.isInteger(lines) || lines < 1 || lines > 999)
+		throw new Error('--lines must be a whole number from 1 to 999');
+	if (!Number.isFinite(minutes) || minutes <= 0 || minutes > 24 * 60)
+		throw new Error('--minutes must be a number of minutes > 0 (at most a day)');
+	if (!values.token)
+		throw new Error(
+			'give an engineer or admin API token: --token rb_… or ROLLBEAD_TOKEN (npm run token -- create --name sim --role engineer)'
+		);
 	const result = await runSimulation({ url: values.url!, token: values.token, lines, minutes });
 	console.log(`[simulate] done: ${JSON.stringify(result)}`);
 }

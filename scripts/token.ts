@@ -6,7 +6,13 @@
  */
 import { parseArgs } from 'node:util';
 import { isRole, ROLES } from '../src/lib/access';
-import { closeDb, DatabaseOpenError, databasePath, openDatabase, type Db } from '../src/lib/server/db';
+import {
+	closeDb,
+	DatabaseOpenError,
+	databasePath,
+	openDatabase,
+	type Db
+} from '../src/lib/server/db';
 import {
 	createApiToken,
 	DEFAULT_TOKEN_DAYS,
@@ -78,7 +84,8 @@ function main(): void {
 			}
 		} else if (command === 'revoke') {
 			const tokenId = Number(id);
-			if (!Number.isSafeInteger(tokenId) || tokenId <= 0) fail('--id must be a token id (see list).');
+			if (!Number.isSafeInteger(tokenId) || tokenId <= 0)
+				fail('--id must be a token id (see list).');
 			if (!revokeApiToken(db, tokenId, null)) fail(`no active token with id ${tokenId}.`);
 			console.log(`Token ${tokenId} revoked.`);
 		} else {

@@ -1,4 +1,10 @@
-import { json, redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
+import {
+	json,
+	redirect,
+	type Handle,
+	type HandleServerError,
+	type ServerInit
+} from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { hasRole, pageRolesFor } from '$lib/access';
 import { authHandle } from '$lib/server/auth';
@@ -26,7 +32,11 @@ const TOKEN_ERRORS = {
 
 const isApi = (path: string) => path === '/api' || path.startsWith('/api/');
 
-const FORM_CONTENT_TYPES = ['application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'];
+const FORM_CONTENT_TYPES = [
+	'application/x-www-form-urlencoded',
+	'multipart/form-data',
+	'text/plain'
+];
 const UNSAFE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
 /**
@@ -36,7 +46,8 @@ const UNSAFE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 const crossSiteGuard: Handle = async ({ event, resolve }) => {
 	const { request, url } = event;
 	const contentType = request.headers.get('content-type')?.split(';')[0].trim().toLowerCase() ?? '';
-	const bearer = isApi(url.pathname) && /^Bearer\s/i.test(request.headers.get('authorization') ?? '');
+	const bearer =
+		isApi(url.pathname) && /^Bearer\s/i.test(request.headers.get('authorization') ?? '');
 	if (
 		UNSAFE_METHODS.has(request.method) &&
 		FORM_CONTENT_TYPES.includes(contentType) &&
@@ -60,7 +71,9 @@ const identify: Handle = async ({ event, resolve }) => {
 	const display = authorization ? null : displayIdentity(getDb(), path, event.url.searchParams);
 	if (display) {
 		if ('error' in display) {
-			return isApi(path) ? json({ error: display.error }, { status: 401 }) : new Response(display.error, { status: 401 });
+			return isApi(path)
+				? json({ error: display.error }, { status: 401 })
+				: new Response(display.error, { status: 401 });
 		}
 		event.locals.actor = display.actor;
 		return resolve(event);
@@ -80,7 +93,13 @@ const identify: Handle = async ({ event, resolve }) => {
 		// The cookie alone is not enough: its server-side session must still be live.
 		const user = session ? userForSession(getDb(), session.sessionId) : undefined;
 		if (user) {
-			event.locals.actor = { kind: 'user', id: user.id, email: user.email, name: user.name, role: user.role };
+			event.locals.actor = {
+				kind: 'user',
+				id: user.id,
+				email: user.email,
+				name: user.name,
+				role: user.role
+			};
 		}
 	}
 	return resolve(event);
@@ -165,11 +184,21 @@ const databaseBusyGuard: Handle = async ({ event, resolve }) => {
 	});
 };
 
-export const handle = sequence(securityHeaders, databaseBusyGuard, crossSiteGuard, authBodyLimit, authHandle, identify, guard);
+export const handle = sequence(
+	securityHeaders,
+	databaseBusyGuard,
+	crossSiteGuard,
+	authBodyLimit,
+	authHandle,
+	identify,
+	guard
+);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (isDatabaseBusy(error)) busyRequests.add(event.locals); // answered 503 by databaseBusyGuard
 	if (status === 404) return { message: 'This page does not exist.' };
 	console.error('[rollbead] unexpected error', error);
-	return { message: status >= 500 ? 'Something went wrong on our side; it has been logged.' : message };
+	return {
+		message: status >= 500 ? 'Something went wrong on our side; it has been logged.' : message
+	};
 };

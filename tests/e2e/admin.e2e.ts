@@ -2,7 +2,9 @@ import { expect, test } from '@playwright/test';
 import { bearer, demoUser, signIn, signInAs } from './helpers';
 
 test.describe('administration', () => {
-	test('an admin adds a person, who signs in; deactivated, they no longer can', async ({ browser }) => {
+	test('an admin adds a person, who signs in; deactivated, they no longer can', async ({
+		browser
+	}) => {
 		const adminPage = await browser.newPage();
 		await signInAs(adminPage, 'admin');
 		await adminPage.goto('/admin/users');
@@ -16,7 +18,9 @@ test.describe('administration', () => {
 		await expect(form.getByText('Password must be at least 10 characters')).toBeVisible();
 		await form.getByLabel(/First password/).fill('long-enough-password');
 		await form.getByRole('button', { name: 'Add person' }).click();
-		await expect(adminPage.getByRole('status')).toContainText('Added Flo Hedgecroft as technician.');
+		await expect(adminPage.getByRole('status')).toContainText(
+			'Added Flo Hedgecroft as technician.'
+		);
 		await expect(adminPage.getByRole('cell', { name: email })).toBeVisible();
 
 		const techPage = await browser.newPage();
@@ -72,7 +76,9 @@ test.describe('administration', () => {
 			await expect(page.getByRole('alert')).toHaveText('Wrong e-mail or password.');
 		}
 		await signIn(page, email, 'the-right-password');
-		await expect(page.getByRole('alert')).toContainText('Too many failed attempts. Try again in 15 minutes');
+		await expect(page.getByRole('alert')).toContainText(
+			'Too many failed attempts. Try again in 15 minutes'
+		);
 	});
 
 	test('an admin makes a token that works, then revokes it', async ({ page, request }) => {
@@ -89,7 +95,11 @@ test.describe('administration', () => {
 
 		const me = await request.get('/api/me', { headers: bearer(token) });
 		expect(me.status()).toBe(200);
-		expect(await me.json()).toMatchObject({ kind: 'token', name: 'line 2 exporter', role: 'quality' });
+		expect(await me.json()).toMatchObject({
+			kind: 'token',
+			name: 'line 2 exporter',
+			role: 'quality'
+		});
 
 		await page.reload();
 		const row = page.getByRole('row').filter({ hasText: 'line 2 exporter' });
@@ -108,10 +118,14 @@ test.describe('administration', () => {
 		expect(await after.json()).toEqual({ error: 'The Bearer token has been revoked.' });
 	});
 
-	test('new people start as viewers; the last administrator cannot be demoted', async ({ page }) => {
+	test('new people start as viewers; the last administrator cannot be demoted', async ({
+		page
+	}) => {
 		await signInAs(page, 'admin');
 		await page.goto('/admin/users');
-		await expect(page.locator('form[action="?/createUser"]').getByLabel('Role')).toHaveValue('viewer');
+		await expect(page.locator('form[action="?/createUser"]').getByLabel('Role')).toHaveValue(
+			'viewer'
+		);
 		const me = demoUser('admin');
 		const row = page.getByRole('row').filter({ hasText: me.email });
 		await row.getByLabel(`Role of ${me.name}`).selectOption('engineer');
@@ -122,17 +136,28 @@ test.describe('administration', () => {
 		// Still an administrator, still signed in.
 		await page.reload();
 		await expect(page.getByTestId('viewer-role')).toHaveText('Administrator');
-		const status = await page.evaluate(async (id) => {
-			const body = new FormData();
-			body.set('userId', String(id));
-			body.set('active', 'false');
-			body.set('confirm', 'yes');
-			return (await fetch('/admin/users?/setActive', { method: 'POST', body, headers: { 'x-sveltekit-action': 'true' } })).json();
-		}, await row.locator('input[name="userId"]').first().inputValue());
+		const status = await page.evaluate(
+			async (id) => {
+				const body = new FormData();
+				body.set('userId', String(id));
+				body.set('active', 'false');
+				body.set('confirm', 'yes');
+				return (
+					await fetch('/admin/users?/setActive', {
+						method: 'POST',
+						body,
+						headers: { 'x-sveltekit-action': 'true' }
+					})
+				).json();
+			},
+			await row.locator('input[name="userId"]').first().inputValue()
+		);
 		expect(status).toMatchObject({ type: 'failure', status: 409 });
 	});
 
-	test('an administrator signs someone out everywhere; their copied cookie stops working', async ({ browser }) => {
+	test('an administrator signs someone out everywhere; their copied cookie stops working', async ({
+		browser
+	}) => {
 		const tech = await browser.newContext();
 		const techPage = await tech.newPage();
 		await signInAs(techPage, 'viewer');
@@ -164,10 +189,24 @@ test.describe('administration', () => {
 		const step = page.getByRole('alertdialog', { name: 'Revoke token “no-js exporter”?' });
 		await expect(step).toContainText('stops working at once');
 		await page.goto('/admin/tokens');
-		await expect(page.getByRole('row').filter({ hasText: 'no-js exporter' }).getByRole('cell', { name: 'Active' })).toBeVisible();
-		await page.getByRole('row').filter({ hasText: 'no-js exporter' }).getByRole('button', { name: 'Revoke', exact: true }).click();
+		await expect(
+			page
+				.getByRole('row')
+				.filter({ hasText: 'no-js exporter' })
+				.getByRole('cell', { name: 'Active' })
+		).toBeVisible();
+		await page
+			.getByRole('row')
+			.filter({ hasText: 'no-js exporter' })
+			.getByRole('button', { name: 'Revoke', exact: true })
+			.click();
 		await step.getByRole('button', { name: 'Revoke “no-js exporter”' }).click();
-		await expect(page.getByRole('row').filter({ hasText: 'no-js exporter' }).getByRole('cell', { name: /^Revoked/ })).toBeVisible();
+		await expect(
+			page
+				.getByRole('row')
+				.filter({ hasText: 'no-js exporter' })
+				.getByRole('cell', { name: /^Revoked/ })
+		).toBeVisible();
 		await context.close();
 	});
 

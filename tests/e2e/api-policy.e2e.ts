@@ -17,7 +17,9 @@ function apiRoutes(): { routeId: string; methods: HttpMethod[] }[] {
 			else if (entry.name === '+server.ts') {
 				const source = readFileSync(path, 'utf8');
 				const methods = [
-					...source.matchAll(/export\s+(?:const|async function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g)
+					...source.matchAll(
+						/export\s+(?:const|async function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g
+					)
 				].map((m) => m[1] as HttpMethod);
 				const routeId = '/' + relative(root, dir).split(sep).join('/');
 				found.push({ routeId, methods });
@@ -34,20 +36,29 @@ test('every API route and method declares its roles, and every declaration has a
 	expect(routes.length).toBeGreaterThan(4);
 	for (const { routeId, methods } of routes) {
 		for (const method of methods) {
-			expect(API_POLICY[routeId]?.[method], `${method} ${routeId} has no entry in API_POLICY`).toBeDefined();
+			expect(
+				API_POLICY[routeId]?.[method],
+				`${method} ${routeId} has no entry in API_POLICY`
+			).toBeDefined();
 		}
 	}
 	for (const [routeId, methods] of Object.entries(API_POLICY)) {
 		const route = routes.find((r) => r.routeId === routeId);
 		expect(route, `API_POLICY names ${routeId}, which has no +server.ts`).toBeDefined();
 		for (const method of Object.keys(methods)) {
-			expect(route?.methods, `API_POLICY names ${method} ${routeId}, which is not exported`).toContain(method);
+			expect(
+				route?.methods,
+				`API_POLICY names ${method} ${routeId}, which is not exported`
+			).toContain(method);
 		}
 	}
 });
 
 /** GET of an event stream never ends: read its status only, then hang up. */
-function streamStatus(url: string, headers: Record<string, string>): Promise<{ status: () => number }> {
+function streamStatus(
+	url: string,
+	headers: Record<string, string>
+): Promise<{ status: () => number }> {
 	return new Promise((resolve, reject) => {
 		const req = httpGet(url, { headers }, (res) => {
 			const status = res.statusCode ?? 0;

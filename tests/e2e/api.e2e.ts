@@ -40,17 +40,28 @@ test.describe('JSON API access', () => {
 		expect(await response.json()).toMatchObject({ kind: 'token', role: 'technician' });
 	});
 
-	test('lines: engineers create, codes are unique, bad input is named, viewers read only', async ({ request }) => {
+	test('lines: engineers create, codes are unique, bad input is named, viewers read only', async ({
+		request
+	}) => {
 		const code = `L-${Date.now() % 100000}`;
 		const engineer = bearer(tokenFor('engineer'));
-		const created = await request.post('/api/lines', { headers: engineer, data: { code, name: 'Test line' } });
+		const created = await request.post('/api/lines', {
+			headers: engineer,
+			data: { code, name: 'Test line' }
+		});
 		expect(created.status()).toBe(201);
 		expect(await created.json()).toMatchObject({ code, name: 'Test line', active: true });
 
-		const duplicate = await request.post('/api/lines', { headers: engineer, data: { code, name: 'Again' } });
+		const duplicate = await request.post('/api/lines', {
+			headers: engineer,
+			data: { code, name: 'Again' }
+		});
 		expect(duplicate.status()).toBe(409);
 
-		const bad = await request.post('/api/lines', { headers: engineer, data: { code: 'has space', name: '' } });
+		const bad = await request.post('/api/lines', {
+			headers: engineer,
+			data: { code: 'has space', name: '' }
+		});
 		expect(bad.status()).toBe(400);
 		const fields = (await bad.json()).fields.map((f: { field: string }) => f.field);
 		expect(fields).toEqual(expect.arrayContaining(['code', 'name']));
@@ -63,7 +74,11 @@ test.describe('JSON API access', () => {
 		expect(await notJson.json()).toEqual({ error: 'The request body is not valid JSON.' });
 
 		const viewer = bearer(tokenFor('viewer'));
-		expect((await request.post('/api/lines', { headers: viewer, data: { code: 'X1', name: 'x' } })).status()).toBe(403);
+		expect(
+			(
+				await request.post('/api/lines', { headers: viewer, data: { code: 'X1', name: 'x' } })
+			).status()
+		).toBe(403);
 		const list = await request.get('/api/lines', { headers: viewer });
 		expect((await list.json()).lines.map((l: { code: string }) => l.code)).toContain(code);
 	});
@@ -71,21 +86,29 @@ test.describe('JSON API access', () => {
 	test('products: create and list', async ({ request }) => {
 		const code = `P-${Date.now() % 100000}`;
 		const admin = bearer(tokenFor('admin'));
-		expect((await request.post('/api/products', { headers: admin, data: { code, name: 'Test board' } })).status()).toBe(201);
+		expect(
+			(
+				await request.post('/api/products', { headers: admin, data: { code, name: 'Test board' } })
+			).status()
+		).toBe(201);
 		const list = await request.get('/api/products', { headers: bearer(tokenFor('quality')) });
 		const codes = (await list.json()).products.map((p: { code: string }) => p.code);
 		expect(codes).toEqual(expect.arrayContaining(['PB-100', 'SH-220', 'LM-48', code]));
 	});
 
 	test('an unknown API path is a JSON 404', async ({ request }) => {
-		const response = await request.get('/api/no-such-thing', { headers: bearer(tokenFor('admin')) });
+		const response = await request.get('/api/no-such-thing', {
+			headers: bearer(tokenFor('admin'))
+		});
 		expect(response.status()).toBe(404);
 		expect((await response.json()).error).toContain('No API route');
 	});
 });
 
 test.describe('cross-site protection', () => {
-	test('a Bearer-token multipart post without an Origin header reaches the route', async ({ request }) => {
+	test('a Bearer-token multipart post without an Origin header reaches the route', async ({
+		request
+	}) => {
 		const response = await request.post('/api/lines', {
 			headers: bearer(tokenFor('engineer')),
 			multipart: { code: 'MP-1', name: 'multipart' }
@@ -95,7 +118,10 @@ test.describe('cross-site protection', () => {
 		expect(await response.json()).toEqual({ error: 'The request body is not valid JSON.' });
 	});
 
-	test('a form post from another site is refused, even with a signed-in session', async ({ page, baseURL }) => {
+	test('a form post from another site is refused, even with a signed-in session', async ({
+		page,
+		baseURL
+	}) => {
 		await signInAs(page, 'engineer');
 		const response = await page.request.post(`${baseURL}/factory?/addLine`, {
 			headers: { Origin: 'https://evil.example' },

@@ -3,7 +3,9 @@ import Papa from 'papaparse';
 import { bearer, signInAs, tokenFor } from './helpers';
 
 test.describe('audit trail', () => {
-	test('a quality engineer reads who changed what, filters it and downloads it as CSV', async ({ page }) => {
+	test('a quality engineer reads who changed what, filters it and downloads it as CSV', async ({
+		page
+	}) => {
 		await signInAs(page, 'quality');
 		await page.goto('/audit');
 		await expect(page.getByRole('heading', { name: 'Audit trail' })).toBeVisible();
@@ -17,10 +19,27 @@ test.describe('audit trail', () => {
 		expect(kinds.length).toBeGreaterThan(0);
 		for (const kind of kinds) expect(kind).toMatch(/^user( #\d+)?$/);
 
-		const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('audit-csv').click()]);
-		const text = await (await download.createReadStream()).toArray().then((c) => Buffer.concat(c).toString('utf8'));
+		const [download] = await Promise.all([
+			page.waitForEvent('download'),
+			page.getByTestId('audit-csv').click()
+		]);
+		const text = await (
+			await download.createReadStream()
+		)
+			.toArray()
+			.then((c) => Buffer.concat(c).toString('utf8'));
 		const rows = Papa.parse<string[]>(text.trimEnd(), { delimiter: ',', newline: '\r\n' }).data;
-		expect(rows[0]).toEqual(['id', 'at', 'actor', 'actor_name', 'action', 'kind', 'record_id', 'before', 'after']);
+		expect(rows[0]).toEqual([
+			'id',
+			'at',
+			'actor',
+			'actor_name',
+			'action',
+			'kind',
+			'record_id',
+			'before',
+			'after'
+		]);
 		expect(rows.length).toBeGreaterThan(1);
 		for (const row of rows.slice(1)) expect(row[5]).toBe('user');
 
@@ -30,7 +49,9 @@ test.describe('audit trail', () => {
 		await expect(page.getByRole('alert')).toContainText('from must be a date');
 	});
 
-	test('the API pages and filters; nobody can change or delete entries; other roles are refused', async ({ request }) => {
+	test('the API pages and filters; nobody can change or delete entries; other roles are refused', async ({
+		request
+	}) => {
 		const quality = bearer(tokenFor('quality'));
 		const first = await request.get('/api/audit?pageSize=2', { headers: quality });
 		expect(first.status()).toBe(200);
@@ -39,7 +60,18 @@ test.describe('audit trail', () => {
 		expect(body.entries.length).toBeLessThanOrEqual(2);
 		expect(body.total).toBeGreaterThanOrEqual(body.entries.length);
 		expect(Object.keys(body.entries[0]).sort()).toEqual(
-			['action', 'actor', 'actorName', 'after', 'at', 'before', 'id', 'kind', 'recordId', 'userId'].sort()
+			[
+				'action',
+				'actor',
+				'actorName',
+				'after',
+				'at',
+				'before',
+				'id',
+				'kind',
+				'recordId',
+				'userId'
+			].sort()
 		);
 
 		const bad = await request.get('/api/audit?user=abc&to=yesterday', { headers: quality });
@@ -48,12 +80,21 @@ test.describe('audit trail', () => {
 		expect(fields).toEqual(['to', 'user']);
 
 		for (const method of ['POST', 'PUT', 'PATCH', 'DELETE']) {
-			const response = await request.fetch('/api/audit', { method, headers: bearer(tokenFor('admin')) });
+			const response = await request.fetch('/api/audit', {
+				method,
+				headers: bearer(tokenFor('admin'))
+			});
 			expect(response.status(), method).toBe(405);
 		}
-		expect((await request.get('/api/audit', { headers: bearer(tokenFor('engineer')) })).status()).toBe(403);
-		expect((await request.get('/api/audit/export.csv', { headers: bearer(tokenFor('viewer')) })).status()).toBe(403);
-		expect((await request.get('/api/audit', { headers: bearer(tokenFor('admin')) })).status()).toBe(200);
+		expect(
+			(await request.get('/api/audit', { headers: bearer(tokenFor('engineer')) })).status()
+		).toBe(403);
+		expect(
+			(await request.get('/api/audit/export.csv', { headers: bearer(tokenFor('viewer')) })).status()
+		).toBe(403);
+		expect((await request.get('/api/audit', { headers: bearer(tokenFor('admin')) })).status()).toBe(
+			200
+		);
 	});
 
 	test('a technician is refused the audit page', async ({ page }) => {

@@ -38,10 +38,15 @@ test.describe('CAD paste layers', () => {
 		const pads = await create(`ST-CAD-OVL-${stamp}`);
 		const overlapping = await request.post(
 			`/api/stencils/${pads.id}/apertures?format=gerber&fileName=adjacent-overlaps.gbr`,
-			{ headers: { ...engineer, 'content-type': 'text/plain' }, data: layer('adjacent-overlaps.gbr') }
+			{
+				headers: { ...engineer, 'content-type': 'text/plain' },
+				data: layer('adjacent-overlaps.gbr')
+			}
 		);
 		expect(overlapping.status()).toBe(201);
-		const detail = await (await request.get(`/api/stencils/${pads.id}`, { headers: engineer })).json();
+		const detail = await (
+			await request.get(`/api/stencils/${pads.id}`, { headers: engineer })
+		).json();
 		// Six 0.6 mm² pads; 0.12 + 0.01 mm² shared (reference/gerber/README.md).
 		expect(detail.overlaps.pairCount).toBe(2);
 		expect(detail.overlaps.sumAreaUm2).toBeCloseTo(3_600_000, 3);

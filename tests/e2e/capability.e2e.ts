@@ -1,11 +1,20 @@
 import { expect, test } from '@playwright/test';
 import { apiJson, signInAs } from './helpers';
 
-type Row = { id: number; name: string; level: string; openSignals: number; assessment: { headline: string; verdict: string } };
+type Row = {
+	id: number;
+	name: string;
+	level: string;
+	openSignals: number;
+	assessment: { headline: string; verdict: string };
+};
 
 // Issue 13: one assessment, so the list, each chart page and the API never disagree, and no
 // verdict contradicts its own chart (demo data).
-test('the charts list and every chart page show the API assessment; none contradicts its chart', async ({ page, request }) => {
+test('the charts list and every chart page show the API assessment; none contradicts its chart', async ({
+	page,
+	request
+}) => {
 	const { charts } = (await apiJson(request, '/api/charts', 'viewer')) as { charts: Row[] };
 	expect(charts.length).toBeGreaterThanOrEqual(3);
 	await signInAs(page, 'viewer');
@@ -20,15 +29,23 @@ test('the charts list and every chart page show the API assessment; none contrad
 		expect(detail.assessment.verdict, c.name).toBe(c.level);
 		if (detail.capability) expect(detail.capability.level, c.name).toBe(c.level);
 		const flagged = new Set(detail.violations.flatMap((v: { points: number[] }) => v.points)).size;
-		if (flagged > 0 || c.openSignals > 0) expect(c.level, `${c.name}: ${flagged} points flagged`).toBe('not-stable');
+		if (flagged > 0 || c.openSignals > 0)
+			expect(c.level, `${c.name}: ${flagged} points flagged`).toBe('not-stable');
 		await page.goto(`/charts/${c.id}`);
 		const reading = page.getByTestId('capability-reading');
 		await expect(reading, c.name).toHaveAttribute('data-verdict', c.level);
-		await expect(page.getByTestId('capability-verdict'), c.name).toHaveText(`${c.assessment.headline}.`);
-		// Chart labels never overlap: the histogram's spec labels have disjoint boxes.
-		const boxes = await page.getByTestId('capability').locator('svg text.font-semibold').evaluateAll((ts) =>
-			ts.map((t) => t.getBoundingClientRect()).map((r) => ({ l: r.left, r: r.right, t: r.top, b: r.bottom }))
+		await expect(page.getByTestId('capability-verdict'), c.name).toHaveText(
+			`${c.assessment.headline}.`
 		);
+		// Chart labels never overlap: the histogram's spec labels have disjoint boxes.
+		const boxes = await page
+			.getByTestId('capability')
+			.locator('svg text.font-semibold')
+			.evaluateAll((ts) =>
+				ts
+					.map((t) => t.getBoundingClientRect())
+					.map((r) => ({ l: r.left, r: r.right, t: r.top, b: r.bottom }))
+			);
 		for (let i = 0; i < boxes.length; i++)
 			for (let j = i + 1; j < boxes.length; j++) {
 				const [p, q] = [boxes[i], boxes[j]];
@@ -40,14 +57,19 @@ test('the charts list and every chart page show the API assessment; none contrad
 	}
 });
 
-test('the squeegee-speed chart: not stable, open signals listed, observed out-of-spec shown', async ({ page, request }) => {
+test('the squeegee-speed chart: not stable, open signals listed, observed out-of-spec shown', async ({
+	page,
+	request
+}) => {
 	const { charts } = (await apiJson(request, '/api/charts', 'viewer')) as { charts: Row[] };
 	const speed = charts.find((c) => c.name.startsWith('Squeegee speed'));
 	expect(speed).toBeDefined();
 	expect(speed?.level).toBe('not-stable');
 	await signInAs(page, 'viewer');
 	await page.goto(`/charts/${speed?.id}`);
-	await expect(page.getByTestId('capability-verdict')).toHaveText('Not stable, capability not assessed.');
+	await expect(page.getByTestId('capability-verdict')).toHaveText(
+		'Not stable, capability not assessed.'
+	);
 	await expect(page.getByTestId('capability-reading')).toContainText('open signal');
 	await expect(page.getByTestId('ppm-observed')).not.toHaveText(/^0 ppm/);
 	await expect(page.getByTestId('ppm-expected')).toContainText('overall spread');

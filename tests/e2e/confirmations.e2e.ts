@@ -17,17 +17,23 @@ test.describe('confirmations before destructive actions', () => {
 		await expect(page.getByRole('heading', { level: 1 })).toContainText(name);
 
 		const panel = page.getByTestId('import-form');
-		await panel.getByLabel('Aperture file (CSV or Gerber)').setInputFiles(`${FIXTURES}/apertures.csv`);
+		await panel
+			.getByLabel('Aperture file (CSV or Gerber)')
+			.setInputFiles(`${FIXTURES}/apertures.csv`);
 		await panel.getByLabel('CSV unit').selectOption('mm');
 		await panel.getByRole('button', { name: 'Import apertures' }).click();
 		await expect(page.getByTestId('import-done')).toContainText('the stencil now holds 4');
 
 		// Adding more asks nothing.
-		await panel.getByLabel('Aperture file (CSV or Gerber)').setInputFiles(`${FIXTURES}/apertures.csv`);
+		await panel
+			.getByLabel('Aperture file (CSV or Gerber)')
+			.setInputFiles(`${FIXTURES}/apertures.csv`);
 		await panel.getByRole('button', { name: 'Import apertures' }).click();
 		await expect(page.getByTestId('import-done')).toContainText('the stencil now holds 8');
 
-		await panel.getByLabel('Aperture file (CSV or Gerber)').setInputFiles(`${FIXTURES}/apertures.csv`);
+		await panel
+			.getByLabel('Aperture file (CSV or Gerber)')
+			.setInputFiles(`${FIXTURES}/apertures.csv`);
 		await panel.getByLabel('Existing apertures').selectOption('replace');
 		await panel.getByRole('button', { name: 'Import apertures' }).click();
 		const dialog = page.getByRole('dialog', { name: `Replace the apertures of ${name} rev B?` });
@@ -39,7 +45,9 @@ test.describe('confirmations before destructive actions', () => {
 		await page.reload();
 		await expect(page.getByTestId('stencil-summary').locator('p.text-2xl').first()).toHaveText('8');
 
-		await panel.getByLabel('Aperture file (CSV or Gerber)').setInputFiles(`${FIXTURES}/apertures.csv`);
+		await panel
+			.getByLabel('Aperture file (CSV or Gerber)')
+			.setInputFiles(`${FIXTURES}/apertures.csv`);
 		await panel.getByLabel('CSV unit').selectOption('mm');
 		await panel.getByLabel('Existing apertures').selectOption('replace');
 		await panel.getByRole('button', { name: 'Import apertures' }).click();
@@ -49,11 +57,21 @@ test.describe('confirmations before destructive actions', () => {
 		await expect(page.getByTestId('import-done')).toContainText('the stencil now holds 4');
 	});
 
-	test('discarding a paste lot asks first, naming the lot; other events do not', async ({ page, request }) => {
+	test('discarding a paste lot asks first, naming the lot; other events do not', async ({
+		page,
+		request
+	}) => {
 		const lot = `PL-CONF-${Date.now() % 1_000_000}`;
 		const created = await request.post('/api/paste-lots', {
 			headers: bearer(tokenFor('technician')),
-			data: { lotNumber: lot, alloy: 'SAC305', powderType: 4, expiresOn: '2099-06-30', fluxClass: 'ROL0', confirmDates: true }
+			data: {
+				lotNumber: lot,
+				alloy: 'SAC305',
+				powderType: 4,
+				expiresOn: '2099-06-30',
+				fluxClass: 'ROL0',
+				confirmDates: true
+			}
 		});
 		expect(created.status()).toBe(201);
 		const { id } = await created.json();
@@ -70,7 +88,9 @@ test.describe('confirmations before destructive actions', () => {
 		await expect(dialog).toContainText('no run can use it');
 		await page.keyboard.press('Escape');
 		await expect(dialog).toBeHidden();
-		const before = await (await request.get(`/api/paste-lots/${id}`, { headers: bearer(tokenFor('viewer')) })).json();
+		const before = await (
+			await request.get(`/api/paste-lots/${id}`, { headers: bearer(tokenFor('viewer')) })
+		).json();
 		expect(JSON.stringify(before)).not.toContain('"discarded"');
 
 		await page.getByRole('button', { name: 'Log event' }).click();
@@ -81,11 +101,21 @@ test.describe('confirmations before destructive actions', () => {
 		await expect(page.getByRole('button', { name: 'Log event' })).toHaveCount(0);
 	});
 
-	test('without JavaScript, discarding a lot comes back as a confirmation step first', async ({ browser, request }) => {
+	test('without JavaScript, discarding a lot comes back as a confirmation step first', async ({
+		browser,
+		request
+	}) => {
 		const lot = `PL-NOJS-${Date.now() % 1_000_000}`;
 		const created = await request.post('/api/paste-lots', {
 			headers: bearer(tokenFor('technician')),
-			data: { lotNumber: lot, alloy: 'SAC305', powderType: 4, expiresOn: '2099-06-30', fluxClass: 'ROL0', confirmDates: true }
+			data: {
+				lotNumber: lot,
+				alloy: 'SAC305',
+				powderType: 4,
+				expiresOn: '2099-06-30',
+				fluxClass: 'ROL0',
+				confirmDates: true
+			}
 		});
 		const { id } = await created.json();
 		const context = await browser.newContext({ javaScriptEnabled: false });

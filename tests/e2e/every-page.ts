@@ -53,7 +53,9 @@ export async function everyPage(page: Page, role: Role): Promise<string[]> {
 	for (const [list, shape] of DETAIL_LINKS) {
 		if (!pageRolesFor(list).includes(role)) continue;
 		await page.goto(list);
-		const hrefs = await page.locator('main a[href]').evaluateAll((as) => as.map((a) => a.getAttribute('href') ?? ''));
+		const hrefs = await page
+			.locator('main a[href]')
+			.evaluateAll((as) => as.map((a) => a.getAttribute('href') ?? ''));
 		const found = hrefs.map((h) => h.split('#')[0]).find((h) => shape.test(h.split('?')[0]));
 		if (found && !out.includes(found)) out.push(found);
 	}

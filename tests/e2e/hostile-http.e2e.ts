@@ -21,7 +21,13 @@ function sendChunked(
 		let sentBytes = 0;
 		let answered = false;
 		const req = httpRequest(
-			{ host: '127.0.0.1', port, path, method: 'POST', headers: { ...headers, 'transfer-encoding': 'chunked' } },
+			{
+				host: '127.0.0.1',
+				port,
+				path,
+				method: 'POST',
+				headers: { ...headers, 'transfer-encoding': 'chunked' }
+			},
 			(res) => {
 				answered = true;
 				let body = '';
@@ -53,8 +59,9 @@ test.describe('hostile request bodies', () => {
 	test('a 200 MB chunked body on a JSON route is refused with 413 long before it is sent', async ({
 		request
 	}) => {
-		const before = (await (await request.get('/api/lines', { headers: bearer(tokenFor('viewer')) })).json())
-			.lines.length;
+		const before = (
+			await (await request.get('/api/lines', { headers: bearer(tokenFor('viewer')) })).json()
+		).lines.length;
 		const answer = await sendChunked(
 			'/api/lines',
 			{ ...bearer(tokenFor('engineer')), 'content-type': 'application/json' },
@@ -65,8 +72,9 @@ test.describe('hostile request bodies', () => {
 		// Refused at the limit: far less than the 200 MB offered went over the wire.
 		expect(answer.sentBytes).toBeLessThan(50 * 1024 * 1024);
 		await healthy(request);
-		const after = (await (await request.get('/api/lines', { headers: bearer(tokenFor('viewer')) })).json())
-			.lines.length;
+		const after = (
+			await (await request.get('/api/lines', { headers: bearer(tokenFor('viewer')) })).json()
+		).lines.length;
 		expect(after).toBe(before);
 	});
 
@@ -126,7 +134,11 @@ test.describe('hostile request bodies', () => {
 		const cookie = cookies.map((c) => `${c.name}=${c.value}`).join('; ');
 		const answer = await sendChunked(
 			'/signals?/acknowledge',
-			{ cookie, 'content-type': 'application/x-www-form-urlencoded', origin: `http://localhost:${port}` },
+			{
+				cookie,
+				'content-type': 'application/x-www-form-urlencoded',
+				origin: `http://localhost:${port}`
+			},
 			30 * 1024 * 1024
 		);
 		expect(answer.status).toBe(413);

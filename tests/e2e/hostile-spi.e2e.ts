@@ -86,7 +86,10 @@ test.describe('hostile SPI files over HTTP', () => {
 				message: `file is not text: NUL byte at byte ${head.length + 2} (line 3); is it a binary export?`
 			}
 		]);
-		const utf8 = await upload(request, Buffer.concat([head, Buffer.from([0x52, 0xc0, 0xaf, 0x0a])]));
+		const utf8 = await upload(
+			request,
+			Buffer.concat([head, Buffer.from([0x52, 0xc0, 0xaf, 0x0a])])
+		);
 		expect(utf8.status()).toBe(422);
 		expect((await utf8.json()).errors).toEqual([
 			{

@@ -64,7 +64,12 @@ test('token requests, sign-ins and writes during a large import: no 500, none wa
 		const started = performance.now();
 		const res = await send();
 		await res.arrayBuffer();
-		samples.push({ kind, status: res.status, ms: performance.now() - started, duringImport: during && importing });
+		samples.push({
+			kind,
+			status: res.status,
+			ms: performance.now() - started,
+			duringImport: during && importing
+		});
 		return res;
 	};
 	const signInForm = (email: string, password: string) =>
@@ -76,13 +81,20 @@ test('token requests, sign-ins and writes during a large import: no 500, none wa
 				accept: 'text/html',
 				'content-type': 'application/x-www-form-urlencoded'
 			},
-			body: new URLSearchParams({ providerId: 'credentials', redirectTo: '/', email, password }).toString()
+			body: new URLSearchParams({
+				providerId: 'credentials',
+				redirectTo: '/',
+				email,
+				password
+			}).toString()
 		});
 	const viewer = demoUser('viewer');
 
 	// A paced upload (512 KB every 20 ms) keeps the import running for a while.
-	const upload = uploadPaced(url, quality, bytes, 'big.csv', { pieceBytes: 512 * 1024, pauseMs: 20 })
-		.done.finally(() => (importing = false));
+	const upload = uploadPaced(url, quality, bytes, 'big.csv', {
+		pieceBytes: 512 * 1024,
+		pauseMs: 20
+	}).done.finally(() => (importing = false));
 	let round = 0;
 	let roundsAfter = 0;
 	while (importing || roundsAfter < 4) {
@@ -98,7 +110,9 @@ test('token requests, sign-ins and writes during a large import: no 500, none wa
 				body: JSON.stringify({ code: `CONC-${round}`, name: `Concurrency line ${round}` })
 			})
 		);
-		await timed('failed sign-in', () => signInForm(`nobody-${round}@fenmoor.example`, 'not-the-password'));
+		await timed('failed sign-in', () =>
+			signInForm(`nobody-${round}@fenmoor.example`, 'not-the-password')
+		);
 		if (round % 3 === 0) {
 			// A real sign-in: the password is checked and a server-side session row is written.
 			const res = await timed('sign-in', () => signInForm(viewer.email, viewer.password));
@@ -145,7 +159,10 @@ test('token requests, sign-ins and writes during a large import: no 500, none wa
 	}
 	// Each kind of request really ran while the file was being imported.
 	for (const kind of ['token read', 'write: new line', 'failed sign-in', 'sign-in'])
-		expect(samples.filter((s) => s.kind === kind && s.duringImport).length, kind).toBeGreaterThanOrEqual(2);
+		expect(
+			samples.filter((s) => s.kind === kind && s.duringImport).length,
+			kind
+		).toBeGreaterThanOrEqual(2);
 });
 
 test('a write that finds the database locked by another process is answered 503 with Retry-After', async () => {
@@ -187,7 +204,9 @@ test('a write that finds the database locked by another process is answered 503 
 		expect(signIn.status).toBe(503);
 		expect(signIn.headers.get('retry-after')).toBe('1');
 		// Reads are never blocked (WAL).
-		const read = await fetch(`${url}/api/lines`, { headers: { authorization: `Bearer ${engineer}` } });
+		const read = await fetch(`${url}/api/lines`, {
+			headers: { authorization: `Bearer ${engineer}` }
+		});
 		expect(read.status).toBe(200);
 	} finally {
 		other.exec('ROLLBACK');

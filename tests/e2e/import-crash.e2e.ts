@@ -78,7 +78,8 @@ test('a server killed mid-import comes back with no partial import; the file the
 	});
 	await expect(upload.done).rejects.toThrow();
 	expect(killedAt).toBeGreaterThan(0);
-	if (live.child.exitCode === null && live.child.signalCode === null) await once(live.child, 'exit');
+	if (live.child.exitCode === null && live.child.signalCode === null)
+		await once(live.child, 'exit');
 	expect(live.child.signalCode).toBe('SIGKILL');
 	server = null;
 

@@ -37,14 +37,17 @@ for (const role of ['admin', 'technician'] as const) {
 					}
 					return { scrollWidth: document.documentElement.scrollWidth, clientWidth, culprit };
 				});
-				if (scrollWidth > clientWidth) wide.push(`${path} at ${width} px: ${scrollWidth} > ${clientWidth}: ${culprit}`);
+				if (scrollWidth > clientWidth)
+					wide.push(`${path} at ${width} px: ${scrollWidth} > ${clientWidth}: ${culprit}`);
 			}
 		}
 		expect(wide).toEqual([]);
 	});
 }
 
-test('a board page pages its pads with a count and a filter; failing outlines stay thin at any zoom', async ({ page }) => {
+test('a board page pages its pads with a count and a filter; failing outlines stay thin at any zoom', async ({
+	page
+}) => {
 	await signInAs(page, 'viewer');
 	await page.goto('/boards');
 	const first = page.locator('main a[href^="/boards/"]').first();
@@ -56,23 +59,33 @@ test('a board page pages its pads with a count and a filter; failing outlines st
 	await page.getByLabel('Find a pad').fill('U1.');
 	await expect(page.getByTestId('pad-table').locator('tbody tr').first()).toContainText('U1');
 	// The volume map's outlines: a screen width of a pixel or two, whatever the board size.
-	const strokes = await page.getByTestId('volume-map').locator('path').evaluateAll((paths) =>
-		paths
-			.filter((p) => p.getAttribute('stroke-width') !== '0')
-			.map((p) => ({ width: Number(p.getAttribute('stroke-width')), effect: p.getAttribute('vector-effect') }))
-	);
+	const strokes = await page
+		.getByTestId('volume-map')
+		.locator('path')
+		.evaluateAll((paths) =>
+			paths
+				.filter((p) => p.getAttribute('stroke-width') !== '0')
+				.map((p) => ({
+					width: Number(p.getAttribute('stroke-width')),
+					effect: p.getAttribute('vector-effect')
+				}))
+		);
 	for (const s of strokes) expect(s).toEqual({ width: 1.5, effect: 'non-scaling-stroke' });
 	// The page stays a reasonable height: one page of pads, not thousands of rows.
 	const height = await page.evaluate(() => document.documentElement.scrollHeight);
 	expect(height).toBeLessThan(6000);
 });
 
-test('the stencil page pages its apertures: a page of rows, with count and filter, not thousands', async ({ page }) => {
+test('the stencil page pages its apertures: a page of rows, with count and filter, not thousands', async ({
+	page
+}) => {
 	await signInAs(page, 'viewer');
 	await page.goto('/stencils');
-	const href = await page.locator('main a[href^="/stencils/"]').evaluateAll((as) =>
-		as.map((a) => a.getAttribute('href') ?? '').find((h) => /^\/stencils\/\d+$/.test(h))
-	);
+	const href = await page
+		.locator('main a[href^="/stencils/"]')
+		.evaluateAll((as) =>
+			as.map((a) => a.getAttribute('href') ?? '').find((h) => /^\/stencils\/\d+$/.test(h))
+		);
 	expect(href).toBeTruthy();
 	await page.goto(href!);
 	await page.waitForLoadState('networkidle');

@@ -1,7 +1,10 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './helpers';
 
-test('pages use the shipped Noto Sans and request nothing from other hosts', async ({ page, baseURL }) => {
+test('pages use the shipped Noto Sans and request nothing from other hosts', async ({
+	page,
+	baseURL
+}) => {
 	const foreign: string[] = [];
 	page.on('request', (req) => {
 		if (!req.url().startsWith(baseURL!) && !req.url().startsWith('data:')) foreign.push(req.url());

@@ -135,45 +135,43 @@ export function uploadPaced(
 	fileName: string,
 	options: { pieceBytes: number; pauseMs: number; onPiece?: (sent: number) => Promise<void> }
 ): { done: Promise<{ status: number; body: Record<string, unknown> }> } {
-	const done = new Promise<{ status: number; body: Record<string, unknown> }>(
-		(resolve, reject) => {
-			const req = httpRequest(
-				`${url}/api/spi/imports?fileName=${encodeURIComponent(fileName)}`,
-				{
-					method: 'POST',
-					headers: {
-						authorization: `Bearer ${token}`,
-						'content-type': 'text/csv',
-						'content-length': String(bytes.length)
+	const done = new Promise<{ status: number; body: Record<string, unknown> }>((resolve, reject) => {
+		const req = httpRequest(
+			`${url}/api/spi/imports?fileName=${encodeURIComponent(fileName)}`,
+			{
+				method: 'POST',
+				headers: {
+					authorization: `Bearer ${token}`,
+					'content-type': 'text/csv',
+					'content-length': String(bytes.length)
+				}
+			},
+			(res) => {
+				let text = '';
+				res.setEncoding('utf8');
+				res.on('data', (c) => (text += c));
+				res.on('end', () => {
+					try {
+						resolve({ status: res.statusCode ?? 0, body: JSON.parse(text) });
+					} catch {
+						resolve({ status: res.statusCode ?? 0, body: { text } });
 					}
-				},
-				(res) => {
-					let text = '';
-					res.setEncoding('utf8');
-					res.on('data', (c) => (text += c));
-					res.on('end', () => {
-						try {
-							resolve({ status: res.statusCode ?? 0, body: JSON.parse(text) });
-						} catch {
-							resolve({ status: res.statusCode ?? 0, body: { text } });
-						}
-					});
-					res.on('error', reject);
-				}
-			);
-			req.on('error', reject);
-			(async () => {
-				for (let sent = 0; sent < bytes.length; ) {
-					const piece = bytes.subarray(sent, sent + options.pieceBytes);
-					sent += piece.length;
-					if (!req.write(piece)) await once(req, 'drain');
-					if (options.onPiece) await options.onPiece(sent);
-					if (options.pauseMs > 0) await new Promise((r) => setTimeout(r, options.pauseMs));
-				}
-				req.end();
-			})().catch(reject);
-		}
-	);
+				});
+				res.on('error', reject);
+			}
+		);
+		req.on('error', reject);
+		(async () => {
+			for (let sent = 0; sent < bytes.length;) {
+				const piece = bytes.subarray(sent, sent + options.pieceBytes);
+				sent += piece.length;
+				if (!req.write(piece)) await once(req, 'drain');
+				if (options.onPiece) await options.onPiece(sent);
+				if (options.pauseMs > 0) await new Promise((r) => setTimeout(r, options.pauseMs));
+			}
+			req.end();
+		})().catch(reject);
+	});
 	return { done };
 }
 

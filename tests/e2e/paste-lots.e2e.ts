@@ -10,7 +10,9 @@ test('the run form marks the expired demo lot as refused, not with a tick', asyn
 	const status = page.locator('#field-pasteLot-status');
 	await expect(status).toContainText('✕ PL-2025-0977');
 	await expect(status).not.toContainText('✓');
-	await expect(page.getByTestId('run-checks')).toContainText('Refused: paste lot PL-2025-0977 expired');
+	await expect(page.getByTestId('run-checks')).toContainText(
+		'Refused: paste lot PL-2025-0977 expired'
+	);
 	// A technician may not override: the run is refused with the reason.
 	await page.locator('#field-stencil').fill('ST-PB100');
 	await page.locator('#field-stencil').press('Enter');
@@ -27,7 +29,9 @@ test('an engineer sees the override field for an expired lot', async ({ page }) 
 	await expect(page.getByLabel('Engineer override: why use this paste lot anyway?')).toBeVisible();
 });
 
-test('registering a lot with an expiry in 2020 warns and asks for confirmation', async ({ page }) => {
+test('registering a lot with an expiry in 2020 warns and asks for confirmation', async ({
+	page
+}) => {
 	await signInAs(page, 'technician');
 	await page.goto('/paste');
 	// The button works once the page has hydrated: click until the form shows.

@@ -83,10 +83,19 @@ test.describe('print-log API', () => {
 		// Paste lots and their events. An expiry decades ahead is implausible: confirmed on purpose.
 		const unconfirmed = await request.post('/api/paste-lots', {
 			headers: technician,
-			data: { lotNumber: lot, alloy: 'SAC305', powderType: 4, expiresOn: '2099-06-30', fluxClass: 'ROL0' }
+			data: {
+				lotNumber: lot,
+				alloy: 'SAC305',
+				powderType: 4,
+				expiresOn: '2099-06-30',
+				fluxClass: 'ROL0'
+			}
 		});
 		expect(unconfirmed.status()).toBe(422);
-		expect(await unconfirmed.json()).toMatchObject({ needsConfirmation: true, fields: [{ field: 'expiresOn' }] });
+		expect(await unconfirmed.json()).toMatchObject({
+			needsConfirmation: true,
+			fields: [{ field: 'expiresOn' }]
+		});
 		const created = await request.post('/api/paste-lots', {
 			headers: technician,
 			data: {
@@ -108,7 +117,13 @@ test.describe('print-log API', () => {
 			(
 				await request.post('/api/paste-lots', {
 					headers: technician,
-					data: { lotNumber: lot, alloy: 'SAC305', powderType: 4, expiresOn: '2099-06-30', confirmDates: true }
+					data: {
+						lotNumber: lot,
+						alloy: 'SAC305',
+						powderType: 4,
+						expiresOn: '2099-06-30',
+						confirmDates: true
+					}
 				})
 			).status()
 		).toBe(409);

@@ -84,14 +84,18 @@ test.describe('security headers', () => {
 			expect(response.headers()['cache-control'], path).toBe('no-store');
 		}
 
-		const csv = await request.get('/api/print-runs/export.csv', { headers: bearer(tokenFor('viewer')) });
+		const csv = await request.get('/api/print-runs/export.csv', {
+			headers: bearer(tokenFor('viewer'))
+		});
 		expect(csv.status()).toBe(200);
 		expect(csv.headers()['content-disposition']).toContain('attachment');
 		expectBaseHeaders(csv.headers(), 'print-runs CSV');
 		expect(csv.headers()['cache-control']).toBe('no-store');
 	});
 
-	test('pages run their scripts under the policy: no CSP violations on key pages', async ({ page }) => {
+	test('pages run their scripts under the policy: no CSP violations on key pages', async ({
+		page
+	}) => {
 		const violations: string[] = [];
 		page.on('console', (message) => {
 			if (/Content[- ]Security[- ]Policy|Refused to (execute|load|apply)/i.test(message.text())) {

@@ -1,7 +1,9 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './helpers';
 
-test('on a tablet the menu opens by touch and every control is at least 44 px tall', async ({ page }) => {
+test('on a tablet the menu opens by touch and every control is at least 44 px tall', async ({
+	page
+}) => {
 	await signInAs(page, 'technician');
 	const menu = page.getByRole('button', { name: 'Menu' });
 	await menu.tap();

@@ -9,7 +9,9 @@ async function outboxMailTo(address: string, after: number): Promise<string | nu
 		const db = new Database(E2E_DATABASE, { readonly: true, fileMustExist: true });
 		try {
 			const row = db
-				.prepare('SELECT text_body FROM mail_outbox WHERE to_addresses LIKE ? AND created_at > ? ORDER BY id DESC')
+				.prepare(
+					'SELECT text_body FROM mail_outbox WHERE to_addresses LIKE ? AND created_at > ? ORDER BY id DESC'
+				)
 				.get(`%${address}%`, after) as { text_body: string } | undefined;
 			if (row) return row.text_body;
 		} finally {
@@ -33,7 +35,9 @@ async function addPerson(page: Page, name: string, email: string, password: stri
 
 test.describe('sign-in and roles', () => {
 	for (const role of ROLES) {
-		test(`${role} signs in, sees their role and only their sections, and signs out`, async ({ page }) => {
+		test(`${role} signs in, sees their role and only their sections, and signs out`, async ({
+			page
+		}) => {
 			await signInAs(page, role);
 			await expect(page).toHaveURL(/\/$/);
 			await expect(page.getByTestId('viewer-role')).toHaveText(ROLE_LABELS[role]);
@@ -110,7 +114,12 @@ test.describe('sign-in and roles', () => {
 	});
 
 	test('after sign-in only paths on our own origin are followed', async ({ page, request }) => {
-		for (const hostile of ['/\\evil.example', '//evil.example', '/\t/evil.example', 'https://evil.example/']) {
+		for (const hostile of [
+			'/\\evil.example',
+			'//evil.example',
+			'/\t/evil.example',
+			'https://evil.example/'
+		]) {
 			await page.goto(`/signin?redirectTo=${encodeURIComponent(hostile)}`);
 			await expect(page.locator('input[name="redirectTo"]')).toHaveValue('/');
 		}
@@ -130,11 +139,19 @@ test.describe('sign-in and roles', () => {
 		// A forged redirectTo posted with the form and forged Host headers do not steer Auth.js.
 		const base = new URL(page.url()).origin;
 		// A forged Host header on the redirect to sign-in (this request context is not signed in yet).
-		const bounced = await request.get('/factory', { headers: { host: 'evil.example' }, maxRedirects: 0 });
+		const bounced = await request.get('/factory', {
+			headers: { host: 'evil.example' },
+			maxRedirects: 0
+		});
 		expect(bounced.status()).toBe(303);
 		expect(bounced.headers()['location']).toBe('/signin?redirectTo=%2Ffactory');
 		const response = await request.post('/signin', {
-			form: { email: user.email, password: user.password, providerId: 'credentials', redirectTo: '/\\evil.example' },
+			form: {
+				email: user.email,
+				password: user.password,
+				providerId: 'credentials',
+				redirectTo: '/\\evil.example'
+			},
 			headers: {
 				accept: 'text/html',
 				origin: base,
@@ -152,7 +169,12 @@ test.describe('sign-in and roles', () => {
 		// A forged Host header on the Auth.js sign-out.
 		const signedOut = await request.post('/signout', {
 			form: { redirectTo: '/signin' },
-			headers: { accept: 'text/html', origin: base, host: 'evil.example', 'x-forwarded-host': 'evil.example' },
+			headers: {
+				accept: 'text/html',
+				origin: base,
+				host: 'evil.example',
+				'x-forwarded-host': 'evil.example'
+			},
 			maxRedirects: 0
 		});
 		expect([302, 303]).toContain(signedOut.status());
@@ -201,7 +223,9 @@ test.describe('sign-in and roles', () => {
 		await pageA.getByLabel(/^New password \(/).fill('second-long-password');
 		await pageA.getByLabel('New password again').fill('second-long-password');
 		await pageA.getByRole('button', { name: 'Change password' }).click();
-		await expect(pageA.locator('#currentPassword-error')).toHaveText('The current password is wrong.');
+		await expect(pageA.locator('#currentPassword-error')).toHaveText(
+			'The current password is wrong.'
+		);
 		await pageA.getByLabel('Current password').fill('first-long-password');
 		await pageA.getByLabel(/^New password \(/).fill('second-long-password');
 		await pageA.getByLabel('New password again').fill('second-long-password');
@@ -222,7 +246,10 @@ test.describe('sign-in and roles', () => {
 		await b.close();
 	});
 
-	test('a password reset link by mail works once; unknown addresses get the same answer', async ({ browser, page }) => {
+	test('a password reset link by mail works once; unknown addresses get the same answer', async ({
+		browser,
+		page
+	}) => {
 		const email = `reset.${Date.now()}@fenmoor.example`;
 		const admin = await browser.newPage();
 		await addPerson(admin, 'Ivo Saltmarsh', email, 'forgotten-password');

@@ -4,10 +4,17 @@ import { bearer, signInAs, tokenFor } from './helpers';
 
 // NIST/SEMATECH e-Handbook §6.3.2.2 individuals example, with its published limits.
 const examples = JSON.parse(readFileSync('reference/spc/worked-examples.json', 'utf8'));
-const nist = examples.nistIndividualsFlowRate as { values: number[]; ucl: number; lcl: number; mean: number };
+const nist = examples.nistIndividualsFlowRate as {
+	values: number[];
+	ucl: number;
+	lcl: number;
+	mean: number;
+};
 
 test.describe('ad-hoc study', () => {
-	test('POST /api/spc/analyze gives the published NIST limits; bad input is 422 by field', async ({ request }) => {
+	test('POST /api/spc/analyze gives the published NIST limits; bad input is 422 by field', async ({
+		request
+	}) => {
 		const ok = await request.post('/api/spc/analyze', {
 			headers: bearer(tokenFor('viewer')),
 			data: { chart: 'i-mr', values: nist.values, lsl: 40, usl: 60, rules: ['we-1', 'nelson-3'] }
@@ -17,7 +24,11 @@ test.describe('ad-hoc study', () => {
 		expect(body.limits.location.cl).toBeCloseTo(nist.mean, 6);
 		expect(body.limits.location.ucl).toBeCloseTo(nist.ucl, 2);
 		expect(body.limits.location.lcl).toBeCloseTo(nist.lcl, 2);
-		expect(body.capability).toMatchObject({ cp: expect.any(Number), cpk: expect.any(Number), pp: expect.any(Number) });
+		expect(body.capability).toMatchObject({
+			cp: expect.any(Number),
+			cpk: expect.any(Number),
+			pp: expect.any(Number)
+		});
 		expect(body.violations).toEqual([]);
 
 		const oneSided = await request.post('/api/spc/analyze', {
@@ -28,20 +39,37 @@ test.describe('ad-hoc study', () => {
 
 		for (const [data, field] of [
 			[{ chart: 'xbar-r', subgroups: [[1], [2]] }, 'subgroups[0]'],
-			[{ chart: 'xbar-r', subgroups: [[1, 2], [3, 4, 5]] }, 'subgroups[1]'],
+			[
+				{
+					chart: 'xbar-r',
+					subgroups: [
+						[1, 2],
+						[3, 4, 5]
+					]
+				},
+				'subgroups[1]'
+			],
 			[{ chart: 'i-mr', values: [1, 'x', 3] }, 'values[1]'],
 			[{ chart: 'i-mr', values: [1, 2, 3], lsl: 5, usl: 1 }, 'lsl'],
 			[{ chart: 'i-mr', values: [4, 4, 4] }, 'values'],
 			[{ chart: 'p-chart', values: [1, 2] }, 'chart']
 		] as const) {
-			const bad = await request.post('/api/spc/analyze', { headers: bearer(tokenFor('viewer')), data });
+			const bad = await request.post('/api/spc/analyze', {
+				headers: bearer(tokenFor('viewer')),
+				data
+			});
 			expect(bad.status(), JSON.stringify(data)).toBe(422);
 			const { errors } = await bad.json();
-			expect(errors.map((e: { field: string }) => e.field), JSON.stringify(data)).toContain(field);
+			expect(
+				errors.map((e: { field: string }) => e.field),
+				JSON.stringify(data)
+			).toContain(field);
 		}
 	});
 
-	test('the study page charts pasted numbers with the same limits and capability', async ({ page }) => {
+	test('the study page charts pasted numbers with the same limits and capability', async ({
+		page
+	}) => {
 		await signInAs(page, 'viewer');
 		await page.goto('/study');
 		await page.getByLabel('Chart').selectOption('i-mr');
@@ -60,8 +88,12 @@ test.describe('ad-hoc study', () => {
 		await expect(page.getByText('line 2, column 2: "x" is not a number')).toBeVisible();
 	});
 
-	test('between/within through the API matches the hand-computed example; NaN and mixed sizes are named', async ({ request }) => {
-		const bw = JSON.parse(readFileSync('reference/spc/between-within-example.json', 'utf8')).rangeExample;
+	test('between/within through the API matches the hand-computed example; NaN and mixed sizes are named', async ({
+		request
+	}) => {
+		const bw = JSON.parse(
+			readFileSync('reference/spc/between-within-example.json', 'utf8')
+		).rangeExample;
 		const viewer = bearer(tokenFor('viewer'));
 		const res = await request.post('/api/spc/analyze', {
 			headers: viewer,
@@ -71,7 +103,10 @@ test.describe('ad-hoc study', () => {
 		const body = await res.json();
 		for (const part of ['location', 'movingRange', 'dispersion'] as const) {
 			for (const key of ['lcl', 'cl', 'ucl'] as const) {
-				expect(Math.abs(body.limits[part][key] - bw.expected[part][key]), `${part}.${key}`).toBeLessThan(1e-5);
+				expect(
+					Math.abs(body.limits[part][key] - bw.expected[part][key]),
+					`${part}.${key}`
+				).toBeLessThan(1e-5);
 			}
 		}
 		expect(Math.abs(body.capability.cpk - bw.expected.cpk)).toBeLessThan(1e-5);
@@ -86,57 +121,99 @@ test.describe('ad-hoc study', () => {
 
 		const mixed = await request.post('/api/spc/analyze', {
 			headers: viewer,
-			data: { chart: 'xbar-r', subgroups: [[1, 2, 3], [2, 3, 4], [5, 6], [7, 8, 9]] }
+			data: {
+				chart: 'xbar-r',
+				subgroups: [
+					[1, 2, 3],
+					[2, 3, 4],
+					[5, 6],
+					[7, 8, 9]
+				]
+			}
 		});
 		expect(mixed.status()).toBe(422);
 		expect(await mixed.json()).toEqual({
-			errors: [{ field: 'subgroups[2]', message: 'has 2 values but subgroup 0 has 3; X-bar/R needs equal subgroup sizes' }]
+			errors: [
+				{
+					field: 'subgroups[2]',
+					message: 'has 2 values but subgroup 0 has 3; X-bar/R needs equal subgroup sizes'
+				}
+			]
 		});
 	});
 
-	test('the study page draws a between/within chart and names a subgroup of another size', async ({ page }) => {
-		const bw = JSON.parse(readFileSync('reference/spc/between-within-example.json', 'utf8')).rangeExample;
+	test('the study page draws a between/within chart and names a subgroup of another size', async ({
+		page
+	}) => {
+		const bw = JSON.parse(
+			readFileSync('reference/spc/between-within-example.json', 'utf8')
+		).rangeExample;
 		await signInAs(page, 'viewer');
 		await page.goto('/study');
 		await page.getByLabel('Chart').selectOption('between-within');
-		await page.getByLabel('Data', { exact: true }).fill(bw.subgroups.map((g: number[]) => g.join(' ')).join('\n'));
+		await page
+			.getByLabel('Data', { exact: true })
+			.fill(bw.subgroups.map((g: number[]) => g.join(' ')).join('\n'));
 		await page.getByRole('button', { name: 'Analyse' }).click();
 		// Hand-computed: 11.6 ± 3·1.5/d2(2); MR UCL D4(2)·1.5; R chart D4(5)·2.6 (2 decimals shown)
-		await expect(page.getByTestId('location-pane')).toContainText('UCL 15.59 · CL 11.60 · LCL 7.61');
+		await expect(page.getByTestId('location-pane')).toContainText(
+			'UCL 15.59 · CL 11.60 · LCL 7.61'
+		);
 		await expect(page.getByTestId('mr-pane')).toContainText('UCL 4.90 · CL 1.50 · LCL 0.00');
-		await expect(page.getByTestId('dispersion-pane')).toContainText('UCL 5.50 · CL 2.60 · LCL 0.00');
+		await expect(page.getByTestId('dispersion-pane')).toContainText(
+			'UCL 5.50 · CL 2.60 · LCL 0.00'
+		);
 
 		await page.getByLabel('Chart').selectOption('xbar-s');
 		await page.getByLabel('Data', { exact: true }).fill('1 2 3\n2 3 4\n5 6');
 		await page.getByRole('button', { name: 'Analyse' }).click();
 		await expect(
-			page.getByText('line 3 (subgroups[2]): has 2 values but subgroup 0 has 3; X-bar/S needs equal subgroup sizes')
+			page.getByText(
+				'line 3 (subgroups[2]): has 2 values but subgroup 0 has 3; X-bar/S needs equal subgroup sizes'
+			)
 		).toBeVisible();
 	});
 });
 
 test.describe('charts and signals on demo data', () => {
-	test('the API lists charts worst first and gives points, limits and violations', async ({ request }) => {
+	test('the API lists charts worst first and gives points, limits and violations', async ({
+		request
+	}) => {
 		const list = await request.get('/api/charts', { headers: bearer(tokenFor('viewer')) });
 		expect(list.status()).toBe(200);
 		const { charts } = await list.json();
-		const speed = charts.find((c: { name: string }) => c.name === 'Squeegee speed · PB-100 · SMT-1');
+		const speed = charts.find(
+			(c: { name: string }) => c.name === 'Squeegee speed · PB-100 · SMT-1'
+		);
 		expect(speed).toMatchObject({ phase: 'II', limitsVersion: 1 });
 		expect(speed.openSignals).toBeGreaterThan(0);
 		expect(charts[0].openSignals).toBeGreaterThanOrEqual(speed.openSignals);
 
-		const one = await request.get(`/api/charts/${speed.id}`, { headers: bearer(tokenFor('viewer')) });
+		const one = await request.get(`/api/charts/${speed.id}`, {
+			headers: bearer(tokenFor('viewer'))
+		});
 		const chart = await one.json();
 		expect(chart.points.length).toBeGreaterThan(10);
 		expect(chart.limits.location.ucl).toBeGreaterThan(chart.limits.location.cl);
-		const hit = chart.violations.find((v: { rule: string; chart: string }) => v.rule === 'we-1' && v.chart === 'location');
+		const hit = chart.violations.find(
+			(v: { rule: string; chart: string }) => v.rule === 'we-1' && v.chart === 'location'
+		);
 		expect(chart.points[hit.index].location).toBe(65);
-		expect((await request.get('/api/charts/999999', { headers: bearer(tokenFor('viewer')) })).status()).toBe(404);
+		expect(
+			(await request.get('/api/charts/999999', { headers: bearer(tokenFor('viewer')) })).status()
+		).toBe(404);
 	});
 
-	test('a quality engineer acknowledges the signal; the follower had one mail', async ({ page, request }) => {
-		const open = await (await request.get('/api/signals?status=open', { headers: bearer(tokenFor('viewer')) })).json();
-		const signal = open.signals.find((s: { value: number; rule: string }) => s.rule === 'we-1' && s.value === 65);
+	test('a quality engineer acknowledges the signal; the follower had one mail', async ({
+		page,
+		request
+	}) => {
+		const open = await (
+			await request.get('/api/signals?status=open', { headers: bearer(tokenFor('viewer')) })
+		).json();
+		const signal = open.signals.find(
+			(s: { value: number; rule: string }) => s.rule === 'we-1' && s.value === 65
+		);
 		expect(signal).toBeTruthy();
 
 		const viewer = await request.post(`/api/signals/${signal.id}/acknowledge`, {
@@ -164,7 +241,9 @@ test.describe('charts and signals on demo data', () => {
 		await expect(submit).toHaveText('Acknowledge 1 signal');
 		const wider = card.getByLabel(/open signals of this pattern on this chart/);
 		if (await wider.count()) {
-			const n = Number(/All (\d+) open/.exec((await wider.locator('xpath=..').textContent()) ?? '')?.[1]);
+			const n = Number(
+				/All (\d+) open/.exec((await wider.locator('xpath=..').textContent()) ?? '')?.[1]
+			);
 			await wider.check();
 			await expect(submit).toHaveText(`Acknowledge ${n} signals`);
 			await card.getByLabel('This signal only').check();
@@ -178,11 +257,19 @@ test.describe('charts and signals on demo data', () => {
 		await submit.click();
 		await expect(page.getByRole('status').filter({ hasText: 'Acknowledged' })).toBeVisible();
 
-		const after = await (await request.get(`/api/signals?chart=${signal.chartId}`, { headers: bearer(tokenFor('viewer')) })).json();
+		const after = await (
+			await request.get(`/api/signals?chart=${signal.chartId}`, {
+				headers: bearer(tokenFor('viewer'))
+			})
+		).json();
 		const done = after.signals.find((s: { id: number }) => s.id === signal.id);
 		expect(done).toMatchObject({
 			status: 'acknowledged',
-			acknowledgement: { cause: 'Board support or clamping', action: 'Wipe stencil', by: 'Dev Ashcombe' }
+			acknowledgement: {
+				cause: 'Board support or clamping',
+				action: 'Wipe stencil',
+				by: 'Dev Ashcombe'
+			}
 		});
 		const again = await request.post(`/api/signals/${signal.id}/acknowledge`, {
 			headers: bearer(tokenFor('quality')),
@@ -193,19 +280,25 @@ test.describe('charts and signals on demo data', () => {
 		await page.goto(`/charts/${signal.chartId}`);
 		await expect(page.getByTestId('location-pane')).toBeVisible();
 		await expect(page.getByTestId('phase')).toContainText('Phase II');
-		await expect(page.locator('[data-testid="location-pane"] a[data-signal="yes"]').first()).toBeVisible();
+		await expect(
+			page.locator('[data-testid="location-pane"] a[data-signal="yes"]').first()
+		).toBeVisible();
 
 		await page.context().clearCookies();
 		await signInAs(page, 'admin');
 		await page.goto('/admin/outbox');
 		// One mail per new signal run set of the chart (the demo's first evaluation found several runs).
-		const mails = page.getByText(/^\[Rollbead\] (Signal|\d+ signals) on Squeegee speed · PB-100 · SMT-1/);
+		const mails = page.getByText(
+			/^\[Rollbead\] (Signal|\d+ signals) on Squeegee speed · PB-100 · SMT-1/
+		);
 		await expect(mails).toHaveCount(1);
 		await expect(page.getByText('engineer@fenmoor.example').first()).toBeVisible();
 	});
 });
 
-test('an engineer sets up a print-parameter chart; bad specs are named at the field', async ({ page }) => {
+test('an engineer sets up a print-parameter chart; bad specs are named at the field', async ({
+	page
+}) => {
 	await signInAs(page, 'engineer');
 	await page.goto('/charts/new');
 	// The parameter list appears only once the page runs (hydrated), so choose it before typing.
@@ -227,7 +320,10 @@ test('an engineer sets up a print-parameter chart; bad specs are named at the fi
 });
 
 // The demo's frozen squeegee-speed chart (PB-100 on SMT-1) judges every run logged on that line.
-test('a print run far off the frozen limits raises a signal at once, and the follower gets one more mail', async ({ page, request }) => {
+test('a print run far off the frozen limits raises a signal at once, and the follower gets one more mail', async ({
+	page,
+	request
+}) => {
 	const technician = bearer(tokenFor('technician'));
 	const viewer = bearer(tokenFor('viewer'));
 	const charts = (await (await request.get('/api/charts', { headers: viewer })).json()).charts as {
@@ -238,12 +334,15 @@ test('a print run far off the frozen limits raises a signal at once, and the fol
 	expect(speedChart, 'demo speed chart').toBeDefined();
 
 	// One open run per line: end whatever is open on SMT-1 first.
-	const runs = (await (await request.get('/api/print-runs?line=SMT-1', { headers: viewer })).json()).runs as {
+	const runs = (await (await request.get('/api/print-runs?line=SMT-1', { headers: viewer })).json())
+		.runs as {
 		id: number;
 		endedAt: string | null;
 	}[];
 	for (const run of runs.filter((r) => !r.endedAt)) {
-		expect((await request.post(`/api/print-runs/${run.id}/end`, { headers: technician })).status()).toBe(200);
+		expect(
+			(await request.post(`/api/print-runs/${run.id}/end`, { headers: technician })).status()
+		).toBe(200);
 	}
 
 	const signalsFor = async () =>
@@ -252,8 +351,9 @@ test('a print run far off the frozen limits raises a signal at once, and the fol
 	const before = await signalsFor();
 
 	// Every parameter on its recipe target but the squeegee speed.
-	const recipes = (await (await request.get('/api/recipes?line=SMT-1&product=PB-100', { headers: viewer })).json())
-		.recipes as { parameters: Record<string, unknown> }[];
+	const recipes = (
+		await (await request.get('/api/recipes?line=SMT-1&product=PB-100', { headers: viewer })).json()
+	).recipes as { parameters: Record<string, unknown> }[];
 	const recipeTargets = Object.fromEntries(
 		Object.entries(recipes[0].parameters).map(([key, spec]) => {
 			const window = spec as { target?: unknown; value?: unknown };
@@ -283,5 +383,7 @@ test('a print run far off the frozen limits raises a signal at once, and the fol
 	// Runs after the acknowledgement test above, which saw the demo's one mail for this chart.
 	await signInAs(page, 'admin');
 	await page.goto('/admin/outbox');
-	await expect(page.getByText(/^\[Rollbead\] (Signal|\d+ signals) on Squeegee speed · PB-100 · SMT-1/)).toHaveCount(2);
+	await expect(
+		page.getByText(/^\[Rollbead\] (Signal|\d+ signals) on Squeegee speed · PB-100 · SMT-1/)
+	).toHaveCount(2);
 });

@@ -9,7 +9,20 @@ import { everyPage } from './every-page';
  * 4.588722 kg in a field, an axis tick 5e-10.
  */
 // Unit symbols and names written with capitals inside (not code identifiers).
-const ALLOWED_MIXED_CASE = new Set(['mPa', 'kPa', 'mL', 'iOS', 'eMail', 'kHz', 'mV', 'mA', 'kN', 'dB', 'µm', 'pH']);
+const ALLOWED_MIXED_CASE = new Set([
+	'mPa',
+	'kPa',
+	'mL',
+	'iOS',
+	'eMail',
+	'kHz',
+	'mV',
+	'mA',
+	'kN',
+	'dB',
+	'µm',
+	'pH'
+]);
 
 function problems(text: string): string[] {
 	const out: string[] = [];
@@ -49,7 +62,9 @@ for (const role of ROLES) {
 			expect([200, 403], path).toContain(response?.status());
 			await page.waitForLoadState('networkidle');
 			const text = await page.locator('body').evaluate((b) => {
-				const svgText = [...b.querySelectorAll('svg text')].map((t) => t.textContent ?? '').join('\n');
+				const svgText = [...b.querySelectorAll('svg text')]
+					.map((t) => t.textContent ?? '')
+					.join('\n');
 				// Raw records shown on purpose (the audit trail's before/after JSON) and literal
 				// values in <code> (a token's random prefix, a file name) are not labels.
 				const pres = [...b.querySelectorAll('pre, code')] as HTMLElement[];
@@ -60,11 +75,17 @@ for (const role of ROLES) {
 			});
 			for (const p of problems(text)) found.push(`${path}: ${p}`);
 			// Numbers in fields keep their field's precision (at most 3 decimals shown).
-			const fields = await page.locator('input:not([type=hidden]):not([type=checkbox]):not([type=radio])').evaluateAll((els) =>
-				els.map((e) => ({ id: e.id || (e as HTMLInputElement).name, value: (e as HTMLInputElement).value }))
-			);
+			const fields = await page
+				.locator('input:not([type=hidden]):not([type=checkbox]):not([type=radio])')
+				.evaluateAll((els) =>
+					els.map((e) => ({
+						id: e.id || (e as HTMLInputElement).name,
+						value: (e as HTMLInputElement).value
+					}))
+				);
 			for (const f of fields) {
-				if (/^-?\d+\.\d{4,}$/.test(f.value)) found.push(`${path}: field ${f.id} prefilled as ${f.value}`);
+				if (/^-?\d+\.\d{4,}$/.test(f.value))
+					found.push(`${path}: field ${f.id} prefilled as ${f.value}`);
 			}
 		}
 		expect([...new Set(found)]).toEqual([]);

@@ -37,11 +37,15 @@ describe('npm run token', () => {
 		[['revoke', '--id', 'abc'], /--id must be a token id/],
 		[['frobnicate'], /unknown command "frobnicate"/],
 		[[], /no command given/]
-	])('refuses %j with a message and a non-zero exit', (args, message) => {
-		const { status, stderr } = token(args as string[]);
-		expect(status).toBe(1);
-		expect(stderr).toMatch(message);
-	}, 30_000);
+	])(
+		'refuses %j with a message and a non-zero exit',
+		(args, message) => {
+			const { status, stderr } = token(args as string[]);
+			expect(status).toBe(1);
+			expect(stderr).toMatch(message);
+		},
+		30_000
+	);
 
 	it('says clearly when the database cannot be opened', () => {
 		// A regular file where the database folder should be.

@@ -24,8 +24,10 @@ export function pearsonCorrelation(
 	y: readonly number[],
 	level = 0.95
 ): Correlation {
-	if (x.length !== y.length) throw new AnalysisInputError(`x has ${x.length} values, y ${y.length}`);
-	if (!(level > 0 && level < 1)) throw new AnalysisInputError(`level must be in (0, 1), got ${level}`);
+	if (x.length !== y.length)
+		throw new AnalysisInputError(`x has ${x.length} values, y ${y.length}`);
+	if (!(level > 0 && level < 1))
+		throw new AnalysisInputError(`level must be in (0, 1), got ${level}`);
 	const n = x.length;
 	if (n < 3) throw new AnalysisInputError(`a correlation needs 3 points, got ${n}`);
 	let sx = 0;

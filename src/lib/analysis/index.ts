@@ -45,9 +45,4 @@ export {
 	type TeBinSummary,
 	type TeHistogramRow
 } from './te-bins';
-export {
-	runOutcome,
-	VOLUME_WINDOW_PCT,
-	type RunOutcome,
-	type RunOutcomeSums
-} from './run-outcome';
+export { runOutcome, VOLUME_WINDOW_PCT, type RunOutcome, type RunOutcomeSums } from './run-outcome';

@@ -29,8 +29,10 @@ export interface LinearFit {
 }
 
 function checkSeries(x: readonly number[], y: readonly number[], w?: readonly number[]) {
-	if (x.length !== y.length) throw new AnalysisInputError(`x has ${x.length} values, y ${y.length}`);
-	if (w && w.length !== x.length) throw new AnalysisInputError(`weights: ${w.length} for ${x.length} points`);
+	if (x.length !== y.length)
+		throw new AnalysisInputError(`x has ${x.length} values, y ${y.length}`);
+	if (w && w.length !== x.length)
+		throw new AnalysisInputError(`weights: ${w.length} for ${x.length} points`);
 	for (let i = 0; i < x.length; i++) {
 		if (!Number.isFinite(x[i]) || !Number.isFinite(y[i]))
 			throw new AnalysisInputError(`point ${i + 1} is not a finite number`);
@@ -117,8 +119,13 @@ export interface MeanResponseInterval {
  * Pointwise: the level holds at each x on its own, not for the whole band at once.
  * @throws AnalysisInputError when level is not in (0, 1).
  */
-export function meanResponseInterval(fit: LinearFit, x0: number, level = 0.95): MeanResponseInterval {
-	if (!(level > 0 && level < 1)) throw new AnalysisInputError(`level must be in (0, 1), got ${level}`);
+export function meanResponseInterval(
+	fit: LinearFit,
+	x0: number,
+	level = 0.95
+): MeanResponseInterval {
+	if (!(level > 0 && level < 1))
+		throw new AnalysisInputError(`level must be in (0, 1), got ${level}`);
 	const t = studentTQuantile(1 - (1 - level) / 2, fit.degreesOfFreedom);
 	const se = fit.residualSd * Math.sqrt(1 / fit.weightSum + (x0 - fit.xMean) ** 2 / fit.sxx);
 	const yHat = fit.intercept + fit.slope * x0;

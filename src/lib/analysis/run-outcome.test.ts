@@ -19,7 +19,14 @@ describe('runOutcome', () => {
 		expect(o.passRate).toBe(0.5);
 	});
 	it('is null where a figure is undefined', () => {
-		const o = runOutcome({ boards: 0, passBoards: 0, pads: 0, volumeSum: 0, withinSs: 0, withinDf: 0 });
+		const o = runOutcome({
+			boards: 0,
+			passBoards: 0,
+			pads: 0,
+			volumeSum: 0,
+			withinSs: 0,
+			withinDf: 0
+		});
 		expect(o).toEqual({ volumeMean: null, volumeCpk: null, passRate: null });
 	});
 });

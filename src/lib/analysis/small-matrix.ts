@@ -3,7 +3,10 @@
  * partial pivoting; null when a pivot is negligible against the largest diagonal entry
  * (numerically singular: the data do not determine every parameter).
  */
-export function invertSmallMatrix(m: readonly (readonly number[])[], relTol = 1e-12): number[][] | null {
+export function invertSmallMatrix(
+	m: readonly (readonly number[])[],
+	relTol = 1e-12
+): number[][] | null {
 	const n = m.length;
 	const a = m.map((row, i) => [...row, ...Array.from({ length: n }, (_, j) => (i === j ? 1 : 0))]);
 	const scale = Math.max(...m.map((row, i) => Math.abs(row[i])));
@@ -26,7 +29,10 @@ export function invertSmallMatrix(m: readonly (readonly number[])[], relTol = 1e
 }
 
 /** Solve m·x = b for a small matrix; null when singular. */
-export function solveSmall(m: readonly (readonly number[])[], b: readonly number[]): number[] | null {
+export function solveSmall(
+	m: readonly (readonly number[])[],
+	b: readonly number[]
+): number[] | null {
 	const inv = invertSmallMatrix(m);
 	if (!inv) return null;
 	return inv.map((row) => row.reduce((s, v, j) => s + v * b[j], 0));

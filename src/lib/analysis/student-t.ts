@@ -9,7 +9,8 @@ import { logGamma } from '$lib/spc/gamma-functions';
  * @example regularizedBeta(0.5, 2, 2) // 0.5
  */
 export function regularizedBeta(x: number, a: number, b: number): number {
-	if (!(a > 0) || !(b > 0)) throw new RangeError(`regularizedBeta: a, b must be > 0, got ${a}, ${b}`);
+	if (!(a > 0) || !(b > 0))
+		throw new RangeError(`regularizedBeta: a, b must be > 0, got ${a}, ${b}`);
 	if (!(x >= 0 && x <= 1)) throw new RangeError(`regularizedBeta: x must be in [0, 1], got ${x}`);
 	if (x === 0 || x === 1) return x;
 	const logFront =
@@ -72,7 +73,8 @@ export function studentTCdf(t: number, degreesOfFreedom: number): number {
 export function studentTQuantile(p: number, degreesOfFreedom: number): number {
 	const nu = degreesOfFreedom;
 	if (!(p > 0 && p < 1)) throw new RangeError(`studentTQuantile: p must be in (0, 1), got ${p}`);
-	if (!(nu > 0)) throw new RangeError(`studentTQuantile: degrees of freedom must be > 0, got ${nu}`);
+	if (!(nu > 0))
+		throw new RangeError(`studentTQuantile: degrees of freedom must be > 0, got ${nu}`);
 	if (p === 0.5) return 0;
 	if (p < 0.5) return -studentTQuantile(1 - p, nu);
 	let lo = 0;

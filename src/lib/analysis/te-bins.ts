@@ -141,7 +141,10 @@ export interface TeAnalysis {
  * From histogram rows to the answer of `GET /api/analysis/transfer-efficiency`: bins, the fitted
  * curve with its 95 % band, and the learned limit at `floor`.
  */
-export function analyseTransferEfficiency(rows: readonly TeHistogramRow[], floor: number): TeAnalysis {
+export function analyseTransferEfficiency(
+	rows: readonly TeHistogramRow[],
+	floor: number
+): TeAnalysis {
 	const byBin = new Map<number, TeHistogramRow[]>();
 	for (const r of rows) {
 		let list = byBin.get(r.bin);

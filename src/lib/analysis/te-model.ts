@@ -139,7 +139,8 @@ export function fitTeCurve(points: readonly TeBinPoint[]): TeFitOutcome {
 	for (const [i, p] of points.entries()) {
 		if (!Number.isFinite(p.areaRatio) || !Number.isFinite(p.te))
 			throw new AnalysisInputError(`bin ${i + 1}: area ratio and TE must be finite numbers`);
-		if (!(Number.isFinite(p.n) && p.n > 0)) throw new AnalysisInputError(`bin ${i + 1}: n must be > 0`);
+		if (!(Number.isFinite(p.n) && p.n > 0))
+			throw new AnalysisInputError(`bin ${i + 1}: n must be > 0`);
 	}
 	const pts = [...points].sort((a, b) => a.areaRatio - b.areaRatio);
 	if (pts.length < MIN_FIT_BINS)
@@ -229,11 +230,16 @@ export const BAND_DENSE_MAX_AR = 1.5;
  * knee is), then at the given bin ratios above it (large openings sit on the plateau), and at the
  * largest ratio. At most ~150 + bins points.
  */
-export function teBand(fit: TeFit, binAreaRatios: readonly number[] = [], level = 0.95): TeBandPoint[] {
+export function teBand(
+	fit: TeFit,
+	binAreaRatios: readonly number[] = [],
+	level = 0.95
+): TeBandPoint[] {
 	const xs: number[] = [];
 	const denseTo = Math.min(fit.areaRatioMax, BAND_DENSE_MAX_AR);
 	const steps = Math.max(1, Math.ceil((denseTo - fit.areaRatioMin) / BAND_STEP_AR));
-	for (let i = 0; i <= steps; i++) xs.push(fit.areaRatioMin + ((denseTo - fit.areaRatioMin) * i) / steps);
+	for (let i = 0; i <= steps; i++)
+		xs.push(fit.areaRatioMin + ((denseTo - fit.areaRatioMin) * i) / steps);
 	for (const ar of binAreaRatios) if (ar > denseTo && ar < fit.areaRatioMax) xs.push(ar);
 	if (fit.areaRatioMax > denseTo) xs.push(fit.areaRatioMax);
 	return xs.sort((a, b) => a - b).map((x) => teBandAt(fit, x, level));
@@ -259,8 +265,13 @@ export const MAX_BAND_HALF_WIDTH_AT_LIMIT = 0.1;
  * the data cannot support one: no fit, no crossing inside the fitted AR range, or a band wider
  * than ±`MAX_BAND_HALF_WIDTH_AT_LIMIT` at the crossing or not crossing the floor inside the data.
  */
-export function learnedMinAreaRatio(outcome: TeFitOutcome, floor: number, level = 0.95): LearnedLimit {
-	if (!(floor > 0 && floor < 3)) throw new AnalysisInputError(`floor must be in (0, 3), got ${floor}`);
+export function learnedMinAreaRatio(
+	outcome: TeFitOutcome,
+	floor: number,
+	level = 0.95
+): LearnedLimit {
+	if (!(floor > 0 && floor < 3))
+		throw new AnalysisInputError(`floor must be in (0, 3), got ${floor}`);
 	if (!outcome.fit) return { areaRatio: null, interval: null, reason: outcome.reason };
 	const fit = outcome.fit;
 	const c = fit.coefficients;

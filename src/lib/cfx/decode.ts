@@ -27,9 +27,7 @@ export interface CfxEnvelope {
 	body: Record<string, unknown>;
 }
 
-export type DecodeResult =
-	| { ok: true; envelopes: CfxEnvelope[] }
-	| { ok: false; reason: string };
+export type DecodeResult = { ok: true; envelopes: CfxEnvelope[] } | { ok: false; reason: string };
 
 const GZIP_MAGIC_0 = 0x1f;
 const GZIP_MAGIC_1 = 0x8b;
@@ -88,7 +86,10 @@ export function decodeAmqpBody(
 	try {
 		parsed = JSON.parse(text);
 	} catch (err) {
-		return { ok: false, reason: `body is not JSON: ${String((err as Error).message).slice(0, 120)}` };
+		return {
+			ok: false,
+			reason: `body is not JSON: ${String((err as Error).message).slice(0, 120)}`
+		};
 	}
 	return envelopesFrom(parsed);
 }
@@ -118,7 +119,10 @@ function envelopesFrom(parsed: unknown): DecodeResult {
 	const list = Array.isArray(parsed) ? parsed : [parsed];
 	if (list.length === 0) return { ok: false, reason: 'empty list of envelopes' };
 	if (list.length > MAX_ENVELOPES) {
-		return { ok: false, reason: `${list.length} envelopes in one message (limit ${MAX_ENVELOPES})` };
+		return {
+			ok: false,
+			reason: `${list.length} envelopes in one message (limit ${MAX_ENVELOPES})`
+		};
 	}
 	const envelopes: CfxEnvelope[] = [];
 	for (let i = 0; i < list.length; i++) {
@@ -166,7 +170,8 @@ function readEnvelope(value: unknown): CfxEnvelope | string {
 	if (!source) return `${messageName}: envelope has no Source (the sender's CFX handle)`;
 	const stamp = prop(value, 'TimeStamp', 'Timestamp');
 	const timeStampMs = typeof stamp === 'string' ? parseCfxTime(stamp) : null;
-	if (timeStampMs === null) return `${messageName}: envelope TimeStamp missing or not an ISO 8601 time`;
+	if (timeStampMs === null)
+		return `${messageName}: envelope TimeStamp missing or not an ISO 8601 time`;
 	const body = prop(value, 'MessageBody');
 	if (body === null || typeof body !== 'object' || Array.isArray(body)) {
 		return `${messageName}: envelope has no MessageBody object`;
@@ -196,7 +201,13 @@ export function parseCfxTime(value: string): number | null {
 	const ms = frac ? Number((frac + '00').slice(0, 3)) : 0;
 	let t = Date.UTC(+y, +mo - 1, +d, +h, +mi, +s, ms);
 	const check = new Date(t);
-	if (check.getUTCMonth() !== +mo - 1 || check.getUTCDate() !== +d || +h > 23 || +mi > 59 || +s > 59) {
+	if (
+		check.getUTCMonth() !== +mo - 1 ||
+		check.getUTCDate() !== +d ||
+		+h > 23 ||
+		+mi > 59 ||
+		+s > 59
+	) {
 		return null;
 	}
 	if (zone && zone !== 'Z') {

@@ -86,8 +86,12 @@ describe('decodeAmqpBody', () => {
 				'{"MessageName":"CFX.Production.WorkStarted","Source":"a","TimeStamp":"2026-02-30T00:00:00Z","MessageBody":{}}'
 			),
 			decodeAmqpBody('{"MessageName":"X","TimeStamp":"2026-01-01T00:00:00Z","MessageBody":{}}'),
-			decodeAmqpBody('{"MessageName":"X","Source":"a\\u0000b","TimeStamp":"2026-01-01T00:00:00Z","MessageBody":{}}'),
-			decodeAmqpBody('{"MessageName":"X","Source":"a","TimeStamp":"2026-01-01T00:00:00Z","MessageBody":[]}')
+			decodeAmqpBody(
+				'{"MessageName":"X","Source":"a\\u0000b","TimeStamp":"2026-01-01T00:00:00Z","MessageBody":{}}'
+			),
+			decodeAmqpBody(
+				'{"MessageName":"X","Source":"a","TimeStamp":"2026-01-01T00:00:00Z","MessageBody":[]}'
+			)
 		];
 		const texts = reasons.map((r) => (r.ok ? 'ok' : r.reason));
 		expect(texts).toEqual([
@@ -216,7 +220,12 @@ describe('mapEnvelope', () => {
 
 	it('stencil and squeegee changes, fault cleared, station state', () => {
 		const env = (messageName: string, body: object) =>
-			one({ MessageName: messageName, Source: 'h', TimeStamp: '2026-12-03T07:00:00Z', MessageBody: body });
+			one({
+				MessageName: messageName,
+				Source: 'h',
+				TimeStamp: '2026-12-03T07:00:00Z',
+				MessageBody: body
+			});
 		expect(
 			record(
 				mapEnvelope(
@@ -255,7 +264,12 @@ describe('mapEnvelope', () => {
 
 	it('quarantines what it cannot map, with a reason naming the field', () => {
 		const env = (messageName: string, body: object) =>
-			one({ MessageName: messageName, Source: 'h', TimeStamp: '2026-12-03T07:00:00Z', MessageBody: body });
+			one({
+				MessageName: messageName,
+				Source: 'h',
+				TimeStamp: '2026-12-03T07:00:00Z',
+				MessageBody: body
+			});
 		const inspected = JSON.parse(ref('units-inspected-spi.json')).MessageBody;
 		const strVol = structuredClone(inspected);
 		strVol.InspectedUnits[0].Inspections[0].Measurements[0].Vol = '7.2e-6';
@@ -268,11 +282,15 @@ describe('mapEnvelope', () => {
 		expect([
 			quarantined(mapEnvelope(env('CFX.Production.WorkStarted', { Units: [] }))),
 			quarantined(
-				mapEnvelope(env('CFX.Production.WorkStarted', { TransactionID: 't', Units: [{ PositionNumber: 1 }] }))
+				mapEnvelope(
+					env('CFX.Production.WorkStarted', { TransactionID: 't', Units: [{ PositionNumber: 1 }] })
+				)
 			),
 			quarantined(
 				mapEnvelope(
-					env('CFX.Production.UnitsArrived', { Units: [{ UnitIdentifier: 'A', PositionNumber: 1.5 }] })
+					env('CFX.Production.UnitsArrived', {
+						Units: [{ UnitIdentifier: 'A', PositionNumber: 1.5 }]
+					})
 				)
 			),
 			quarantined(mapEnvelope(env('CFX.Production.TestAndInspection.UnitsInspected', strVol))),

@@ -160,14 +160,20 @@ function typeName(value: unknown): string | null {
 
 function units(value: unknown, where: string): CfxUnit[] | string {
 	const items = list(value);
-	if (items.length > MAX_UNITS_PER_MESSAGE) return `${where}: ${items.length} units (limit ${MAX_UNITS_PER_MESSAGE})`;
+	if (items.length > MAX_UNITS_PER_MESSAGE)
+		return `${where}: ${items.length} units (limit ${MAX_UNITS_PER_MESSAGE})`;
 	const out: CfxUnit[] = [];
 	for (let i = 0; i < items.length; i++) {
 		const unitIdentifier = text(prop(items[i], 'UnitIdentifier'));
 		if (!unitIdentifier) return `${where}[${i}]: UnitIdentifier missing or not text`;
 		const position = prop(items[i], 'PositionNumber', 'UnitPositionNumber');
 		const positionNumber = position === undefined || position === null ? 1 : num(position);
-		if (positionNumber === null || !Number.isInteger(positionNumber) || positionNumber < 0 || positionNumber > 65535) {
+		if (
+			positionNumber === null ||
+			!Number.isInteger(positionNumber) ||
+			positionNumber < 0 ||
+			positionNumber > 65535
+		) {
 			return `${where}[${i}]: PositionNumber must be a whole number 0–65535`;
 		}
 		out.push({ unitIdentifier, positionNumber });
@@ -188,7 +194,9 @@ export function mapEnvelope(env: CfxEnvelope): MapResult {
 		return mapNow(env);
 	} catch (err) {
 		// Belt and braces: a mapping fault quarantines the message rather than failing the link.
-		return q(`${env.messageName}: could not be mapped (${String((err as Error)?.message ?? err).slice(0, 120)})`);
+		return q(
+			`${env.messageName}: could not be mapped (${String((err as Error)?.message ?? err).slice(0, 120)})`
+		);
 	}
 }
 
@@ -205,9 +213,27 @@ function mapNow(env: CfxEnvelope): MapResult {
 			const u = units(prop(b, 'Units'), 'Units');
 			if (typeof u === 'string') return q(`${name}: ${u}`);
 			if (name === CFX_MESSAGES.workStarted) {
-				return { status: 'record', record: { ...base, kind: 'work-started', transactionId: id, lane: text(prop(b, 'Lane')), units: u } };
+				return {
+					status: 'record',
+					record: {
+						...base,
+						kind: 'work-started',
+						transactionId: id,
+						lane: text(prop(b, 'Lane')),
+						units: u
+					}
+				};
 			}
-			return { status: 'record', record: { ...base, kind: 'work-completed', transactionId: id, result: text(prop(b, 'Result')), units: u } };
+			return {
+				status: 'record',
+				record: {
+					...base,
+					kind: 'work-completed',
+					transactionId: id,
+					result: text(prop(b, 'Result')),
+					units: u
+				}
+			};
 		}
 		case CFX_MESSAGES.unitsArrived:
 		case CFX_MESSAGES.unitsDeparted: {
@@ -227,10 +253,16 @@ function mapNow(env: CfxEnvelope): MapResult {
 			const oldTool = prop(b, stencil ? 'OldStencil' : 'OldSqueegee');
 			const newTool = prop(b, stencil ? 'NewStencil' : 'NewSqueegee');
 			const newName = toolName(newTool);
-			if (!newName && !toolName(oldTool)) return q(`${name}: neither the old nor the new tool is named`);
+			if (!newName && !toolName(oldTool))
+				return q(`${name}: neither the old nor the new tool is named`);
 			return {
 				status: 'record',
-				record: { ...base, kind: stencil ? 'stencil-changed' : 'squeegee-changed', oldName: toolName(oldTool), newName }
+				record: {
+					...base,
+					kind: stencil ? 'stencil-changed' : 'squeegee-changed',
+					oldName: toolName(oldTool),
+					newName
+				}
 			};
 		}
 		case CFX_MESSAGES.stencilCleaned:
@@ -252,7 +284,12 @@ function mapNow(env: CfxEnvelope): MapResult {
 		case CFX_MESSAGES.toolChanged: {
 			return {
 				status: 'record',
-				record: { ...base, kind: 'tool-changed', oldName: toolName(prop(b, 'OldTool')), newName: toolName(prop(b, 'NewTool')) }
+				record: {
+					...base,
+					kind: 'tool-changed',
+					oldName: toolName(prop(b, 'OldTool')),
+					newName: toolName(prop(b, 'NewTool'))
+				}
 			};
 		}
 		case CFX_MESSAGES.faultOccurred:
@@ -274,7 +311,10 @@ function mapNow(env: CfxEnvelope): MapResult {
 			};
 		}
 		case CFX_MESSAGES.faultCleared:
-			return { status: 'record', record: { ...base, kind: 'fault-cleared', faultId: text(prop(b, 'FaultOccurrenceId')) } };
+			return {
+				status: 'record',
+				record: { ...base, kind: 'fault-cleared', faultId: text(prop(b, 'FaultOccurrenceId')) }
+			};
 		case CFX_MESSAGES.stationStateChanged:
 			return {
 				status: 'record',
@@ -287,7 +327,8 @@ function mapNow(env: CfxEnvelope): MapResult {
 				}
 			};
 	}
-	if (CFX_IGNORED.has(name)) return { status: 'ignored', reason: `${name} is not used by Rollbead` };
+	if (CFX_IGNORED.has(name))
+		return { status: 'ignored', reason: `${name} is not used by Rollbead` };
 	return q(`unknown message ${name}`);
 }
 
@@ -333,7 +374,8 @@ function printParameters(data: unknown): { parameters: PrintParameters; reason: 
 	);
 	if (direction) parameters.printStroke = direction;
 	for (const [key, value] of Object.entries(parameters)) {
-		if (typeof value === 'number' && value < 0) return { parameters, reason: `${key} is negative (${value})` };
+		if (typeof value === 'number' && value < 0)
+			return { parameters, reason: `${key} is negative (${value})` };
 	}
 	return { parameters, reason: null };
 }
@@ -355,7 +397,8 @@ function mapProcessed(
 	const name = base.messageName;
 	const common = prop(b, 'CommonProcessData');
 	const entries = list(prop(b, 'UnitProcessData'));
-	if (entries.length > MAX_UNITS_PER_MESSAGE) return q(`${name}: ${entries.length} units (limit ${MAX_UNITS_PER_MESSAGE})`);
+	if (entries.length > MAX_UNITS_PER_MESSAGE)
+		return q(`${name}: ${entries.length} units (limit ${MAX_UNITS_PER_MESSAGE})`);
 	const out: ProcessedUnit[] = [];
 	let recipeName: string | null = isPrintData(common) ? text(prop(common, 'RecipeName')) : null;
 	for (let i = 0; i < entries.length; i++) {
@@ -364,12 +407,18 @@ function mapProcessed(
 		if (!unitIdentifier) return q(`${name}: UnitProcessData[${i}].UnitIdentifier missing`);
 		const pos = prop(e, 'UnitPositionNumber', 'PositionNumber');
 		const positionNumber = pos === undefined || pos === null ? 1 : num(pos);
-		if (positionNumber === null || !Number.isInteger(positionNumber) || positionNumber < 0 || positionNumber > 65535) {
+		if (
+			positionNumber === null ||
+			!Number.isInteger(positionNumber) ||
+			positionNumber < 0 ||
+			positionNumber > 65535
+		) {
 			return q(`${name}: UnitProcessData[${i}].UnitPositionNumber must be a whole number 0–65535`);
 		}
 		const own = prop(e, 'UnitProcessData');
 		const data = isPrintData(own) ? own : isPrintData(common) ? common : null;
-		if (!data) return q(`${name}: UnitProcessData[${i}] carries no solder-paste printing process data`);
+		if (!data)
+			return q(`${name}: UnitProcessData[${i}] carries no solder-paste printing process data`);
 		const { parameters, reason } = printParameters(data);
 		if (reason) return q(`${name}: UnitProcessData[${i}]: ${reason}`);
 		const unitRecipe = text(prop(data, 'RecipeName'));
@@ -392,7 +441,13 @@ function mapProcessed(
 	if (out.length === 0) return q(`${name}: no UnitProcessData`);
 	return {
 		status: 'record',
-		record: { ...base, kind: 'units-processed', transactionId: transactionId(b), recipeName, units: out }
+		record: {
+			...base,
+			kind: 'units-processed',
+			transactionId: transactionId(b),
+			recipeName,
+			units: out
+		}
 	};
 }
 
@@ -425,7 +480,8 @@ function padName(m: unknown): string | null {
 /** `R1.1` → refdes `R1`, pad `1`; a designator without a lead number is the component's one pad. */
 function splitDesignator(name: string): { refdes: string; pad: string } {
 	const dot = name.lastIndexOf('.');
-	if (dot > 0 && dot < name.length - 1) return { refdes: name.slice(0, dot), pad: name.slice(dot + 1) };
+	if (dot > 0 && dot < name.length - 1)
+		return { refdes: name.slice(0, dot), pad: name.slice(dot + 1) };
 	return { refdes: name, pad: '1' };
 }
 
@@ -444,7 +500,8 @@ export function pasteMeasurement(m: unknown, where: string): PadMeasurement | st
 	if (!designator) return `${where}: no MeasurementName or CRDs (pad unknown)`;
 	const vol = num(prop(m, 'Vol'));
 	const eVol = num(prop(m, 'EVol'));
-	if (vol === null || eVol === null) return `${where} (${designator}): Vol and EVol must be numbers`;
+	if (vol === null || eVol === null)
+		return `${where} (${designator}): Vol and EVol must be numbers`;
 	if (eVol <= 0) return `${where} (${designator}): EVol must be above 0`;
 	const a = num(prop(m, 'A'));
 	const eA = num(prop(m, 'EA'));
@@ -465,7 +522,8 @@ export function pasteMeasurement(m: unknown, where: string): PadMeasurement | st
 	const dx = num(prop(m, 'DX')) ?? 0;
 	const dy = num(prop(m, 'DY')) ?? 0;
 	const result = verdict(prop(m, 'Result'));
-	if (!result) return `${where} (${designator}): Result "${String(prop(m, 'Result')).slice(0, 30)}" is not Passed/Failed`;
+	if (!result)
+		return `${where} (${designator}): Result "${String(prop(m, 'Result')).slice(0, 30)}" is not Passed/Failed`;
 	return {
 		...splitDesignator(designator),
 		volumePct: (vol / eVol) * 100,
@@ -485,16 +543,19 @@ function mapInspected(
 	const name = base.messageName;
 	const inspected = list(prop(b, 'InspectedUnits'));
 	if (inspected.length === 0) return q(`${name}: no InspectedUnits`);
-	if (inspected.length > MAX_UNITS_PER_MESSAGE) return q(`${name}: ${inspected.length} units (limit ${MAX_UNITS_PER_MESSAGE})`);
+	if (inspected.length > MAX_UNITS_PER_MESSAGE)
+		return q(`${name}: ${inspected.length} units (limit ${MAX_UNITS_PER_MESSAGE})`);
 	// Count the work before doing it.
 	let total = 0;
 	for (const u of inspected) {
 		for (const insp of list(prop(u, 'Inspections'))) {
 			total += list(prop(insp, 'Measurements')).length;
-			for (const d of list(prop(insp, 'DefectsFound'))) total += list(prop(d, 'RelatedMeasurements')).length;
+			for (const d of list(prop(insp, 'DefectsFound')))
+				total += list(prop(d, 'RelatedMeasurements')).length;
 		}
 	}
-	if (total > MAX_MEASUREMENTS_PER_MESSAGE) return q(`${name}: ${total} measurements (limit ${MAX_MEASUREMENTS_PER_MESSAGE})`);
+	if (total > MAX_MEASUREMENTS_PER_MESSAGE)
+		return q(`${name}: ${total} measurements (limit ${MAX_MEASUREMENTS_PER_MESSAGE})`);
 	const out: InspectedUnit[] = [];
 	for (let i = 0; i < inspected.length; i++) {
 		const u = inspected[i];
@@ -503,7 +564,12 @@ function mapInspected(
 		if (!unitIdentifier) return q(`${name}: ${where}.UnitIdentifier missing`);
 		const pos = prop(u, 'UnitPositionNumber', 'PositionNumber');
 		const positionNumber = pos === undefined || pos === null ? 1 : num(pos);
-		if (positionNumber === null || !Number.isInteger(positionNumber) || positionNumber < 0 || positionNumber > 65535) {
+		if (
+			positionNumber === null ||
+			!Number.isInteger(positionNumber) ||
+			positionNumber < 0 ||
+			positionNumber > 65535
+		) {
 			return q(`${name}: ${where}.UnitPositionNumber must be a whole number 0–65535`);
 		}
 		// Measurements sit in Inspections[].Measurements and in DefectsFound[].RelatedMeasurements;
@@ -513,10 +579,15 @@ function mapInspected(
 		const inspections = list(prop(u, 'Inspections'));
 		for (let j = 0; j < inspections.length; j++) {
 			const insp = inspections[j];
-			const sources: [unknown[], string][] = [[list(prop(insp, 'Measurements')), `${where}.Inspections[${j}].Measurements`]];
+			const sources: [unknown[], string][] = [
+				[list(prop(insp, 'Measurements')), `${where}.Inspections[${j}].Measurements`]
+			];
 			const defects = list(prop(insp, 'DefectsFound'));
 			for (let k = 0; k < defects.length; k++) {
-				sources.push([list(prop(defects[k], 'RelatedMeasurements')), `${where}.Inspections[${j}].DefectsFound[${k}].RelatedMeasurements`]);
+				sources.push([
+					list(prop(defects[k], 'RelatedMeasurements')),
+					`${where}.Inspections[${j}].DefectsFound[${k}].RelatedMeasurements`
+				]);
 			}
 			for (const [items, path] of sources) {
 				for (let n = 0; n < items.length; n++) {
@@ -535,7 +606,12 @@ function mapInspected(
 			}
 		}
 		const overall = verdict(prop(u, 'OverallResult'));
-		out.push({ unitIdentifier, positionNumber, result: overall === 'warn' ? 'pass' : overall, pads });
+		out.push({
+			unitIdentifier,
+			positionNumber,
+			result: overall === 'warn' ? 'pass' : overall,
+			pads
+		});
 	}
 	if (out.every((u) => u.pads.length === 0)) {
 		return q(`${name}: no solder-paste measurements (SolderPasteMeasurement) in any unit`);

@@ -7,7 +7,11 @@ const boards = [
 	...Array.from({ length: 120 }, (_, i) => ({ atMs: i * MIN, product: 'P' })),
 	...Array.from({ length: 100 }, (_, i) => ({ atMs: (200 + i) * MIN, product: 'Q' })),
 	...Array.from({ length: 170 }, (_, i) => ({ atMs: (310 + i) * MIN, product: 'Q' }))
-].map((b, i) => ({ ...b, cycleTimeMs: 48_000, firstPassed: i % 32 !== 5 || i >= 32 * 12 ? true : false }));
+].map((b, i) => ({
+	...b,
+	cycleTimeMs: 48_000,
+	firstPassed: i % 32 !== 5 || i >= 32 * 12 ? true : false
+}));
 
 describe('computeOee', () => {
 	it('reproduces the hand-computed shift (reference/cfx/oee-example.md)', () => {
@@ -39,9 +43,15 @@ describe('computeOee', () => {
 		expect(r.availability.how).toBe(
 			'(480.0 min planned − 30.0 min in faults − 56.0 min idle beyond 5.0 min without a board) / 480.0 min = 82.1 %'
 		);
-		expect(r.performance.how).toBe('390 boards × ideal cycle time (from the recipe) = 325.0 min / 394.0 min run time = 82.5 %');
-		expect(r.quality.how).toBe('378 of 390 inspected boards passed SPI at their first inspection = 96.9 %');
-		expect(r.oee.how).toBe('availability × performance × quality = 82.1 % × 82.5 % × 96.9 % = 65.6 %');
+		expect(r.performance.how).toBe(
+			'390 boards × ideal cycle time (from the recipe) = 325.0 min / 394.0 min run time = 82.5 %'
+		);
+		expect(r.quality.how).toBe(
+			'378 of 390 inspected boards passed SPI at their first inspection = 96.9 %'
+		);
+		expect(r.oee.how).toBe(
+			'availability × performance × quality = 82.1 % × 82.5 % × 96.9 % = 65.6 %'
+		);
 	});
 
 	it('an uncleared fault runs to the shift end; unknown factors say why', () => {
@@ -65,7 +75,12 @@ describe('computeOee', () => {
 		expect(nearestRank(cycles, 50)).toBe(24_000);
 		const r = computeOee({
 			shift: { startMs: 0, endMs: 10 * MIN },
-			boards: cycles.map((c, i) => ({ atMs: i * MIN, product: 'P', cycleTimeMs: c, firstPassed: true })),
+			boards: cycles.map((c, i) => ({
+				atMs: i * MIN,
+				product: 'P',
+				cycleTimeMs: c,
+				firstPassed: true
+			})),
 			faults: [],
 			idealCycleMs: {},
 			demonstratedCycleMs: { P: 20_000 }
@@ -96,9 +111,27 @@ describe('unionWithin and changeovers', () => {
 
 	it('measures stencil and product changes from the boards around them (reference/cfx/oee-example.md)', () => {
 		expect(changeovers(boards, [{ atMs: 160 * MIN, from: 'ST-A', to: 'ST-B' }])).toEqual([
-			{ kind: 'stencil', atMs: 160 * MIN, from: 'ST-A', to: 'ST-B', lastBoardBeforeMs: 119 * MIN, firstBoardAfterMs: 200 * MIN, durationMs: 81 * MIN },
-			{ kind: 'product', atMs: 200 * MIN, from: 'P', to: 'Q', lastBoardBeforeMs: 119 * MIN, firstBoardAfterMs: 200 * MIN, durationMs: 81 * MIN }
+			{
+				kind: 'stencil',
+				atMs: 160 * MIN,
+				from: 'ST-A',
+				to: 'ST-B',
+				lastBoardBeforeMs: 119 * MIN,
+				firstBoardAfterMs: 200 * MIN,
+				durationMs: 81 * MIN
+			},
+			{
+				kind: 'product',
+				atMs: 200 * MIN,
+				from: 'P',
+				to: 'Q',
+				lastBoardBeforeMs: 119 * MIN,
+				firstBoardAfterMs: 200 * MIN,
+				durationMs: 81 * MIN
+			}
 		]);
-		expect(changeovers([{ atMs: 0, product: 'P' }], [{ atMs: 10, from: null, to: 'ST-C' }])[0].durationMs).toBeNull();
+		expect(
+			changeovers([{ atMs: 0, product: 'P' }], [{ atMs: 10, from: null, to: 'ST-C' }])[0].durationMs
+		).toBeNull();
 	});
 });

@@ -20,7 +20,12 @@ export interface Interval {
 export interface OeeInput {
 	shift: Interval;
 	/** Boards the printer printed (processed) with their own cycle time, when sent. */
-	boards: { atMs: number; product: string | null; cycleTimeMs: number | null; firstPassed: boolean | null }[];
+	boards: {
+		atMs: number;
+		product: string | null;
+		cycleTimeMs: number | null;
+		firstPassed: boolean | null;
+	}[];
 	faults: { faultId: string | null; occurredAtMs: number; clearedAtMs: number | null }[];
 	/** Ideal cycle time per product (ms); a product without one uses the demonstrated best. */
 	idealCycleMs: Record<string, number>;
@@ -55,7 +60,10 @@ export const DEFAULT_IDLE_AFTER_MS = 5 * 60_000;
 /** Union of intervals clipped to `window`, as sorted disjoint intervals. */
 export function unionWithin(intervals: readonly Interval[], window: Interval): Interval[] {
 	const clipped = intervals
-		.map((i) => ({ startMs: Math.max(i.startMs, window.startMs), endMs: Math.min(i.endMs, window.endMs) }))
+		.map((i) => ({
+			startMs: Math.max(i.startMs, window.startMs),
+			endMs: Math.min(i.endMs, window.endMs)
+		}))
 		.filter((i) => i.endMs > i.startMs)
 		.sort((a, b) => a.startMs - b.startMs);
 	const out: Interval[] = [];
@@ -67,7 +75,8 @@ export function unionWithin(intervals: readonly Interval[], window: Interval): I
 	return out;
 }
 
-const total = (intervals: readonly Interval[]) => intervals.reduce((s, i) => s + (i.endMs - i.startMs), 0);
+const total = (intervals: readonly Interval[]) =>
+	intervals.reduce((s, i) => s + (i.endMs - i.startMs), 0);
 const pct = (v: number) => `${(v * 100).toFixed(1)} %`;
 const min = (ms: number) => `${(ms / 60_000).toFixed(1)} min`;
 
@@ -79,13 +88,19 @@ export function computeOee(input: OeeInput): OeeResult {
 	const { shift } = input;
 	const idleAfterMs = input.idleAfterMs ?? DEFAULT_IDLE_AFTER_MS;
 	const plannedMs = Math.max(0, shift.endMs - shift.startMs);
-	const boards = input.boards.filter((b) => b.atMs >= shift.startMs && b.atMs < shift.endMs).sort((a, b) => a.atMs - b.atMs);
-	const faultIntervals = input.faults.map((f) => ({ startMs: f.occurredAtMs, endMs: f.clearedAtMs ?? shift.endMs }));
+	const boards = input.boards
+		.filter((b) => b.atMs >= shift.startMs && b.atMs < shift.endMs)
+		.sort((a, b) => a.atMs - b.atMs);
+	const faultIntervals = input.faults.map((f) => ({
+		startMs: f.occurredAtMs,
+		endMs: f.clearedAtMs ?? shift.endMs
+	}));
 	// Idle: from `idleAfterMs` after a board (or the shift's start) to the next board (or the end).
 	const idleIntervals: Interval[] = [];
 	let previous = shift.startMs;
 	for (const b of [...boards.map((x) => x.atMs), shift.endMs]) {
-		if (b - previous > idleAfterMs) idleIntervals.push({ startMs: previous + idleAfterMs, endMs: b });
+		if (b - previous > idleAfterMs)
+			idleIntervals.push({ startMs: previous + idleAfterMs, endMs: b });
 		previous = b;
 	}
 	const faults = unionWithin(faultIntervals, shift);
@@ -113,7 +128,11 @@ export function computeOee(input: OeeInput): OeeResult {
 			withoutIdeal++;
 			continue;
 		}
-		sources.add(input.idealCycleMs[product] !== undefined ? 'the recipe' : "the printer's demonstrated best (10th percentile of its reported cycle times)");
+		sources.add(
+			input.idealCycleMs[product] !== undefined
+				? 'the recipe'
+				: "the printer's demonstrated best (10th percentile of its reported cycle times)"
+		);
 		idealMs += ideal;
 	}
 	const counted = boards.length - withoutIdeal;
@@ -123,7 +142,10 @@ export function computeOee(input: OeeInput): OeeResult {
 					value: idealMs / runMs,
 					how: `${counted} boards × ideal cycle time (from ${[...sources].join(' and ')}) = ${min(idealMs)} / ${min(runMs)} run time = ${pct(idealMs / runMs)}${withoutIdeal ? `; ${withoutIdeal} boards without a known ideal left out` : ''}`
 				}
-			: { value: null, how: runMs > 0 ? 'no board with a known ideal cycle time' : 'no run time in the shift' };
+			: {
+					value: null,
+					how: runMs > 0 ? 'no board with a known ideal cycle time' : 'no run time in the shift'
+				};
 
 	const inspected = boards.filter((b) => b.firstPassed !== null);
 	const firstPassed = inspected.filter((b) => b.firstPassed).length;

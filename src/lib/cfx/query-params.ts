@@ -23,14 +23,29 @@ export function parseDay(value: string | null, field = 'day'): ParamResult<strin
 export function parseShiftStarts(value: string | null): ParamResult<string[]> {
 	if (value === null) return { ok: true, value: ['06:00', '14:00', '22:00'] };
 	const parts = value.split(',').map((p) => p.trim());
-	if (parts.length < 1 || parts.length > 6 || parts.some((p) => !HHMM.test(p)) || new Set(parts).size !== parts.length) {
-		return { ok: false, field: 'shifts', message: 'must be 1–6 different start times like 06:00,14:00,22:00 (UTC)' };
+	if (
+		parts.length < 1 ||
+		parts.length > 6 ||
+		parts.some((p) => !HHMM.test(p)) ||
+		new Set(parts).size !== parts.length
+	) {
+		return {
+			ok: false,
+			field: 'shifts',
+			message: 'must be 1–6 different start times like 06:00,14:00,22:00 (UTC)'
+		};
 	}
 	return { ok: true, value: parts };
 }
 
 /** A whole number of minutes in [min, max], or the default when absent. */
-export function parseMinutes(value: string | null, field: string, fallback: number, min: number, max: number): ParamResult<number> {
+export function parseMinutes(
+	value: string | null,
+	field: string,
+	fallback: number,
+	min: number,
+	max: number
+): ParamResult<number> {
 	if (value === null) return { ok: true, value: fallback };
 	if (!/^\d{1,4}$/.test(value) || +value < min || +value > max) {
 		return { ok: false, field, message: `must be a whole number of minutes from ${min} to ${max}` };
@@ -40,12 +55,16 @@ export function parseMinutes(value: string | null, field: string, fallback: numb
 
 /** An ISO 8601 time with a zone, or a `YYYY-MM-DD` day (its start in UTC). */
 export function parseInstant(value: string | null, field: string): ParamResult<number> {
-	if (value === null) return { ok: false, field, message: 'is required (2026-12-03 or an ISO time with a zone)' };
+	if (value === null)
+		return { ok: false, field, message: 'is required (2026-12-03 or an ISO time with a zone)' };
 	if (DAY.test(value)) {
 		const day = parseDay(value, field);
 		return day.ok ? { ok: true, value: Date.parse(`${value}T00:00:00Z`) } : day;
 	}
-	if (!/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,3})?)?(Z|[+-]\d{2}:\d{2})$/.test(value) || Number.isNaN(Date.parse(value))) {
+	if (
+		!/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,3})?)?(Z|[+-]\d{2}:\d{2})$/.test(value) ||
+		Number.isNaN(Date.parse(value))
+	) {
 		return { ok: false, field, message: 'must be 2026-12-03 or an ISO time with a zone' };
 	}
 	return { ok: true, value: Date.parse(value) };

@@ -19,5 +19,12 @@ export function pageOf<T>(all: readonly T[], page: number, size: number): Paged<
 	const pages = Math.max(1, Math.ceil(all.length / per));
 	const p = Math.min(Math.max(0, Math.floor(page) || 0), pages - 1);
 	const items = all.slice(p * per, p * per + per);
-	return { items, page: p, pages, from: items.length ? p * per + 1 : 0, to: p * per + items.length, total: all.length };
+	return {
+		items,
+		page: p,
+		pages,
+		from: items.length ? p * per + 1 : 0,
+		to: p * per + items.length,
+		total: all.length
+	};
 }

@@ -4,9 +4,26 @@ import { writeCsv, type CsvCell } from './write-csv';
 // The first columns are our import layout in µm, so the file imports again with unit "um";
 // the importer ignores the figure columns after them.
 export const APERTURE_CSV_HEADER = [
-	'refdes', 'pad', 'shape', 'length', 'width', 'corner_radius', 'diameter', 'x', 'y', 'rotation',
-	'vertices', 'thickness_um', 'area_um2', 'perimeter_um', 'area_ratio', 'aspect_ratio', 'volume_um3',
-	'max_passing_thickness_um', 'status', 'reasons'
+	'refdes',
+	'pad',
+	'shape',
+	'length',
+	'width',
+	'corner_radius',
+	'diameter',
+	'x',
+	'y',
+	'rotation',
+	'vertices',
+	'thickness_um',
+	'area_um2',
+	'perimeter_um',
+	'area_ratio',
+	'aspect_ratio',
+	'volume_um3',
+	'max_passing_thickness_um',
+	'status',
+	'reasons'
 ];
 
 export type ApertureCsvInput = {
@@ -14,9 +31,26 @@ export type ApertureCsvInput = {
 	thresholds: { minAreaRatio: number; minAspectRatio: number };
 	apertures: readonly Pick<
 		EvaluatedAperture,
-		| 'refdes' | 'pad' | 'shape' | 'lengthUm' | 'widthUm' | 'cornerRadiusUm' | 'diameterUm' | 'xUm' | 'yUm'
-		| 'rotationDeg' | 'verticesUm' | 'thicknessUm' | 'areaUm2' | 'perimeterUm' | 'areaRatio'
-		| 'aspectRatio' | 'volumeUm3' | 'maxPassingThicknessUm' | 'status' | 'reasons'
+		| 'refdes'
+		| 'pad'
+		| 'shape'
+		| 'lengthUm'
+		| 'widthUm'
+		| 'cornerRadiusUm'
+		| 'diameterUm'
+		| 'xUm'
+		| 'yUm'
+		| 'rotationDeg'
+		| 'verticesUm'
+		| 'thicknessUm'
+		| 'areaUm2'
+		| 'perimeterUm'
+		| 'areaRatio'
+		| 'aspectRatio'
+		| 'volumeUm3'
+		| 'maxPassingThicknessUm'
+		| 'status'
+		| 'reasons'
 	>[];
 };
 

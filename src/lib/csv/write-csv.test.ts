@@ -15,8 +15,8 @@ export const HOSTILE_CELLS = [
 	'=1+2',
 	'+1+2',
 	'-1+2',
-	'-2+3*cmd|\' /C calc\'!A0',
-	'@SUM(1+1)*cmd|\' /C calc\'!A0',
+	"-2+3*cmd|' /C calc'!A0",
+	"@SUM(1+1)*cmd|' /C calc'!A0",
 	'\t=1+2',
 	'\r=1+2',
 	'=cmd\n|calc',
@@ -36,7 +36,11 @@ export const HOSTILE_CELLS = [
 /** Parse as a spreadsheet or papaparse would, keeping every cell as text. */
 function readBack(csv: string): string[][] {
 	expect(csv.endsWith('\r\n')).toBe(true);
-	const parsed = Papa.parse<string[]>(csv.slice(0, -2), { header: false, newline: '\r\n', delimiter: ',' });
+	const parsed = Papa.parse<string[]>(csv.slice(0, -2), {
+		header: false,
+		newline: '\r\n',
+		delimiter: ','
+	});
 	expect(parsed.errors).toEqual([]);
 	return parsed.data;
 }
@@ -46,7 +50,9 @@ describe('writeCsv, the one CSV writer', () => {
 		const csv = writeCsv([['cell'], ...HOSTILE_CELLS.map((c) => [c])]);
 		const rows = readBack(csv);
 		expect(rows).toHaveLength(HOSTILE_CELLS.length + 1);
-		HOSTILE_CELLS.forEach((cell, i) => expect(rows[i + 1], JSON.stringify(cell)).toEqual([escapedText(cell)]));
+		HOSTILE_CELLS.forEach((cell, i) =>
+			expect(rows[i + 1], JSON.stringify(cell)).toEqual([escapedText(cell)])
+		);
 	});
 
 	it('escapes exactly the cells that start with = + - @ tab or CR (even with a line break later)', () => {
@@ -59,9 +65,14 @@ describe('writeCsv, the one CSV writer', () => {
 	});
 
 	it('quotes only when needed, writes numbers as numbers and ends every row with CRLF', () => {
-		expect(writeCsv([['a', 'b'], [1.5, -2], ['x,y', null], [new Date(Date.UTC(2026, 0, 2)), true]])).toBe(
-			'a,b\r\n1.5,-2\r\n"x,y",\r\n2026-01-02T00:00:00.000Z,true\r\n'
-		);
+		expect(
+			writeCsv([
+				['a', 'b'],
+				[1.5, -2],
+				['x,y', null],
+				[new Date(Date.UTC(2026, 0, 2)), true]
+			])
+		).toBe('a,b\r\n1.5,-2\r\n"x,y",\r\n2026-01-02T00:00:00.000Z,true\r\n');
 		expect(writeCsv([['=1']])).toBe(`"'=1"\r\n`);
 		expect(writeCsv([[Number.NaN, Number.POSITIVE_INFINITY]])).toBe(',\r\n');
 	});
@@ -161,7 +172,14 @@ describe('every export goes through it', () => {
 		const at = (name: string) => header.indexOf(name);
 		HOSTILE_CELLS.forEach((cell, i) => {
 			const row = rows[i + 1];
-			for (const column of ['stencil', 'pasteLot', 'boardSerial', 'operator', 'pasteType', 'warnings']) {
+			for (const column of [
+				'stencil',
+				'pasteLot',
+				'boardSerial',
+				'operator',
+				'pasteType',
+				'warnings'
+			]) {
 				expect(row[at(column)], `${column} ${JSON.stringify(cell)}`).toBe(escapedText(cell));
 			}
 			expect(row[at('squeegeeAngleDeg')]).toBe('-60');

@@ -20,7 +20,9 @@ export const FORMULA_ESCAPE = "'";
 
 const NUMBER = String.raw`\d+(?:\.\d+)?(?:[eE][+-]?\d+)?`;
 /** Text cells that start like a formula, except plain negative numbers and number lists. */
-export const FORMULA_START = new RegExp(String.raw`^(?:[=+@\t\r]|-(?!${NUMBER}(?:[ ;]-?${NUMBER})*$))`);
+export const FORMULA_START = new RegExp(
+	String.raw`^(?:[=+@\t\r]|-(?!${NUMBER}(?:[ ;]-?${NUMBER})*$))`
+);
 
 function plain(cell: CsvCell): string | number | boolean {
 	if (cell === null || cell === undefined) return '';
@@ -33,7 +35,9 @@ function plain(cell: CsvCell): string | number | boolean {
 export function writeCsv(rows: readonly (readonly CsvCell[])[]): string {
 	if (rows.length === 0) return '';
 	const data = rows.map((row) => row.map(plain));
-	return Papa.unparse(data, { escapeFormulae: FORMULA_START, newline: '\r\n', header: false }) + '\r\n';
+	return (
+		Papa.unparse(data, { escapeFormulae: FORMULA_START, newline: '\r\n', header: false }) + '\r\n'
+	);
 }
 
 /** What a text cell looks like in the file once read back: the original, maybe with the prefix. */

@@ -102,9 +102,15 @@ describe('what is due', () => {
 	});
 
 	it('paste on the stencil: 120 of 480 min used leaves 360; soon in the last hour; late after', () => {
-		expect(item(facts(), 'paste-on-stencil')).toMatchObject({ status: 'ok', remainingMinutes: 360 });
+		expect(item(facts(), 'paste-on-stencil')).toMatchObject({
+			status: 'ok',
+			remainingMinutes: 360
+		});
 		const at = (minutesOn: number) =>
-			item(facts({ pasteLot: { ...facts().pasteLot!, onStencilAtMs: NOW - minutesOn * MIN } }), 'paste-on-stencil');
+			item(
+				facts({ pasteLot: { ...facts().pasteLot!, onStencilAtMs: NOW - minutesOn * MIN } }),
+				'paste-on-stencil'
+			);
 		expect(at(420)).toMatchObject({ status: 'soon', remainingMinutes: 60 });
 		expect(at(480)).toMatchObject({ status: 'due', remainingMinutes: 0 });
 		expect(at(500)).toMatchObject({ status: 'late', remainingMinutes: -20 });
@@ -118,26 +124,45 @@ describe('what is due', () => {
 
 	it('paste out of cold storage: the periods out summed up to now against the limit', () => {
 		const at = (periods: { fromMs: number; toMs: number | null }[]) =>
-			item(facts({ pasteLot: { ...facts().pasteLot!, outOfColdPeriods: periods } }), 'paste-out-of-cold');
-		expect(at([{ fromMs: NOW - 6 * HOUR, toMs: null }])).toMatchObject({ status: 'ok', remainingMinutes: 18 * 60 });
+			item(
+				facts({ pasteLot: { ...facts().pasteLot!, outOfColdPeriods: periods } }),
+				'paste-out-of-cold'
+			);
+		expect(at([{ fromMs: NOW - 6 * HOUR, toMs: null }])).toMatchObject({
+			status: 'ok',
+			remainingMinutes: 18 * 60
+		});
 		// 20 h out and back in, then 3.5 h out again: 23.5 h of 24 h.
-		expect(at([{ fromMs: NOW - 30 * HOUR, toMs: NOW - 10 * HOUR }, { fromMs: NOW - 3.5 * HOUR, toMs: null }])).toMatchObject({
+		expect(
+			at([
+				{ fromMs: NOW - 30 * HOUR, toMs: NOW - 10 * HOUR },
+				{ fromMs: NOW - 3.5 * HOUR, toMs: null }
+			])
+		).toMatchObject({
 			status: 'soon',
 			remainingMinutes: 30
 		});
-		expect(at([{ fromMs: NOW - 25 * HOUR, toMs: null }])).toMatchObject({ status: 'late', remainingMinutes: -60 });
+		expect(at([{ fromMs: NOW - 25 * HOUR, toMs: null }])).toMatchObject({
+			status: 'late',
+			remainingMinutes: -60
+		});
 	});
 
 	it('lot expiry: soon within 24 h, late from the expiry instant on', () => {
-		const at = (ms: number) => item(facts({ pasteLot: { ...facts().pasteLot!, expiresAtMs: ms } }), 'lot-expiry');
+		const at = (ms: number) =>
+			item(facts({ pasteLot: { ...facts().pasteLot!, expiresAtMs: ms } }), 'lot-expiry');
 		expect(at(NOW + 30 * DAY)).toMatchObject({ status: 'ok', remainingMinutes: 30 * 24 * 60 });
 		expect(at(NOW + 23 * HOUR)).toMatchObject({ status: 'soon', remainingMinutes: 23 * 60 });
 		expect(at(NOW)).toMatchObject({ status: 'late' });
-		expect(at(NOW - 2 * HOUR)).toMatchObject({ status: 'late', text: 'paste lot PL-1 expired 2 h ago' });
+		expect(at(NOW - 2 * HOUR)).toMatchObject({
+			status: 'late',
+			text: 'paste lot PL-1 expired 2 h ago'
+		});
 	});
 
 	it('stencil clean by prints: 2,000 per clean, soon in the last 200', () => {
-		const at = (prints: number) => item(facts({ stencil: { ...facts().stencil!, printsSinceClean: prints } }), 'stencil-clean');
+		const at = (prints: number) =>
+			item(facts({ stencil: { ...facts().stencil!, printsSinceClean: prints } }), 'stencil-clean');
 		expect(at(300)).toMatchObject({ status: 'ok', remainingPrints: 1700 });
 		expect(at(1800)).toMatchObject({ status: 'soon', remainingPrints: 200 });
 		expect(at(2000)).toMatchObject({ status: 'due', remainingPrints: 0 });
@@ -146,20 +171,38 @@ describe('what is due', () => {
 
 	it('stencil clean by time: 24 h after the last clean, whichever comes first', () => {
 		const f = facts({ stencil: { ...facts().stencil!, lastCleanAtMs: NOW - 25 * HOUR } });
-		expect(item(f, 'stencil-clean')).toMatchObject({ status: 'late', remainingMinutes: -60, remainingPrints: 1700 });
+		expect(item(f, 'stencil-clean')).toMatchObject({
+			status: 'late',
+			remainingMinutes: -60,
+			remainingPrints: 1700
+		});
 	});
 
 	it('tension: due now when never measured, soon 3 days ahead, late after 30 days or when failed', () => {
-		const at = (lastTension: LineFacts['stencil'] extends infer S ? S extends { lastTension: infer T } ? T : never : never) =>
-			item(facts({ stencil: { ...facts().stencil!, lastTension } }), 'tension-check');
+		const at = (
+			lastTension: LineFacts['stencil'] extends infer S
+				? S extends { lastTension: infer T }
+					? T
+					: never
+				: never
+		) => item(facts({ stencil: { ...facts().stencil!, lastTension } }), 'tension-check');
 		expect(at(null)).toMatchObject({ status: 'due' });
-		expect(at({ atMs: NOW - 28 * DAY, pass: true, minimumNPerCm: 40 })).toMatchObject({ status: 'soon', remainingMinutes: 2 * 24 * 60 });
-		expect(at({ atMs: NOW - 31 * DAY, pass: true, minimumNPerCm: 40 })).toMatchObject({ status: 'late', remainingMinutes: -24 * 60 });
-		expect(at({ atMs: NOW - DAY, pass: false, minimumNPerCm: 30 })).toMatchObject({ status: 'late' });
+		expect(at({ atMs: NOW - 28 * DAY, pass: true, minimumNPerCm: 40 })).toMatchObject({
+			status: 'soon',
+			remainingMinutes: 2 * 24 * 60
+		});
+		expect(at({ atMs: NOW - 31 * DAY, pass: true, minimumNPerCm: 40 })).toMatchObject({
+			status: 'late',
+			remainingMinutes: -24 * 60
+		});
+		expect(at({ atMs: NOW - DAY, pass: false, minimumNPerCm: 30 })).toMatchObject({
+			status: 'late'
+		});
 	});
 
 	it('stencil life: soon from 90 %, late at the rated life', () => {
-		const at = (printCount: number) => item(facts({ stencil: { ...facts().stencil!, printCount } }), 'stencil-life');
+		const at = (printCount: number) =>
+			item(facts({ stencil: { ...facts().stencil!, printCount } }), 'stencil-life');
 		expect(at(44_999)).toMatchObject({ status: 'ok', remainingPrints: 5001 });
 		expect(at(45_000)).toMatchObject({ status: 'soon', remainingPrints: 5000 });
 		expect(at(50_000)).toMatchObject({ status: 'late', remainingPrints: 0 });
@@ -169,7 +212,13 @@ describe('what is due', () => {
 		const f = facts({ run: null });
 		expect(dueItems(f, NOW)).toEqual([]);
 		const tile = lineTile(f, NOW);
-		expect(tile).toMatchObject({ state: 'idle', idleSince: new Date(NOW - 3 * HOUR).toISOString(), product: null, stencil: null, paste: null });
+		expect(tile).toMatchObject({
+			state: 'idle',
+			idleSince: new Date(NOW - 3 * HOUR).toISOString(),
+			product: null,
+			stencil: null,
+			paste: null
+		});
 	});
 
 	it('orders late before due before soon before ok, nearest first', () => {
@@ -191,7 +240,10 @@ describe('what is due', () => {
 
 describe('line state', () => {
 	it('stopped when the paste is over its time on the stencil', () => {
-		const tile = lineTile(facts({ pasteLot: { ...facts().pasteLot!, onStencilAtMs: NOW - 481 * MIN } }), NOW);
+		const tile = lineTile(
+			facts({ pasteLot: { ...facts().pasteLot!, onStencilAtMs: NOW - 481 * MIN } }),
+			NOW
+		);
 		expect(tile.state).toBe('stopped');
 		expect(tile.reasons[0]).toContain('over its 8 h on the stencil');
 	});
@@ -201,7 +253,9 @@ describe('line state', () => {
 		const tile = lineTile(facts({ boards }), NOW);
 		expect(tile.state).toBe('stopped');
 		expect(tile.reasons).toContain('no board for 11 min');
-		expect(lineTile(facts({ boards: [board(0, true, NOW - 9 * MIN)] }), NOW).state).toBe('printing');
+		expect(lineTile(facts({ boards: [board(0, true, NOW - 9 * MIN)] }), NOW).state).toBe(
+			'printing'
+		);
 	});
 
 	it('attention for an open signal, a low pass rate or a check due now (not for soon)', () => {
@@ -218,7 +272,11 @@ describe('line state', () => {
 		};
 		const withSignal = lineTile(facts({ signals: [signal] }), NOW);
 		expect(withSignal.state).toBe('attention');
-		expect(withSignal.signals[0]).toMatchObject({ id: 1, ageMinutes: 95, createdAt: new Date(NOW - 95 * MIN).toISOString() });
+		expect(withSignal.signals[0]).toMatchObject({
+			id: 1,
+			ageMinutes: 95,
+			createdAt: new Date(NOW - 95 * MIN).toISOString()
+		});
 
 		// 8 of the last 10 pass: 80 % < 90 %.
 		const boards = Array.from({ length: 20 }, (_, i) => board(i, i !== 2 && i !== 5));

@@ -255,7 +255,8 @@ const MINUTE = 60_000;
 const HOUR = 60 * MINUTE;
 const DAY = 24 * HOUR;
 
-const iso = (ms: number | null | undefined) => (ms === null || ms === undefined ? null : new Date(ms).toISOString());
+const iso = (ms: number | null | undefined) =>
+	ms === null || ms === undefined ? null : new Date(ms).toISOString();
 
 /**
  * The side a stencil prints, from a name ending in -T/-TOP or -B/-BOT/-BOTTOM (Rollbead's
@@ -299,7 +300,11 @@ export function passRatePct(boards: readonly BoardFact[], n: number): number | n
 	return (slice.filter((b) => b.pass).length / slice.length) * 100;
 }
 
-function meanOf(boards: readonly BoardFact[], pick: (b: BoardFact) => number | null, target: number | null): MeanFigure {
+function meanOf(
+	boards: readonly BoardFact[],
+	pick: (b: BoardFact) => number | null,
+	target: number | null
+): MeanFigure {
 	let sum = 0;
 	let count = 0;
 	for (const b of boards) {
@@ -316,7 +321,11 @@ function meanOf(boards: readonly BoardFact[], pick: (b: BoardFact) => number | n
  * expiry, stencil clean, tension check, stencil life and state, and the next wipe. Without an
  * open run only the stencil and lot checks of what was last mounted are left out: nothing is due.
  */
-export function dueItems(facts: LineFacts, nowMs: number, settings: FloorSettings = FLOOR_DEFAULTS): DueItem[] {
+export function dueItems(
+	facts: LineFacts,
+	nowMs: number,
+	settings: FloorSettings = FLOOR_DEFAULTS
+): DueItem[] {
 	const items: DueItem[] = [];
 	const { run, pasteLot: lot, stencil } = facts;
 	if (!run) return items;
@@ -354,7 +363,10 @@ export function dueItems(facts: LineFacts, nowMs: number, settings: FloorSetting
 		if (lot.expiresAtMs !== null) {
 			const left = Math.floor((lot.expiresAtMs - nowMs) / MINUTE);
 			// Expiry is an instant: at it the lot is expired (assessLotForRun: now ≥ expiry).
-			const status: DueStatus = left <= 0 && nowMs >= lot.expiresAtMs ? 'late' : dueStatus(left, settings.lotExpirySoonHours * 60);
+			const status: DueStatus =
+				left <= 0 && nowMs >= lot.expiresAtMs
+					? 'late'
+					: dueStatus(left, settings.lotExpirySoonHours * 60);
 			items.push({
 				key: 'lot-expiry',
 				label: 'Lot expiry',
@@ -373,7 +385,9 @@ export function dueItems(facts: LineFacts, nowMs: number, settings: FloorSetting
 		const byHours =
 			stencil.lastCleanAtMs === null
 				? null
-				: Math.floor((stencil.lastCleanAtMs + settings.stencilCleanEveryHours * HOUR - nowMs) / MINUTE);
+				: Math.floor(
+						(stencil.lastCleanAtMs + settings.stencilCleanEveryHours * HOUR - nowMs) / MINUTE
+					);
 		const printsStatus = dueStatus(byPrints, settings.cleanSoonPrints);
 		const hoursStatus = byHours === null ? 'ok' : dueStatus(byHours, 60);
 		const worse = rank(printsStatus) <= rank(hoursStatus) ? 'prints' : 'hours';
@@ -396,7 +410,9 @@ export function dueItems(facts: LineFacts, nowMs: number, settings: FloorSetting
 		const tensionLeft =
 			stencil.lastTension === null
 				? null
-				: Math.floor((stencil.lastTension.atMs + settings.tensionCheckEveryDays * DAY - nowMs) / MINUTE);
+				: Math.floor(
+						(stencil.lastTension.atMs + settings.tensionCheckEveryDays * DAY - nowMs) / MINUTE
+					);
 		if (stencil.lastTension && !stencil.lastTension.pass) {
 			items.push({
 				key: 'tension-check',
@@ -409,7 +425,8 @@ export function dueItems(facts: LineFacts, nowMs: number, settings: FloorSetting
 			items.push({
 				key: 'tension-check',
 				label: 'Tension check',
-				status: tensionLeft === null ? 'due' : dueStatus(tensionLeft, settings.tensionSoonDays * 24 * 60),
+				status:
+					tensionLeft === null ? 'due' : dueStatus(tensionLeft, settings.tensionSoonDays * 24 * 60),
 				...(tensionLeft !== null && { remainingMinutes: tensionLeft }),
 				text:
 					tensionLeft === null
@@ -423,7 +440,8 @@ export function dueItems(facts: LineFacts, nowMs: number, settings: FloorSetting
 		if (stencil.ratedLifePrints) {
 			const left = stencil.ratedLifePrints - stencil.printCount;
 			const usedPct = (stencil.printCount / stencil.ratedLifePrints) * 100;
-			const status: DueStatus = left <= 0 ? 'late' : usedPct >= settings.stencilLifeSoonPct ? 'soon' : 'ok';
+			const status: DueStatus =
+				left <= 0 ? 'late' : usedPct >= settings.stencilLifeSoonPct ? 'soon' : 'ok';
 			items.push({
 				key: 'stencil-life',
 				label: 'Stencil life',
@@ -489,7 +507,11 @@ const STOPPING: ReadonlySet<DueItem['key']> = new Set([
  * The tile of one line at `nowMs`.
  * @example lineTile(facts, Date.now()).state // 'printing'
  */
-export function lineTile(facts: LineFacts, nowMs: number, settings: FloorSettings = FLOOR_DEFAULTS): LineTile {
+export function lineTile(
+	facts: LineFacts,
+	nowMs: number,
+	settings: FloorSettings = FLOOR_DEFAULTS
+): LineTile {
 	const due = dueItems(facts, nowMs, settings);
 	const { run, stencil, pasteLot: lot, boards } = facts;
 	const runBoards = run ? boards.filter((b) => b.atMs >= run.startedAtMs) : [];
@@ -500,10 +522,14 @@ export function lineTile(facts: LineFacts, nowMs: number, settings: FloorSetting
 	let state: LineState;
 	if (!run) {
 		state = 'idle';
-		reasons.push({ urgency: 9, text: facts.lastRunEndedAtMs ? 'no run open' : 'no run logged yet' });
+		reasons.push({
+			urgency: 9,
+			text: facts.lastRunEndedAtMs ? 'no run open' : 'no run logged yet'
+		});
 	} else {
 		for (const item of due) {
-			if (item.status === 'late') reasons.push({ urgency: STOPPING.has(item.key) ? 0 : 2, text: item.text });
+			if (item.status === 'late')
+				reasons.push({ urgency: STOPPING.has(item.key) ? 0 : 2, text: item.text });
 			else if (item.status === 'due') reasons.push({ urgency: 3, text: item.text });
 		}
 		const since = lastRunBoardMs ?? run.startedAtMs;
@@ -511,18 +537,23 @@ export function lineTile(facts: LineFacts, nowMs: number, settings: FloorSetting
 		if (quietMinutes >= settings.stallMinutes) {
 			reasons.push({
 				urgency: 1,
-				text: lastRunBoardMs === null
-					? `no board inspected since the run started ${wordsForMinutes(quietMinutes)} ago`
-					: `no board for ${wordsForMinutes(quietMinutes)}`
+				text:
+					lastRunBoardMs === null
+						? `no board inspected since the run started ${wordsForMinutes(quietMinutes)} ago`
+						: `no board for ${wordsForMinutes(quietMinutes)}`
 			});
 		}
 		const open = facts.signals.length;
 		if (open > 0) reasons.push({ urgency: 2, text: `${plural(open, 'open signal')}` });
 		const rate10 = passRatePct(boards, 10);
 		if (rate10 !== null && rate10 < settings.passRateAttentionPct) {
-			reasons.push({ urgency: 2, text: `pass rate of the last ${Math.min(10, boards.length)} boards ${Math.round(rate10)} %` });
+			reasons.push({
+				urgency: 2,
+				text: `pass rate of the last ${Math.min(10, boards.length)} boards ${Math.round(rate10)} %`
+			});
 		}
-		for (const item of due) if (item.status === 'soon') reasons.push({ urgency: 4, text: item.text });
+		for (const item of due)
+			if (item.status === 'soon') reasons.push({ urgency: 4, text: item.text });
 		const worst = Math.min(...reasons.map((r) => r.urgency), 99);
 		state = worst <= 1 ? 'stopped' : worst <= 3 ? 'attention' : 'printing';
 	}
@@ -545,7 +576,8 @@ export function lineTile(facts: LineFacts, nowMs: number, settings: FloorSetting
 					startedAt: iso(run.startedAtMs)!,
 					boardsPrinted: run.boardsPrinted,
 					lastBoardAt: iso(lastRunBoardMs),
-					minutesSinceLastBoard: lastRunBoardMs === null ? null : Math.floor((nowMs - lastRunBoardMs) / MINUTE)
+					minutesSinceLastBoard:
+						lastRunBoardMs === null ? null : Math.floor((nowMs - lastRunBoardMs) / MINUTE)
 				}
 			: null,
 		idleSince: run ? null : iso(facts.lastRunEndedAtMs),
@@ -560,9 +592,15 @@ export function lineTile(facts: LineFacts, nowMs: number, settings: FloorSetting
 						printsSinceClean: stencil.printsSinceClean,
 						cleanEveryPrints: settings.stencilCleanEveryPrints,
 						ratedLifePrints: stencil.ratedLifePrints,
-						lifeUsedPct: stencil.ratedLifePrints ? (stencil.printCount / stencil.ratedLifePrints) * 100 : null,
+						lifeUsedPct: stencil.ratedLifePrints
+							? (stencil.printCount / stencil.ratedLifePrints) * 100
+							: null,
 						lastTensionAt: iso(stencil.lastTension?.atMs),
-						tensionDueAt: iso(stencil.lastTension ? stencil.lastTension.atMs + settings.tensionCheckEveryDays * DAY : nowMs)!
+						tensionDueAt: iso(
+							stencil.lastTension
+								? stencil.lastTension.atMs + settings.tensionCheckEveryDays * DAY
+								: nowMs
+						)!
 					}
 				: null,
 		paste:
@@ -572,9 +610,12 @@ export function lineTile(facts: LineFacts, nowMs: number, settings: FloorSetting
 						lotNumber: lot.lotNumber,
 						state: lot.state,
 						minutesOnStencil:
-							lot.onStencilAtMs !== null && lot.state === 'on-stencil' ? Math.floor((nowMs - lot.onStencilAtMs) / MINUTE) : null,
+							lot.onStencilAtMs !== null && lot.state === 'on-stencil'
+								? Math.floor((nowMs - lot.onStencilAtMs) / MINUTE)
+								: null,
 						maxOnStencilMinutes: lot.maxOnStencilMinutes,
-						minutesToExpiry: lot.expiresAtMs === null ? null : Math.floor((lot.expiresAtMs - nowMs) / MINUTE),
+						minutesToExpiry:
+							lot.expiresAtMs === null ? null : Math.floor((lot.expiresAtMs - nowMs) / MINUTE),
 						expiresAt: iso(lot.expiresAtMs)
 					}
 				: null,
@@ -592,14 +633,20 @@ export function lineTile(facts: LineFacts, nowMs: number, settings: FloorSetting
 		},
 		characteristics: facts.characteristics,
 		signals: facts.signals
-			.map(({ createdAtMs, ...s }) => ({ ...s, createdAt: iso(createdAtMs)!, ageMinutes: Math.floor((nowMs - createdAtMs) / MINUTE) }))
+			.map(({ createdAtMs, ...s }) => ({
+				...s,
+				createdAt: iso(createdAtMs)!,
+				ageMinutes: Math.floor((nowMs - createdAtMs) / MINUTE)
+			}))
 			.sort((a, b) => b.ageMinutes - a.ageMinutes),
 		due
 	};
 }
 
 /** Tiles in the overview's order: stopped, attention, printing, idle; then by line code. */
-export function sortTiles<T extends Pick<LineTile, 'state' | 'lineCode'>>(tiles: readonly T[]): T[] {
+export function sortTiles<T extends Pick<LineTile, 'state' | 'lineCode'>>(
+	tiles: readonly T[]
+): T[] {
 	return [...tiles].sort(
 		(a, b) =>
 			LINE_STATES.indexOf(a.state) - LINE_STATES.indexOf(b.state) ||

@@ -7,9 +7,14 @@
  */
 export function tickLabels(ticks: readonly number[]): string[] {
 	const step = ticks.length > 1 ? Math.abs(ticks[1] - ticks[0]) : 0;
-	const decimals = step >= 1e-6 ? Math.min(6, Math.max(0, -Math.floor(Math.log10(step) + 1e-9))) : 0;
+	const decimals =
+		step >= 1e-6 ? Math.min(6, Math.max(0, -Math.floor(Math.log10(step) + 1e-9))) : 0;
 	return ticks.map((t) => {
 		const v = Math.abs(t) < 1e-6 ? 0 : t;
-		return v.toLocaleString('en-GB', { minimumFractionDigits: decimals, maximumFractionDigits: decimals, useGrouping: false });
+		return v.toLocaleString('en-GB', {
+			minimumFractionDigits: decimals,
+			maximumFractionDigits: decimals,
+			useGrouping: false
+		});
 	});
 }

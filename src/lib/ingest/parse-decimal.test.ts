@@ -100,9 +100,12 @@ describe('parseDecimal', () => {
 
 	// With a decimal comma the point is a thousands separator in such exports: refused, never
 	// read as a decimal mark (1.234 would be 1000x too small).
-	it.each(['3.5', '1.234', '0x10', '1_0', '\uff11'])('%j is refused with a decimal comma', (text) => {
-		expect(parseDecimal(text, true)).toBeNaN();
-	});
+	it.each(['3.5', '1.234', '0x10', '1_0', '\uff11'])(
+		'%j is refused with a decimal comma',
+		(text) => {
+			expect(parseDecimal(text, true)).toBeNaN();
+		}
+	);
 
 	it.each([
 		'',
@@ -162,10 +165,20 @@ describe('parseDecimalBytes', () => {
 	});
 
 	// Forms that the text path handles (or rejects) give NaN here.
-	it.each(['', '-', '.', ' 42', '+7', '1e3', '12a', '1.2.3', '1,5', '12345678901234567890', '0x10', '1_0'])(
-		'%j is NaN (left to the text path)',
-		(text) => {
-			expect(read(text)).toBeNaN();
-		}
-	);
+	it.each([
+		'',
+		'-',
+		'.',
+		' 42',
+		'+7',
+		'1e3',
+		'12a',
+		'1.2.3',
+		'1,5',
+		'12345678901234567890',
+		'0x10',
+		'1_0'
+	])('%j is NaN (left to the text path)', (text) => {
+		expect(read(text)).toBeNaN();
+	});
 });

@@ -97,7 +97,8 @@ function slowPath(text: string, start: number, end: number, mark: number): numbe
 	}
 	if (i !== end) return NaN;
 	let plain = text.slice(start, end);
-	if (markAt >= 0 && mark !== 46) plain = plain.slice(0, markAt - start) + '.' + plain.slice(markAt - start + 1);
+	if (markAt >= 0 && mark !== 46)
+		plain = plain.slice(0, markAt - start) + '.' + plain.slice(markAt - start + 1);
 	const value = +plain;
 	// value - value is 0 only for finite numbers (NaN and ±Infinity give NaN).
 	return value - value === 0 ? value : NaN;

@@ -1,7 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { CANONICAL_PROFILE, type MappingProfile } from './mapping-profile';
 import { DEFAULT_SPI_PARSE_LIMITS, spiParseLimitsFromEnv } from './parse-limits';
-import { createSpiRowParser, type SpiParseSummary, type SpiRowParserOptions } from './spi-row-parser';
+import {
+	createSpiRowParser,
+	type SpiParseSummary,
+	type SpiRowParserOptions
+} from './spi-row-parser';
 
 const HEADER =
 	'board_serial,inspected_at,line,product,panel_index,refdes,pad,volume_pct,area_pct,height_um,offset_x_um,offset_y_um,result';
@@ -27,7 +31,11 @@ function bothWays(
 }
 
 function bytesOnly(chunks: Uint8Array[], extra: Partial<SpiRowParserOptions> = {}) {
-	const parser = createSpiRowParser({ profile: CANONICAL_PROFILE, fileName: 'hostile.csv', ...extra });
+	const parser = createSpiRowParser({
+		profile: CANONICAL_PROFILE,
+		fileName: 'hostile.csv',
+		...extra
+	});
 	let rows = 0;
 	for (const chunk of chunks) for (const b of parser.push(chunk)) rows += b.length;
 	for (const b of parser.end()) rows += b.length;
@@ -216,7 +224,9 @@ describe('hostile bytes and budgets', () => {
 					'line 1 is longer than the limit of 100 bytes (SPI_MAX_LINE_BYTES); is this a text export with line breaks?'
 			}
 		]);
-		expect(bytesOnly([encode(long)], { limits: { maxLineBytes: 1024 } }).summary.errors).toEqual([]);
+		expect(bytesOnly([encode(long)], { limits: { maxLineBytes: 1024 } }).summary.errors).toEqual(
+			[]
+		);
 	});
 
 	it('a NUL byte in a later chunk names its byte offset and line', () => {
@@ -243,7 +253,10 @@ describe('hostile bytes and budgets', () => {
 		const head = encode(`${HEADER}\n${GOOD}\nRB-A,${T1},L1,PB-100,0,C`);
 		const tail = encode(`,1,100,100,120,0,0,pass\n`);
 		const file = new Uint8Array([...head, ...bad, ...tail]);
-		const { summary } = bytesOnly([file.subarray(0, head.length + 1), file.subarray(head.length + 1)]);
+		const { summary } = bytesOnly([
+			file.subarray(0, head.length + 1),
+			file.subarray(head.length + 1)
+		]);
 		expect(summary.errors).toEqual([
 			{
 				row: 0,
@@ -337,10 +350,15 @@ describe('spiParseLimitsFromEnv', () => {
 		});
 	});
 
-	it.each(['0', '-1', '1e6', '0x100', '1_000', '12.5', 'lots'])('%j is refused, default kept', (raw) => {
-		expect(spiParseLimitsFromEnv({ SPI_MAX_COLUMNS: raw })).toEqual({
-			limits: { ...DEFAULT_SPI_PARSE_LIMITS },
-			problems: [`SPI_MAX_COLUMNS=${JSON.stringify(raw)} is not a positive whole number; using 1000`]
-		});
-	});
+	it.each(['0', '-1', '1e6', '0x100', '1_000', '12.5', 'lots'])(
+		'%j is refused, default kept',
+		(raw) => {
+			expect(spiParseLimitsFromEnv({ SPI_MAX_COLUMNS: raw })).toEqual({
+				limits: { ...DEFAULT_SPI_PARSE_LIMITS },
+				problems: [
+					`SPI_MAX_COLUMNS=${JSON.stringify(raw)} is not a positive whole number; using 1000`
+				]
+			});
+		}
+	);
 });

@@ -217,7 +217,8 @@ function trimSpaces(s: string): string {
 }
 
 // Characters a reader cannot see or tell apart from a space: shown as \uXXXX in messages.
-const INVISIBLE = /[\u0000-\u001f\u007f-\u00a0\u00ad\u2000-\u200f\u2028-\u202f\u205f-\u206f\u3000\ufeff]/g;
+const INVISIBLE =
+	/[\u0000-\u001f\u007f-\u00a0\u00ad\u2000-\u200f\u2028-\u202f\u205f-\u206f\u3000\ufeff]/g;
 
 /**
  * A cell in double quotes for an error message, with invisible characters (tab, no-break space,

@@ -14,7 +14,11 @@ const codes = (events: PasteEvent[], minute: number, l = lot) => {
 };
 
 const out: PasteEvent[] = [{ event: 'out-of-cold-storage', at: at(0) }];
-const onStencil: PasteEvent[] = [...out, { event: 'opened', at: at(240) }, { event: 'on-stencil', at: at(250) }];
+const onStencil: PasteEvent[] = [
+	...out,
+	{ event: 'opened', at: at(240) },
+	{ event: 'on-stencil', at: at(250) }
+];
 
 describe('assessLotForRun boundaries (fixed timestamps)', () => {
 	const cases: [string, PasteEvent[], number, string[], string[]][] = [
@@ -28,8 +32,20 @@ describe('assessLotForRun boundaries (fixed timestamps)', () => {
 		['out of cold 1441 min', onStencil.slice(0, 2), 1441, [], ['over-time-out-of-cold']],
 		['both limits over', onStencil, 1441, ['over-time-on-stencil'], ['over-time-out-of-cold']],
 		['discarded', [...out, { event: 'discarded', at: at(10) }], 20, ['discarded'], []],
-		['returned sealed', [...out, { event: 'returned', at: at(60) }], 120, [], ['back-in-cold-storage']],
-		['events after the run time are ignored', [...out, { event: 'discarded', at: at(500) }], 300, [], []]
+		[
+			'returned sealed',
+			[...out, { event: 'returned', at: at(60) }],
+			120,
+			[],
+			['back-in-cold-storage']
+		],
+		[
+			'events after the run time are ignored',
+			[...out, { event: 'discarded', at: at(500) }],
+			300,
+			[],
+			[]
+		]
 	];
 	it.each(cases)('%s', (_name, events, minute, refuse, warn) => {
 		expect(codes(events, minute)).toEqual({ refuse, warn });
@@ -60,19 +76,47 @@ describe('assessLotForRun expiry', () => {
 	});
 
 	it('refuses an unreadable expiry instead of crashing', () => {
-		const result = assessLotForRun({ lotNumber: 'PL-8', expiresOn: '31/03/2026' }, out, settings, at(300));
-		expect(result.refuse).toEqual([{ code: 'invalid-lot', message: 'paste lot PL-8 has no readable expiry date (got "31/03/2026")' }]);
+		const result = assessLotForRun(
+			{ lotNumber: 'PL-8', expiresOn: '31/03/2026' },
+			out,
+			settings,
+			at(300)
+		);
+		expect(result.refuse).toEqual([
+			{
+				code: 'invalid-lot',
+				message: 'paste lot PL-8 has no readable expiry date (got "31/03/2026")'
+			}
+		]);
 	});
 
 	it('expired and over-time refusals may be overridden by an engineer; discarded and unreadable may not', () => {
-		const expired = assessLotForRun({ lotNumber: 'PL-9', expiresOn: '2026-03-01' }, onStencil, settings, at(250 + 481));
-		expect(expired.refuse.map((r) => [r.code, r.canOverride ?? false])).toEqual([['expired', true], ['over-time-on-stencil', true]]);
-		const gone = assessLotForRun({ lotNumber: 'PL-9', expiresOn: '2026-03-31' }, [...out, { event: 'discarded', at: at(5) }], settings, at(10));
+		const expired = assessLotForRun(
+			{ lotNumber: 'PL-9', expiresOn: '2026-03-01' },
+			onStencil,
+			settings,
+			at(250 + 481)
+		);
+		expect(expired.refuse.map((r) => [r.code, r.canOverride ?? false])).toEqual([
+			['expired', true],
+			['over-time-on-stencil', true]
+		]);
+		const gone = assessLotForRun(
+			{ lotNumber: 'PL-9', expiresOn: '2026-03-31' },
+			[...out, { event: 'discarded', at: at(5) }],
+			settings,
+			at(10)
+		);
 		expect(gone.refuse.map((r) => r.canOverride ?? false)).toEqual([false]);
 	});
 
 	it('an expired and discarded lot gives both refusals', () => {
-		const result = assessLotForRun({ lotNumber: 'PL-9', expiresOn: '2026-03-01' }, [...out, { event: 'discarded', at: at(5) }], settings, at(10));
+		const result = assessLotForRun(
+			{ lotNumber: 'PL-9', expiresOn: '2026-03-01' },
+			[...out, { event: 'discarded', at: at(5) }],
+			settings,
+			at(10)
+		);
 		expect(result.refuse.map((r) => r.code)).toEqual(['expired', 'discarded']);
 	});
 });
@@ -80,7 +124,9 @@ describe('assessLotForRun expiry', () => {
 describe('assessLotForRun messages and bad input', () => {
 	it('words the warm-up warning with elapsed and required time', () => {
 		const result = assessLotForRun(lot, out, settings, at(90));
-		expect(result.warn[0].message).toBe('paste lot PL-7 is still warming up: 1 h 30 min of 4 h since it left cold storage');
+		expect(result.warn[0].message).toBe(
+			'paste lot PL-7 is still warming up: 1 h 30 min of 4 h since it left cold storage'
+		);
 	});
 	it('refuses an inconsistent log with the field of the bad event', () => {
 		const result = assessLotForRun(lot, [{ event: 'opened', at: at(0) }], settings, at(10));
@@ -91,8 +137,8 @@ describe('assessLotForRun messages and bad input', () => {
 		expect(() => assessLotForRun(lot, out, settings, 'now')).toThrow(/^at: must be an ISO 8601/);
 	});
 	it('throws a field error for a bad setting', () => {
-		expect(() => assessLotForRun(lot, out, { ...settings, warmUpMinutes: Number.NaN }, at(0))).toThrow(
-			'settings.warmUpMinutes: must be a number of minutes > 0 (got NaN)'
-		);
+		expect(() =>
+			assessLotForRun(lot, out, { ...settings, warmUpMinutes: Number.NaN }, at(0))
+		).toThrow('settings.warmUpMinutes: must be a number of minutes > 0 (got NaN)');
 	});
 });

@@ -78,7 +78,11 @@ export function assessLotForRun(
 		});
 	}
 	if (expiresAtMs !== null && atMs >= expiresAtMs) {
-		refuse.push({ code: 'expired', message: `${lotName} expired (expiry ${lot.expiresOn})`, canOverride: true });
+		refuse.push({
+			code: 'expired',
+			message: `${lotName} expired (expiry ${lot.expiresOn})`,
+			canOverride: true
+		});
 	}
 
 	const replay = replayPasteEvents(events, atMs);

@@ -31,13 +31,28 @@ describe('isLeadBearing', () => {
 describe('caution texts', () => {
 	it('lead caution defers to regulations, SDS and site procedures and covers the usual points', () => {
 		const text = leadHandlingCaution().join(' ');
-		for (const phrase of [/local regulations/, /safety data sheet/, /site procedures/, /gloves/, /hazardous waste/, /segregated/, /fume extraction/]) {
+		for (const phrase of [
+			/local regulations/,
+			/safety data sheet/,
+			/site procedures/,
+			/gloves/,
+			/hazardous waste/,
+			/segregated/,
+			/fume extraction/
+		]) {
 			expect(text).toMatch(phrase);
 		}
 	});
 	it('solvent caution covers ventilation, protection and ignition sources and defers to the SDS', () => {
 		const text = solventCleaningCaution().join(' ');
-		for (const phrase of [/ventilation/, /gloves/, /eye protection/, /ignition sources/, /safety data sheet/, /site procedures/]) {
+		for (const phrase of [
+			/ventilation/,
+			/gloves/,
+			/eye protection/,
+			/ignition sources/,
+			/safety data sheet/,
+			/site procedures/
+		]) {
 			expect(text).toMatch(phrase);
 		}
 	});

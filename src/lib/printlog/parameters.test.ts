@@ -51,7 +51,10 @@ describe('pressureWindowKg', () => {
 
 describe('squeegeePressureNewtons', () => {
 	it('converts kg-force with standard gravity', () => {
-		expect(squeegeePressureNewtons(ref.kgToNewtons5kg.kg)).toBeCloseTo(ref.kgToNewtons5kg.newtons, 9);
+		expect(squeegeePressureNewtons(ref.kgToNewtons5kg.kg)).toBeCloseTo(
+			ref.kgToNewtons5kg.newtons,
+			9
+		);
 	});
 });
 
@@ -76,7 +79,8 @@ describe('default windows match the common-practice reference values', () => {
 			if (!w) continue;
 			expect(w.min, spec.key).toBeLessThanOrEqual(w.target);
 			expect(w.target, spec.key).toBeLessThanOrEqual(w.max);
-			for (const v of [w.min, w.target, w.max]) expect(physicalRangeProblem(spec.key, v)).toBeNull();
+			for (const v of [w.min, w.target, w.max])
+				expect(physicalRangeProblem(spec.key, v)).toBeNull();
 		}
 	});
 });

@@ -17,11 +17,41 @@ const minutes = (m: number) => new Date(T0 + m * 60_000).toISOString();
 describe('state machine table', () => {
 	// Full 5 × 5 table: expected next state, or null when refused.
 	const table: Record<PasteState, Record<PasteEventType, PasteState | null>> = {
-		'cold-storage': { 'out-of-cold-storage': 'out-sealed', opened: null, 'on-stencil': null, returned: null, discarded: 'discarded' },
-		'out-sealed': { 'out-of-cold-storage': null, opened: 'opened', 'on-stencil': null, returned: 'cold-storage', discarded: 'discarded' },
-		opened: { 'out-of-cold-storage': null, opened: null, 'on-stencil': 'on-stencil', returned: null, discarded: 'discarded' },
-		'on-stencil': { 'out-of-cold-storage': null, opened: null, 'on-stencil': null, returned: null, discarded: 'discarded' },
-		discarded: { 'out-of-cold-storage': null, opened: null, 'on-stencil': null, returned: null, discarded: null }
+		'cold-storage': {
+			'out-of-cold-storage': 'out-sealed',
+			opened: null,
+			'on-stencil': null,
+			returned: null,
+			discarded: 'discarded'
+		},
+		'out-sealed': {
+			'out-of-cold-storage': null,
+			opened: 'opened',
+			'on-stencil': null,
+			returned: 'cold-storage',
+			discarded: 'discarded'
+		},
+		opened: {
+			'out-of-cold-storage': null,
+			opened: null,
+			'on-stencil': 'on-stencil',
+			returned: null,
+			discarded: 'discarded'
+		},
+		'on-stencil': {
+			'out-of-cold-storage': null,
+			opened: null,
+			'on-stencil': null,
+			returned: null,
+			discarded: 'discarded'
+		},
+		discarded: {
+			'out-of-cold-storage': null,
+			opened: null,
+			'on-stencil': null,
+			returned: null,
+			discarded: null
+		}
 	};
 	const rows = (Object.keys(table) as PasteState[]).flatMap((state) =>
 		PASTE_EVENTS.map((event) => [state, event, table[state][event]] as const)
@@ -33,14 +63,22 @@ describe('state machine table', () => {
 	});
 
 	it('explains why opened paste may not be re-refrigerated', () => {
-		expect(pasteTransitionProblem('opened', 'returned')).toMatch(/must not go back to cold storage.*condensation/);
-		expect(pasteTransitionProblem('on-stencil', 'returned')).toMatch(/do not re-refrigerate opened paste/);
+		expect(pasteTransitionProblem('opened', 'returned')).toMatch(
+			/must not go back to cold storage.*condensation/
+		);
+		expect(pasteTransitionProblem('on-stencil', 'returned')).toMatch(
+			/do not re-refrigerate opened paste/
+		);
 	});
 	it('explains that paste cannot be opened before leaving cold storage', () => {
-		expect(pasteTransitionProblem('cold-storage', 'opened')).toMatch(/log 'out-of-cold-storage' first/);
+		expect(pasteTransitionProblem('cold-storage', 'opened')).toMatch(
+			/log 'out-of-cold-storage' first/
+		);
 	});
 	it('nothing follows discarded', () => {
-		expect(pasteTransitionProblem('discarded', 'out-of-cold-storage')).toBe("the paste was discarded; no 'out-of-cold-storage' can follow");
+		expect(pasteTransitionProblem('discarded', 'out-of-cold-storage')).toBe(
+			"the paste was discarded; no 'out-of-cold-storage' can follow"
+		);
 	});
 });
 
@@ -86,10 +124,33 @@ describe('replayPasteEvents', () => {
 
 	const bad: [string, { event: string; at: string | number }[], string[]][] = [
 		['empty log', [], []],
-		['unknown event', [{ event: 'thawed', at: minutes(0) }], ['events[0].event: must be one of out-of-cold-storage, opened, on-stencil, returned, discarded (got "thawed")']],
-		['bad timestamp', [{ event: 'opened', at: 'noon' }], ['events[0].at: must be an ISO 8601 date or date-time with a time zone (got "noon")']],
-		['backwards', [{ event: 'out-of-cold-storage', at: minutes(10) }, { event: 'opened', at: minutes(5) }], [`events[1].at: must not be before the previous event (${minutes(10)})`]],
-		['open while cold', [{ event: 'opened', at: minutes(0) }], ["events[0].event: 'opened' refused: cannot open paste that is still in cold storage: log 'out-of-cold-storage' first and let it warm up, or condensation forms inside"]]
+		[
+			'unknown event',
+			[{ event: 'thawed', at: minutes(0) }],
+			[
+				'events[0].event: must be one of out-of-cold-storage, opened, on-stencil, returned, discarded (got "thawed")'
+			]
+		],
+		[
+			'bad timestamp',
+			[{ event: 'opened', at: 'noon' }],
+			['events[0].at: must be an ISO 8601 date or date-time with a time zone (got "noon")']
+		],
+		[
+			'backwards',
+			[
+				{ event: 'out-of-cold-storage', at: minutes(10) },
+				{ event: 'opened', at: minutes(5) }
+			],
+			[`events[1].at: must not be before the previous event (${minutes(10)})`]
+		],
+		[
+			'open while cold',
+			[{ event: 'opened', at: minutes(0) }],
+			[
+				"events[0].event: 'opened' refused: cannot open paste that is still in cold storage: log 'out-of-cold-storage' first and let it warm up, or condensation forms inside"
+			]
+		]
 	];
 	it.each(bad)('%s', (_name, events, expected) => {
 		const replay = replayPasteEvents(events);
@@ -110,24 +171,37 @@ describe('checkNextPasteEvent', () => {
 	const out = [{ event: 'out-of-cold-storage', at: minutes(0) }];
 	const settings = { warmUpMinutes: 240 };
 	const cases: [string, number, string[]][] = [
-		['opened 1 min early', 239, ['opened after 3 h 59 min out of cold storage; the warm-up time is 4 h: condensation may form in the paste']],
+		[
+			'opened 1 min early',
+			239,
+			[
+				'opened after 3 h 59 min out of cold storage; the warm-up time is 4 h: condensation may form in the paste'
+			]
+		],
 		['opened exactly at warm-up end', 240, []],
 		['opened later', 241, []]
 	];
 	it.each(cases)('%s', (_name, at, warn) => {
-		expect(checkNextPasteEvent(out, { event: 'opened', at: minutes(at) }, settings)).toEqual({ error: null, warn });
+		expect(checkNextPasteEvent(out, { event: 'opened', at: minutes(at) }, settings)).toEqual({
+			error: null,
+			warn
+		});
 	});
 
 	it('refuses returning an opened jar with the reason, on the event field', () => {
 		const history = [...out, { event: 'opened', at: minutes(240) }];
 		const result = checkNextPasteEvent(history, { event: 'returned', at: minutes(250) }, settings);
 		expect(result.error?.field).toBe('event');
-		expect(result.error?.message).toMatch(/^'returned' refused: opened paste must not go back to cold storage/);
+		expect(result.error?.message).toMatch(
+			/^'returned' refused: opened paste must not go back to cold storage/
+		);
 	});
 
 	it('refuses an event earlier than the last one', () => {
 		const result = checkNextPasteEvent(out, { event: 'opened', at: minutes(-1) }, settings);
-		expect(result.error && formatFieldError(result.error)).toBe(`at: must not be before the previous event (${minutes(0)})`);
+		expect(result.error && formatFieldError(result.error)).toBe(
+			`at: must not be before the previous event (${minutes(0)})`
+		);
 	});
 });
 

@@ -38,16 +38,35 @@ describe('resolvePasteHandling', () => {
 	const cases: [string, Record<string, unknown>, string[]][] = [
 		['no overrides', {}, []],
 		['data-sheet values', { warmUpMinutes: 120, maxOnStencilMinutes: 240 }, []],
-		['zero', { warmUpMinutes: 0 }, ['warmUpMinutes: must be a whole number of minutes from 1 to 2880 (got 0)']],
-		['fractional', { maxOnStencilMinutes: 7.5 }, ['maxOnStencilMinutes: must be a whole number of minutes from 1 to 4320 (got 7.5)']],
-		['string', { maxOutOfColdMinutes: '24h' }, ['maxOutOfColdMinutes: must be a whole number of minutes from 1 to 43200 (got "24h")']],
-		['warm-up ≥ out-of-cold', { warmUpMinutes: 600, maxOutOfColdMinutes: 600 }, ['warmUpMinutes: must be shorter than maxOutOfColdMinutes (600)']]
+		[
+			'zero',
+			{ warmUpMinutes: 0 },
+			['warmUpMinutes: must be a whole number of minutes from 1 to 2880 (got 0)']
+		],
+		[
+			'fractional',
+			{ maxOnStencilMinutes: 7.5 },
+			['maxOnStencilMinutes: must be a whole number of minutes from 1 to 4320 (got 7.5)']
+		],
+		[
+			'string',
+			{ maxOutOfColdMinutes: '24h' },
+			['maxOutOfColdMinutes: must be a whole number of minutes from 1 to 43200 (got "24h")']
+		],
+		[
+			'warm-up ≥ out-of-cold',
+			{ warmUpMinutes: 600, maxOutOfColdMinutes: 600 },
+			['warmUpMinutes: must be shorter than maxOutOfColdMinutes (600)']
+		]
 	];
 	it.each(cases)('%s', (_name, overrides, expected) => {
 		expect(resolvePasteHandling(overrides).errors.map(formatFieldError)).toEqual(expected);
 	});
 	it('keeps defaults for fields not overridden', () => {
-		expect(resolvePasteHandling({ warmUpMinutes: 120 }).settings).toEqual({ ...DEFAULT_PASTE_HANDLING, warmUpMinutes: 120 });
+		expect(resolvePasteHandling({ warmUpMinutes: 120 }).settings).toEqual({
+			...DEFAULT_PASTE_HANDLING,
+			warmUpMinutes: 120
+		});
 	});
 });
 
@@ -76,15 +95,51 @@ describe('validatePasteLot', () => {
 
 	const cases: [string, Record<string, unknown>, string][] = [
 		['blank lot number', { lotNumber: '  ' }, 'lotNumber: must not be blank (got "  ")'],
-		['powder type 0', { powderType: 0 }, 'powderType: must be a J-STD-005 type, a whole number 1–8 (got 0)'],
-		['powder type 9', { powderType: 9 }, 'powderType: must be a J-STD-005 type, a whole number 1–8 (got 9)'],
-		['powder type 4.5', { powderType: 4.5 }, 'powderType: must be a J-STD-005 type, a whole number 1–8 (got 4.5)'],
-		['bad flux', { fluxClass: 'ROL5' }, 'fluxClass: must be a J-STD-004 class: RO/RE/OR/IN + L/M/H + 0/1, e.g. ROL0 (got "ROL5")'],
-		['negative grams', { containerGrams: -500 }, 'containerGrams: must be a number of grams > 0 (got -500)'],
-		['missing expiry', { expiresOn: undefined }, 'expiresOn: is required: an ISO date such as 2026-06-30'],
-		['31 February', { expiresOn: '2026-02-31' }, 'expiresOn: must be an ISO date such as 2026-06-30 (got "2026-02-31")'],
-		['received after expiry', { receivedOn: '2026-07-01' }, 'expiresOn: must not be before receivedOn (2026-07-01)'],
-		['empty alloy', { alloy: '' }, 'alloy: must be an alloy designation such as SAC305 or Sn63Pb37 (got "")']
+		[
+			'powder type 0',
+			{ powderType: 0 },
+			'powderType: must be a J-STD-005 type, a whole number 1–8 (got 0)'
+		],
+		[
+			'powder type 9',
+			{ powderType: 9 },
+			'powderType: must be a J-STD-005 type, a whole number 1–8 (got 9)'
+		],
+		[
+			'powder type 4.5',
+			{ powderType: 4.5 },
+			'powderType: must be a J-STD-005 type, a whole number 1–8 (got 4.5)'
+		],
+		[
+			'bad flux',
+			{ fluxClass: 'ROL5' },
+			'fluxClass: must be a J-STD-004 class: RO/RE/OR/IN + L/M/H + 0/1, e.g. ROL0 (got "ROL5")'
+		],
+		[
+			'negative grams',
+			{ containerGrams: -500 },
+			'containerGrams: must be a number of grams > 0 (got -500)'
+		],
+		[
+			'missing expiry',
+			{ expiresOn: undefined },
+			'expiresOn: is required: an ISO date such as 2026-06-30'
+		],
+		[
+			'31 February',
+			{ expiresOn: '2026-02-31' },
+			'expiresOn: must be an ISO date such as 2026-06-30 (got "2026-02-31")'
+		],
+		[
+			'received after expiry',
+			{ receivedOn: '2026-07-01' },
+			'expiresOn: must not be before receivedOn (2026-07-01)'
+		],
+		[
+			'empty alloy',
+			{ alloy: '' },
+			'alloy: must be an alloy designation such as SAC305 or Sn63Pb37 (got "")'
+		]
 	];
 	it.each(cases)('%s', (_name, change, expected) => {
 		expect(validatePasteLot({ ...lot, ...change }).map(formatFieldError)).toEqual([expected]);
@@ -96,7 +151,12 @@ describe('validatePasteLot', () => {
 	});
 
 	it('survives an empty object', () => {
-		expect(validatePasteLot({}).map((e) => e.field)).toEqual(['lotNumber', 'alloy', 'powderType', 'expiresOn']);
+		expect(validatePasteLot({}).map((e) => e.field)).toEqual([
+			'lotNumber',
+			'alloy',
+			'powderType',
+			'expiresOn'
+		]);
 	});
 });
 
@@ -107,9 +167,12 @@ describe('lotExpiresAtMs', () => {
 	it('a date-time with zone is the expiry instant', () => {
 		expect(lotExpiresAtMs('2026-06-30T12:00:00+02:00')).toBe(Date.UTC(2026, 5, 30, 10));
 	});
-	it.each([['30.06.2026'], ['2026-06-30T12:00:00'], ['']])('refuses %j naming expiresOn', (text) => {
-		expect(() => lotExpiresAtMs(text)).toThrow(/^expiresOn: must be an ISO 8601 date/);
-	});
+	it.each([['30.06.2026'], ['2026-06-30T12:00:00'], ['']])(
+		'refuses %j naming expiresOn',
+		(text) => {
+			expect(() => lotExpiresAtMs(text)).toThrow(/^expiresOn: must be an ISO 8601 date/);
+		}
+	);
 });
 
 describe('lotDateWarnings (issue 13: dates to confirm at receipt)', () => {
@@ -120,13 +183,19 @@ describe('lotDateWarnings (issue 13: dates to confirm at receipt)', () => {
 		['last day of use is today: still usable', { expiresOn: '2026-12-03' }, []],
 		['six months ahead', { expiresOn: '2027-06-03', receivedOn: '2026-12-01' }, []],
 		['more than 2 years ahead', { expiresOn: '2029-01-15' }, ['expiresOn']],
-		['received in the future', { expiresOn: '2027-06-03', receivedOn: '2026-12-20' }, ['receivedOn']],
+		[
+			'received in the future',
+			{ expiresOn: '2027-06-03', receivedOn: '2026-12-20' },
+			['receivedOn']
+		],
 		['received in 2020', { expiresOn: '2027-06-03', receivedOn: '2020-01-10' }, ['receivedOn']],
 		['unreadable dates are validatePasteLot errors, not warnings', { expiresOn: '31/12/2027' }, []]
 	])('%s', (_name, lot, fields) => {
 		expect(lotDateWarnings(lot, now).map((w) => w.field)).toEqual(fields);
 	});
 	it('says why', () => {
-		expect(lotDateWarnings({ expiresOn: '2020-06-30' }, now)[0].message).toBe('the lot expired on 2020-06-30, before today (2026-12-03): it may not be used');
+		expect(lotDateWarnings({ expiresOn: '2020-06-30' }, now)[0].message).toBe(
+			'the lot expired on 2020-06-30, before today (2026-12-03): it may not be used'
+		);
 	});
 });

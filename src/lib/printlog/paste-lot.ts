@@ -183,16 +183,29 @@ export function lotDateWarnings(
 	if (typeof lot.expiresOn === 'string' && read(lot.expiresOn) !== null) {
 		const expiresAtMs = lotExpiresAtMs(lot.expiresOn);
 		if (expiresAtMs <= nowMs) {
-			out.push({ field: 'expiresOn', message: `the lot expired on ${lot.expiresOn.trim()}, before today (${today}): it may not be used` });
+			out.push({
+				field: 'expiresOn',
+				message: `the lot expired on ${lot.expiresOn.trim()}, before today (${today}): it may not be used`
+			});
 		} else if (expiresAtMs - nowMs > MAX_EXPIRY_AHEAD_DAYS * day) {
-			out.push({ field: 'expiresOn', message: `${lot.expiresOn.trim()} is more than 2 years ahead: solder paste keeps months, check the date` });
+			out.push({
+				field: 'expiresOn',
+				message: `${lot.expiresOn.trim()} is more than 2 years ahead: solder paste keeps months, check the date`
+			});
 		}
 	}
 	const receivedMs = read(lot.receivedOn);
 	if (receivedMs !== null) {
-		if (receivedMs > nowMs + day) out.push({ field: 'receivedOn', message: `${String(lot.receivedOn).trim()} is in the future` });
+		if (receivedMs > nowMs + day)
+			out.push({
+				field: 'receivedOn',
+				message: `${String(lot.receivedOn).trim()} is in the future`
+			});
 		else if (nowMs - receivedMs > MAX_EXPIRY_AHEAD_DAYS * day) {
-			out.push({ field: 'receivedOn', message: `${String(lot.receivedOn).trim()} is more than 2 years ago: check the date` });
+			out.push({
+				field: 'receivedOn',
+				message: `${String(lot.receivedOn).trim()} is more than 2 years ago: check the date`
+			});
 		}
 	}
 	return out;

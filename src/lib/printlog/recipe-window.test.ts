@@ -39,12 +39,36 @@ describe('validateWindow', () => {
 	const cases: [string, unknown, string[]][] = [
 		['ordered', { min: 45, target: 60, max: 60 }, []],
 		['all equal', { min: 60, target: 60, max: 60 }, []],
-		['max below target', { min: 45, target: 60, max: 55 }, ['parameters.squeegeeAngleDeg.max: must be ≥ target (60)']],
-		['target below min', { min: 50, target: 45, max: 60 }, ['parameters.squeegeeAngleDeg.target: must be ≥ min (50)']],
-		['max above 90°', { min: 45, target: 60, max: 95 }, ['parameters.squeegeeAngleDeg.max: must be ≤ 90° (got 95)']],
-		['NaN min', { min: Number.NaN, target: 60, max: 60 }, ['parameters.squeegeeAngleDeg.min: must be a finite number (got NaN)']],
-		['missing target', { min: 45, max: 60 }, ['parameters.squeegeeAngleDeg.target: must be a finite number (got missing)']],
-		['not an object', 60, ['parameters.squeegeeAngleDeg: must be a window { min, target, max } (got 60)']]
+		[
+			'max below target',
+			{ min: 45, target: 60, max: 55 },
+			['parameters.squeegeeAngleDeg.max: must be ≥ target (60)']
+		],
+		[
+			'target below min',
+			{ min: 50, target: 45, max: 60 },
+			['parameters.squeegeeAngleDeg.target: must be ≥ min (50)']
+		],
+		[
+			'max above 90°',
+			{ min: 45, target: 60, max: 95 },
+			['parameters.squeegeeAngleDeg.max: must be ≤ 90° (got 95)']
+		],
+		[
+			'NaN min',
+			{ min: Number.NaN, target: 60, max: 60 },
+			['parameters.squeegeeAngleDeg.min: must be a finite number (got NaN)']
+		],
+		[
+			'missing target',
+			{ min: 45, max: 60 },
+			['parameters.squeegeeAngleDeg.target: must be a finite number (got missing)']
+		],
+		[
+			'not an object',
+			60,
+			['parameters.squeegeeAngleDeg: must be a window { min, target, max } (got 60)']
+		]
 	];
 	it.each(cases)('%s', (_name, window, expected) => {
 		expect(validateWindow('squeegeeAngleDeg', window).map(formatFieldError)).toEqual(expected);
@@ -57,7 +81,9 @@ describe('validateRecipe', () => {
 	});
 
 	it('names every missing required parameter and blank code', () => {
-		const errors = validateRecipe({ product: ' ', line: 'L1', parameters: {} }).map(formatFieldError);
+		const errors = validateRecipe({ product: ' ', line: 'L1', parameters: {} }).map(
+			formatFieldError
+		);
 		expect(errors).toEqual([
 			'product: must be a non-blank code (got " ")',
 			'parameters.squeegeeAngleDeg: is required: give a window { min, target, max }',
@@ -70,10 +96,15 @@ describe('validateRecipe', () => {
 	it('refuses unknown keys and categories; accepts { value } for categoricals', () => {
 		const errors = validateRecipe({
 			...recipe,
-			parameters: { ...recipe.parameters, squeegeeColour: 'red', bladeType: { value: 'Metal' }, printStroke: 'sideways' }
+			parameters: {
+				...recipe.parameters,
+				squeegeeColour: 'red',
+				bladeType: { value: 'Metal' },
+				printStroke: 'sideways'
+			}
 		}).map(formatFieldError);
 		expect(errors).toEqual([
-			"parameters.printStroke: must be one of front-to-back, back-to-front, alternating (got \"sideways\")",
+			'parameters.printStroke: must be one of front-to-back, back-to-front, alternating (got "sideways")',
 			'parameters.squeegeeColour: is not a known print parameter'
 		]);
 	});
@@ -95,18 +126,34 @@ describe('checkRunAgainstRecipe: numeric windows, edges inside', () => {
 		[90, true]
 	];
 	it.each(cases)('angle %s° → deviation %s', (angle, deviates) => {
-		const { deviations, errors } = checkRunAgainstRecipe({ ...onTarget, squeegeeAngleDeg: angle }, recipe);
+		const { deviations, errors } = checkRunAgainstRecipe(
+			{ ...onTarget, squeegeeAngleDeg: angle },
+			recipe
+		);
 		expect(errors).toEqual([]);
 		expect(deviations).toEqual(
 			deviates
-				? [{ kind: 'numeric', parameter: 'squeegeeAngleDeg', value: angle, min: 45, max: 60, target: 60, requiresReason: true }]
+				? [
+						{
+							kind: 'numeric',
+							parameter: 'squeegeeAngleDeg',
+							value: angle,
+							min: 45,
+							max: 60,
+							target: 60,
+							requiresReason: true
+						}
+					]
 				: []
 		);
 	});
 
 	it('keeps a value typed as the edge on the edge despite binary rounding', () => {
 		// 0.1 + 0.2 = 0.30000000000000004 in float64; a window edge at 0.3 must still hold it.
-		const r: Recipe = { ...recipe, parameters: { ...recipe.parameters, printGapMm: { min: 0, target: 0, max: 0.3 } } };
+		const r: Recipe = {
+			...recipe,
+			parameters: { ...recipe.parameters, printGapMm: { min: 0, target: 0, max: 0.3 } }
+		};
 		const { deviations } = checkRunAgainstRecipe({ ...onTarget, printGapMm: 0.1 + 0.2 }, r);
 		expect(deviations).toEqual([]);
 	});
@@ -114,21 +161,35 @@ describe('checkRunAgainstRecipe: numeric windows, edges inside', () => {
 
 describe('checkRunAgainstRecipe: categorical and errors', () => {
 	it('reports a stroke differing from the recipe with expected', () => {
-		const { deviations } = checkRunAgainstRecipe({ ...onTarget, printStroke: 'Front-to-Back' }, recipe);
+		const { deviations } = checkRunAgainstRecipe(
+			{ ...onTarget, printStroke: 'Front-to-Back' },
+			recipe
+		);
 		expect(deviations).toEqual([
-			{ kind: 'categorical', parameter: 'printStroke', value: 'front-to-back', expected: 'alternating', requiresReason: true }
+			{
+				kind: 'categorical',
+				parameter: 'printStroke',
+				value: 'front-to-back',
+				expected: 'alternating',
+				requiresReason: true
+			}
 		]);
 	});
 
 	it('treats wipe modes as sets (dry-vacuum-wet = wet-vacuum-dry)', () => {
-		expect(checkRunAgainstRecipe({ ...onTarget, wipeMode: 'dry-vacuum-wet' }, recipe).deviations).toEqual([]);
-		expect(checkRunAgainstRecipe({ ...onTarget, wipeMode: 'dry' }, recipe).deviations).toMatchObject([
-			{ parameter: 'wipeMode', value: 'dry', expected: 'wet-vacuum-dry' }
-		]);
+		expect(
+			checkRunAgainstRecipe({ ...onTarget, wipeMode: 'dry-vacuum-wet' }, recipe).deviations
+		).toEqual([]);
+		expect(
+			checkRunAgainstRecipe({ ...onTarget, wipeMode: 'dry' }, recipe).deviations
+		).toMatchObject([{ parameter: 'wipeMode', value: 'dry', expected: 'wet-vacuum-dry' }]);
 	});
 
 	it('returns physical-range errors, not deviations, for impossible values', () => {
-		const result = checkRunAgainstRecipe({ ...onTarget, squeegeeSpeedMmS: -40, ambientTempC: 80 }, recipe);
+		const result = checkRunAgainstRecipe(
+			{ ...onTarget, squeegeeSpeedMmS: -40, ambientTempC: 80 },
+			recipe
+		);
 		expect(result.deviations).toEqual([]);
 		expect(result.errors.map(formatFieldError)).toEqual([
 			'parameters.squeegeeSpeedMmS: must be > 0 mm/s (got -40)',
@@ -152,7 +213,10 @@ describe('checkRunAgainstRecipe: categorical and errors', () => {
 			[27, 65, 2]
 		];
 		for (const [t, rh, n] of cases) {
-			const { deviations } = checkRunAgainstRecipe({ ...onTarget, ambientTempC: t, relativeHumidityPct: rh }, recipe);
+			const { deviations } = checkRunAgainstRecipe(
+				{ ...onTarget, ambientTempC: t, relativeHumidityPct: rh },
+				recipe
+			);
 			expect(deviations, `${t} °C ${rh} %`).toHaveLength(n);
 			expect(deviations.every((d) => !d.requiresReason)).toBe(true);
 		}
@@ -165,9 +229,31 @@ describe('checkRunAgainstRecipe: categorical and errors', () => {
 });
 
 describe('missingDeviationReasons', () => {
-	const angle: Deviation = { kind: 'numeric', parameter: 'squeegeeAngleDeg', value: 65, min: 45, max: 60, target: 60, requiresReason: true };
-	const stroke: Deviation = { kind: 'categorical', parameter: 'printStroke', value: 'front-to-back', expected: 'alternating', requiresReason: true };
-	const humidity: Deviation = { kind: 'numeric', parameter: 'relativeHumidityPct', value: 70, min: 30, max: 60, target: 45, requiresReason: false };
+	const angle: Deviation = {
+		kind: 'numeric',
+		parameter: 'squeegeeAngleDeg',
+		value: 65,
+		min: 45,
+		max: 60,
+		target: 60,
+		requiresReason: true
+	};
+	const stroke: Deviation = {
+		kind: 'categorical',
+		parameter: 'printStroke',
+		value: 'front-to-back',
+		expected: 'alternating',
+		requiresReason: true
+	};
+	const humidity: Deviation = {
+		kind: 'numeric',
+		parameter: 'relativeHumidityPct',
+		value: 70,
+		min: 30,
+		max: 60,
+		target: 45,
+		requiresReason: false
+	};
 	const cases: [string, Deviation[], Record<string, string> | undefined, string[]][] = [
 		['no deviations', [], undefined, []],
 		['no reasons object', [angle], undefined, ['squeegeeAngleDeg']],
@@ -185,7 +271,9 @@ describe('missingDeviationReasons', () => {
 			'deviationReasons.squeegeeAngleDeg: a reason is required: Squeegee angle 65° is outside the recipe window 45–60°',
 			"deviationReasons.printStroke: a reason is required: Print stroke 'front-to-back' differs from the recipe ('alternating')"
 		]);
-		expect(describeDeviation(humidity)).toBe('Relative humidity 70% is outside the recipe window 30–60%');
+		expect(describeDeviation(humidity)).toBe(
+			'Relative humidity 70% is outside the recipe window 30–60%'
+		);
 	});
 });
 
@@ -197,6 +285,9 @@ describe('validateRunParameters and normaliseCategorical', () => {
 		]);
 	});
 	it('normalises case and the { value } form', () => {
-		expect(normaliseCategorical('bladeType', { value: ' Polyurethane ' })).toEqual({ ok: true, value: 'polyurethane' });
+		expect(normaliseCategorical('bladeType', { value: ' Polyurethane ' })).toEqual({
+			ok: true,
+			value: 'polyurethane'
+		});
 	});
 });

@@ -7,12 +7,36 @@ describe('validateRunTimes', () => {
 		['open run', { startedAt: '2026-03-02T08:00:00Z' }, []],
 		['open run, null end', { startedAt: '2026-03-02T08:00:00Z', endedAt: null }, []],
 		['end after start', { startedAt: '2026-03-02T08:00:00Z', endedAt: '2026-03-02T09:30:00Z' }, []],
-		['end equal to start', { startedAt: '2026-03-02T08:00:00Z', endedAt: '2026-03-02T08:00:00Z' }, []],
-		['end 1 ms before start', { startedAt: '2026-03-02T08:00:00Z', endedAt: '2026-03-02T07:59:59.999Z' }, ['endedAt: must not be before startedAt (2026-03-02T08:00:00.000Z)']],
-		['same instant, other zones', { startedAt: '2026-03-02T09:00:00+01:00', endedAt: '2026-03-02T08:00:00Z' }, []],
-		['end before start across zones', { startedAt: '2026-03-02T09:00:00+01:00', endedAt: '2026-03-02T07:30:00Z' }, ['endedAt: must not be before startedAt (2026-03-02T08:00:00.000Z)']],
-		['unreadable start', { startedAt: 'this morning' }, ['startedAt: must be an ISO 8601 date or date-time with a time zone (got "this morning")']],
-		['NaN start', { startedAt: Number.NaN }, ['startedAt: must be an ISO 8601 date or date-time with a time zone (got NaN)']]
+		[
+			'end equal to start',
+			{ startedAt: '2026-03-02T08:00:00Z', endedAt: '2026-03-02T08:00:00Z' },
+			[]
+		],
+		[
+			'end 1 ms before start',
+			{ startedAt: '2026-03-02T08:00:00Z', endedAt: '2026-03-02T07:59:59.999Z' },
+			['endedAt: must not be before startedAt (2026-03-02T08:00:00.000Z)']
+		],
+		[
+			'same instant, other zones',
+			{ startedAt: '2026-03-02T09:00:00+01:00', endedAt: '2026-03-02T08:00:00Z' },
+			[]
+		],
+		[
+			'end before start across zones',
+			{ startedAt: '2026-03-02T09:00:00+01:00', endedAt: '2026-03-02T07:30:00Z' },
+			['endedAt: must not be before startedAt (2026-03-02T08:00:00.000Z)']
+		],
+		[
+			'unreadable start',
+			{ startedAt: 'this morning' },
+			['startedAt: must be an ISO 8601 date or date-time with a time zone (got "this morning")']
+		],
+		[
+			'NaN start',
+			{ startedAt: Number.NaN },
+			['startedAt: must be an ISO 8601 date or date-time with a time zone (got NaN)']
+		]
 	];
 	it.each(cases)('%s', (_name, run, expected) => {
 		expect(validateRunTimes(run).map(formatFieldError)).toEqual(expected);
@@ -21,7 +45,13 @@ describe('validateRunTimes', () => {
 
 describe('findOverlappingOpenRun', () => {
 	const runs = Object.freeze([
-		{ id: 1, line: 'L1', product: 'BRD-100', startedAt: '2026-03-02T06:00:00Z', endedAt: '2026-03-02T07:00:00Z' },
+		{
+			id: 1,
+			line: 'L1',
+			product: 'BRD-100',
+			startedAt: '2026-03-02T06:00:00Z',
+			endedAt: '2026-03-02T07:00:00Z'
+		},
 		{ id: 2, line: 'L1', product: 'BRD-200', startedAt: '2026-03-02T07:10:00Z', endedAt: null },
 		{ id: 3, line: 'L2', startedAt: '2026-03-02T07:20:00Z' }
 	]);

@@ -19,8 +19,23 @@ describe('checkTensionReadings', () => {
 		['a stricter setting', [38, 36, 37], 37, [], [1]],
 		['n = 1', [36], 35, [], []],
 		['empty', [], 35, ['readings: must list at least one reading in N/cm'], []],
-		['NaN and negative', [Number.NaN, -3, 40], 35, ['readings[0]: must be a tension in N/cm, > 0 and ≤ 100 (got NaN)', 'readings[1]: must be a tension in N/cm, > 0 and ≤ 100 (got -3)'], []],
-		['N/m typed as N/cm', [3800], 35, ['readings[0]: must be a tension in N/cm, > 0 and ≤ 100 (got 3800)'], []]
+		[
+			'NaN and negative',
+			[Number.NaN, -3, 40],
+			35,
+			[
+				'readings[0]: must be a tension in N/cm, > 0 and ≤ 100 (got NaN)',
+				'readings[1]: must be a tension in N/cm, > 0 and ≤ 100 (got -3)'
+			],
+			[]
+		],
+		[
+			'N/m typed as N/cm',
+			[3800],
+			35,
+			['readings[0]: must be a tension in N/cm, > 0 and ≤ 100 (got 3800)'],
+			[]
+		]
 	];
 	it.each(cases)('%s', (_name, readings, min, errors, lowIndexes) => {
 		const result = checkTensionReadings(readings, { minTensionNPerCm: min });
@@ -30,8 +45,8 @@ describe('checkTensionReadings', () => {
 	});
 
 	it('refuses a bad minimum setting', () => {
-		expect(checkTensionReadings([40], { minTensionNPerCm: 0 }).errors.map(formatFieldError)).toEqual([
-			'minTensionNPerCm: must be > 0 and ≤ 100 N/cm (got 0)'
-		]);
+		expect(
+			checkTensionReadings([40], { minTensionNPerCm: 0 }).errors.map(formatFieldError)
+		).toEqual(['minTensionNPerCm: must be > 0 and ≤ 100 N/cm (got 0)']);
 	});
 });

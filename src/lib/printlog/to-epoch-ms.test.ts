@@ -16,12 +16,18 @@ describe('toEpochMs', () => {
 	it.each(valid)('%j', (value, expected) => expect(toEpochMs(value, 'at')).toBe(expected));
 
 	const invalid: [unknown, string][] = [
-		['2026-03-01T08:00:00', 'at: must be an ISO 8601 date or date-time with a time zone (got "2026-03-01T08:00:00")'],
+		[
+			'2026-03-01T08:00:00',
+			'at: must be an ISO 8601 date or date-time with a time zone (got "2026-03-01T08:00:00")'
+		],
 		['2026-02-29', 'at: must be an ISO 8601 date or date-time with a time zone (got "2026-02-29")'],
 		['01/03/2026', 'at: must be an ISO 8601 date or date-time with a time zone (got "01/03/2026")'],
 		['', 'at: must be an ISO 8601 date or date-time with a time zone (got "")'],
 		[Number.NaN, 'at: must be an ISO 8601 date or date-time with a time zone (got NaN)'],
-		[new Date(Number.NaN), 'at: must be an ISO 8601 date or date-time with a time zone (got Invalid Date)'],
+		[
+			new Date(Number.NaN),
+			'at: must be an ISO 8601 date or date-time with a time zone (got Invalid Date)'
+		],
 		[null, 'at: must be an ISO 8601 date or date-time with a time zone (got missing)']
 	];
 	it.each(invalid)('%j is refused', (value, message) => {

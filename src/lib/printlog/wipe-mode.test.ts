@@ -44,6 +44,7 @@ describe('wipeModeString and allWipeModes', () => {
 		const modes = allWipeModes();
 		expect(modes).toHaveLength(7);
 		expect(new Set(modes).size).toBe(7);
-		for (const mode of modes) expect(parseWipeMode(mode)).toMatchObject({ ok: true, canonical: mode });
+		for (const mode of modes)
+			expect(parseWipeMode(mode)).toMatchObject({ ok: true, canonical: mode });
 	});
 });

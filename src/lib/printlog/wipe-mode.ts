@@ -17,8 +17,7 @@ export type WipeStep = (typeof WIPE_STEPS)[number];
 
 /** Result of parsing a wipe mode: the canonical steps and string, or an error. */
 export type WipeModeParse =
-	| { ok: true; steps: WipeStep[]; canonical: string }
-	| { ok: false; error: FieldError };
+	{ ok: true; steps: WipeStep[]; canonical: string } | { ok: false; error: FieldError };
 
 /**
  * Parse a wipe mode typed or stored in any order and separator ('dry+wet', 'Vacuum, wet',

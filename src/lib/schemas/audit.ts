@@ -21,7 +21,9 @@ export const auditQuerySchema = z
 			.optional(),
 		kind: z
 			.string()
-			.regex(/^[a-z][a-z0-9_-]{0,39}$/, { error: 'kind must be a record kind such as "user" or "stencil"' })
+			.regex(/^[a-z][a-z0-9_-]{0,39}$/, {
+				error: 'kind must be a record kind such as "user" or "stencil"'
+			})
 			.optional(),
 		from: when('from').optional(),
 		to: when('to').optional(),
@@ -46,7 +48,8 @@ export type AuditQuery = z.infer<typeof auditQuerySchema>;
 
 /** `from` starts its day, `to` ends its day (a bare date is the whole UTC day). */
 export function boundsOf(value: string, side: 'from' | 'to'): number {
-	if (DAY.test(value)) return Date.parse(`${value}T00:00:00Z`) + (side === 'to' ? 86_400_000 - 1 : 0);
+	if (DAY.test(value))
+		return Date.parse(`${value}T00:00:00Z`) + (side === 'to' ? 86_400_000 - 1 : 0);
 	return Date.parse(value);
 }
 

@@ -63,7 +63,10 @@ describe('mappingProfileSchema', () => {
 			{ serialFromFileName: { pattern: '(' + 'x'.repeat(200) + ')' } },
 			'serialFromFileName.pattern: serial pattern is longer than 200 characters'
 		],
-		[{ serialFromFileName: { pattern: '' } }, 'serialFromFileName.pattern: serial pattern is empty'],
+		[
+			{ serialFromFileName: { pattern: '' } },
+			'serialFromFileName.pattern: serial pattern is empty'
+		],
 		[
 			{ resultWords: { pass: ['OK'], warn: ['ok'], fail: ['NG'] } },
 			'resultWords.warn: result word "ok" is also listed under pass'

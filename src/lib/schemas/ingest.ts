@@ -44,12 +44,9 @@ export const mappingProfileSchema: z.ZodType<MappingProfile> = z
 					ctx.addIssue({ code: 'custom', message: (e as Error).message });
 				}
 			}),
-		timeZone: z
-			.string()
-			.trim()
-			.refine(isValidTimeZone, {
-				error: 'unknown time zone (use an IANA name like Europe/Berlin)'
-			}),
+		timeZone: z.string().trim().refine(isValidTimeZone, {
+			error: 'unknown time zone (use an IANA name like Europe/Berlin)'
+		}),
 		resultWords: z.object({ pass: words.min(1), warn: words, fail: words.min(1) }),
 		serialFromFileName: z
 			.object({

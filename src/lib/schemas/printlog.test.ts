@@ -9,7 +9,10 @@ import {
 import { formatFieldError } from '../printlog/field-error';
 
 /** Parse and return the errors in the print log's message format ([] when valid). */
-function errorsOf(schema: { safeParse: (v: unknown) => { success: boolean; error?: unknown } }, value: unknown): string[] {
+function errorsOf(
+	schema: { safeParse: (v: unknown) => { success: boolean; error?: unknown } },
+	value: unknown
+): string[] {
 	const result = schema.safeParse(value);
 	return result.success ? [] : fieldErrorsFromZod(result.error as never).map(formatFieldError);
 }
@@ -37,20 +40,52 @@ describe('recipeSchema', () => {
 	});
 
 	const cases: [string, Record<string, unknown>, string[]][] = [
-		['max below target', { squeegeeAngleDeg: window(45, 60, 55) }, ['parameters.squeegeeAngleDeg.max: must be ≥ target (60)']],
-		['angle above 90°', { squeegeeAngleDeg: window(45, 60, 95) }, ['parameters.squeegeeAngleDeg.max: must be ≤ 90° (got 95)']],
-		['missing required', { squeegeeSpeedMmS: undefined }, ['parameters.squeegeeSpeedMmS: is required: give a window { min, target, max }']],
-		['unknown stroke', { printStroke: 'sideways' }, ['parameters.printStroke: must be one of front-to-back, back-to-front, alternating (got "sideways")']],
-		['unknown wipe step', { wipeMode: 'wet-steam' }, ["parameters.wipeMode: unknown wipe step 'steam' in \"wet-steam\": use wet, vacuum, dry, e.g. 'wet-vacuum-dry'"]]
+		[
+			'max below target',
+			{ squeegeeAngleDeg: window(45, 60, 55) },
+			['parameters.squeegeeAngleDeg.max: must be ≥ target (60)']
+		],
+		[
+			'angle above 90°',
+			{ squeegeeAngleDeg: window(45, 60, 95) },
+			['parameters.squeegeeAngleDeg.max: must be ≤ 90° (got 95)']
+		],
+		[
+			'missing required',
+			{ squeegeeSpeedMmS: undefined },
+			['parameters.squeegeeSpeedMmS: is required: give a window { min, target, max }']
+		],
+		[
+			'unknown stroke',
+			{ printStroke: 'sideways' },
+			[
+				'parameters.printStroke: must be one of front-to-back, back-to-front, alternating (got "sideways")'
+			]
+		],
+		[
+			'unknown wipe step',
+			{ wipeMode: 'wet-steam' },
+			[
+				"parameters.wipeMode: unknown wipe step 'steam' in \"wet-steam\": use wet, vacuum, dry, e.g. 'wet-vacuum-dry'"
+			]
+		]
 	];
 	it.each(cases)('%s', (_name, change, expected) => {
-		expect(errorsOf(recipeSchema, { ...recipe, parameters: { ...recipe.parameters, ...change } })).toEqual(expected);
+		expect(
+			errorsOf(recipeSchema, { ...recipe, parameters: { ...recipe.parameters, ...change } })
+		).toEqual(expected);
 	});
 
 	it('refuses unknown parameters and blank codes', () => {
-		const errors = errorsOf(recipeSchema, { ...recipe, line: '  ', parameters: { ...recipe.parameters, squeegeeColour: 'red' } });
+		const errors = errorsOf(recipeSchema, {
+			...recipe,
+			line: '  ',
+			parameters: { ...recipe.parameters, squeegeeColour: 'red' }
+		});
 		expect(errors).toContain('line: must not be blank');
-		expect(errors.some((e) => e.startsWith('parameters: ') && e.includes('squeegeeColour'))).toBe(true);
+		expect(errors.some((e) => e.startsWith('parameters: ') && e.includes('squeegeeColour'))).toBe(
+			true
+		);
 	});
 });
 
@@ -59,7 +94,13 @@ const run = {
 	product: 'BRD-100',
 	stencil: 'ST-0007',
 	pasteLot: 'PL-2026-0042',
-	parameters: { squeegeeAngleDeg: 60, squeegeeSpeedMmS: 40, squeegeePressureKg: 7.5, separationSpeedMmS: 1, printStroke: 'alternating' },
+	parameters: {
+		squeegeeAngleDeg: 60,
+		squeegeeSpeedMmS: 40,
+		squeegeePressureKg: 7.5,
+		separationSpeedMmS: 1,
+		printStroke: 'alternating'
+	},
 	deviationReasons: { squeegeeAngleDeg: 'new blade holder' },
 	ambientTempC: 23.5,
 	relativeHumidityPct: 45,
@@ -74,14 +115,28 @@ describe('printRunSchema', () => {
 	});
 	it('parses the minimal run', () => {
 		const { line, product, stencil, pasteLot } = run;
-		expect(errorsOf(printRunSchema, { line, product, stencil, pasteLot, parameters: {} })).toEqual([]);
+		expect(errorsOf(printRunSchema, { line, product, stencil, pasteLot, parameters: {} })).toEqual(
+			[]
+		);
 	});
 
 	const cases: [string, Record<string, unknown>, string[]][] = [
-		['negative speed', { parameters: { ...run.parameters, squeegeeSpeedMmS: -40 } }, ['parameters.squeegeeSpeedMmS: must be > 0 mm/s (got -40)']],
-		['humidity over 100 %', { relativeHumidityPct: 120 }, ['relativeHumidityPct: must be ≤ 100% (got 120)']],
+		[
+			'negative speed',
+			{ parameters: { ...run.parameters, squeegeeSpeedMmS: -40 } },
+			['parameters.squeegeeSpeedMmS: must be > 0 mm/s (got -40)']
+		],
+		[
+			'humidity over 100 %',
+			{ relativeHumidityPct: 120 },
+			['relativeHumidityPct: must be ≤ 100% (got 120)']
+		],
 		['fractional boards', { boardsPrinted: 1.5 }, ['boardsPrinted: must be a whole number']],
-		['start without zone', { startedAt: '2026-03-02T08:00:00' }, ['startedAt: must be an ISO 8601 date-time with a time zone, e.g. 2026-03-02T08:00:00Z']],
+		[
+			'start without zone',
+			{ startedAt: '2026-03-02T08:00:00' },
+			['startedAt: must be an ISO 8601 date-time with a time zone, e.g. 2026-03-02T08:00:00Z']
+		],
 		['blank stencil', { stencil: '' }, ['stencil: must not be blank']]
 	];
 	it.each(cases)('%s', (_name, change, expected) => {
@@ -106,18 +161,46 @@ describe('pasteLotSchema', () => {
 	it('parses a minimal and a full lot', () => {
 		expect(errorsOf(pasteLotSchema, lot)).toEqual([]);
 		expect(
-			errorsOf(pasteLotSchema, { ...lot, fluxClass: 'rol0', containerGrams: 500, receivedOn: '2026-01-15', warmUpMinutes: 120, maxOnStencilMinutes: 360, maxOutOfColdMinutes: 2880 })
+			errorsOf(pasteLotSchema, {
+				...lot,
+				fluxClass: 'rol0',
+				containerGrams: 500,
+				receivedOn: '2026-01-15',
+				warmUpMinutes: 120,
+				maxOnStencilMinutes: 360,
+				maxOutOfColdMinutes: 2880
+			})
 		).toEqual([]);
 		expect(pasteLotSchema.parse({ ...lot, fluxClass: 'rol0' }).fluxClass).toBe('ROL0');
 	});
 
 	const cases: [string, Record<string, unknown>, string[]][] = [
 		['blank lot number', { lotNumber: ' ' }, ['lotNumber: must not be blank (got "")']],
-		['powder type 9', { powderType: 9 }, ['powderType: must be a J-STD-005 type, a whole number 1–8 (got 9)']],
-		['flux class', { fluxClass: 'XYZ' }, ['fluxClass: must be a J-STD-004 class: RO/RE/OR/IN + L/M/H + 0/1, e.g. ROL0 (got "XYZ")']],
-		['bad expiry', { expiresOn: '30/06/2026' }, ['expiresOn: must be an ISO date such as 2026-06-30 (got "30/06/2026")']],
-		['warm-up 0', { warmUpMinutes: 0 }, ['warmUpMinutes: must be a whole number of minutes from 1 to 2880 (got 0)']],
-		['missing expiry', { expiresOn: undefined }, ['expiresOn: Invalid input: expected string, received undefined']]
+		[
+			'powder type 9',
+			{ powderType: 9 },
+			['powderType: must be a J-STD-005 type, a whole number 1–8 (got 9)']
+		],
+		[
+			'flux class',
+			{ fluxClass: 'XYZ' },
+			['fluxClass: must be a J-STD-004 class: RO/RE/OR/IN + L/M/H + 0/1, e.g. ROL0 (got "XYZ")']
+		],
+		[
+			'bad expiry',
+			{ expiresOn: '30/06/2026' },
+			['expiresOn: must be an ISO date such as 2026-06-30 (got "30/06/2026")']
+		],
+		[
+			'warm-up 0',
+			{ warmUpMinutes: 0 },
+			['warmUpMinutes: must be a whole number of minutes from 1 to 2880 (got 0)']
+		],
+		[
+			'missing expiry',
+			{ expiresOn: undefined },
+			['expiresOn: Invalid input: expected string, received undefined']
+		]
 	];
 	it.each(cases)('%s', (_name, change, expected) => {
 		expect(errorsOf(pasteLotSchema, { ...lot, ...change })).toEqual(expected);
@@ -128,8 +211,14 @@ describe('pasteEventSchema', () => {
 	const cases: [unknown, string[]][] = [
 		[{ event: 'opened' }, []],
 		[{ event: 'out-of-cold-storage', at: '2026-03-02T06:00:00Z', note: 'fridge 2' }, []],
-		[{ event: 'thawed' }, ['event: must be one of out-of-cold-storage, opened, on-stencil, returned, discarded']],
-		[{ event: 'opened', at: 'now' }, ['at: must be an ISO 8601 date-time with a time zone, e.g. 2026-03-02T08:00:00Z']],
+		[
+			{ event: 'thawed' },
+			['event: must be one of out-of-cold-storage, opened, on-stencil, returned, discarded']
+		],
+		[
+			{ event: 'opened', at: 'now' },
+			['at: must be an ISO 8601 date-time with a time zone, e.g. 2026-03-02T08:00:00Z']
+		],
 		[{}, ['event: must be one of out-of-cold-storage, opened, on-stencil, returned, discarded']]
 	];
 	it.each(cases)('%j', (value, expected) => {

@@ -36,19 +36,22 @@ export const spcRuleSchema = z.enum(RULE_IDS, {
  * with the element path, e.g. `subgroups[3][1]`).
  * @example spcAnalyzeRequestSchema.safeParse({ chart: 'i-mr', values: [1, 2, 3] })
  */
-export const spcAnalyzeRequestSchema = z.object({
-	chart: spcChartSchema,
-	subgroups: z
-		.array(z.array(finiteNumber, { error: 'expected an array of numbers' }), {
-			error: 'expected an array of subgroups (arrays of numbers)'
-		})
-		.optional(),
-	values: z.array(finiteNumber, { error: 'expected an array of numbers' }).optional(),
-	lsl: finiteNumber.nullish(),
-	usl: finiteNumber.nullish(),
-	target: finiteNumber.nullish(),
-	rules: z.array(spcRuleSchema, { error: 'expected an array of rule ids' }).optional()
-}, { error: 'expected a JSON object with "chart" and "subgroups" or "values"' });
+export const spcAnalyzeRequestSchema = z.object(
+	{
+		chart: spcChartSchema,
+		subgroups: z
+			.array(z.array(finiteNumber, { error: 'expected an array of numbers' }), {
+				error: 'expected an array of subgroups (arrays of numbers)'
+			})
+			.optional(),
+		values: z.array(finiteNumber, { error: 'expected an array of numbers' }).optional(),
+		lsl: finiteNumber.nullish(),
+		usl: finiteNumber.nullish(),
+		target: finiteNumber.nullish(),
+		rules: z.array(spcRuleSchema, { error: 'expected an array of rule ids' }).optional()
+	},
+	{ error: 'expected a JSON object with "chart" and "subgroups" or "values"' }
+);
 
 /** Parsed request of `POST /api/spc/analyze`. */
 export type SpcAnalyzeRequest = z.infer<typeof spcAnalyzeRequestSchema>;

@@ -88,5 +88,8 @@ const ratio = z
 export const thresholdsFormSchema = z.object(
 	Object.fromEntries(
 		STENCIL_TECHNOLOGIES.map((t) => [t, z.object({ minAreaRatio: ratio, minAspectRatio: ratio })])
-	) as Record<StencilTechnology, z.ZodObject<{ minAreaRatio: typeof ratio; minAspectRatio: typeof ratio }>>
+	) as Record<
+		StencilTechnology,
+		z.ZodObject<{ minAreaRatio: typeof ratio; minAspectRatio: typeof ratio }>
+	>
 );

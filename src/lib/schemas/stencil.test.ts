@@ -9,26 +9,115 @@ import {
 
 describe('apertureSchema', () => {
 	it('fills position and rotation defaults', () => {
-		expect(apertureSchema.parse({ refdes: 'U1', pad: '1', shape: 'circle', diameterUm: 300 })).toEqual({
-			refdes: 'U1', pad: '1', shape: 'circle', diameterUm: 300, xUm: 0, yUm: 0, rotationDeg: 0
+		expect(
+			apertureSchema.parse({ refdes: 'U1', pad: '1', shape: 'circle', diameterUm: 300 })
+		).toEqual({
+			refdes: 'U1',
+			pad: '1',
+			shape: 'circle',
+			diameterUm: 300,
+			xUm: 0,
+			yUm: 0,
+			rotationDeg: 0
 		});
 	});
 	it('accepts rectangle with a corner radius, rounded-rectangle and polygon', () => {
-		expect(apertureSchema.safeParse({ refdes: 'U1', pad: '1', shape: 'rectangle', lengthUm: 1000, widthUm: 300, cornerRadiusUm: 100 }).success).toBe(true);
-		expect(apertureSchema.safeParse({ refdes: 'U1', pad: '1', shape: 'rounded-rectangle', lengthUm: 1000, widthUm: 300, cornerRadiusUm: 150 }).success).toBe(true);
-		expect(apertureSchema.safeParse({ refdes: 'Q1', pad: '1', shape: 'polygon', verticesUm: [[0, 0], [100, 0], [0, 100]] }).success).toBe(true);
+		expect(
+			apertureSchema.safeParse({
+				refdes: 'U1',
+				pad: '1',
+				shape: 'rectangle',
+				lengthUm: 1000,
+				widthUm: 300,
+				cornerRadiusUm: 100
+			}).success
+		).toBe(true);
+		expect(
+			apertureSchema.safeParse({
+				refdes: 'U1',
+				pad: '1',
+				shape: 'rounded-rectangle',
+				lengthUm: 1000,
+				widthUm: 300,
+				cornerRadiusUm: 150
+			}).success
+		).toBe(true);
+		expect(
+			apertureSchema.safeParse({
+				refdes: 'Q1',
+				pad: '1',
+				shape: 'polygon',
+				verticesUm: [
+					[0, 0],
+					[100, 0],
+					[0, 100]
+				]
+			}).success
+		).toBe(true);
 	});
 });
 
 describe('aperturesPayloadSchema error paths name the index', () => {
 	const cases: { name: string; item: unknown; path: string; text: RegExp }[] = [
-		{ name: 'negative width', item: { refdes: 'U1', pad: '1', shape: 'rectangle', lengthUm: 1000, widthUm: -1 }, path: 'apertures[1].widthUm', text: /too small/i },
-		{ name: 'missing diameter', item: { refdes: 'U1', pad: '1', shape: 'circle' }, path: 'apertures[1].diameterUm', text: /expected number/ },
-		{ name: 'unknown shape', item: { refdes: 'U1', pad: '1', shape: 'triangle' }, path: 'apertures[1].shape', text: /Invalid/ },
-		{ name: 'radius over half width (geometric check)', item: { refdes: 'U1', pad: '1', shape: 'rectangle', lengthUm: 1000, widthUm: 200, cornerRadiusUm: 150 }, path: 'apertures[1].cornerRadiusUm', text: /exceeds half/ },
-		{ name: 'rounded-rectangle without radius', item: { refdes: 'U1', pad: '1', shape: 'rounded-rectangle', lengthUm: 1000, widthUm: 200 }, path: 'apertures[1].cornerRadiusUm', text: /needs a corner radius/ },
-		{ name: 'self-intersecting polygon', item: { refdes: 'Q1', pad: '1', shape: 'polygon', verticesUm: [[0, 0], [2, 2], [2, 0], [0, 2]] }, path: 'apertures[1].verticesUm', text: /intersects itself/ },
-		{ name: 'absurd size', item: { refdes: 'U1', pad: '1', shape: 'circle', diameterUm: 1e6 }, path: 'apertures[1].diameterUm', text: /too big/i }
+		{
+			name: 'negative width',
+			item: { refdes: 'U1', pad: '1', shape: 'rectangle', lengthUm: 1000, widthUm: -1 },
+			path: 'apertures[1].widthUm',
+			text: /too small/i
+		},
+		{
+			name: 'missing diameter',
+			item: { refdes: 'U1', pad: '1', shape: 'circle' },
+			path: 'apertures[1].diameterUm',
+			text: /expected number/
+		},
+		{
+			name: 'unknown shape',
+			item: { refdes: 'U1', pad: '1', shape: 'triangle' },
+			path: 'apertures[1].shape',
+			text: /Invalid/
+		},
+		{
+			name: 'radius over half width (geometric check)',
+			item: {
+				refdes: 'U1',
+				pad: '1',
+				shape: 'rectangle',
+				lengthUm: 1000,
+				widthUm: 200,
+				cornerRadiusUm: 150
+			},
+			path: 'apertures[1].cornerRadiusUm',
+			text: /exceeds half/
+		},
+		{
+			name: 'rounded-rectangle without radius',
+			item: { refdes: 'U1', pad: '1', shape: 'rounded-rectangle', lengthUm: 1000, widthUm: 200 },
+			path: 'apertures[1].cornerRadiusUm',
+			text: /needs a corner radius/
+		},
+		{
+			name: 'self-intersecting polygon',
+			item: {
+				refdes: 'Q1',
+				pad: '1',
+				shape: 'polygon',
+				verticesUm: [
+					[0, 0],
+					[2, 2],
+					[2, 0],
+					[0, 2]
+				]
+			},
+			path: 'apertures[1].verticesUm',
+			text: /intersects itself/
+		},
+		{
+			name: 'absurd size',
+			item: { refdes: 'U1', pad: '1', shape: 'circle', diameterUm: 1e6 },
+			path: 'apertures[1].diameterUm',
+			text: /too big/i
+		}
 	];
 	const ok = { refdes: 'U1', pad: '0', shape: 'circle', diameterUm: 300 };
 	for (const c of cases)
@@ -48,10 +137,20 @@ describe('aperturesPayloadSchema error paths name the index', () => {
 });
 
 describe('stencilCreateSchema', () => {
-	const base = { name: 'Controller board top', revision: 'B', thicknessUm: 120, technology: 'laser-stainless' };
+	const base = {
+		name: 'Controller board top',
+		revision: 'B',
+		thicknessUm: 120,
+		technology: 'laser-stainless'
+	};
 	it('accepts a minimal body and optional fields', () => {
 		expect(stencilCreateSchema.parse(base)).toEqual(base);
-		const full = { ...base, ratedLifePrints: 80000, notes: 'fictional example', stepRegions: [{ xMinUm: 0, yMinUm: 0, xMaxUm: 10, yMaxUm: 10, thicknessUm: 100 }] };
+		const full = {
+			...base,
+			ratedLifePrints: 80000,
+			notes: 'fictional example',
+			stepRegions: [{ xMinUm: 0, yMinUm: 0, xMaxUm: 10, yMaxUm: 10, thicknessUm: 100 }]
+		};
 		expect(stencilCreateSchema.parse(full)).toEqual(full);
 	});
 	const bad: [string, Record<string, unknown>, string][] = [
@@ -59,7 +158,11 @@ describe('stencilCreateSchema', () => {
 		['zero thickness', { thicknessUm: 0 }, 'thicknessUm'],
 		['unknown technology', { technology: 'etched' }, 'technology'],
 		['fractional rated life', { ratedLifePrints: 1.5 }, 'ratedLifePrints'],
-		['inverted step region', { stepRegions: [{ xMinUm: 5, yMinUm: 0, xMaxUm: 1, yMaxUm: 1, thicknessUm: 80 }] }, 'stepRegions[0].xMaxUm']
+		[
+			'inverted step region',
+			{ stepRegions: [{ xMinUm: 5, yMinUm: 0, xMaxUm: 1, yMaxUm: 1, thicknessUm: 80 }] },
+			'stepRegions[0].xMaxUm'
+		]
 	];
 	for (const [name, patch, path] of bad)
 		it(name, () => {

@@ -32,7 +32,11 @@ const rectangleSchema = z.object({
 	shape: z.enum(['rectangle', 'rounded-rectangle']),
 	lengthUm: size,
 	widthUm: size,
-	cornerRadiusUm: z.number().min(0).max(MAX_APERTURE_DIMENSION_UM / 2).optional()
+	cornerRadiusUm: z
+		.number()
+		.min(0)
+		.max(MAX_APERTURE_DIMENSION_UM / 2)
+		.optional()
 });
 
 const circleSchema = z.object({ ...common, shape: z.literal('circle'), diameterUm: size });
@@ -100,9 +104,9 @@ export const stencilCreateSchema = z.object({
 	name: z.string().trim().min(1).max(200),
 	revision: z.string().trim().min(1).max(50),
 	thicknessUm: z.number().min(1).max(1000),
-	technology: z.enum(STENCIL_TECHNOLOGIES as [string, ...string[]]).transform(
-		(t) => t as (typeof STENCIL_TECHNOLOGIES)[number]
-	),
+	technology: z
+		.enum(STENCIL_TECHNOLOGIES as [string, ...string[]])
+		.transform((t) => t as (typeof STENCIL_TECHNOLOGIES)[number]),
 	ratedLifePrints: z.number().int().positive().max(10_000_000).optional(),
 	notes: z.string().max(5000).optional(),
 	stepRegions: z.array(stepRegionSchema).max(100).optional()

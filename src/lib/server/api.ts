@@ -1,4 +1,10 @@
-import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
+import {
+	isHttpError,
+	isRedirect,
+	json,
+	type RequestEvent,
+	type RequestHandler
+} from '@sveltejs/kit';
 import { ZodError, type ZodType } from 'zod';
 import { hasRole, type Actor } from '$lib/access';
 import { apiPolicyFor } from './api-policy';
@@ -37,7 +43,10 @@ function wrap<A extends Actor | null>(handler: Handler<A>, needsActor: boolean):
 	return async (event) => {
 		const policy = apiPolicyFor(event.route.id, event.request.method);
 		if (policy === undefined) {
-			return json({ error: 'This route declares no access policy for that method.' }, { status: 405 });
+			return json(
+				{ error: 'This route declares no access policy for that method.' },
+				{ status: 405 }
+			);
 		}
 		const actor = event.locals.actor;
 		if (policy !== 'public' || needsActor) {

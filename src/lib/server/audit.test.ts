@@ -18,9 +18,23 @@ afterEach(() => close());
 const at = (iso: string) => new Date(iso);
 
 async function fill() {
-	const quality = await createUser(db, { email: 'q@fenmoor.example', name: 'Quinn', role: 'quality', password: 'long password 1' }, null);
-	const engineer = await createUser(db, { email: 'e@fenmoor.example', name: 'Ezra', role: 'engineer', password: 'long password 2' }, null);
-	const asUser = (u: typeof quality): Actor => ({ kind: 'user', id: u.id, email: u.email, name: u.name, role: u.role });
+	const quality = await createUser(
+		db,
+		{ email: 'q@fenmoor.example', name: 'Quinn', role: 'quality', password: 'long password 1' },
+		null
+	);
+	const engineer = await createUser(
+		db,
+		{ email: 'e@fenmoor.example', name: 'Ezra', role: 'engineer', password: 'long password 2' },
+		null
+	);
+	const asUser = (u: typeof quality): Actor => ({
+		kind: 'user',
+		id: u.id,
+		email: u.email,
+		name: u.name,
+		role: u.role
+	});
 	db.delete(auditLog).run();
 	const entries: [Actor | null, string, string, string][] = [
 		[asUser(engineer), 'stencil', '2026-03-01T08:00:00Z', '=HYPERLINK("x")'],
@@ -29,8 +43,17 @@ async function fill() {
 		[null, 'print_run', '2026-03-03T00:00:00Z', 'D']
 	];
 	for (const [actor, entity, when, name] of entries) {
-		recordAudit(db, actor, { action: 'update', entity, entityId: 7, before: { name: 'old' }, after: { name } });
-		db.update(auditLog).set({ at: at(when) }).where(eqLast()).run();
+		recordAudit(db, actor, {
+			action: 'update',
+			entity,
+			entityId: 7,
+			before: { name: 'old' },
+			after: { name }
+		});
+		db.update(auditLog)
+			.set({ at: at(when) })
+			.where(eqLast())
+			.run();
 	}
 	return { quality, engineer };
 }
@@ -43,8 +66,19 @@ describe('audit trail', () => {
 		const { engineer } = await fill();
 		const all = listAudit(db, {});
 		expect(all.total).toBe(4);
-		expect(all.entries.map((e) => e.after)).toEqual([{ name: 'D' }, { name: 'C' }, { name: 'B' }, { name: '=HYPERLINK("x")' }]);
-		expect(all.entries[3]).toMatchObject({ actorName: 'Ezra', actor: `user:${engineer.id}`, kind: 'stencil', recordId: '7', before: { name: 'old' } });
+		expect(all.entries.map((e) => e.after)).toEqual([
+			{ name: 'D' },
+			{ name: 'C' },
+			{ name: 'B' },
+			{ name: '=HYPERLINK("x")' }
+		]);
+		expect(all.entries[3]).toMatchObject({
+			actorName: 'Ezra',
+			actor: `user:${engineer.id}`,
+			kind: 'stencil',
+			recordId: '7',
+			before: { name: 'old' }
+		});
 
 		expect(listAudit(db, { user: engineer.id }).total).toBe(2);
 		expect(listAudit(db, { kind: 'chart' }).entries.map((e) => e.actorName)).toEqual(['Quinn']);

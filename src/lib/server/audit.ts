@@ -20,7 +20,13 @@ export function actorLabel(actor: Actor | null): string {
 export function recordAudit(
 	db: Pick<Db, 'insert'>,
 	actor: Actor | null,
-	entry: { action: string; entity: string; entityId?: string | number | null; before?: AuditSnapshot; after?: AuditSnapshot }
+	entry: {
+		action: string;
+		entity: string;
+		entityId?: string | number | null;
+		before?: AuditSnapshot;
+		after?: AuditSnapshot;
+	}
 ): void {
 	db.insert(auditLog)
 		.values({
@@ -65,9 +71,14 @@ function whereOf(q: AuditQuery): SQL | undefined {
 	return parts.length ? and(...parts) : undefined;
 }
 
-function withNames(db: Db, rows: (typeof auditLog.$inferSelect & { userName: string | null })[]): AuditEntry[] {
+function withNames(
+	db: Db,
+	rows: (typeof auditLog.$inferSelect & { userName: string | null })[]
+): AuditEntry[] {
 	const tokenIds = [
-		...new Set(rows.filter((r) => r.actor.startsWith('token:')).map((r) => Number(r.actor.slice(6))))
+		...new Set(
+			rows.filter((r) => r.actor.startsWith('token:')).map((r) => Number(r.actor.slice(6)))
+		)
 	].filter(Number.isSafeInteger);
 	const tokenNames = new Map(
 		tokenIds.length
@@ -83,7 +94,9 @@ function withNames(db: Db, rows: (typeof auditLog.$inferSelect & { userName: str
 		id: r.id,
 		at: r.at,
 		actor: r.actor,
-		actorName: r.userName ?? (r.actor.startsWith('token:') ? (tokenNames.get(Number(r.actor.slice(6))) ?? null) : null),
+		actorName:
+			r.userName ??
+			(r.actor.startsWith('token:') ? (tokenNames.get(Number(r.actor.slice(6))) ?? null) : null),
 		userId: r.userId,
 		action: r.action,
 		kind: r.entity,
@@ -122,7 +135,13 @@ export function listAudit(db: Db, q: AuditQuery) {
 		.limit(pageSize)
 		.offset((page - 1) * pageSize)
 		.all();
-	return { entries: withNames(db, rows), page, pageSize, total, pages: Math.max(1, Math.ceil(total / pageSize)) };
+	return {
+		entries: withNames(db, rows),
+		page,
+		pageSize,
+		total,
+		pages: Math.max(1, Math.ceil(total / pageSize))
+	};
 }
 
 /** Kinds of record in the trail, and the people who acted, for the filter lists. */
@@ -133,11 +152,25 @@ export function auditFilterChoices(db: Db) {
 		.orderBy(auditLog.entity)
 		.all()
 		.map((r) => r.kind);
-	const people = db.select({ id: users.id, name: users.name }).from(users).orderBy(users.name).all();
+	const people = db
+		.select({ id: users.id, name: users.name })
+		.from(users)
+		.orderBy(users.name)
+		.all();
 	return { kinds, people };
 }
 
-export const AUDIT_CSV_HEADER = ['id', 'at', 'actor', 'actor_name', 'action', 'kind', 'record_id', 'before', 'after'];
+export const AUDIT_CSV_HEADER = [
+	'id',
+	'at',
+	'actor',
+	'actor_name',
+	'action',
+	'kind',
+	'record_id',
+	'before',
+	'after'
+];
 
 /** The filtered trail as CSV through the one writer (before/after as JSON text). */
 export function auditCsv(db: Db, q: AuditQuery): string {
@@ -145,6 +178,16 @@ export function auditCsv(db: Db, q: AuditQuery): string {
 	const json = (v: unknown) => (v === null || v === undefined ? null : JSON.stringify(v));
 	return writeCsv([
 		AUDIT_CSV_HEADER,
-		...rows.map((e): CsvCell[] => [e.id, e.at, e.actor, e.actorName, e.action, e.kind, e.recordId, json(e.before), json(e.after)])
+		...rows.map((e): CsvCell[] => [
+			e.id,
+			e.at,
+			e.actor,
+			e.actorName,
+			e.action,
+			e.kind,
+			e.recordId,
+			json(e.before),
+			json(e.after)
+		])
 	]);
 }

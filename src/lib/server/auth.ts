@@ -18,7 +18,10 @@ const auth = SvelteKitAuth(async () => ({
 	pages: { signIn: '/signin' },
 	providers: [
 		Credentials({
-			credentials: { email: { label: 'E-mail' }, password: { label: 'Password', type: 'password' } },
+			credentials: {
+				email: { label: 'E-mail' },
+				password: { label: 'Password', type: 'password' }
+			},
 			async authorize(credentials) {
 				const email = typeof credentials?.email === 'string' ? credentials.email : '';
 				const password = typeof credentials?.password === 'string' ? credentials.password : '';

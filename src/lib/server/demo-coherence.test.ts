@@ -13,7 +13,14 @@ afterAll(() => close());
 
 // Issue 13, finding 9: a serial found in SPI leads to its print run, stencil and paste lot.
 describe('demo: SPI boards and print runs tell one story', () => {
-	type Row = { serial: string; runId: number | null; runSerial: string | null; boards: number | null; stencil: string | null; lot: string | null };
+	type Row = {
+		serial: string;
+		runId: number | null;
+		runSerial: string | null;
+		boards: number | null;
+		stencil: string | null;
+		lot: string | null;
+	};
 	const rows = () =>
 		db.$client
 			.prepare(

@@ -10,9 +10,16 @@ describe('server environment defaults', () => {
 	});
 
 	it('keeps what the operator set', () => {
-		const env: NodeJS.ProcessEnv = { BODY_SIZE_LIMIT: '1M', ORIGIN: 'https://rollbead.fenmoor.example', PORT: '8080' };
+		const env: NodeJS.ProcessEnv = {
+			BODY_SIZE_LIMIT: '1M',
+			ORIGIN: 'https://rollbead.fenmoor.example',
+			PORT: '8080'
+		};
 		applyServerEnvDefaults(env);
-		expect(env).toMatchObject({ BODY_SIZE_LIMIT: '1M', ORIGIN: 'https://rollbead.fenmoor.example' });
+		expect(env).toMatchObject({
+			BODY_SIZE_LIMIT: '1M',
+			ORIGIN: 'https://rollbead.fenmoor.example'
+		});
 	});
 
 	it.each([

@@ -18,7 +18,12 @@ afterEach(() => {
 describe('mail', () => {
 	it('without SMTP_URL keeps the message in the outbox', async () => {
 		delete process.env.SMTP_URL;
-		await sendMail(db, { to: ['eng@fenmoor.example'], subject: 'Signal on SMT-1', text: 'Rule we-1', kind: 'signal' });
+		await sendMail(db, {
+			to: ['eng@fenmoor.example'],
+			subject: 'Signal on SMT-1',
+			text: 'Rule we-1',
+			kind: 'signal'
+		});
 		const [mail] = listOutbox(db);
 		expect(mail).toMatchObject({
 			toAddresses: 'eng@fenmoor.example',

@@ -25,10 +25,15 @@ beforeEach(() => {
 afterEach(() => close());
 
 const ORIGIN = 'https://rollbead.fenmoor.example';
-const linkIn = (text: string) => /\/signin\/reset\?token=([A-Za-z0-9_-]{43})/.exec(text)?.[1] ?? null;
+const linkIn = (text: string) =>
+	/\/signin\/reset\?token=([A-Za-z0-9_-]{43})/.exec(text)?.[1] ?? null;
 
 async function person() {
-	return createUser(db, { email: 'kit@fenmoor.example', name: 'Kit', role: 'viewer', password: 'old long password' }, null);
+	return createUser(
+		db,
+		{ email: 'kit@fenmoor.example', name: 'Kit', role: 'viewer', password: 'old long password' },
+		null
+	);
 }
 
 describe('password reset by mail', () => {
@@ -55,34 +60,52 @@ describe('password reset by mail', () => {
 		const t0 = Date.UTC(2026, 5, 1, 8);
 		await requestPasswordReset(db, 'kit@fenmoor.example', '10.0.0.1', ORIGIN, t0);
 		await requestPasswordReset(db, 'kit@fenmoor.example', '10.0.0.1', ORIGIN, t0 + 60_000);
-		const [first, second] = db.select().from(mailOutbox).all().map((m) => linkIn(m.textBody)!);
+		const [first, second] = db
+			.select()
+			.from(mailOutbox)
+			.all()
+			.map((m) => linkIn(m.textBody)!);
 		expect(resetLinkUsable(db, first, t0 + RESET_LINK_TTL_MS - 1)).toBe(true);
 		expect(resetLinkUsable(db, first, t0 + RESET_LINK_TTL_MS)).toBe(false);
-		await expect(resetPassword(db, first, 'new long password', t0 + RESET_LINK_TTL_MS + 1)).rejects.toThrow(
-			ResetLinkError
-		);
+		await expect(
+			resetPassword(db, first, 'new long password', t0 + RESET_LINK_TTL_MS + 1)
+		).rejects.toThrow(ResetLinkError);
 		await resetPassword(db, second, 'new long password', t0 + 120_000);
 		expect(resetLinkUsable(db, first, t0 + 180_000)).toBe(false);
 	});
 
 	it('sends nothing for unknown or deactivated addresses, and throttles per account and per client', async () => {
 		const user = await person();
-		expect(await requestPasswordReset(db, 'nobody@fenmoor.example', '10.0.0.1', ORIGIN)).toBe('unknown');
+		expect(await requestPasswordReset(db, 'nobody@fenmoor.example', '10.0.0.1', ORIGIN)).toBe(
+			'unknown'
+		);
 		for (let i = 0; i < RESET_MAX_PER_ACCOUNT; i++) {
-			expect(await requestPasswordReset(db, 'kit@fenmoor.example', '10.0.0.2', ORIGIN)).toBe('sent');
+			expect(await requestPasswordReset(db, 'kit@fenmoor.example', '10.0.0.2', ORIGIN)).toBe(
+				'sent'
+			);
 		}
-		expect(await requestPasswordReset(db, 'kit@fenmoor.example', '10.0.0.3', ORIGIN)).toBe('throttled');
+		expect(await requestPasswordReset(db, 'kit@fenmoor.example', '10.0.0.3', ORIGIN)).toBe(
+			'throttled'
+		);
 		expect(db.select().from(mailOutbox).all()).toHaveLength(RESET_MAX_PER_ACCOUNT);
 
 		for (let i = 0; i < RESET_MAX_PER_IP; i++) {
 			await requestPasswordReset(db, `x${i}@fenmoor.example`, '10.0.0.9', ORIGIN);
 		}
-		expect(await requestPasswordReset(db, 'anyone@fenmoor.example', '10.0.0.9', ORIGIN)).toBe('throttled');
+		expect(await requestPasswordReset(db, 'anyone@fenmoor.example', '10.0.0.9', ORIGIN)).toBe(
+			'throttled'
+		);
 
 		updateUser(db, user.id, { active: false }, null);
 		forgetResetThrottle();
-		expect(await requestPasswordReset(db, 'kit@fenmoor.example', '10.0.0.4', ORIGIN, Date.now() + 2 * 3_600_000)).toBe(
-			'unknown'
-		);
+		expect(
+			await requestPasswordReset(
+				db,
+				'kit@fenmoor.example',
+				'10.0.0.4',
+				ORIGIN,
+				Date.now() + 2 * 3_600_000
+			)
+		).toBe('unknown');
 	});
 });

@@ -58,7 +58,12 @@ export async function requestPasswordReset(
 		db
 			.select({ n: sql<number>`count(*)` })
 			.from(passwordResets)
-			.where(and(eq(passwordResets.userId, user.id), gt(passwordResets.createdAt, new Date(now - RESET_WINDOW_MS))))
+			.where(
+				and(
+					eq(passwordResets.userId, user.id),
+					gt(passwordResets.createdAt, new Date(now - RESET_WINDOW_MS))
+				)
+			)
 			.get()?.n ?? 0;
 	if (recent >= RESET_MAX_PER_ACCOUNT) return 'throttled';
 	const token = randomBytes(32).toString('base64url');
@@ -85,7 +90,9 @@ export async function requestPasswordReset(
 
 export class ResetLinkError extends Error {
 	constructor() {
-		super('This link is not valid any more: it was used, it expired (30 minutes) or it was never sent. Ask for a new one.');
+		super(
+			'This link is not valid any more: it was used, it expired (30 minutes) or it was never sent. Ask for a new one.'
+		);
 	}
 }
 
@@ -112,7 +119,12 @@ function liveReset(db: Pick<Db, 'select'>, token: string, now: number) {
  * Set a new password through a link: single use (the link and every other open link of the
  * user are spent), and every session of the user ends.
  */
-export async function resetPassword(db: Db, token: string, newPassword: string, now = Date.now()): Promise<void> {
+export async function resetPassword(
+	db: Db,
+	token: string,
+	newPassword: string,
+	now = Date.now()
+): Promise<void> {
 	const row = liveReset(db, token, now);
 	if (!row) throw new ResetLinkError();
 	// Spend the link before the slow hash, so two posts of one link cannot both succeed.

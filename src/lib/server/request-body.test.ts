@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { bodyLimitKind, boundRequestBody, BodyTooLargeError, readBoundedBody } from './request-body';
+import {
+	bodyLimitKind,
+	boundRequestBody,
+	BodyTooLargeError,
+	readBoundedBody
+} from './request-body';
 
 function streamOf(chunks: number[], onCancel?: () => void): ReadableStream<Uint8Array> {
 	let i = 0;

@@ -40,7 +40,9 @@ export function describeBytes(bytes: number): string {
 export class BodyTooLargeError extends Error {
 	readonly status = 413;
 	constructor(readonly limitBytes: number) {
-		super(`The request body is larger than the limit of ${describeBytes(limitBytes)} for this route.`);
+		super(
+			`The request body is larger than the limit of ${describeBytes(limitBytes)} for this route.`
+		);
 	}
 }
 
@@ -111,7 +113,9 @@ export async function boundRequestBody(
 	const limit = bodyLimitBytes(kind);
 	const tooLarge = () => {
 		const message = new BodyTooLargeError(limit).message;
-		return isApi ? json({ error: message }, { status: 413 }) : new Response(message, { status: 413 });
+		return isApi
+			? json({ error: message }, { status: 413 })
+			: new Response(message, { status: 413 });
 	};
 	const declared = request.headers.get('content-length');
 	if (declared !== null && Number(declared) > limit) return tooLarge();

@@ -24,7 +24,11 @@ describe('security headers', () => {
 		expect(api.get('cache-control')).toBe('no-store');
 
 		const download = new Headers({ 'content-disposition': 'attachment; filename="a.csv"' });
-		applySecurityHeaders(download, { path: '/stencils/1/apertures.csv', signedIn: false, origin: undefined });
+		applySecurityHeaders(download, {
+			path: '/stencils/1/apertures.csv',
+			signedIn: false,
+			origin: undefined
+		});
 		expect(download.get('cache-control')).toBe('no-store');
 	});
 

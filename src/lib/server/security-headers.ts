@@ -6,7 +6,8 @@ const isApi = (path: string) => path === '/api' || path.startsWith('/api/');
  * Strict defaults for answers without their own policy (JSON, CSV, plain-text refusals): they
  * load nothing and may not be framed. HTML pages get kit.csp's policy (svelte.config.js).
  */
-const FALLBACK_CSP = "default-src 'none'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'";
+const FALLBACK_CSP =
+	"default-src 'none'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'";
 
 /** HSTS only when Rollbead is reached over https (ORIGIN), never on a plain-http floor network. */
 export function hstsFor(origin: string | undefined): string | null {

@@ -13,7 +13,10 @@ beforeEach(() => ({ db, close } = openTestDatabase()));
 afterEach(() => close());
 
 const count = (table: typeof users | typeof lines | typeof products) =>
-	db.select({ n: sql<number>`count(*)` }).from(table).get()!.n;
+	db
+		.select({ n: sql<number>`count(*)` })
+		.from(table)
+		.get()!.n;
 
 describe('demo data', () => {
 	it('seeds an empty database once: the factory and one user per role who can sign in', async () => {

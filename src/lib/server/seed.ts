@@ -24,7 +24,11 @@ export const DEMO_PRODUCTS = [
 
 /** Seed only a database with no users at all; returns whether anything was added. */
 export async function seedDemoData(db: Db): Promise<boolean> {
-	const userCount = db.select({ n: sql<number>`count(*)` }).from(users).get()?.n ?? 0;
+	const userCount =
+		db
+			.select({ n: sql<number>`count(*)` })
+			.from(users)
+			.get()?.n ?? 0;
 	if (userCount > 0) return false;
 	const site = db
 		.insert(sites)
@@ -33,7 +37,10 @@ export async function seedDemoData(db: Db): Promise<boolean> {
 		.returning()
 		.get();
 	for (const line of DEMO_LINES) {
-		db.insert(lines).values({ ...line, siteId: site?.id ?? null }).onConflictDoNothing().run();
+		db.insert(lines)
+			.values({ ...line, siteId: site?.id ?? null })
+			.onConflictDoNothing()
+			.run();
 	}
 	for (const product of DEMO_PRODUCTS) {
 		db.insert(products).values(product).onConflictDoNothing().run();

@@ -48,8 +48,13 @@ export function sessionUserId(
 	now = Date.now(),
 	timeouts = sessionTimeouts()
 ): number | undefined {
-	if (typeof sessionId !== 'string' || sessionId.length === 0 || sessionId.length > 100) return undefined;
-	const row = db.select().from(sessions).where(eq(sessions.idHash, hashId(sessionId))).get();
+	if (typeof sessionId !== 'string' || sessionId.length === 0 || sessionId.length > 100)
+		return undefined;
+	const row = db
+		.select()
+		.from(sessions)
+		.where(eq(sessions.idHash, hashId(sessionId)))
+		.get();
 	if (!row) return undefined;
 	const idle = now - row.lastSeenAt.getTime() > timeouts.idleMs;
 	const tooOld = now - row.createdAt.getTime() > timeouts.absoluteMs;
@@ -58,7 +63,10 @@ export function sessionUserId(
 		return undefined;
 	}
 	if (now - row.lastSeenAt.getTime() > TOUCH_EVERY_MS) {
-		db.update(sessions).set({ lastSeenAt: new Date(now) }).where(eq(sessions.id, row.id)).run();
+		db.update(sessions)
+			.set({ lastSeenAt: new Date(now) })
+			.where(eq(sessions.id, row.id))
+			.run();
 	}
 	return row.userId;
 }
@@ -66,7 +74,9 @@ export function sessionUserId(
 /** End one session (sign-out). */
 export function endSession(db: Pick<Db, 'delete'>, sessionId: unknown): void {
 	if (typeof sessionId !== 'string' || !sessionId) return;
-	db.delete(sessions).where(eq(sessions.idHash, hashId(sessionId))).run();
+	db.delete(sessions)
+		.where(eq(sessions.idHash, hashId(sessionId)))
+		.run();
 }
 
 /** End every session of a user ("sign out everywhere", password change, role change, deactivation). */
@@ -86,11 +96,16 @@ export function sessionCounts(db: Db, now = Date.now()): Map<number, number> {
 }
 
 export function countUserSessions(db: Db, userId: number): number {
-	return db.select({ id: sessions.id }).from(sessions).where(eq(sessions.userId, userId)).all().length;
+	return db.select({ id: sessions.id }).from(sessions).where(eq(sessions.userId, userId)).all()
+		.length;
 }
 
 /** Drop sessions past either timeout, so the table holds only live ones. */
-export function pruneSessions(db: Pick<Db, 'delete'>, now = Date.now(), timeouts = sessionTimeouts()): void {
+export function pruneSessions(
+	db: Pick<Db, 'delete'>,
+	now = Date.now(),
+	timeouts = sessionTimeouts()
+): void {
 	db.delete(sessions)
 		.where(
 			or(

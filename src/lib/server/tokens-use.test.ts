@@ -11,8 +11,7 @@ afterEach(() => close());
 
 const storedLastUse = (id: number) =>
 	db.$client.prepare(`select last_used_at from api_tokens where id = ?`).pluck().get(id) as
-		| number
-		| null;
+		number | null;
 
 describe('API token use stamps', () => {
 	it('a request with a token writes nothing; the use is listed at once and written in a batch', () => {

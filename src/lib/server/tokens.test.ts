@@ -15,7 +15,9 @@ describe('API tokens', () => {
 		const row = db.select().from(apiTokens).get()!;
 		expect(row.tokenHash).toBe(hashToken(created.token));
 		// SHA-256 of "abc" from FIPS 180-2, appendix B.1.
-		expect(hashToken('abc')).toBe('ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad');
+		expect(hashToken('abc')).toBe(
+			'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad'
+		);
 		expect(JSON.stringify(row)).not.toContain(created.token);
 	});
 
@@ -46,8 +48,8 @@ describe('API token expiry', () => {
 		expect(() => createApiToken(db, { name: 'x', role: 'viewer', expiresInDays: 0 }, null)).toThrow(
 			RangeError
 		);
-		expect(() => createApiToken(db, { name: 'x', role: 'viewer', expiresInDays: 1.5 }, null)).toThrow(
-			RangeError
-		);
+		expect(() =>
+			createApiToken(db, { name: 'x', role: 'viewer', expiresInDays: 1.5 }, null)
+		).toThrow(RangeError);
 	});
 });

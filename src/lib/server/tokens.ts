@@ -136,10 +136,15 @@ export function flushTokenUse(): number {
 /** Look a presented Bearer token up; notes when it was used (written in batches, see above). */
 export function verifyApiToken(db: Db, token: string): TokenCheck {
 	if (!TOKEN_PATTERN.test(token)) return { ok: false, reason: 'malformed' };
-	const row = db.select().from(apiTokens).where(eq(apiTokens.tokenHash, hashToken(token))).get();
+	const row = db
+		.select()
+		.from(apiTokens)
+		.where(eq(apiTokens.tokenHash, hashToken(token)))
+		.get();
 	if (!row) return { ok: false, reason: 'unknown' };
 	if (row.revokedAt) return { ok: false, reason: 'revoked' };
-	if (row.expiresAt && row.expiresAt.getTime() <= Date.now()) return { ok: false, reason: 'expired' };
+	if (row.expiresAt && row.expiresAt.getTime() <= Date.now())
+		return { ok: false, reason: 'expired' };
 	noteTokenUse(db, row.id, Date.now());
 	return { ok: true, actor: { kind: 'token', id: row.id, name: row.name, role: row.role } };
 }

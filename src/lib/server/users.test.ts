@@ -23,7 +23,12 @@ let close: () => void;
 beforeEach(() => ({ db, close } = openTestDatabase()));
 afterEach(() => close());
 
-const alice = { email: 'Alice@Fenmoor.example ', name: 'Alice', role: 'engineer' as const, password: 'correct horse' };
+const alice = {
+	email: 'Alice@Fenmoor.example ',
+	name: 'Alice',
+	role: 'engineer' as const,
+	password: 'correct horse'
+};
 
 describe('users', () => {
 	it('stores an argon2id hash, never the password, and normalises the e-mail', async () => {
@@ -45,13 +50,25 @@ describe('users', () => {
 
 	it('refuses a second user with the same e-mail and leaves the first intact', async () => {
 		await createUser(db, alice, null);
-		await expect(createUser(db, { ...alice, name: 'Other' }, null)).rejects.toBeInstanceOf(DuplicateEmailError);
-		expect(db.select({ n: sql<number>`count(*)` }).from(users).get()!.n).toBe(1);
+		await expect(createUser(db, { ...alice, name: 'Other' }, null)).rejects.toBeInstanceOf(
+			DuplicateEmailError
+		);
+		expect(
+			db
+				.select({ n: sql<number>`count(*)` })
+				.from(users)
+				.get()!.n
+		).toBe(1);
 	});
 
 	it('audits creation and role changes with before and after', async () => {
 		const user = await createUser(db, alice, null);
-		updateUser(db, user.id, { role: 'quality' }, { kind: 'user', id: user.id, email: 'a', name: 'A', role: 'admin' });
+		updateUser(
+			db,
+			user.id,
+			{ role: 'quality' },
+			{ kind: 'user', id: user.id, email: 'a', name: 'A', role: 'admin' }
+		);
 		const entries = db.select().from(auditLog).all();
 		expect(entries.map((e) => e.action)).toEqual(['create', 'update']);
 		expect(entries[1]).toMatchObject({
@@ -79,7 +96,9 @@ describe('sign-in throttle', () => {
 	it('unlocks 15 minutes after the fifth-latest failure', () => {
 		const start = Date.now();
 		for (let i = 0; i < 5; i++) {
-			db.insert(signInFailures).values({ email: 'a@x.example', ip: 'ip', at: new Date(start + i * 1000) }).run();
+			db.insert(signInFailures)
+				.values({ email: 'a@x.example', ip: 'ip', at: new Date(start + i * 1000) })
+				.run();
 		}
 		expect(signInLockMinutes(db, 'a@x.example', 'ip', start + 5000)).toBe(15);
 		expect(signInLockMinutes(db, 'a@x.example', 'ip', start + SIGN_IN_WINDOW_MS - 1)).toBe(1);
@@ -89,10 +108,18 @@ describe('sign-in throttle', () => {
 
 describe('least privilege and account safety', () => {
 	it('never lets the last active administrator be demoted or deactivated', async () => {
-		const root = await createUser(db, { ...alice, email: 'root@fenmoor.example', role: 'admin' }, null);
+		const root = await createUser(
+			db,
+			{ ...alice, email: 'root@fenmoor.example', role: 'admin' },
+			null
+		);
 		expect(() => updateUser(db, root.id, { role: 'engineer' }, null)).toThrow(LastAdminError);
 		expect(() => updateUser(db, root.id, { active: false }, null)).toThrow(LastAdminError);
-		const second = await createUser(db, { ...alice, email: 'two@fenmoor.example', role: 'admin' }, null);
+		const second = await createUser(
+			db,
+			{ ...alice, email: 'two@fenmoor.example', role: 'admin' },
+			null
+		);
 		expect(updateUser(db, root.id, { role: 'engineer' }, null)?.role).toBe('engineer');
 		expect(countActiveAdmins(db)).toBe(1);
 		expect(() => updateUser(db, second.id, { active: false }, null)).toThrow(LastAdminError);
@@ -108,7 +135,11 @@ describe('least privilege and account safety', () => {
 		await changePassword(db, user.id, 'correct horse', 'new long password', null);
 		expect(await authenticate(db, alice.email, 'correct horse')).toBeNull();
 		expect((await authenticate(db, alice.email, 'new long password'))?.id).toBe(user.id);
-		const actions = db.select().from(auditLog).all().map((a) => a.action);
+		const actions = db
+			.select()
+			.from(auditLog)
+			.all()
+			.map((a) => a.action);
 		expect(actions).toContain('password-change');
 	});
 
@@ -120,6 +151,12 @@ describe('least privilege and account safety', () => {
 		expect(db.select().from(signInFailures).all()).toHaveLength(1);
 		// Recording a failure prunes as well.
 		recordSignInFailure(db, 'b@fenmoor.example', '10.0.0.2', now + SIGN_IN_WINDOW_MS);
-		expect(db.select().from(signInFailures).all().map((r) => r.email)).toEqual(['b@fenmoor.example']);
+		expect(
+			db
+				.select()
+				.from(signInFailures)
+				.all()
+				.map((r) => r.email)
+		).toEqual(['b@fenmoor.example']);
 	});
 });

@@ -170,7 +170,12 @@ export const SIGN_IN_WINDOW_MS = 15 * 60 * 1000;
 export const SIGN_IN_MAX_FAILURES = 5;
 
 /** Minutes until the account may try again from this address, or 0 when it is not throttled. */
-export function signInLockMinutes(db: Db, emailInput: string, ip: string, now = Date.now()): number {
+export function signInLockMinutes(
+	db: Db,
+	emailInput: string,
+	ip: string,
+	now = Date.now()
+): number {
 	const email = emailInput.trim().toLowerCase();
 	const recent = db
 		.select({ at: signInFailures.at })
@@ -189,7 +194,12 @@ export function signInLockMinutes(db: Db, emailInput: string, ip: string, now = 
 	return Math.max(1, Math.ceil((unlockAt - now) / 60000));
 }
 
-export function recordSignInFailure(db: Db, emailInput: string, ip: string, now = Date.now()): void {
+export function recordSignInFailure(
+	db: Db,
+	emailInput: string,
+	ip: string,
+	now = Date.now()
+): void {
 	pruneSignInFailures(db, now);
 	db.insert(signInFailures)
 		.values({ email: emailInput.trim().toLowerCase(), ip, at: new Date(now) })
@@ -248,6 +258,8 @@ export function findUserByEmail(db: Db, emailInput: string): UserSummary | undef
 
 export function clearSignInFailures(db: Db, emailInput: string, ip: string): void {
 	db.delete(signInFailures)
-		.where(and(eq(signInFailures.email, emailInput.trim().toLowerCase()), eq(signInFailures.ip, ip)))
+		.where(
+			and(eq(signInFailures.email, emailInput.trim().toLowerCase()), eq(signInFailures.ip, ip))
+		)
 		.run();
 }

@@ -17,7 +17,10 @@ describe('ad-hoc study work budget', () => {
 		const all = analyzeStudy({ chart: 'xbar-r', subgroups });
 		expect(all.ok).toBe(false);
 		expect(!all.ok && all.errors[0].field).toBe('subgroups');
-		const wide = analyzeStudy({ chart: 'xbar-s', subgroups: [[1, 2], new Array(MAX_STUDY_SUBGROUP_SIZE + 1).fill(1)] });
+		const wide = analyzeStudy({
+			chart: 'xbar-s',
+			subgroups: [[1, 2], new Array(MAX_STUDY_SUBGROUP_SIZE + 1).fill(1)]
+		});
 		expect(wide).toMatchObject({ ok: false, tooLarge: true, errors: [{ field: 'subgroups[1]' }] });
 	});
 

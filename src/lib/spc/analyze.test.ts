@@ -39,10 +39,19 @@ describe('analyzeStudy: response shape and values', () => {
 		expect(JSON.parse(JSON.stringify(r))).toEqual(r);
 	});
 	it('X-bar/R: a shifted subgroup is reported with its 0-based index', () => {
-		const subgroups = Array.from({ length: 20 }, (_, i) => [10 + (i % 3) * 0.1, 10.3, 9.9 + (i % 2) * 0.2]);
+		const subgroups = Array.from({ length: 20 }, (_, i) => [
+			10 + (i % 3) * 0.1,
+			10.3,
+			9.9 + (i % 2) * 0.2
+		]);
 		subgroups[12] = [14, 14.3, 13.9];
 		const r = ok({ chart: 'xbar-r', subgroups, rules: ['we-1'] });
-		expect(r.violations).toContainEqual({ rule: 'we-1', chart: 'location', index: 12, points: [12] });
+		expect(r.violations).toContainEqual({
+			rule: 'we-1',
+			chart: 'location',
+			index: 12,
+			points: [12]
+		});
 		expect(r.capability.cp).toBeNull();
 		expect(r.capability.notes.join(' ')).toMatch(/No specification limits/);
 	});
@@ -68,23 +77,112 @@ describe('analyzeStudy: response shape and values', () => {
 describe('analyzeStudy: bad input gives field errors (HTTP 422)', () => {
 	it.each([
 		['not an object', null, 'body', /expected a JSON object/],
-		['unknown chart', { chart: 'p', values: [1, 2] }, 'chart', /must be one of: xbar-r, xbar-s, i-mr/],
-		['text in a subgroup', { chart: 'xbar-r', subgroups: [[1, 2], [3, 'x']] }, 'subgroups[1][1]', /got text "x"/],
+		[
+			'unknown chart',
+			{ chart: 'p', values: [1, 2] },
+			'chart',
+			/must be one of: xbar-r, xbar-s, i-mr/
+		],
+		[
+			'text in a subgroup',
+			{
+				chart: 'xbar-r',
+				subgroups: [
+					[1, 2],
+					[3, 'x']
+				]
+			},
+			'subgroups[1][1]',
+			/got text "x"/
+		],
 		['null value', { chart: 'i-mr', values: [1, null, 3] }, 'values[1]', /got null/],
-		['unknown rule', { chart: 'i-mr', values: [1, 2], rules: ['we-9'] }, 'rules[0]', /must be one of/],
-		['subgroup size 1', { chart: 'xbar-r', subgroups: [[1], [2]] }, 'subgroups[0]', /size 1 is below 2.*i-mr/],
-		['mixed sizes (X-bar/R)', { chart: 'xbar-r', subgroups: [[1, 2], [3, 4], [5]] }, 'subgroups[2]', /has 1 values but subgroup 0 has 2/],
-		['mixed sizes (X-bar/S)', { chart: 'xbar-s', subgroups: [[1, 2, 3], [3, 4]] }, 'subgroups[1]', /X-bar\/S needs equal/],
-		['n > 10 on X-bar/R', { chart: 'xbar-r', subgroups: [new Array(12).fill(1), new Array(12).fill(2)] }, 'subgroups[0]', /use chart 'xbar-s'/],
+		[
+			'unknown rule',
+			{ chart: 'i-mr', values: [1, 2], rules: ['we-9'] },
+			'rules[0]',
+			/must be one of/
+		],
+		[
+			'subgroup size 1',
+			{ chart: 'xbar-r', subgroups: [[1], [2]] },
+			'subgroups[0]',
+			/size 1 is below 2.*i-mr/
+		],
+		[
+			'mixed sizes (X-bar/R)',
+			{ chart: 'xbar-r', subgroups: [[1, 2], [3, 4], [5]] },
+			'subgroups[2]',
+			/has 1 values but subgroup 0 has 2/
+		],
+		[
+			'mixed sizes (X-bar/S)',
+			{
+				chart: 'xbar-s',
+				subgroups: [
+					[1, 2, 3],
+					[3, 4]
+				]
+			},
+			'subgroups[1]',
+			/X-bar\/S needs equal/
+		],
+		[
+			'n > 10 on X-bar/R',
+			{ chart: 'xbar-r', subgroups: [new Array(12).fill(1), new Array(12).fill(2)] },
+			'subgroups[0]',
+			/use chart 'xbar-s'/
+		],
 		['too few values', { chart: 'i-mr', values: [5] }, 'values', /at least 2 values, got 1/],
 		['one subgroup', { chart: 'xbar-s', subgroups: [[1, 2]] }, 'subgroups', /at least 2 subgroups/],
 		['missing data', { chart: 'xbar-r' }, 'subgroups', /is required for chart 'xbar-r'/],
-		['values for X-bar', { chart: 'xbar-s', values: [1, 2, 3] }, 'subgroups', /'values' is for 'i-mr'/],
-		['missing values for I-MR', { chart: 'i-mr', subgroups: [[1, 2], [3, 4]] }, 'values', /is required/],
-		['LSL ≥ USL', { chart: 'i-mr', values: [1, 2, 3], lsl: 5, usl: 4 }, 'lsl', /LSL 5 must be below USL 4/],
-		['zero variation (X-bar/R)', { chart: 'xbar-r', subgroups: [[2, 2], [3, 3]] }, 'subgroups', /zero variation: every subgroup range is 0/],
-		['overflowing magnitudes', { chart: 'i-mr', values: [1e308, -1e308, 1e308] }, 'values', /too large/],
-		['zero variation (I-MR)', { chart: 'i-mr', values: [4, 4, 4] }, 'values', /zero variation: all moving ranges are 0/]
+		[
+			'values for X-bar',
+			{ chart: 'xbar-s', values: [1, 2, 3] },
+			'subgroups',
+			/'values' is for 'i-mr'/
+		],
+		[
+			'missing values for I-MR',
+			{
+				chart: 'i-mr',
+				subgroups: [
+					[1, 2],
+					[3, 4]
+				]
+			},
+			'values',
+			/is required/
+		],
+		[
+			'LSL ≥ USL',
+			{ chart: 'i-mr', values: [1, 2, 3], lsl: 5, usl: 4 },
+			'lsl',
+			/LSL 5 must be below USL 4/
+		],
+		[
+			'zero variation (X-bar/R)',
+			{
+				chart: 'xbar-r',
+				subgroups: [
+					[2, 2],
+					[3, 3]
+				]
+			},
+			'subgroups',
+			/zero variation: every subgroup range is 0/
+		],
+		[
+			'overflowing magnitudes',
+			{ chart: 'i-mr', values: [1e308, -1e308, 1e308] },
+			'values',
+			/too large/
+		],
+		[
+			'zero variation (I-MR)',
+			{ chart: 'i-mr', values: [4, 4, 4] },
+			'values',
+			/zero variation: all moving ranges are 0/
+		]
 	])('%s', (_label, input, field, message) => {
 		const errs = errors(input);
 		const hit = errs.find((e) => e.field === field);

@@ -17,7 +17,8 @@ import { RULE_DESCRIPTIONS, type RuleId } from './run-rules';
  */
 
 /** Verdict of an assessment. */
-export type CapabilityVerdict = 'not-stable' | 'capable' | 'marginal' | 'not-capable' | 'not-assessed';
+export type CapabilityVerdict =
+	'not-stable' | 'capable' | 'marginal' | 'not-capable' | 'not-assessed';
 
 /** Verdict thresholds on the lower confidence bound; the site may change them. */
 export interface CapabilityThresholds {
@@ -48,15 +49,25 @@ export const THRESHOLD_SOURCE =
  * Check thresholds: finite, 0 < marginal < capable ≤ 5, confidence level in [0.8, 0.999].
  * @returns an error message per bad field (empty when fine).
  */
-export function thresholdErrors(t: CapabilityThresholds): { field: keyof CapabilityThresholds; message: string }[] {
+export function thresholdErrors(
+	t: CapabilityThresholds
+): { field: keyof CapabilityThresholds; message: string }[] {
 	const errors: { field: keyof CapabilityThresholds; message: string }[] = [];
-	if (!Number.isFinite(t.marginal) || t.marginal <= 0) errors.push({ field: 'marginal', message: 'must be a number above 0' });
-	if (!Number.isFinite(t.capable) || t.capable > 5) errors.push({ field: 'capable', message: 'must be a number up to 5' });
+	if (!Number.isFinite(t.marginal) || t.marginal <= 0)
+		errors.push({ field: 'marginal', message: 'must be a number above 0' });
+	if (!Number.isFinite(t.capable) || t.capable > 5)
+		errors.push({ field: 'capable', message: 'must be a number up to 5' });
 	else if (Number.isFinite(t.marginal) && t.capable <= t.marginal) {
-		errors.push({ field: 'capable', message: `must be above the marginal threshold ${t.marginal}` });
+		errors.push({
+			field: 'capable',
+			message: `must be above the marginal threshold ${t.marginal}`
+		});
 	}
 	if (!Number.isFinite(t.confidenceLevel) || t.confidenceLevel < 0.8 || t.confidenceLevel > 0.999) {
-		errors.push({ field: 'confidenceLevel', message: 'must be between 80 % and 99.9 % (e.g. 95 %)' });
+		errors.push({
+			field: 'confidenceLevel',
+			message: 'must be between 80 % and 99.9 % (e.g. 95 %)'
+		});
 	}
 	return errors;
 }
@@ -65,7 +76,8 @@ function checkBoundArgs(n: number, confidenceLevel: number, fn: string): void {
 	if (!(confidenceLevel > 0.5 && confidenceLevel < 1)) {
 		throw new RangeError(`${fn}: confidence level must be in (0.5, 1), got ${confidenceLevel}`);
 	}
-	if (!Number.isInteger(n) || n < 2) throw new RangeError(`${fn}: sample size must be an integer ≥ 2, got ${n}`);
+	if (!Number.isInteger(n) || n < 2)
+		throw new RangeError(`${fn}: sample size must be an integer ≥ 2, got ${n}`);
 }
 
 /**
@@ -160,7 +172,13 @@ export interface CapabilityAssessment {
 	/** The index the verdict rests on, or null when no verdict was given. */
 	basis: { index: 'Cpk' | 'Ppk'; value: number; lowerBound: number } | null;
 	/** Within (Cp, Cpk) and overall (Pp, Ppk) side by side, with lower bounds. */
-	indices: { cp: IndexWithBound; cpk: IndexWithBound; pp: IndexWithBound; ppk: IndexWithBound; n: number } | null;
+	indices: {
+		cp: IndexWithBound;
+		cpk: IndexWithBound;
+		pp: IndexWithBound;
+		ppk: IndexWithBound;
+		n: number;
+	} | null;
 	observed: (PpmBySide & { n: number; count: number }) | null;
 	/** Expected from the normal model: within σ̂ when stable, overall s otherwise. */
 	expected: (PpmBySide & { spread: 'within' | 'overall' }) | null;
@@ -171,7 +189,10 @@ const fmt = (v: number) => v.toFixed(2);
 
 function bounds(value: number | null, n: number, level: number, kind: 'p' | 'pk'): IndexWithBound {
 	if (value === null || !Number.isFinite(value) || n < 2) return { value, lowerBound: null };
-	return { value, lowerBound: kind === 'p' ? cpLowerBound(value, n, level) : cpkLowerBound(value, n, level) };
+	return {
+		value,
+		lowerBound: kind === 'p' ? cpLowerBound(value, n, level) : cpkLowerBound(value, n, level)
+	};
 }
 
 function ruleName(rule: string): string {
@@ -236,7 +257,9 @@ export function assessCapability(input: AssessmentInput): CapabilityAssessment {
 				.map((s) => `${ruleName(s.rule)} at ${s.point}`)
 				.join('; ');
 			const more = input.openSignals.length > 5 ? `; and ${input.openSignals.length - 5} more` : '';
-			parts.push(`${input.openSignals.length} open signal${input.openSignals.length === 1 ? '' : 's'}: ${listed}${more}`);
+			parts.push(
+				`${input.openSignals.length} open signal${input.openSignals.length === 1 ? '' : 's'}: ${listed}${more}`
+			);
 		}
 		if (flagged.size) {
 			parts.push(
@@ -256,12 +279,15 @@ export function assessCapability(input: AssessmentInput): CapabilityAssessment {
 			...base,
 			verdict: 'not-assessed',
 			headline: 'Capability not assessed',
-			detail: input.capabilityMessage ?? 'Capability needs data and at least one specification limit.',
+			detail:
+				input.capabilityMessage ?? 'Capability needs data and at least one specification limit.',
 			basis: null
 		};
 	}
 	const applies: { index: 'Cpk' | 'Ppk'; b: IndexWithBound } =
-		indices.cpk.value !== null ? { index: 'Cpk', b: indices.cpk } : { index: 'Ppk', b: indices.ppk };
+		indices.cpk.value !== null
+			? { index: 'Cpk', b: indices.cpk }
+			: { index: 'Ppk', b: indices.ppk };
 	if (applies.b.value === null || applies.b.lowerBound === null) {
 		return {
 			...base,
@@ -277,7 +303,13 @@ export function assessCapability(input: AssessmentInput): CapabilityAssessment {
 	const said = `${applies.index} ${fmt(applies.b.value)}, ${pct} lower bound ${fmt(lower)}`;
 	const stableWords = stable === null ? '' : 'Stable (no open signals, no rule flags). ';
 	if (lower >= t.capable) {
-		return { ...base, verdict: 'capable', headline: 'Capable', detail: `${stableWords}${said}: at or above ${fmt(t.capable)}.`, basis };
+		return {
+			...base,
+			verdict: 'capable',
+			headline: 'Capable',
+			detail: `${stableWords}${said}: at or above ${fmt(t.capable)}.`,
+			basis
+		};
 	}
 	if (lower >= t.marginal) {
 		return {
@@ -310,7 +342,11 @@ export const VERDICT_WORDS: Record<CapabilityVerdict, string> = {
  * Count values outside the specification (a value on a limit is inside).
  * @example countOutOfSpec([1, 5, 9], 2, 8) // { n: 3, belowLsl: 1, aboveUsl: 1 }
  */
-export function countOutOfSpec(values: readonly number[], lsl: number | null, usl: number | null): ObservedOutOfSpec {
+export function countOutOfSpec(
+	values: readonly number[],
+	lsl: number | null,
+	usl: number | null
+): ObservedOutOfSpec {
 	let below = 0;
 	let above = 0;
 	for (const v of values) {

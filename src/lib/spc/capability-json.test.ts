@@ -16,7 +16,15 @@ describe('capabilityJson', () => {
 			lsl: w.lsl,
 			usl: w.usl
 		});
-		const assessment = assessCapability({ capability: cap, lsl: w.lsl, usl: w.usl, openSignals: [], violations: [], pointsShown: 30, observed: { n: 30, belowLsl: 0, aboveUsl: 1 } });
+		const assessment = assessCapability({
+			capability: cap,
+			lsl: w.lsl,
+			usl: w.usl,
+			openSignals: [],
+			violations: [],
+			pointsShown: 30,
+			observed: { n: 30, belowLsl: 0, aboveUsl: 1 }
+		});
 		const json = capabilityJson(cap, assessment);
 		expect(json.cpk).toBeCloseTo(w.cpk, w.decimals);
 		expect(json.cpkLower95).toBeCloseTo(w.ci95[0], w.decimals);
@@ -34,8 +42,25 @@ describe('capabilityJson', () => {
 	});
 
 	it('one-sided spec: Cp, Pp and the Cp interval are null, not NaN', () => {
-		const cap = capabilityFromSummary({ n: 30, mean: 97, sigmaOverall: 1.6, sigmaWithin: 1.6, usl: 100 });
-		const json = capabilityJson(cap, assessCapability({ capability: cap, lsl: null, usl: 100, openSignals: [], violations: [], pointsShown: 30, observed: null }));
+		const cap = capabilityFromSummary({
+			n: 30,
+			mean: 97,
+			sigmaOverall: 1.6,
+			sigmaWithin: 1.6,
+			usl: 100
+		});
+		const json = capabilityJson(
+			cap,
+			assessCapability({
+				capability: cap,
+				lsl: null,
+				usl: 100,
+				openSignals: [],
+				violations: [],
+				pointsShown: 30,
+				observed: null
+			})
+		);
 		expect(json.cp).toBeNull();
 		expect(json.pp).toBeNull();
 		expect(json.cpLower95).toBeNull();

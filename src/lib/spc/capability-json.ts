@@ -52,7 +52,10 @@ export interface CapabilityJson {
  * API answer (`level` and `reading` are the assessment's verdict and words).
  * @example capabilityJson(cap, assessCapability({ capability: cap, … })).level
  */
-export function capabilityJson(cap: CapabilityResult, assessment: CapabilityAssessment): CapabilityJson {
+export function capabilityJson(
+	cap: CapabilityResult,
+	assessment: CapabilityAssessment
+): CapabilityJson {
 	return {
 		cp: cap.cp,
 		cpk: cap.cpk,

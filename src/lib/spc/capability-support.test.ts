@@ -42,7 +42,10 @@ describe('confidence intervals', () => {
 });
 
 describe('capabilityHistogram', () => {
-	const values = Array.from({ length: 200 }, (_, i) => 100 + 10 * Math.sin(i * 12.9898) * Math.cos(i * 0.37));
+	const values = Array.from(
+		{ length: 200 },
+		(_, i) => 100 + 10 * Math.sin(i * 12.9898) * Math.cos(i * 0.37)
+	);
 	const mean = values.reduce((s, v) => s + v, 0) / values.length;
 	const sd = Math.sqrt(values.reduce((s, v) => s + (v - mean) ** 2, 0) / (values.length - 1));
 	it('Freedman–Diaconis width 2·IQR/n^(1/3); counts sum to n; spec limits inside the range', () => {
@@ -55,7 +58,13 @@ describe('capabilityHistogram', () => {
 		expect(h.bins[h.bins.length - 1].upper).toBeGreaterThanOrEqual(115);
 	});
 	it('the fitted curve has area n·binWidth, i.e. it is scaled to counts', () => {
-		const h = capabilityHistogram(values, { mean: 100, sigmaOverall: 2, lsl: 80, usl: 120, curvePoints: 401 });
+		const h = capabilityHistogram(values, {
+			mean: 100,
+			sigmaOverall: 2,
+			lsl: 80,
+			usl: 120,
+			curvePoints: 401
+		});
 		const dx = h.curve[1].x - h.curve[0].x;
 		const area = h.curve.reduce((s, p) => s + (p.overall ?? 0), 0) * dx;
 		expect(area / h.binWidth).toBeCloseTo(200, 1);
@@ -78,12 +87,22 @@ describe('capabilityHistogram', () => {
 		expect(h.curve.every((p) => p.overall === null)).toBe(true);
 	});
 	it('far-away spec limits are capped at maxBins', () => {
-		const h = capabilityHistogram(values, { mean, sigmaOverall: sd, lsl: -1e6, usl: 1e6, maxBins: 30 });
+		const h = capabilityHistogram(values, {
+			mean,
+			sigmaOverall: sd,
+			lsl: -1e6,
+			usl: 1e6,
+			maxBins: 30
+		});
 		expect(h.bins).toHaveLength(30);
 		expect(h.bins.reduce((s, b) => s + b.count, 0)).toBe(200);
 	});
 	it('rejects bad values', () => {
-		expect(() => capabilityHistogram([], { mean: 0, sigmaOverall: 1 })).toThrow(/values: needs at least 1/);
-		expect(() => capabilityHistogram([1, NaN], { mean: 0, sigmaOverall: 1 })).toThrow(/values\[1\]/);
+		expect(() => capabilityHistogram([], { mean: 0, sigmaOverall: 1 })).toThrow(
+			/values: needs at least 1/
+		);
+		expect(() => capabilityHistogram([1, NaN], { mean: 0, sigmaOverall: 1 })).toThrow(
+			/values\[1\]/
+		);
 	});
 });

@@ -42,10 +42,19 @@ describe('worked check (REFERENCE-FACTS b): USL 100, LSL 90, n 30, x̄ 97, s 1.6
 		expect(cap.cpInterval?.upper).toBeCloseTo((10 / 9.6) * Math.sqrt(45.722 / 29), 4);
 	});
 	it('a 90 % level gives a narrower interval (z = 1.645)', () => {
-		const c90 = processCapability({ values, sigmaWithin: w.s, lsl: w.lsl, usl: w.usl, confidenceLevel: 0.9 });
+		const c90 = processCapability({
+			values,
+			sigmaWithin: w.s,
+			lsl: w.lsl,
+			usl: w.usl,
+			confidenceLevel: 0.9
+		});
 		const half = 1.6448536269514722 * Math.sqrt(1 / 270 + 0.625 ** 2 / 58);
 		expect(c90.cpkInterval?.upper).toBeCloseTo(0.625 + half, 12);
-		expect(c90.cpInterval?.lower).toBeCloseTo((10 / 9.6) * Math.sqrt(chiSquareQuantile(0.05, 29) / 29), 12);
+		expect(c90.cpInterval?.lower).toBeCloseTo(
+			(10 / 9.6) * Math.sqrt(chiSquareQuantile(0.05, 29) / 29),
+			12
+		);
 	});
 	it('gives expected ppm per side (normal model)', () => {
 		// above USL: z = 3/1.6 = 1.875 → 1 − Φ(1.875) ≈ 0.0304 (A&S 26.1)
@@ -71,7 +80,13 @@ describe('specification cases', () => {
 	});
 	it('no specs: all indices null with a note, no NaN', () => {
 		const cap = processCapability({ values, sigmaWithin: 2 });
-		expect([cap.cp, cap.cpk, cap.pp, cap.ppk, cap.expectedWithin]).toEqual([null, null, null, null, null]);
+		expect([cap.cp, cap.cpk, cap.pp, cap.ppk, cap.expectedWithin]).toEqual([
+			null,
+			null,
+			null,
+			null,
+			null
+		]);
 		expect(hasNoNaNOrInfinity(cap)).toBe(true);
 	});
 	it('mean outside the spec gives a negative Cpk (a number, not an error)', () => {
@@ -103,16 +118,30 @@ describe('zero variation and edge sizes', () => {
 		expect(hasNoNaNOrInfinity(cap)).toBe(true);
 	});
 	it('n = 2 is the minimum; n = 1 and NaN are refused', () => {
-		expect(processCapability({ values: [1, 2], sigmaWithin: 0.5, lsl: 0, usl: 3 }).cpk).toBeCloseTo(1, 12);
-		expect(() => processCapability({ values: [1], sigmaWithin: 1 })).toThrow(/values: needs at least 2/);
-		expect(() => processCapability({ values: [1, NaN], sigmaWithin: 1 })).toThrow(/values\[1\]: is NaN/);
+		expect(processCapability({ values: [1, 2], sigmaWithin: 0.5, lsl: 0, usl: 3 }).cpk).toBeCloseTo(
+			1,
+			12
+		);
+		expect(() => processCapability({ values: [1], sigmaWithin: 1 })).toThrow(
+			/values: needs at least 2/
+		);
+		expect(() => processCapability({ values: [1, NaN], sigmaWithin: 1 })).toThrow(
+			/values\[1\]: is NaN/
+		);
 	});
 });
 
 describe('capabilityFromSummary', () => {
 	it('gives the worked Cpk from summary figures (USL 100, LSL 90, n 30, x̄ 97, s 1.6 → 0.625)', () => {
 		// REFERENCE-FACTS b, worked check computed by hand: Cpk = (100 − 97)/(3 · 1.6) = 0.625.
-		const result = capabilityFromSummary({ n: 30, mean: 97, sigmaOverall: 1.6, sigmaWithin: 1.6, lsl: 90, usl: 100 });
+		const result = capabilityFromSummary({
+			n: 30,
+			mean: 97,
+			sigmaOverall: 1.6,
+			sigmaWithin: 1.6,
+			lsl: 90,
+			usl: 100
+		});
 		expect(result.cpk).toBeCloseTo(0.625, 12);
 		expect(result.cpkInterval!.lower).toBeCloseTo(0.425, 3);
 		expect(result.cpkInterval!.upper).toBeCloseTo(0.825, 3);
@@ -120,7 +149,13 @@ describe('capabilityFromSummary', () => {
 
 	it('equals processCapability on the same values', () => {
 		const values = [102.0, 94.8, 98.3, 98.4, 102.0, 98.5, 99.0, 97.7, 100.0, 98.1];
-		const fromValues = processCapability({ values, sigmaWithin: 2.1, lsl: 90, usl: 110, target: 100 });
+		const fromValues = processCapability({
+			values,
+			sigmaWithin: 2.1,
+			lsl: 90,
+			usl: 110,
+			target: 100
+		});
 		const fromSummary = capabilityFromSummary({
 			n: values.length,
 			mean: fromValues.mean,

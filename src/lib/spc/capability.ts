@@ -129,7 +129,11 @@ export function capabilityFromSummary(input: CapabilitySummaryInput): Capability
 	if (!Number.isInteger(input.n) || input.n < 2) {
 		throw new SpcInputError('values', `needs at least 2 values, got ${input.n}`);
 	}
-	if (!Number.isFinite(input.mean) || !Number.isFinite(input.sigmaOverall) || input.sigmaOverall < 0) {
+	if (
+		!Number.isFinite(input.mean) ||
+		!Number.isFinite(input.sigmaOverall) ||
+		input.sigmaOverall < 0
+	) {
 		throw new SpcInputError('values', 'mean and overall sigma must be finite numbers');
 	}
 	const lsl = optionalSpec(input.lsl, 'lsl');

@@ -77,9 +77,12 @@ describe('derived-factor relations and caching', () => {
 });
 
 describe('c4 and S factors beyond the table', () => {
-	it.each([30, 50, 100])('c4(%i) matches the approximation 4(n−1)/(4n−3) (Montgomery App. VI footnote)', (n) => {
-		expect(c4(n)).toBeCloseTo((4 * (n - 1)) / (4 * n - 3), 4);
-	});
+	it.each([30, 50, 100])(
+		'c4(%i) matches the approximation 4(n−1)/(4n−3) (Montgomery App. VI footnote)',
+		(n) => {
+			expect(c4(n)).toBeCloseTo((4 * (n - 1)) / (4 * n - 3), 4);
+		}
+	);
 	it('c4 grows towards 1 and B3/B4 bracket 1 for large n', () => {
 		const f = standardDeviationFactors(200);
 		expect(f.c4).toBeGreaterThan(c4(100));

@@ -42,7 +42,17 @@ describe('evaluateChart', () => {
 		expect(noBeyond.filter((h) => h.chart === 'dispersion')).toEqual([]);
 	});
 	it('default rules are we-1..we-4', () => {
-		const chart = individualsChart([...new Array(9).fill(0).map((_, i) => i % 2), 5, 5, 5, 5, 5, 5, 5, 5]);
+		const chart = individualsChart([
+			...new Array(9).fill(0).map((_, i) => i % 2),
+			5,
+			5,
+			5,
+			5,
+			5,
+			5,
+			5,
+			5
+		]);
 		const rules = new Set(evaluateChart(chart.points, chart.limits).map((h) => h.rule));
 		expect([...rules].every((r) => r.startsWith('we-'))).toBe(true);
 		expect(rules.has('we-4')).toBe(true);

@@ -26,7 +26,10 @@ describe('NIST e-Handbook §6.3.2.2 flow-rate individuals chart', () => {
 	});
 	it('exact limits use d2(2) = 2/√π and differ from the book only by the rounding of 1.128', () => {
 		const { location, dispersion } = chart.limits;
-		expect(location.ucl - location.cl).toBeCloseTo((3 * dispersion.cl) / (2 / Math.sqrt(Math.PI)), 12);
+		expect(location.ucl - location.cl).toBeCloseTo(
+			(3 * dispersion.cl) / (2 / Math.sqrt(Math.PI)),
+			12
+		);
 		const bound = 3 * dispersion.cl * Math.abs(1 / 1.128 - 1 / chartConstants(2).d2) + 1e-4;
 		expect(Math.abs(location.ucl - nist.ucl)).toBeLessThan(bound);
 		expect(Math.abs(location.lcl - nist.lcl)).toBeLessThan(bound);
@@ -34,7 +37,10 @@ describe('NIST e-Handbook §6.3.2.2 flow-rate individuals chart', () => {
 	it('MR-chart UCL = D4(2)·MR̄ ≈ 3.267·MR̄, LCL 0', () => {
 		expect(chart.limits.dispersion.lcl).toBe(0);
 		expect(Math.abs(chart.limits.dispersion.ucl - nist.mrUcl)).toBeLessThan(1e-3);
-		expect(chart.limits.sigmaWithin).toBeCloseTo(chart.limits.dispersion.cl / chartConstants(2).d2, 14);
+		expect(chart.limits.sigmaWithin).toBeCloseTo(
+			chart.limits.dispersion.cl / chartConstants(2).d2,
+			14
+		);
 	});
 	it('"The process is in control": no point beyond the limits', () => {
 		expect(evaluateChart(chart.points, chart.limits, ['we-1'])).toEqual([]);

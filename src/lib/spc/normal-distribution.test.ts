@@ -45,9 +45,12 @@ describe('inverseNormalCdf', () => {
 		expect(inverseNormalCdf(p)).toBeCloseTo(z, 12);
 		expect(inverseNormalCdf(1 - p)).toBeCloseTo(-z, 12);
 	});
-	it.each([1e-300, 1e-15, 1e-6, 0.02, 0.024, 0.03, 0.5, 0.77, 0.99])('round-trips Φ(z(p)) = p at %f', (p) => {
-		expect(Math.abs(normalCdf(inverseNormalCdf(p)) / p - 1)).toBeLessThan(1e-12);
-	});
+	it.each([1e-300, 1e-15, 1e-6, 0.02, 0.024, 0.03, 0.5, 0.77, 0.99])(
+		'round-trips Φ(z(p)) = p at %f',
+		(p) => {
+			expect(Math.abs(normalCdf(inverseNormalCdf(p)) / p - 1)).toBeLessThan(1e-12);
+		}
+	);
 	it.each([0, 1, -0.1, 1.5, NaN])('rejects p = %f', (p) => {
 		expect(() => inverseNormalCdf(p)).toThrow(/p must be in \(0, 1\)/);
 	});

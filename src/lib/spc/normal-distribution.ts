@@ -23,7 +23,7 @@ function erfSeries(x: number): number {
 		sum += term;
 		if (Math.abs(term) < Math.abs(sum) * 1e-17) break;
 	}
-	return ((2 / SQRT_PI) * Math.exp(-x2) * sum);
+	return (2 / SQRT_PI) * Math.exp(-x2) * sum;
 }
 
 /** erfc(x) for x > 0 via the continued fraction A&S 7.1.14, evaluated by modified Lentz. */

@@ -8,8 +8,14 @@ export type ParetoRow<T> = T & { barPct: number; cumulativePct: number };
  * relative to the largest row.
  * @example paretoRows([{ fails: 6 }, { fails: 3 }], 10).map((r) => r.cumulativePct) // [60, 90]
  */
-export function paretoRows<T extends { fails: number }>(rows: readonly T[], totalFails: number): ParetoRow<T>[] {
-	const total = Math.max(totalFails, rows.reduce((s, r) => s + r.fails, 0));
+export function paretoRows<T extends { fails: number }>(
+	rows: readonly T[],
+	totalFails: number
+): ParetoRow<T>[] {
+	const total = Math.max(
+		totalFails,
+		rows.reduce((s, r) => s + r.fails, 0)
+	);
 	const largest = rows.reduce((m, r) => Math.max(m, r.fails), 0);
 	let running = 0;
 	return rows.map((r) => {

@@ -94,7 +94,9 @@ describe('nelson-3: 6 points in a row steadily increasing or decreasing', () => 
 	});
 	it('a tie breaks the trend; 7 falling points fire twice', () => {
 		expect(at([...filler(2), -2, -1, 0, 0, 1, 2, 2.5, ...filler(2)], 'nelson-3')).toEqual([]);
-		expect(at([...filler(2), 2.5, 2, 1, 0, -1, -2, -2.5, ...filler(2)], 'nelson-3')).toEqual([13, 14]);
+		expect(at([...filler(2), 2.5, 2, 1, 0, -1, -2, -2.5, ...filler(2)], 'nelson-3')).toEqual([
+			13, 14
+		]);
 	});
 	it('5 rises are needed: 5 increasing points do not fire', () => {
 		expect(at([...filler(2), -2, -1, 0, 1, 2, ...filler(2)], 'nelson-3')).toEqual([]);
@@ -111,7 +113,9 @@ describe('nelson-4: 14 points in a row alternating up and down', () => {
 		]);
 	});
 	it('13 alternating points do not fire; a tie inside breaks it', () => {
-		expect(at([...filler(2), -1.5, ...alt.slice(0, 12), alt[11], ...filler(2)], 'nelson-4')).toEqual([]);
+		expect(
+			at([...filler(2), -1.5, ...alt.slice(0, 12), alt[11], ...filler(2)], 'nelson-4')
+		).toEqual([]);
 		const tied = [...alt];
 		tied[6] = tied[5];
 		expect(at([...filler(2), -1.5, ...tied, tied[12], ...filler(2)], 'nelson-4')).toEqual([]);
@@ -203,7 +207,8 @@ function seededNormals(count: number, seed: number): number[] {
 		state = (Math.imul(state, 1664525) + 1013904223) >>> 0;
 		return (state + 0.5) / 4294967296;
 	};
-	return Array.from({ length: count }, () =>
-		Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform())
+	return Array.from(
+		{ length: count },
+		() => Math.sqrt(-2 * Math.log(uniform())) * Math.cos(2 * Math.PI * uniform())
 	);
 }

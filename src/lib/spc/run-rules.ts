@@ -174,8 +174,10 @@ function noneInZoneCBothSides(m: number): Detector {
 }
 
 const beyondLimits: Detector = (f, e) => (f.valid[e] && f.level[e] >= 3 ? [e] : null);
-const trend = (m: number): Detector => (f, e) =>
-	f.rising[e] >= m || f.falling[e] >= m ? windowIndices(e, m) : null;
+const trend =
+	(m: number): Detector =>
+	(f, e) =>
+		f.rising[e] >= m || f.falling[e] >= m ? windowIndices(e, m) : null;
 
 const DETECTORS: Record<RuleId, Detector> = {
 	'we-1': beyondLimits,

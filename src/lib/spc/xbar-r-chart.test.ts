@@ -91,11 +91,29 @@ describe('xbarRPoints bad input', () => {
 	it.each([
 		[[], /subgroups: is empty/],
 		[[[1], [2]], /subgroups\[0\]: subgroup size 1 is below 2 for X-bar\/R; use chart 'i-mr'/],
-		[[[1, 2], [3, 4, 5]], /subgroups\[1\]: has 3 values but subgroup 0 has 2/],
+		[
+			[
+				[1, 2],
+				[3, 4, 5]
+			],
+			/subgroups\[1\]: has 3 values but subgroup 0 has 2/
+		],
 		[[new Array(11).fill(1), new Array(11).fill(2)], /subgroup size 11 is above 10.*xbar-s/],
 		[[[1, 2]], /subgroups: needs at least 2 subgroups for X-bar\/R, got 1/],
-		[[[1, 2], [3, NaN]], /subgroups\[1\]\[1\]: is NaN/],
-		[[[1, 2], [3, '4']], /subgroups\[1\]\[1\]: is "4", expected a finite number/],
+		[
+			[
+				[1, 2],
+				[3, NaN]
+			],
+			/subgroups\[1\]\[1\]: is NaN/
+		],
+		[
+			[
+				[1, 2],
+				[3, '4']
+			],
+			/subgroups\[1\]\[1\]: is "4", expected a finite number/
+		],
 		[[[1, 2], 3], /subgroups\[1\]: expected an array of numbers/],
 		[{}, /subgroups: expected an array of subgroups/]
 	])('%j → %s', (data, message) => {

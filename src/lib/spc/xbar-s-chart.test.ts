@@ -41,7 +41,13 @@ describe('X-bar/S chart', () => {
 		expect(chart.limits.dispersionLclClipped).toBe(false);
 	});
 	it.each([
-		[[[1, 2], [3, 4, 5]], /subgroups\[1\]: has 3 values but subgroup 0 has 2; X-bar\/S needs equal/],
+		[
+			[
+				[1, 2],
+				[3, 4, 5]
+			],
+			/subgroups\[1\]: has 3 values but subgroup 0 has 2; X-bar\/S needs equal/
+		],
 		[[[1], [2]], /subgroup size 1 is below 2 for X-bar\/S/],
 		[[[1, 2, 3]], /needs at least 2 subgroups/]
 	])('refuses %j', (data, message) => {

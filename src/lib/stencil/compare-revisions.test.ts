@@ -43,8 +43,15 @@ describe('compareRevisions', () => {
 		expect(c.stencilChanges).toEqual([{ field: 'thicknessUm', old: 120, new: 100 }]);
 	});
 	it('a technology change is named', () => {
-		const t = compareRevisions(revA, revA, { oldThicknessUm: 120, newThicknessUm: 120, oldTechnology: 'laser-cut', newTechnology: 'electroformed' });
-		expect(t.stencilChanges).toEqual([{ field: 'technology', old: 'laser-cut', new: 'electroformed' }]);
+		const t = compareRevisions(revA, revA, {
+			oldThicknessUm: 120,
+			newThicknessUm: 120,
+			oldTechnology: 'laser-cut',
+			newTechnology: 'electroformed'
+		});
+		expect(t.stencilChanges).toEqual([
+			{ field: 'technology', old: 'laser-cut', new: 'electroformed' }
+		]);
 		expect(t.unchangedCount).toBe(revA.length);
 	});
 	it('changed pairs carry both sides’ ratios at their own thickness', () => {
@@ -56,23 +63,40 @@ describe('compareRevisions', () => {
 	});
 	it('identical revisions: everything unchanged', () => {
 		const same = compareRevisions(revA, revA, { oldThicknessUm: 120, newThicknessUm: 120 });
-		expect(same).toMatchObject({ added: [], removed: [], changed: [], unchangedCount: revA.length });
+		expect(same).toMatchObject({
+			added: [],
+			removed: [],
+			changed: [],
+			unchangedCount: revA.length
+		});
 	});
 	it('beyond the position tolerance an unnamed aperture is removed + added', () => {
-		const far = compareRevisions(revA.slice(4), [rect(500, 500, { refdes: '', pad: '', xUm: 20100 })], {
-			oldThicknessUm: 120,
-			newThicknessUm: 120,
-			positionToleranceUm: 50
-		});
+		const far = compareRevisions(
+			revA.slice(4),
+			[rect(500, 500, { refdes: '', pad: '', xUm: 20100 })],
+			{
+				oldThicknessUm: 120,
+				newThicknessUm: 120,
+				positionToleranceUm: 50
+			}
+		);
 		expect([far.added.length, far.removed.length]).toEqual([1, 1]);
 	});
 	it('empty revisions', () => {
-		expect(compareRevisions([], revB, { oldThicknessUm: 1, newThicknessUm: 1 }).added).toHaveLength(5);
-		expect(compareRevisions(revA, [], { oldThicknessUm: 1, newThicknessUm: 1 }).removed).toHaveLength(5);
+		expect(compareRevisions([], revB, { oldThicknessUm: 1, newThicknessUm: 1 }).added).toHaveLength(
+			5
+		);
+		expect(
+			compareRevisions(revA, [], { oldThicknessUm: 1, newThicknessUm: 1 }).removed
+		).toHaveLength(5);
 	});
 	it('bad options and bad apertures throw clear errors', () => {
-		expect(() => compareRevisions(revA, revB, { oldThicknessUm: 0, newThicknessUm: 100 })).toThrow(/revision comparison, oldThicknessUm/);
-		expect(() => compareRevisions([rect(0, 1)], [], { oldThicknessUm: 1, newThicknessUm: 1 })).toThrow(/U1\.1, lengthUm/);
+		expect(() => compareRevisions(revA, revB, { oldThicknessUm: 0, newThicknessUm: 100 })).toThrow(
+			/revision comparison, oldThicknessUm/
+		);
+		expect(() =>
+			compareRevisions([rect(0, 1)], [], { oldThicknessUm: 1, newThicknessUm: 1 })
+		).toThrow(/U1\.1, lengthUm/);
 	});
 });
 

@@ -225,7 +225,8 @@ export function compareRevisions(
 	const changed: ChangedAperture[] = [];
 	let unchangedCount = 0;
 	// Ratios equal to this relative difference are the same (only rounding differs).
-	const sameRatio = (a: number, b: number) => Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b));
+	const sameRatio = (a: number, b: number) =>
+		Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b));
 	for (const [i, j, matchedBy] of pairs) {
 		const fields = differences(
 			oldApertures[i],
@@ -243,11 +244,19 @@ export function compareRevisions(
 	}
 	const stencilChanges: StencilChange[] = [];
 	if (Math.abs(options.oldThicknessUm - options.newThicknessUm) > sizeTol) {
-		stencilChanges.push({ field: 'thicknessUm', old: options.oldThicknessUm, new: options.newThicknessUm });
+		stencilChanges.push({
+			field: 'thicknessUm',
+			old: options.oldThicknessUm,
+			new: options.newThicknessUm
+		});
 	}
 	const tech = (t?: string) => (t ?? '').trim().toLowerCase();
 	if (tech(options.oldTechnology) !== tech(options.newTechnology)) {
-		stencilChanges.push({ field: 'technology', old: options.oldTechnology ?? '', new: options.newTechnology ?? '' });
+		stencilChanges.push({
+			field: 'technology',
+			old: options.oldTechnology ?? '',
+			new: options.newTechnology ?? ''
+		});
 	}
 	changed.sort((p, q) => p.new.index - q.new.index);
 	return {

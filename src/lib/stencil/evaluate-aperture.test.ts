@@ -83,15 +83,20 @@ describe('ratio primitives reject bad numbers', () => {
 	for (const v of bad) {
 		it(`thickness ${v}`, () => {
 			expect(() => areaRatio(1, 1, v)).toThrow(StencilInputError);
-			expect(() => aspectRatio(1, v)).toThrow(/thicknessUm: must be a finite number greater than 0/);
+			expect(() => aspectRatio(1, v)).toThrow(
+				/thicknessUm: must be a finite number greater than 0/
+			);
 			expect(() => depositVolumeUm3(1, v)).toThrow(StencilInputError);
 			expect(() => evaluateAperture(rect(100, 100), v, ipc)).toThrow(StencilInputError);
 		});
 	}
 	it('thresholds of 0 or NaN are rejected with the field named', () => {
-		expect(() => evaluateGeometry({ areaUm2: 1, perimeterUm: 4, minDimensionUm: 1 }, 1, { minAreaRatio: NaN, minAspectRatio: 0 })).toThrow(
-			/thresholds, minAreaRatio: .*thresholds, minAspectRatio/
-		);
+		expect(() =>
+			evaluateGeometry({ areaUm2: 1, perimeterUm: 4, minDimensionUm: 1 }, 1, {
+				minAreaRatio: NaN,
+				minAspectRatio: 0
+			})
+		).toThrow(/thresholds, minAreaRatio: .*thresholds, minAspectRatio/);
 	});
 	it('volume = area × thickness', () => {
 		expect(depositVolumeUm3(200000, 100)).toBe(2e7);

@@ -20,7 +20,11 @@ describe('evaluateStencil with a step region', () => {
 	};
 	const results = evaluateStencil(board, settings);
 	it('tags results with index, refdes and pad', () => {
-		expect(results.map((r) => [r.index, r.refdes, r.pad])).toEqual([[0, 'U1', '1'], [1, 'C1', '1'], [2, 'U2', 'A1']]);
+		expect(results.map((r) => [r.index, r.refdes, r.pad])).toEqual([
+			[0, 'U1', '1'],
+			[1, 'C1', '1'],
+			[2, 'U2', 'A1']
+		]);
 	});
 	it('the 0201 inside the 100 µm step passes; outside it would fail at 120 µm', () => {
 		expect(results[1].thicknessUm).toBe(100);
@@ -29,12 +33,18 @@ describe('evaluateStencil with a step region', () => {
 	});
 	it('summary: counts, worst ratios with their apertures, totals', () => {
 		const s = summarizeStencil(results);
-		expect(s).toMatchObject({ total: 3, passCount: 3, failCount: 0, failAreaRatioCount: 0, thicknessesUm: [100, 120] });
+		expect(s).toMatchObject({
+			total: 3,
+			passCount: 3,
+			failCount: 0,
+			failAreaRatioCount: 0,
+			thicknessesUm: [100, 120]
+		});
 		expect(s.worstAreaRatio).toMatchObject({ refdes: 'U1', index: 0 });
 		expect(s.worstAreaRatio!.value).toBeCloseTo(200000 / (2400 * 120), 12);
 		expect(s.smallestOpening).toMatchObject({ refdes: 'U1', value: 200 });
 		expect(s.maxPassingThicknessUm!.value).toBeCloseTo(84000 / (1160 * 0.66), 9);
-		const vol = 200000 * 120 + 84000 * 100 + (Math.PI * 750 ** 2 / 4) * 120;
+		const vol = 200000 * 120 + 84000 * 100 + ((Math.PI * 750 ** 2) / 4) * 120;
 		expect(s.totalVolumeUm3).toBeCloseTo(vol, 3);
 	});
 });
@@ -42,17 +52,36 @@ describe('evaluateStencil with a step region', () => {
 describe('summarizeStencil edge cases', () => {
 	it('empty stencil', () => {
 		expect(summarizeStencil([])).toEqual({
-			total: 0, passCount: 0, failCount: 0, failAreaRatioCount: 0, failAspectRatioCount: 0,
-			worstAreaRatio: null, worstAspectRatio: null, smallestOpening: null, maxPassingThicknessUm: null,
-			totalAreaUm2: 0, totalVolumeUm3: 0, thicknessesUm: []
+			total: 0,
+			passCount: 0,
+			failCount: 0,
+			failAreaRatioCount: 0,
+			failAspectRatioCount: 0,
+			worstAreaRatio: null,
+			worstAspectRatio: null,
+			smallestOpening: null,
+			maxPassingThicknessUm: null,
+			totalAreaUm2: 0,
+			totalVolumeUm3: 0,
+			thicknessesUm: []
 		});
 	});
 	it('one failing aperture counted under both limits', () => {
-		const s = summarizeStencil(evaluateStencil([rect(150, 150)], { thicknessUm: 150, thresholds: IPC_7525_THRESHOLDS }));
-		expect(s).toMatchObject({ total: 1, failCount: 1, failAreaRatioCount: 1, failAspectRatioCount: 1 });
+		const s = summarizeStencil(
+			evaluateStencil([rect(150, 150)], { thicknessUm: 150, thresholds: IPC_7525_THRESHOLDS })
+		);
+		expect(s).toMatchObject({
+			total: 1,
+			failCount: 1,
+			failAreaRatioCount: 1,
+			failAspectRatioCount: 1
+		});
 	});
 	it('ties keep the first aperture', () => {
-		const r = evaluateStencil([rect(200, 200, { refdes: 'A' }), rect(200, 200, { refdes: 'B' })], { thicknessUm: 100, thresholds: IPC_7525_THRESHOLDS });
+		const r = evaluateStencil([rect(200, 200, { refdes: 'A' }), rect(200, 200, { refdes: 'B' })], {
+			thicknessUm: 100,
+			thresholds: IPC_7525_THRESHOLDS
+		});
 		expect(summarizeStencil(r).worstAreaRatio!.refdes).toBe('A');
 	});
 });
@@ -60,7 +89,10 @@ describe('summarizeStencil edge cases', () => {
 describe('evaluateStencil input errors (all-or-nothing)', () => {
 	it('lists the problems of every bad aperture with its label', () => {
 		try {
-			evaluateStencil([rect(0, 1, { refdes: 'R1' }), circle(NaN, { refdes: '', pad: '' })], { thicknessUm: 0, thresholds: IPC_7525_THRESHOLDS });
+			evaluateStencil([rect(0, 1, { refdes: 'R1' }), circle(NaN, { refdes: '', pad: '' })], {
+				thicknessUm: 0,
+				thresholds: IPC_7525_THRESHOLDS
+			});
 		} catch (e) {
 			expect(e).toBeInstanceOf(StencilInputError);
 			expect((e as StencilInputError).problems.map((p) => `${p.where}/${p.field}`)).toEqual([
@@ -87,7 +119,9 @@ describe('evaluateStencil input errors (all-or-nothing)', () => {
 describe('performance', () => {
 	it('20,000 apertures evaluate quickly (O(n))', () => {
 		const many: ApertureInput[] = Array.from({ length: 20000 }, (_, i) =>
-			i % 2 ? rect(1000, 200, { xUm: i * 10, pad: String(i) }) : circle(300, { xUm: i * 10, pad: String(i) })
+			i % 2
+				? rect(1000, 200, { xUm: i * 10, pad: String(i) })
+				: circle(300, { xUm: i * 10, pad: String(i) })
 		);
 		const settings = { thicknessUm: 120, thresholds: IPC_7525_THRESHOLDS };
 		evaluateStencil(many.slice(0, 2000), settings); // warm up the JIT

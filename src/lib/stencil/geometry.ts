@@ -5,12 +5,7 @@
 import { effectiveShape, type ApertureInput } from './aperture';
 import { checkAperture } from './aperture-validation';
 import { StencilInputError } from './stencil-input-error';
-import {
-	openPolygon,
-	polygonAreaUm2,
-	polygonMinWidthUm,
-	polygonPerimeterUm
-} from './polygon';
+import { openPolygon, polygonAreaUm2, polygonMinWidthUm, polygonPerimeterUm } from './polygon';
 
 /** Area, perimeter and narrowest opening of an aperture, in µm² and µm. */
 export interface ApertureGeometry {

@@ -83,8 +83,12 @@ describe('reference/gerber corpus', () => {
 			if (exp.sumAreaUm2 !== undefined) {
 				it('has the expected paste area, summed and as a union', () => {
 					const report = findApertureOverlaps(result.apertures, areas);
-					expect(Math.abs(report.sumAreaUm2 - exp.sumAreaUm2!)).toBeLessThanOrEqual(exp.areaTolUm2 ?? 0.01);
-					expect(Math.abs(report.unionAreaUm2 - exp.unionAreaUm2!)).toBeLessThanOrEqual(exp.areaTolUm2 ?? 0.01);
+					expect(Math.abs(report.sumAreaUm2 - exp.sumAreaUm2!)).toBeLessThanOrEqual(
+						exp.areaTolUm2 ?? 0.01
+					);
+					expect(Math.abs(report.unionAreaUm2 - exp.unionAreaUm2!)).toBeLessThanOrEqual(
+						exp.areaTolUm2 ?? 0.01
+					);
 				});
 			}
 

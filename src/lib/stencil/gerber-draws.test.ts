@@ -1,6 +1,16 @@
 import { describe, expect, it } from 'vitest';
-import { drawnArcCentre, listLines, MAX_PAD_ELONGATION, strokeCapsule, strokeRectangle } from './gerber-draws';
-import { importGerberPasteLayer, type GerberImportResult, type GerberImportSuccess } from './gerber-import';
+import {
+	drawnArcCentre,
+	listLines,
+	MAX_PAD_ELONGATION,
+	strokeCapsule,
+	strokeRectangle
+} from './gerber-draws';
+import {
+	importGerberPasteLayer,
+	type GerberImportResult,
+	type GerberImportSuccess
+} from './gerber-import';
 import { apertureGeometry } from './geometry';
 import { polygonAreaUm2, polygonPerimeterUm } from './polygon';
 import { withLimits } from './limits';
@@ -37,16 +47,28 @@ describe('stroke polygons (first principles)', () => {
 
 describe('drawn arc centres', () => {
 	it('multi quadrant (G75): the centre is the start plus (I, J)', () => {
-		const c = drawnArcCentre({ start: [1, 0], end: [0, 1], arc: { i: -1, j: 0, dir: 'ccw', quadrant: 'multi' } });
+		const c = drawnArcCentre({
+			start: [1, 0],
+			end: [0, 1],
+			arc: { i: -1, j: 0, dir: 'ccw', quadrant: 'multi' }
+		});
 		expect(c).toEqual([0, 0]);
 	});
 	it('single quadrant (G74): unsigned I, J; the sign pair giving a ≤ 90° arc in the direction', () => {
 		// Counter-clockwise from (1, 0) to (0, 1) about (0, 0): I = 1 taken as −1.
-		const ccw = drawnArcCentre({ start: [1, 0], end: [0, 1], arc: { i: 1, j: 0, dir: 'ccw', quadrant: 'single' } });
+		const ccw = drawnArcCentre({
+			start: [1, 0],
+			end: [0, 1],
+			arc: { i: 1, j: 0, dir: 'ccw', quadrant: 'single' }
+		});
 		expect(ccw[0]).toBeCloseTo(0, 12);
 		expect(ccw[1]).toBeCloseTo(0, 12);
 		// Clockwise from (1, 0) to (0, 1): the short way round is about (1, 1).
-		const cw = drawnArcCentre({ start: [1, 0], end: [0, 1], arc: { i: 0, j: 1, dir: 'cw', quadrant: 'single' } });
+		const cw = drawnArcCentre({
+			start: [1, 0],
+			end: [0, 1],
+			arc: { i: 0, j: 1, dir: 'cw', quadrant: 'single' }
+		});
 		expect(cw).toEqual([1, 1]);
 	});
 });
@@ -54,7 +76,9 @@ describe('drawn arc centres', () => {
 describe('importGerberPasteLayer: stroked pads', () => {
 	it('a single stroke of pad size becomes a drawn polygon opening with area from its outline', () => {
 		// Pen 0.25 mm from (0,0) to (1.25,0): capsule 1.25·0.25 + π·0.125² = 0.3615874 mm².
-		const r = ok(importGerberPasteLayer(`${header}%ADD10C,0.25*%\nD10*\nX0Y0D02*\nG01X1250000D01*\nM02*\n`));
+		const r = ok(
+			importGerberPasteLayer(`${header}%ADD10C,0.25*%\nD10*\nX0Y0D02*\nG01X1250000D01*\nM02*\n`)
+		);
 		expect(r.apertures).toHaveLength(1);
 		const a = r.apertures[0];
 		expect(a.drawn).toBe(true);
@@ -106,7 +130,9 @@ describe('importGerberPasteLayer: stroked pads', () => {
 		);
 		expect('errors' in r).toBe(true);
 		if (!('errors' in r)) return;
-		expect(r.errors[0].message).toContain('no flashes (D03) or regions (G36/G37), and the 4 draw(s)');
+		expect(r.errors[0].message).toContain(
+			'no flashes (D03) or regions (G36/G37), and the 4 draw(s)'
+		);
 		expect(r.errors.map((e) => e.message).join('\n')).toContain('at lines 6, 7, 8, 9');
 	});
 
@@ -115,7 +141,9 @@ describe('importGerberPasteLayer: stroked pads', () => {
 		// quarter arcs. Area: π(0.6² − 0.4²)/2 + π·0.1² (two half-disc ends) = 0.1·π + 0.01·π.
 		const exact = (Math.PI * (600 ** 2 - 400 ** 2)) / 2 + Math.PI * 100 ** 2;
 		const multi = ok(
-			importGerberPasteLayer(`${header}%ADD10C,0.2*%\nD10*\nX500000Y0D02*\nG75*\nG03X-500000Y0I-500000J0D01*\nM02*\n`)
+			importGerberPasteLayer(
+				`${header}%ADD10C,0.2*%\nD10*\nX500000Y0D02*\nG75*\nG03X-500000Y0I-500000J0D01*\nM02*\n`
+			)
 		);
 		const single = ok(
 			importGerberPasteLayer(
@@ -150,7 +178,10 @@ describe('importGerberPasteLayer: stroked pads', () => {
 	});
 
 	it('counts the stroke segments against the budget before building polygons (413)', () => {
-		const strokes = Array.from({ length: 30 }, (_, k) => `X${k * 1000000}Y0D02*\nX${k * 1000000 + 500000}Y0D01*`).join('\n');
+		const strokes = Array.from(
+			{ length: 30 },
+			(_, k) => `X${k * 1000000}Y0D02*\nX${k * 1000000 + 500000}Y0D01*`
+		).join('\n');
 		const r = importGerberPasteLayer(`${header}%ADD10C,0.2*%\nD10*\nG01*\n${strokes}\nM02*\n`, {
 			limits: withLimits({ maxDrawSegmentsPerLayer: 20 })
 		});
@@ -158,9 +189,12 @@ describe('importGerberPasteLayer: stroked pads', () => {
 		if (!('errors' in r)) return;
 		expect(r.errors[0].message).toContain('more than 20 draws');
 		// Arcs count their chords: one full circle of radius 5 mm is far more than 20 chords.
-		const arc = importGerberPasteLayer(`${header}%ADD10C,0.2*%\nD10*\nX5000000Y0D02*\nG75*\nG03X5000000Y0I-5000000J0D01*\nM02*\n`, {
-			limits: withLimits({ maxDrawSegmentsPerLayer: 20 })
-		});
+		const arc = importGerberPasteLayer(
+			`${header}%ADD10C,0.2*%\nD10*\nX5000000Y0D02*\nG75*\nG03X5000000Y0I-5000000J0D01*\nM02*\n`,
+			{
+				limits: withLimits({ maxDrawSegmentsPerLayer: 20 })
+			}
+		);
 		expect('errors' in arc && arc.errors[0].message).toContain('more than 20 stroke segments');
 	});
 

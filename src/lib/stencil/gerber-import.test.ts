@@ -65,7 +65,8 @@ describe('importGerberPasteLayer on the reference layers', () => {
 
 			it('warns exactly as expected', () => {
 				if (!exp.warningsContaining) expect(result.warnings).toEqual([]);
-				else for (const w of exp.warningsContaining) expect(result.warnings.join('\n')).toContain(w);
+				else
+					for (const w of exp.warningsContaining) expect(result.warnings.join('\n')).toContain(w);
 			});
 
 			for (const e of exp.apertures) {
@@ -99,7 +100,8 @@ describe('importGerberPasteLayer on the reference layers', () => {
 	for (const [file, exp] of Object.entries(expected.failures)) {
 		it(`${file} fails with a clear error`, () => {
 			const { errors } = failed(importGerberPasteLayer(readRef(file)));
-			for (const text of exp.errorContaining) expect(errors.map((e) => e.message).join('\n')).toContain(text);
+			for (const text of exp.errorContaining)
+				expect(errors.map((e) => e.message).join('\n')).toContain(text);
 		});
 	}
 
@@ -131,7 +133,9 @@ describe('importGerberPasteLayer on the reference layers', () => {
 		const circle = result.apertures.find((a) => a.refdes === '@0003') as ApertureInput;
 		// The full circle: centre (5000, 500), r = 500 µm; vertices lie on the arc itself.
 		for (const [x, y] of circle.verticesUm ?? []) {
-			expect(Math.abs(Math.hypot(x + circle.xUm - 5000, y + circle.yUm - 500) - 500)).toBeLessThan(0.01);
+			expect(Math.abs(Math.hypot(x + circle.xUm - 5000, y + circle.yUm - 500) - 500)).toBeLessThan(
+				0.01
+			);
 		}
 	});
 
@@ -141,7 +145,9 @@ describe('importGerberPasteLayer on the reference layers', () => {
 		const fine = ok(importGerberPasteLayer(text, { arcToleranceUm: 0.05 })).apertures[2];
 		const exact = Math.PI * 500 ** 2;
 		expect(fine.verticesUm!.length).toBeGreaterThan(coarse.verticesUm!.length);
-		expect(exact - apertureGeometry(fine).areaUm2).toBeLessThan(exact - apertureGeometry(coarse).areaUm2);
+		expect(exact - apertureGeometry(fine).areaUm2).toBeLessThan(
+			exact - apertureGeometry(coarse).areaUm2
+		);
 		expect(exact - apertureGeometry(fine).areaUm2).toBeLessThanOrEqual(0.05 * Math.PI * 1000);
 	});
 });
@@ -155,7 +161,9 @@ describe('importGerberPasteLayer: what it skips with a warning', () => {
 		);
 		expect(r.counts.drawsSkipped).toBe(2);
 		expect(r.apertures.length).toBe(1);
-		expect(r.warnings).toEqual([expect.stringMatching(/^line 7, D01: 2 draw\(s\) outside regions skipped/)]);
+		expect(r.warnings).toEqual([
+			expect.stringMatching(/^line 7, D01: 2 draw\(s\) outside regions skipped/)
+		]);
 	});
 
 	it('a clear-polarity object that would leave a hole is ignored, naming the aperture it would cut', () => {
@@ -187,12 +195,20 @@ describe('importGerberPasteLayer: what it skips with a warning', () => {
 		expect(apertureGeometry(cutOne).areaUm2).toBeCloseTo(2_000_000, 3);
 		expect(cutOne.xUm).toBeCloseTo(-500, 6);
 		expect(later).toMatchObject({ shape: 'rectangle', xUm: 20000, lengthUm: 2000 });
-		expect(r.warnings.join('\n')).toContain('line 11, %LPC: a clear-polarity object cuts 1 earlier aperture(s) (first from line 6)');
-		expect(r.warnings.join('\n')).toContain('line 12, %LPC: a clear-polarity object cuts 1 earlier aperture(s) (first from line 8)');
+		expect(r.warnings.join('\n')).toContain(
+			'line 11, %LPC: a clear-polarity object cuts 1 earlier aperture(s) (first from line 6)'
+		);
+		expect(r.warnings.join('\n')).toContain(
+			'line 12, %LPC: a clear-polarity object cuts 1 earlier aperture(s) (first from line 8)'
+		);
 	});
 
 	it('skips apertures with a hole and names the aperture and its definition line', () => {
-		const r = ok(importGerberPasteLayer(`${header}%ADD10C,1.0X0.3*%\n%ADD11C,1*%\nD10*\nX0Y0D03*\nD11*\nX0Y0D03*\nM02*\n`));
+		const r = ok(
+			importGerberPasteLayer(
+				`${header}%ADD10C,1.0X0.3*%\n%ADD11C,1*%\nD10*\nX0Y0D03*\nD11*\nX0Y0D03*\nM02*\n`
+			)
+		);
 		expect(r.counts).toEqual({ flashes: 1, regionContours: 0, flashesSkipped: 1, drawsSkipped: 0 });
 		expect(r.warnings[0]).toBe(
 			'line 6, D10: aperture D10 (defined at line 3) has a hole; a paste aperture with a hole cannot be represented; 1 flash(es) skipped'
@@ -211,7 +227,11 @@ describe('importGerberPasteLayer: what it skips with a warning', () => {
 	});
 
 	it('fails when every flash is skipped, listing the reasons', () => {
-		const { errors } = failed(importGerberPasteLayer(`${header}%AMT*7,0,0,1.0,0.6,0.2,0*%\n%ADD10T*%\nD10*\nX0Y0D03*\nM02*\n`));
+		const { errors } = failed(
+			importGerberPasteLayer(
+				`${header}%AMT*7,0,0,1.0,0.6,0.2,0*%\n%ADD10T*%\nD10*\nX0Y0D03*\nM02*\n`
+			)
+		);
 		expect(errors[0].message).toContain('no usable apertures');
 		expect(errors.map((e) => e.message).join('\n')).toContain('thermal');
 	});
@@ -220,29 +240,134 @@ describe('importGerberPasteLayer: what it skips with a warning', () => {
 describe('importGerberPasteLayer: bad files give an error with the line', () => {
 	const good = readRef('standard-apertures-mm.gbr');
 	const cases: { name: string; text: string; line: number; message: RegExp }[] = [
-		{ name: 'truncated (cut before M02)', text: good.slice(0, good.indexOf('D12*')), line: 18, message: /ends without M02; it may be truncated/ },
-		{ name: 'truncated mid-command', text: good.slice(0, good.indexOf('M02') - 6), line: 22, message: /truncated/ },
-		{ name: 'unknown command', text: good.replace('%LPD*%', '%XYZ123*%'), line: 7, message: /unsupported or unknown command "%XYZ123"/ },
-		{ name: 'undefined aperture D-code', text: good.replace('D13*', 'D15*'), line: 21, message: /aperture D15 is not defined/ },
-		{ name: 'garbage bytes', text: 'PK\u0003\u0004\u0000\u0001binary', line: 1, message: /column 3: binary data \(U\+0003\)/ },
-		{ name: 'binary decoded as UTF-8', text: `${header}\uFFFD\uFFFD*\nM02*\n`, line: 3, message: /binary data \(U\+FFFD\)/ },
-		{ name: 'units missing', text: good.replace('%MOMM*%', ''), line: 9, message: /units are not set/ },
-		{ name: 'format missing', text: good.replace('%FSLAX26Y26*%', ''), line: 15, message: /coordinate comes before the format statement/ },
+		{
+			name: 'truncated (cut before M02)',
+			text: good.slice(0, good.indexOf('D12*')),
+			line: 18,
+			message: /ends without M02; it may be truncated/
+		},
+		{
+			name: 'truncated mid-command',
+			text: good.slice(0, good.indexOf('M02') - 6),
+			line: 22,
+			message: /truncated/
+		},
+		{
+			name: 'unknown command',
+			text: good.replace('%LPD*%', '%XYZ123*%'),
+			line: 7,
+			message: /unsupported or unknown command "%XYZ123"/
+		},
+		{
+			name: 'undefined aperture D-code',
+			text: good.replace('D13*', 'D15*'),
+			line: 21,
+			message: /aperture D15 is not defined/
+		},
+		{
+			name: 'garbage bytes',
+			text: 'PK\u0003\u0004\u0000\u0001binary',
+			line: 1,
+			message: /column 3: binary data \(U\+0003\)/
+		},
+		{
+			name: 'binary decoded as UTF-8',
+			text: `${header}\uFFFD\uFFFD*\nM02*\n`,
+			line: 3,
+			message: /binary data \(U\+FFFD\)/
+		},
+		{
+			name: 'units missing',
+			text: good.replace('%MOMM*%', ''),
+			line: 9,
+			message: /units are not set/
+		},
+		{
+			name: 'format missing',
+			text: good.replace('%FSLAX26Y26*%', ''),
+			line: 15,
+			message: /coordinate comes before the format statement/
+		},
 		{ name: 'empty file', text: '', line: 0, message: /the file is empty/ },
 		{ name: 'only whitespace', text: ' \n\t\r\n', line: 0, message: /the file is empty/ },
-		{ name: 'not Gerber (drill-like text)', text: 'M48\nMETRIC\nT1C0.3\n%\nX1Y1\nM30\n', line: 1, message: /not a Gerber file/ },
-		{ name: 'no flashes or regions', text: `${header}%ADD10C,1*%\nM02*\n`, line: 0, message: /no flashes \(D03\) or regions/ },
-		{ name: 'undefined macro', text: `${header}%ADD10NOPE,1*%\nD10*\nX0Y0D03*\nM02*\n`, line: 3, message: /macro "NOPE" is not defined/ },
-		{ name: 'unknown macro primitive', text: `${header}%AMBAD*9,1,2*%\n%ADD10BAD*%\nD10*\nX0Y0D03*\nM02*\n`, line: 3, message: /macro primitive code "9" is not supported/ },
-		{ name: 'region never closed', text: `${header}G36*\nX0Y0D02*\nG01X1000000D01*\nY1000000D01*\nM02*\n`, line: 3, message: /never closed with G37/ },
-		{ name: 'flash inside a region', text: `${header}%ADD10C,1*%\nD10*\nG36*\nX0Y0D03*\nG37*\nM02*\n`, line: 6, message: /flash inside a region/ },
-		{ name: 'incremental coordinates', text: good.replace('%FSLAX26Y26*%', '%FSLIX26Y26*%'), line: 3, message: /incremental coordinates/ },
-		{ name: 'image mirroring', text: good.replace('%LPD*%', '%MIA1B0*%'), line: 7, message: /image mirroring \(%MI\) is not supported/ },
-		{ name: 'aperture rotation (%LR)', text: good.replace('%LPD*%', '%LR45*%'), line: 7, message: /aperture transformations/ },
-		{ name: 'negative polygon size', text: good.replace('P,1.000000X6', 'P,-1X6'), line: 12, message: /polygon diameter must be a number ≥ 0/ },
-		{ name: 'polygon with 2 vertices', text: good.replace('X6X30', 'X2X30'), line: 12, message: /vertex count must be an integer from 3 to 12/ },
-		{ name: 'aperture defined twice', text: good.replace('%ADD13P', '%ADD10C,0.3*%\n%ADD13P'), line: 12, message: /aperture D10 is already defined at line 9/ },
-		{ name: 'flash with no aperture selected', text: `${header}%ADD10C,1*%\nX0Y0D03*\nM02*\n`, line: 4, message: /flash with no aperture selected/ }
+		{
+			name: 'not Gerber (drill-like text)',
+			text: 'M48\nMETRIC\nT1C0.3\n%\nX1Y1\nM30\n',
+			line: 1,
+			message: /not a Gerber file/
+		},
+		{
+			name: 'no flashes or regions',
+			text: `${header}%ADD10C,1*%\nM02*\n`,
+			line: 0,
+			message: /no flashes \(D03\) or regions/
+		},
+		{
+			name: 'undefined macro',
+			text: `${header}%ADD10NOPE,1*%\nD10*\nX0Y0D03*\nM02*\n`,
+			line: 3,
+			message: /macro "NOPE" is not defined/
+		},
+		{
+			name: 'unknown macro primitive',
+			text: `${header}%AMBAD*9,1,2*%\n%ADD10BAD*%\nD10*\nX0Y0D03*\nM02*\n`,
+			line: 3,
+			message: /macro primitive code "9" is not supported/
+		},
+		{
+			name: 'region never closed',
+			text: `${header}G36*\nX0Y0D02*\nG01X1000000D01*\nY1000000D01*\nM02*\n`,
+			line: 3,
+			message: /never closed with G37/
+		},
+		{
+			name: 'flash inside a region',
+			text: `${header}%ADD10C,1*%\nD10*\nG36*\nX0Y0D03*\nG37*\nM02*\n`,
+			line: 6,
+			message: /flash inside a region/
+		},
+		{
+			name: 'incremental coordinates',
+			text: good.replace('%FSLAX26Y26*%', '%FSLIX26Y26*%'),
+			line: 3,
+			message: /incremental coordinates/
+		},
+		{
+			name: 'image mirroring',
+			text: good.replace('%LPD*%', '%MIA1B0*%'),
+			line: 7,
+			message: /image mirroring \(%MI\) is not supported/
+		},
+		{
+			name: 'aperture rotation (%LR)',
+			text: good.replace('%LPD*%', '%LR45*%'),
+			line: 7,
+			message: /aperture transformations/
+		},
+		{
+			name: 'negative polygon size',
+			text: good.replace('P,1.000000X6', 'P,-1X6'),
+			line: 12,
+			message: /polygon diameter must be a number ≥ 0/
+		},
+		{
+			name: 'polygon with 2 vertices',
+			text: good.replace('X6X30', 'X2X30'),
+			line: 12,
+			message: /vertex count must be an integer from 3 to 12/
+		},
+		{
+			name: 'aperture defined twice',
+			text: good.replace('%ADD13P', '%ADD10C,0.3*%\n%ADD13P'),
+			line: 12,
+			message: /aperture D10 is already defined at line 9/
+		},
+		{
+			name: 'flash with no aperture selected',
+			text: `${header}%ADD10C,1*%\nX0Y0D03*\nM02*\n`,
+			line: 4,
+			message: /flash with no aperture selected/
+		}
 	];
 	for (const c of cases) {
 		it(c.name, () => {
@@ -251,19 +376,29 @@ describe('importGerberPasteLayer: bad files give an error with the line', () => 
 			expect(hit, JSON.stringify(errors)).toBeDefined();
 			expect(hit?.line).toBe(c.line);
 			// One message format: `line N, <what>: …` or `file, <what>: …` for the whole file.
-			expect(hit?.message).toMatch(c.line > 0 ? new RegExp(`^line ${c.line}, [^:]+: `) : /^file, [^:]+: /);
+			expect(hit?.message).toMatch(
+				c.line > 0 ? new RegExp(`^line ${c.line}, [^:]+: `) : /^file, [^:]+: /
+			);
 		});
 	}
 
 	it('rejects a file over the size limit without parsing it', () => {
 		const { errors } = failed(importGerberPasteLayer(good, { maxBytes: 100 }));
-		expect(errors).toEqual([{ line: 0, message: expect.stringMatching(/^file, size: .* over the 0\.0 MB limit/) }]);
+		expect(errors).toEqual([
+			{ line: 0, message: expect.stringMatching(/^file, size: .* over the 0\.0 MB limit/) }
+		]);
 	});
 
 	it('rejects a non-string input and a bad tolerance instead of crashing', () => {
-		expect(failed(importGerberPasteLayer(null as unknown as string)).errors[0].message).toMatch(/must be text/);
-		expect(failed(importGerberPasteLayer(good, { arcToleranceUm: 0 })).errors[0].message).toMatch(/arcToleranceUm/);
-		expect(failed(importGerberPasteLayer(good, { arcToleranceUm: Number.NaN })).errors[0].message).toMatch(/arcToleranceUm/);
+		expect(failed(importGerberPasteLayer(null as unknown as string)).errors[0].message).toMatch(
+			/must be text/
+		);
+		expect(failed(importGerberPasteLayer(good, { arcToleranceUm: 0 })).errors[0].message).toMatch(
+			/arcToleranceUm/
+		);
+		expect(
+			failed(importGerberPasteLayer(good, { arcToleranceUm: Number.NaN })).errors[0].message
+		).toMatch(/arcToleranceUm/);
 	});
 
 	it('lists every error, sorted by line, not only the first', () => {

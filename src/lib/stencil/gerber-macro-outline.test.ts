@@ -10,7 +10,10 @@ function corners(l: number, w: number, deg: number, cx = 0, cy = 0): GerberPoint
 		[l / 2, -w / 2],
 		[l / 2, w / 2],
 		[-l / 2, w / 2]
-	].map(([u, v]) => [cx + u * Math.cos(a) - v * Math.sin(a), cy + u * Math.sin(a) + v * Math.cos(a)]);
+	].map(([u, v]) => [
+		cx + u * Math.cos(a) - v * Math.sin(a),
+		cy + u * Math.sin(a) + v * Math.cos(a)
+	]);
 }
 
 function shoelace(points: readonly GerberPoint[]): number {
@@ -25,15 +28,70 @@ function shoelace(points: readonly GerberPoint[]): number {
 
 describe('rectangleFromCorners', () => {
 	const cases: [string, GerberPoint[], object | null][] = [
-		['axis-aligned', corners(2, 1, 0, 1, 0.5), { cx: 1, cy: 0.5, length: 2, width: 1, rotationDeg: 0 }],
-		['turned 30°', corners(1.2, 0.5, 30), { cx: 0, cy: 0, length: 1.2, width: 0.5, rotationDeg: 30 }],
-		['turned 120° is the same as −60°', corners(1.2, 0.5, 120), { cx: 0, cy: 0, length: 1.2, width: 0.5, rotationDeg: -60 }],
-		['turned 90° stays 90°', corners(1, 0.4, 90), { cx: 0, cy: 0, length: 1, width: 0.4, rotationDeg: 90 }],
-		['turned −90° becomes 90°', corners(1, 0.4, -90), { cx: 0, cy: 0, length: 1, width: 0.4, rotationDeg: 90 }],
-		['a parallelogram is not a rectangle', [[0, 0], [2, 0], [3, 1], [1, 1]], null],
-		['a trapezoid is not a rectangle', [[0, 0], [3, 0], [2, 1], [1, 1]], null],
-		['three points', [[0, 0], [1, 0], [0, 1]], null],
-		['a degenerate side', [[0, 0], [0, 0], [0, 1], [0, 1]], null]
+		[
+			'axis-aligned',
+			corners(2, 1, 0, 1, 0.5),
+			{ cx: 1, cy: 0.5, length: 2, width: 1, rotationDeg: 0 }
+		],
+		[
+			'turned 30°',
+			corners(1.2, 0.5, 30),
+			{ cx: 0, cy: 0, length: 1.2, width: 0.5, rotationDeg: 30 }
+		],
+		[
+			'turned 120° is the same as −60°',
+			corners(1.2, 0.5, 120),
+			{ cx: 0, cy: 0, length: 1.2, width: 0.5, rotationDeg: -60 }
+		],
+		[
+			'turned 90° stays 90°',
+			corners(1, 0.4, 90),
+			{ cx: 0, cy: 0, length: 1, width: 0.4, rotationDeg: 90 }
+		],
+		[
+			'turned −90° becomes 90°',
+			corners(1, 0.4, -90),
+			{ cx: 0, cy: 0, length: 1, width: 0.4, rotationDeg: 90 }
+		],
+		[
+			'a parallelogram is not a rectangle',
+			[
+				[0, 0],
+				[2, 0],
+				[3, 1],
+				[1, 1]
+			],
+			null
+		],
+		[
+			'a trapezoid is not a rectangle',
+			[
+				[0, 0],
+				[3, 0],
+				[2, 1],
+				[1, 1]
+			],
+			null
+		],
+		[
+			'three points',
+			[
+				[0, 0],
+				[1, 0],
+				[0, 1]
+			],
+			null
+		],
+		[
+			'a degenerate side',
+			[
+				[0, 0],
+				[0, 0],
+				[0, 1],
+				[0, 1]
+			],
+			null
+		]
 	];
 	for (const [name, pts, want] of cases) {
 		it(name, () => {
@@ -41,7 +99,8 @@ describe('rectangleFromCorners', () => {
 			if (want === null) expect(got).toBeNull();
 			else {
 				expect(got).not.toBeNull();
-				for (const [k, v] of Object.entries(want)) expect(got?.[k as keyof typeof got]).toBeCloseTo(v as number, 9);
+				for (const [k, v] of Object.entries(want))
+					expect(got?.[k as keyof typeof got]).toBeCloseTo(v as number, 9);
 			}
 		});
 	}
@@ -57,18 +116,35 @@ describe('macroShapeOutline', () => {
 	});
 
 	it('maps one unrotated rect to a rectangle, keeping a corner radius', () => {
-		expect(macroShapeOutline([{ type: 'rect', width: 1, height: 0.4, r: 0.1, cx: 0, cy: 0 }], tol)).toEqual({
-			outline: { kind: 'rectangle', length: 1, width: 0.4, cornerRadius: 0.1, cx: 0, cy: 0, rotationDeg: 0 }
+		expect(
+			macroShapeOutline([{ type: 'rect', width: 1, height: 0.4, r: 0.1, cx: 0, cy: 0 }], tol)
+		).toEqual({
+			outline: {
+				kind: 'rectangle',
+				length: 1,
+				width: 0.4,
+				cornerRadius: 0.1,
+				cx: 0,
+				cy: 0,
+				rotationDeg: 0
+			}
 		});
 	});
 
 	it('maps a four-corner rectangle polygon to a rotated rectangle', () => {
-		const result = macroShapeOutline([{ type: 'poly', points: corners(1.2, 0.5, 30, 0.3, 0) }], tol);
+		const result = macroShapeOutline(
+			[{ type: 'poly', points: corners(1.2, 0.5, 30, 0.3, 0) }],
+			tol
+		);
 		expect(result).toMatchObject({ outline: { kind: 'rectangle', rotationDeg: 30 } });
 	});
 
 	it('keeps other polygons as polygons relative to the flash point', () => {
-		const tri: GerberPoint[] = [[0, 0], [1, 0], [0, 1]];
+		const tri: GerberPoint[] = [
+			[0, 0],
+			[1, 0],
+			[0, 1]
+		];
 		expect(macroShapeOutline([{ type: 'poly', points: tri }], tol)).toEqual({
 			outline: { kind: 'polygon', vertices: tri, cx: 0, cy: 0, rotationDeg: 0 }
 		});
@@ -82,7 +158,8 @@ describe('macroShapeOutline', () => {
 			{ type: 'circle', r: 0.25, cx: 0.5, cy: 0 }
 		];
 		const result = macroShapeOutline(prims, tol);
-		if (!('outline' in result) || result.outline.kind !== 'polygon') throw new Error('expected a polygon');
+		if (!('outline' in result) || result.outline.kind !== 'polygon')
+			throw new Error('expected a polygon');
 		const exact = 0.5 + Math.PI * 0.25 ** 2;
 		const area = shoelace(result.outline.vertices);
 		expect(area).toBeLessThanOrEqual(exact);
@@ -118,7 +195,8 @@ describe('macroShapeOutline', () => {
 	it('recognises a rounded-rectangle macro turned 30° as an exact rounded rectangle', () => {
 		// Body 0.8 × 0.4 with r = 0.1 on every side: 1.0 × 0.6, r 0.1 (first principles).
 		const result = macroShapeOutline(roundRectMacro(0.4, 0.2, 0.1, 30), tol);
-		if (!('outline' in result) || result.outline.kind !== 'rectangle') throw new Error('expected a rectangle');
+		if (!('outline' in result) || result.outline.kind !== 'rectangle')
+			throw new Error('expected a rectangle');
 		expect(result.outline.length).toBeCloseTo(1, 9);
 		expect(result.outline.width).toBeCloseTo(0.6, 9);
 		expect(result.outline.cornerRadius).toBeCloseTo(0.1, 9);
@@ -137,7 +215,9 @@ describe('macroShapeOutline', () => {
 
 	it('skips corner circles on a body without side strips (notched, not convex)', () => {
 		const prims = roundRectMacro(0.4, 0.2, 0.1, 0).slice(0, 5);
-		expect(macroShapeOutline(prims, tol)).toMatchObject({ skipReason: expect.stringMatching(/non-convex/) });
+		expect(macroShapeOutline(prims, tol)).toMatchObject({
+			skipReason: expect.stringMatching(/non-convex/)
+		});
 	});
 
 	it('treats a circle inside a larger circle as the larger circle', () => {
@@ -148,7 +228,8 @@ describe('macroShapeOutline', () => {
 			],
 			tol
 		);
-		if (!('outline' in result) || result.outline.kind !== 'polygon') throw new Error('expected a polygon');
+		if (!('outline' in result) || result.outline.kind !== 'polygon')
+			throw new Error('expected a polygon');
 		expect(shoelace(result.outline.vertices)).toBeCloseTo(Math.PI, 2);
 	});
 
@@ -166,8 +247,34 @@ describe('macroShapeOutline', () => {
 			/exposure-off/
 		],
 		['a zero circle', [{ type: 'circle', r: 0, cx: 0, cy: 0 }], /zero size/],
-		['a zero-area polygon', [{ type: 'poly', points: [[0, 0], [1, 0], [2, 0]] }], /zero area/],
-		['NaN coordinates', [{ type: 'poly', points: [[0, 0], [Number.NaN, 0], [0, 1]] }], /non-numeric/],
+		[
+			'a zero-area polygon',
+			[
+				{
+					type: 'poly',
+					points: [
+						[0, 0],
+						[1, 0],
+						[2, 0]
+					]
+				}
+			],
+			/zero area/
+		],
+		[
+			'NaN coordinates',
+			[
+				{
+					type: 'poly',
+					points: [
+						[0, 0],
+						[Number.NaN, 0],
+						[0, 1]
+					]
+				}
+			],
+			/non-numeric/
+		],
 		[
 			'two separate circles (not convex)',
 			[

@@ -281,7 +281,9 @@ export function macroShapeOutline(
 			if (!(p.width > 0 && p.height > 0)) return { skipReason: 'has zero size' };
 			const cornerRadius = Math.min(p.r, p.width / 2, p.height / 2);
 			const { width: length, height: width, cx, cy } = p;
-			return { outline: { kind: 'rectangle', length, width, cornerRadius, cx, cy, rotationDeg: 0 } };
+			return {
+				outline: { kind: 'rectangle', length, width, cornerRadius, cx, cy, rotationDeg: 0 }
+			};
 		}
 		if (!p.points.every((q) => Number.isFinite(q[0]) && Number.isFinite(q[1]))) {
 			return { skipReason: 'has a primitive with non-numeric coordinates' };

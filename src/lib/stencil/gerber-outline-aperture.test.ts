@@ -5,7 +5,15 @@ import { boxesOverlap, gerberOutlineBox, gerberOutlineToAperture } from './gerbe
 describe('gerberOutlineToAperture', () => {
 	it('scales inches by 25 400 µm/in (1 in = 25.4 mm exactly) and adds the outline offset', () => {
 		const a = gerberOutlineToAperture(
-			{ kind: 'rectangle', length: 0.04, width: 0.02, cornerRadius: 0, cx: 0.1, cy: 0, rotationDeg: 15 },
+			{
+				kind: 'rectangle',
+				length: 0.04,
+				width: 0.02,
+				cornerRadius: 0,
+				cx: 0.1,
+				cy: 0,
+				rotationDeg: 15
+			},
 			1,
 			-0.5,
 			MICROMETRES_PER.inch
@@ -24,7 +32,15 @@ describe('gerberOutlineToAperture', () => {
 
 	it('makes a rectangle with a corner radius a rounded rectangle', () => {
 		const a = gerberOutlineToAperture(
-			{ kind: 'rectangle', length: 1.6, width: 0.8, cornerRadius: 0.4, cx: 0, cy: 0, rotationDeg: 0 },
+			{
+				kind: 'rectangle',
+				length: 1.6,
+				width: 0.8,
+				cornerRadius: 0.4,
+				cx: 0,
+				cy: 0,
+				rotationDeg: 0
+			},
 			0,
 			0,
 			MICROMETRES_PER.mm
@@ -34,10 +50,24 @@ describe('gerberOutlineToAperture', () => {
 	});
 
 	it('scales polygon vertices and leaves the input unchanged', () => {
-		const outline = { kind: 'polygon' as const, vertices: [[0, 0], [1, 0], [0, 1]] as [number, number][], cx: 0, cy: 0, rotationDeg: 0 };
+		const outline = {
+			kind: 'polygon' as const,
+			vertices: [
+				[0, 0],
+				[1, 0],
+				[0, 1]
+			] as [number, number][],
+			cx: 0,
+			cy: 0,
+			rotationDeg: 0
+		};
 		const before = structuredClone(outline);
 		const a = gerberOutlineToAperture(outline, 2, 3, MICROMETRES_PER.mm);
-		expect(a.verticesUm).toEqual([[0, 0], [1000, 0], [0, 1000]]);
+		expect(a.verticesUm).toEqual([
+			[0, 0],
+			[1000, 0],
+			[0, 1000]
+		]);
 		expect([a.xUm, a.yUm]).toEqual([2000, 3000]);
 		expect(outline).toEqual(before);
 	});
@@ -45,7 +75,9 @@ describe('gerberOutlineToAperture', () => {
 
 describe('gerberOutlineBox and boxesOverlap', () => {
 	it('boxes a circle', () => {
-		expect(gerberOutlineBox({ kind: 'circle', diameter: 2, cx: 1, cy: 0 }, 5, 5)).toEqual([5, 4, 7, 6]);
+		expect(gerberOutlineBox({ kind: 'circle', diameter: 2, cx: 1, cy: 0 }, 5, 5)).toEqual([
+			5, 4, 7, 6
+		]);
 	});
 
 	it('boxes a square turned 45°: half-diagonal √2/2 each way', () => {

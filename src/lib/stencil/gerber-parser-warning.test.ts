@@ -54,7 +54,9 @@ describe('classifyGerberParserWarning', () => {
 	});
 
 	it('refuses an unknown macro primitive', () => {
-		expect(classifyGerberParserWarning('9 is an unrecognized primitive for a macro aperture')).toEqual({
+		expect(
+			classifyGerberParserWarning('9 is an unrecognized primitive for a macro aperture')
+		).toEqual({
 			kind: 'error',
 			message: 'macro primitive code "9" is not supported'
 		});

@@ -7,9 +7,7 @@
 
 /** What to do with one parser warning. */
 export type GerberWarningAction =
-	| { kind: 'ignore' }
-	| { kind: 'warning'; message: string }
-	| { kind: 'error'; message: string };
+	{ kind: 'ignore' } | { kind: 'warning'; message: string } | { kind: 'error'; message: string };
 
 const UNRECOGNIZED = /^block "(.*)" was not recognized and was ignored$/s;
 

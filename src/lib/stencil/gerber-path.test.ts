@@ -57,7 +57,11 @@ describe('arcSegmentCount', () => {
 	}
 });
 
-const line = (a: [number, number], b: [number, number]): GerberPathSegment => ({ type: 'line', start: a, end: b });
+const line = (a: [number, number], b: [number, number]): GerberPathSegment => ({
+	type: 'line',
+	start: a,
+	end: b
+});
 
 describe('flattenGerberPath', () => {
 	it('returns no contours for an empty path', () => {
@@ -69,7 +73,17 @@ describe('flattenGerberPath', () => {
 			[line([0, 0], [1, 0]), line([1, 0], [1, 1]), line([1, 1], [0, 1]), line([0, 1], [0, 0])],
 			0.001
 		);
-		expect(square).toEqual([{ vertices: [[0, 0], [1, 0], [1, 1], [0, 1]], closed: true }]);
+		expect(square).toEqual([
+			{
+				vertices: [
+					[0, 0],
+					[1, 0],
+					[1, 1],
+					[0, 1]
+				],
+				closed: true
+			}
+		]);
 	});
 
 	it('starts a new contour where a segment does not continue the previous one (a D02 move)', () => {
@@ -90,7 +104,16 @@ describe('flattenGerberPath', () => {
 
 	it('marks a contour that does not return to its start as open', () => {
 		const open = flattenGerberPath([line([0, 0], [1, 0]), line([1, 0], [1, 1])], 0.001);
-		expect(open).toEqual([{ vertices: [[0, 0], [1, 0], [1, 1]], closed: false }]);
+		expect(open).toEqual([
+			{
+				vertices: [
+					[0, 0],
+					[1, 0],
+					[1, 1]
+				],
+				closed: false
+			}
+		]);
 	});
 
 	it('flattens a full counter-clockwise circle onto the circle, area within r·2π·tol of πr²', () => {

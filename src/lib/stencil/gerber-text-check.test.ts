@@ -12,7 +12,12 @@ describe('checkGerberText', () => {
 		['blank', '\n \n', 1e6, { line: 0, message: /empty/ }],
 		['exactly at the limit', 'M02*', 4, null],
 		['one over the limit', 'M02*\n', 4, { line: 0, message: /^file, size: / }],
-		['a NUL on line 2, column 4', 'G04*\nX12\u0000', 1e6, { line: 2, message: /^line 2, column 4: binary data \(U\+0000\)/ }],
+		[
+			'a NUL on line 2, column 4',
+			'G04*\nX12\u0000',
+			1e6,
+			{ line: 2, message: /^line 2, column 4: binary data \(U\+0000\)/ }
+		],
 		['DEL', 'M02*\u007F', 1e6, { line: 1, message: /U\+007F/ }],
 		['no * at all', 'hello\nworld\n', 1e6, { line: 1, message: /not a Gerber file/ }]
 	];

@@ -37,21 +37,30 @@ describe('findApertureOverlaps (first-principles areas)', () => {
 	it('a chain of three overlapping pads is one group, united once', () => {
 		const list = [0, 800, 1600].map((x) => rect(1000, 1000, { xUm: x }));
 		const r = findApertureOverlaps(list, areas(list));
-		expect(r.pairs.map((p) => [p.a, p.b])).toEqual([[0, 1], [1, 2]]);
+		expect(r.pairs.map((p) => [p.a, p.b])).toEqual([
+			[0, 1],
+			[1, 2]
+		]);
 		// 2.6 mm × 1 mm.
 		expect(r.unionAreaUm2).toBeCloseTo(2_600_000, 3);
 	});
 
 	it('stops, saying so, when openings piled on one spot exceed the pair-test budget', () => {
 		const list = Array.from({ length: 200 }, () => rect(1000, 1000));
-		const r = findApertureOverlaps(list, areas(list), { maxPairTests: 1000, maxCellsFiled: 1e6, maxPairs: 1e4, maxGroupSize: 500 });
+		const r = findApertureOverlaps(list, areas(list), {
+			maxPairTests: 1000,
+			maxCellsFiled: 1e6,
+			maxPairs: 1e4,
+			maxGroupSize: 500
+		});
 		expect(r.complete).toBe(false);
 		expect(r.note).toContain('1,000 box tests');
 	});
 
 	it('finds the one overlap among 20,000 separate pads (grid, not all pairs)', () => {
 		const list: ApertureInput[] = [];
-		for (let k = 0; k < 20_000; k++) list.push(rect(500, 300, { xUm: (k % 200) * 1000, yUm: Math.floor(k / 200) * 1000 }));
+		for (let k = 0; k < 20_000; k++)
+			list.push(rect(500, 300, { xUm: (k % 200) * 1000, yUm: Math.floor(k / 200) * 1000 }));
 		list.push(rect(500, 300, { xUm: 250 }));
 		const r = findApertureOverlaps(list, areas(list));
 		expect(r.pairs).toEqual([{ a: 0, b: 20_000, areaUm2: expect.closeTo(250 * 300, 3) }]);
@@ -60,7 +69,12 @@ describe('findApertureOverlaps (first-principles areas)', () => {
 });
 
 describe('liesWithin', () => {
-	const sq = (h: number, x = 0): PointUm[] => [[x - h, -h], [x + h, -h], [x + h, h], [x - h, h]];
+	const sq = (h: number, x = 0): PointUm[] => [
+		[x - h, -h],
+		[x + h, -h],
+		[x + h, h],
+		[x - h, h]
+	];
 	it('a small square in a large one, but not one that sticks out', () => {
 		expect(liesWithin(sq(1), sq(3))).toBe(true);
 		expect(liesWithin(sq(1, 2.5), sq(3))).toBe(false);

@@ -28,9 +28,12 @@ describe('J-STD-005 table matches the reference file', () => {
 
 describe('five-ball minimum widths (SMT007 July 2019 method: T3 225, T4 190, T5 125, T6 75, T7 55)', () => {
 	for (const [type, width] of Object.entries(examples.fiveBallRule.minimumApertureWidthUm))
-		it(`Type ${type} → ${width} µm`, () => expect(minApertureWidthUm(Number(type) as PowderType)).toBe(width));
-	it('a different particle count scales it (eight-ball variant)', () => expect(minApertureWidthUm(4, 8)).toBe(304));
-	it('unknown type throws', () => expect(() => largestParticleUm(9 as PowderType)).toThrow(/unknown J-STD-005 type 9/));
+		it(`Type ${type} → ${width} µm`, () =>
+			expect(minApertureWidthUm(Number(type) as PowderType)).toBe(width));
+	it('a different particle count scales it (eight-ball variant)', () =>
+		expect(minApertureWidthUm(4, 8)).toBe(304));
+	it('unknown type throws', () =>
+		expect(() => largestParticleUm(9 as PowderType)).toThrow(/unknown J-STD-005 type 9/));
 });
 
 describe('suggestPowderType', () => {
@@ -39,8 +42,16 @@ describe('suggestPowderType', () => {
 		expect(suggestPowderType([rect(300, 280)]).type).toBe(3);
 	});
 	it('the narrowest aperture decides, and is reported', () => {
-		const s = suggestPowderType([rect(300, 280, { refdes: 'C1' }), rect(1000, 200, { refdes: 'U7', pad: '12' })]);
-		expect(s).toMatchObject({ type: 4, limitingIndex: 1, limitingLabel: 'U7.12', limitingMinDimensionUm: 200 });
+		const s = suggestPowderType([
+			rect(300, 280, { refdes: 'C1' }),
+			rect(1000, 200, { refdes: 'U7', pad: '12' })
+		]);
+		expect(s).toMatchObject({
+			type: 4,
+			limitingIndex: 1,
+			limitingLabel: 'U7.12',
+			limitingMinDimensionUm: 200
+		});
 		expect(s.message).toContain('U7.12');
 	});
 	const boundary = [
@@ -53,7 +64,11 @@ describe('suggestPowderType', () => {
 	for (const b of boundary)
 		it(b.note, () => expect(suggestPowderType([circle(b.d)]).type).toBe(b.type));
 	it('empty list → null type with a message', () => {
-		expect(suggestPowderType([])).toMatchObject({ type: null, limitingIndex: null, message: 'no apertures to suggest a powder type for' });
+		expect(suggestPowderType([])).toMatchObject({
+			type: null,
+			limitingIndex: null,
+			message: 'no apertures to suggest a powder type for'
+		});
 	});
 });
 

@@ -16,18 +16,32 @@ describe('localThickness', () => {
 		{ name: 'just outside the boundary', x: 10000.001, y: 5000, t: 120 }
 	];
 	for (const c of cases)
-		it(c.name, () => expect(localThickness(rect(200, 200, { xUm: c.x, yUm: c.y }), 120, regions)).toBe(c.t));
+		it(c.name, () =>
+			expect(localThickness(rect(200, 200, { xUm: c.x, yUm: c.y }), 120, regions)).toBe(c.t)
+		);
 	it('no regions → base thickness', () => expect(localThickness(rect(200, 200), 127)).toBe(127));
 	it('a polygon uses its area centroid, not its reference point', () => {
 		// Reference point (9000, 0) is outside region 2, centroid (9000+... ) stays outside too;
 		// a square offset so its centroid lands at (3000, 3000):
-		const p = polygon([[2900, 2900], [3100, 2900], [3100, 3100], [2900, 3100]], { xUm: 0, yUm: 0 });
+		const p = polygon(
+			[
+				[2900, 2900],
+				[3100, 2900],
+				[3100, 3100],
+				[2900, 3100]
+			],
+			{ xUm: 0, yUm: 0 }
+		);
 		expect(localThickness(p, 120, regions)).toBe(80);
 	});
 	it('rejects a bad base thickness and bad regions with field names', () => {
-		expect(() => localThickness(rect(1, 1), 0, [])).toThrow(/stencil, thicknessUm: must be greater than 0/);
+		expect(() => localThickness(rect(1, 1), 0, [])).toThrow(
+			/stencil, thicknessUm: must be greater than 0/
+		);
 		expect(() =>
-			localThickness(rect(1, 1), 100, [{ xMinUm: 5, yMinUm: 0, xMaxUm: 1, yMaxUm: 1, thicknessUm: 80 }])
+			localThickness(rect(1, 1), 100, [
+				{ xMinUm: 5, yMinUm: 0, xMaxUm: 1, yMaxUm: 1, thicknessUm: 80 }
+			])
 		).toThrow(/stepRegions\[0\], xMaxUm: must not be less than xMinUm/);
 	});
 });
@@ -38,7 +52,10 @@ describe('checkStepRegions', () => {
 			{ xMinUm: 0, yMinUm: 0, xMaxUm: 1, yMaxUm: 1, thicknessUm: 0 },
 			{ xMinUm: NaN, yMinUm: 0, xMaxUm: 1, yMaxUm: -1, thicknessUm: 80 }
 		]);
-		expect(p.map((q) => `${q.where}.${q.field}`)).toEqual(['stepRegions[0].thicknessUm', 'stepRegions[1].xMinUm']);
+		expect(p.map((q) => `${q.where}.${q.field}`)).toEqual([
+			'stepRegions[0].thicknessUm',
+			'stepRegions[1].xMinUm'
+		]);
 	});
 	it('valid regions → no problems', () => expect(checkStepRegions(regions)).toEqual([]));
 });

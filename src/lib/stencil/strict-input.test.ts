@@ -117,7 +117,9 @@ describe('aperture CSV: strict cells, counted vertices', () => {
 	it('a binary file (zip bytes) uploaded as an aperture CSV is one error: not a CSV file (issue 13)', () => {
 		const zip = 'PK\u0003\u0004\u0014\u0000\u0008\u0000\uFFFD\uFFFDrefdes,pad';
 		const r = parseApertureCsv(zip, 'mm');
-		expect(r).toMatchObject({ errors: [{ row: 1, message: expect.stringMatching(/^this is not a CSV file: /) }] });
+		expect(r).toMatchObject({
+			errors: [{ row: 1, message: expect.stringMatching(/^this is not a CSV file: /) }]
+		});
 		expect('errors' in r && r.errors).toHaveLength(1);
 	});
 

@@ -8,11 +8,19 @@ describe('resolveThresholds', () => {
 	});
 	it('site override replaces only the given field of the given technology', () => {
 		const o = { electroformed: { minAreaRatio: 0.55 } };
-		expect(resolveThresholds('electroformed', o)).toEqual({ minAreaRatio: 0.55, minAspectRatio: 1.5 });
-		expect(resolveThresholds('laser-stainless', o)).toEqual({ minAreaRatio: 0.66, minAspectRatio: 1.5 });
+		expect(resolveThresholds('electroformed', o)).toEqual({
+			minAreaRatio: 0.55,
+			minAspectRatio: 1.5
+		});
+		expect(resolveThresholds('laser-stainless', o)).toEqual({
+			minAreaRatio: 0.66,
+			minAspectRatio: 1.5
+		});
 	});
 	it('an explicit undefined in overrides keeps the default', () => {
-		expect(resolveThresholds('step', { step: { minAreaRatio: undefined } }).minAreaRatio).toBe(0.66);
+		expect(resolveThresholds('step', { step: { minAreaRatio: undefined } }).minAreaRatio).toBe(
+			0.66
+		);
 	});
 	it('does not mutate the defaults', () => {
 		resolveThresholds('electroformed', { electroformed: { minAreaRatio: 0.5 } });
@@ -27,11 +35,13 @@ describe('resolveThresholds', () => {
 	];
 	for (const [name, v] of bad)
 		it(`rejects a ${name} override`, () => {
-			expect(() => resolveThresholds('electroformed', { electroformed: { minAreaRatio: v as number } })).toThrow(
-				/site thresholds for electroformed, minAreaRatio: must be a number/
-			);
+			expect(() =>
+				resolveThresholds('electroformed', { electroformed: { minAreaRatio: v as number } })
+			).toThrow(/site thresholds for electroformed, minAreaRatio: must be a number/);
 		});
 	it('rejects an unknown technology', () => {
-		expect(() => resolveThresholds('chemical-etch' as never)).toThrow(/stencil, technology: unknown technology "chemical-etch"/);
+		expect(() => resolveThresholds('chemical-etch' as never)).toThrow(
+			/stencil, technology: unknown technology "chemical-etch"/
+		);
 	});
 });

@@ -55,7 +55,8 @@ export function newtonsToKg(newtons: number): number {
 /** Parse a unit name as typed by a user or written in a file header. */
 export function parseLengthUnit(text: string): LengthUnit | null {
 	const t = text.trim().toLowerCase().replace('µ', 'u').replace('μ', 'u');
-	if (t === 'um' || t === 'micron' || t === 'microns' || t === 'micrometre' || t === 'micrometer') return 'um';
+	if (t === 'um' || t === 'micron' || t === 'microns' || t === 'micrometre' || t === 'micrometer')
+		return 'um';
 	if (t === 'mm' || t === 'millimetre' || t === 'millimeter') return 'mm';
 	if (t === 'mil' || t === 'mils' || t === 'thou') return 'mil';
 	if (t === 'in' || t === 'inch' || t === 'inches') return 'inch';

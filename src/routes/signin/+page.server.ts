@@ -30,7 +30,10 @@ export const actions = {
 	default: async (event) => {
 		// Auth.js reads the form itself, so validate a copy.
 		const form = await event.request.clone().formData();
-		const parsed = signInSchema.safeParse({ email: form.get('email'), password: form.get('password') });
+		const parsed = signInSchema.safeParse({
+			email: form.get('email'),
+			password: form.get('password')
+		});
 		const email = String(form.get('email') ?? '').slice(0, 254);
 		if (!parsed.success) {
 			const fields = Object.fromEntries(parsed.error.issues.map((i) => [i.path[0], i.message]));

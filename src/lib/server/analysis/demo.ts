@@ -91,7 +91,11 @@ export async function seedDemoAnalysis(db: Db, nowMs = Date.now()): Promise<void
 	const recipe = currentRecipeFor(db, line.id, product.id);
 	const t4 = db.select().from(pasteLots).where(eq(pasteLots.lotNumber, 'PL-2026-0390')).get();
 	if (!recipe || !t4) return;
-	const operator = db.select().from(users).where(eq(users.email, 'technician@fenmoor.example')).get();
+	const operator = db
+		.select()
+		.from(users)
+		.where(eq(users.email, 'technician@fenmoor.example'))
+		.get();
 
 	const stencil = createStencil(
 		db,
@@ -182,7 +186,8 @@ export async function seedDemoAnalysis(db: Db, nowMs = Date.now()): Promise<void
 		void run;
 		// Invented process response: TE × (1 − 0.0035/(mm/s) above 50 mm/s − 0.025/kg above 6 kg),
 		// and 2 % lost over the 24 runs as the foil wears.
-		const runFactor = (1 - 0.0035 * (speed - 50) - 0.025 * (pressure - 6)) * (1 - 0.02 * (i / RUNS));
+		const runFactor =
+			(1 - 0.0035 * (speed - 50) - 0.025 * (pressure - 6)) * (1 - 0.02 * (i / RUNS));
 		const curve = DEMO_CURVE[lot.powderType === 5 ? 5 : 4];
 		for (let b = 0; b < BOARDS_PER_RUN; b++) {
 			serial++;

@@ -40,7 +40,13 @@ describe('failureMap', () => {
 		const m = await failureMap(t.db, q('product=P1'));
 		expect(m.boards).toBe(4);
 		const pad = (r: string, p: string) => m.pads.find((x) => x.refdes === r && x.pad === p)!;
-		expect(pad('R1', '1')).toMatchObject({ inspected: 4, fails: 2, warns: 0, failRate: 0.5, xUm: null });
+		expect(pad('R1', '1')).toMatchObject({
+			inspected: 4,
+			fails: 2,
+			warns: 0,
+			failRate: 0.5,
+			xUm: null
+		});
 		expect(pad('R1', '2')).toMatchObject({ inspected: 2, fails: 1, warns: 1 });
 		expect(pad('U7', '1')).toMatchObject({ inspected: 2, fails: 1 });
 		expect(m.byClass).toEqual([

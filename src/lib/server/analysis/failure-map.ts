@@ -17,7 +17,12 @@ export function readFailureMapFilters(url: URL): FailureMapFilters {
 	const product = q.text('product');
 	if (product === null && !q.problems.some((p) => p.field === 'product'))
 		q.problems.push({ field: 'product', message: 'is required (one board layout per map)' });
-	const f = { product: product as string, line: q.text('line'), fromMs: q.instant('from'), toMs: q.instant('to', true) };
+	const f = {
+		product: product as string,
+		line: q.text('line'),
+		fromMs: q.instant('from'),
+		toMs: q.instant('to', true)
+	};
 	checkRange(q, f.fromMs, f.toMs);
 	q.finish();
 	return f;
@@ -40,7 +45,13 @@ export interface FailureMapAnswer {
 		failRate: number;
 	}[];
 	/** Pareto by pad class (the refdes letters: C, R, U, …), most fails first. */
-	byClass: { padClass: string; fails: number; warns: number; inspected: number; failRate: number }[];
+	byClass: {
+		padClass: string;
+		fails: number;
+		warns: number;
+		inspected: number;
+		failRate: number;
+	}[];
 	note: string | null;
 }
 
@@ -63,14 +74,22 @@ export async function padFailures(
 		 group by m.pad_id`
 	);
 	const perPad = new Map<number, { n: number; fails: number; warns: number }>();
-	for (let i = 0; i < boards.length; ) {
+	for (let i = 0; i < boards.length;) {
 		const slice: number[] = [];
 		let slicePads = 0;
-		while (i < boards.length && (slice.length === 0 || slicePads + boards[i].pad_count <= MAP_PADS_PER_SLICE)) {
+		while (
+			i < boards.length &&
+			(slice.length === 0 || slicePads + boards[i].pad_count <= MAP_PADS_PER_SLICE)
+		) {
 			slicePads += boards[i].pad_count;
 			slice.push(boards[i++].id);
 		}
-		for (const r of aggregate.all(JSON.stringify(slice)) as { padId: number; n: number; fails: number; warns: number }[]) {
+		for (const r of aggregate.all(JSON.stringify(slice)) as {
+			padId: number;
+			n: number;
+			fails: number;
+			warns: number;
+		}[]) {
 			const cur = perPad.get(r.padId);
 			if (cur) {
 				cur.n += r.n;
@@ -105,7 +124,9 @@ export async function failureMap(db: Db, f: FailureMapFilters): Promise<FailureM
 		params.push(f.toMs);
 	}
 	const boards = c
-		.prepare(`select b.id, b.pad_count from spi_boards b where ${where.join(' and ')} order by b.inspected_at desc`)
+		.prepare(
+			`select b.id, b.pad_count from spi_boards b where ${where.join(' and ')} order by b.inspected_at desc`
+		)
 		.all(...params) as { id: number; pad_count: number }[];
 	const used: number[] = [];
 	let pads = 0;
@@ -120,7 +141,14 @@ export async function failureMap(db: Db, f: FailureMapFilters): Promise<FailureM
 			`select p.id, p.refdes, p.pad, p.panel_index, a.x_um, a.y_um from spi_pads p
 			 left join apertures a on a.id = p.aperture_id where p.product_code = ?`
 		)
-		.all(f.product) as { id: number; refdes: string; pad: string; panel_index: number; x_um: number | null; y_um: number | null }[];
+		.all(f.product) as {
+		id: number;
+		refdes: string;
+		pad: string;
+		panel_index: number;
+		x_um: number | null;
+		y_um: number | null;
+	}[];
 	const out: FailureMapAnswer['pads'] = [];
 	const classes = new Map<string, { fails: number; warns: number; inspected: number }>();
 	for (const p of padRows) {

@@ -46,12 +46,17 @@ describe('firstPassYield', () => {
 		expect(a.total).toEqual({ boards: 4, passBoards: 2, firstPassYield: 0.5 });
 	});
 	it('groups by product and by ISO week, and filters', () => {
-		expect(firstPassYield(t.db, q('by=product')).groups.map((g) => [g.key, g.boards, g.passBoards])).toEqual([
+		expect(
+			firstPassYield(t.db, q('by=product')).groups.map((g) => [g.key, g.boards, g.passBoards])
+		).toEqual([
 			['P1', 3, 1],
 			['P2', 1, 1]
 		]);
 		// 2 March 2026 is a Monday in ISO week 10; 9 March starts week 11.
-		expect(firstPassYield(t.db, q('by=week')).groups.map((g) => g.key)).toEqual(['2026-W10', '2026-W11']);
+		expect(firstPassYield(t.db, q('by=week')).groups.map((g) => g.key)).toEqual([
+			'2026-W10',
+			'2026-W11'
+		]);
 		expect(firstPassYield(t.db, q('by=line&from=2026-03-09')).total.boards).toBe(2);
 	});
 	it('refuses an unknown grouping', () => {

@@ -31,7 +31,13 @@ export function readYieldFilters(url: URL): YieldFilters {
 
 export interface YieldAnswer {
 	by: YieldGrouping;
-	groups: { key: string; boards: number; passBoards: number; firstPassYield: number; failingPads: number }[];
+	groups: {
+		key: string;
+		boards: number;
+		passBoards: number;
+		firstPassYield: number;
+		failingPads: number;
+	}[];
 	total: { boards: number; passBoards: number; firstPassYield: number | null };
 	/** Re-inspections of a serial already inspected earlier (left out of the yield). */
 	reinspections: number;
@@ -63,13 +69,20 @@ export function firstPassYield(db: Db, f: YieldFilters): YieldAnswer {
 		params.push(f.toMs);
 	}
 	const clause = where.length ? `where ${where.join(' and ')}` : '';
-	const count = db.$client.prepare(`select count(*) from spi_boards b ${clause}`).pluck().get(...params) as number;
+	const count = db.$client
+		.prepare(`select count(*) from spi_boards b ${clause}`)
+		.pluck()
+		.get(...params) as number;
 	if (count > MAX_YIELD_BOARDS)
 		throw new ApiError(422, {
 			error: `${count} board inspections match; at most ${MAX_YIELD_BOARDS} are read per request. Narrow the dates (from, to), the line or the product.`
 		});
 	const key =
-		f.by === 'line' ? 'b.line_code' : f.by === 'product' ? 'b.product_code' : `strftime('%G-W%V', b.inspected_at / 1000, 'unixepoch')`;
+		f.by === 'line'
+			? 'b.line_code'
+			: f.by === 'product'
+				? 'b.product_code'
+				: `strftime('%G-W%V', b.inspected_at / 1000, 'unixepoch')`;
 	const rows = db.$client
 		.prepare(
 			`select ${key} as key,
@@ -81,7 +94,13 @@ export function firstPassYield(db: Db, f: YieldFilters): YieldAnswer {
 			       from spi_boards b ${clause}) b
 			 group by 1 order by 1`
 		)
-		.all(...params) as { key: string; boards: number; pass_boards: number; failing_pads: number; reinspections: number }[];
+		.all(...params) as {
+		key: string;
+		boards: number;
+		pass_boards: number;
+		failing_pads: number;
+		reinspections: number;
+	}[];
 	const groups = rows
 		.filter((r) => r.boards > 0)
 		.map((r) => ({

@@ -52,7 +52,9 @@ describe('parameterEffect on the demo', () => {
 		try {
 			readParameterFilters(url('parameter=colour&outcome=volumeMean&from=2026-02-30&extra=1'));
 		} catch (err) {
-			const fields = (err as { body: { fields: { field: string }[] } }).body.fields.map((f) => f.field);
+			const fields = (err as { body: { fields: { field: string }[] } }).body.fields.map(
+				(f) => f.field
+			);
 			expect(fields.sort()).toEqual(['extra', 'from', 'parameter']);
 			return;
 		}

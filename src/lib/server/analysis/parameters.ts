@@ -87,7 +87,13 @@ export interface ParameterAnswer {
 		residualSd: number;
 		band: { x: number; fit: number; lower: number; upper: number }[];
 	} | null;
-	correlation: { r: number; lower: number | null; upper: number | null; level: number; n: number } | null;
+	correlation: {
+		r: number;
+		lower: number | null;
+		upper: number | null;
+		level: number;
+		n: number;
+	} | null;
 	reason: string | null;
 	caution: string;
 	runsConsidered: number;
@@ -202,7 +208,8 @@ function buildAnswer(f: ParameterFilters, rows: RunRow[]): ParameterAnswer {
 	let correlation: ParameterAnswer['correlation'] = null;
 	let reason: string | null = null;
 	const spread = (v: number[]) => v.length > 0 && Math.max(...v) > Math.min(...v);
-	if (points.length < 3) reason = `${points.length} runs with this parameter and inspected boards; a line needs 3`;
+	if (points.length < 3)
+		reason = `${points.length} runs with this parameter and inspected boards; a line needs 3`;
 	else if (!spread(xs)) reason = 'every run logged the same value of this parameter';
 	else if (!spread(ys)) reason = 'every run has the same outcome';
 	else {
@@ -235,6 +242,8 @@ function buildAnswer(f: ParameterFilters, rows: RunRow[]): ParameterAnswer {
 		reason,
 		caution: CORRELATION_CAUTION,
 		runsConsidered: Math.min(rows.length, MAX_RUNS),
-		note: limited ? `Only the newest ${MAX_RUNS} runs were used: narrow the dates for older runs.` : null
+		note: limited
+			? `Only the newest ${MAX_RUNS} runs were used: narrow the dates for older runs.`
+			: null
 	};
 }

@@ -25,7 +25,10 @@ export class QueryReader {
 	) {
 		for (const key of new Set(url.searchParams.keys())) {
 			if (!allowed.includes(key))
-				this.problems.push({ field: key, message: `is not a known parameter (${allowed.join(', ')})` });
+				this.problems.push({
+					field: key,
+					message: `is not a known parameter (${allowed.join(', ')})`
+				});
 			else if (url.searchParams.getAll(key).length > 1)
 				this.problems.push({ field: key, message: 'is given more than once' });
 		}

@@ -10,7 +10,11 @@ beforeAll(async () => {
 }, 120_000);
 afterAll(() => t.close());
 
-const one = (sql: string, ...p: unknown[]) => t.db.$client.prepare(sql).pluck().get(...p) as number;
+const one = (sql: string, ...p: unknown[]) =>
+	t.db.$client
+		.prepare(sql)
+		.pluck()
+		.get(...p) as number;
 
 describe('isoWeekStartMs', () => {
 	it('gives the Monday of ISO weeks, and null for weeks that do not exist', () => {
@@ -58,7 +62,9 @@ describe('runReport', () => {
 		);
 	});
 	it('names the signals of a run', async () => {
-		const s = t.db.$client.prepare(`select id, point_keys from spc_signals order by id limit 1`).get() as {
+		const s = t.db.$client
+			.prepare(`select id, point_keys from spc_signals order by id limit 1`)
+			.get() as {
 			id: number;
 			point_keys: string;
 		};
@@ -76,7 +82,10 @@ describe('lineWeekReport', () => {
 		const first = one(
 			`select min(started_at) from print_runs where line_id = (select id from lines where code = 'SMT-2')`
 		);
-		const week = t.db.$client.prepare(`select strftime('%G-W%V', ? / 1000, 'unixepoch')`).pluck().get(first) as string;
+		const week = t.db.$client
+			.prepare(`select strftime('%G-W%V', ? / 1000, 'unixepoch')`)
+			.pluck()
+			.get(first) as string;
 		const rep = lineWeekReport(t.db, 'SMT-2', week);
 		const start = isoWeekStartMs(week)!;
 		expect(rep.runs.length).toBe(

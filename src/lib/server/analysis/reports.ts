@@ -12,7 +12,13 @@ export interface ReportSignal {
 	rule: string;
 	chartPart: string;
 	pointAt: string | null;
-	acknowledged: { at: string; by: string | null; cause: string | null; action: string | null; note: string | null } | null;
+	acknowledged: {
+		at: string;
+		by: string | null;
+		cause: string | null;
+		action: string | null;
+		note: string | null;
+	} | null;
 }
 
 export interface RunReport {
@@ -31,10 +37,20 @@ export interface RunReport {
 		relativeHumidityPct: number | null;
 		overrideReason: string | null;
 	};
-	stencil: { id: number; name: string; revision: string; technology: string; thicknessUm: number } | null;
+	stencil: {
+		id: number;
+		name: string;
+		revision: string;
+		technology: string;
+		thicknessUm: number;
+	} | null;
 	pasteLot: { lotNumber: string; alloy: string; powderType: number } | null;
 	/** Each logged parameter beside its recipe window (when the recipe has one). */
-	parameters: { key: string; value: unknown; window: { min: number; target: number; max: number } | string | null }[];
+	parameters: {
+		key: string;
+		value: unknown;
+		window: { min: number; target: number; max: number } | string | null;
+	}[];
 	deviations: unknown[];
 	deviationReasons: Record<string, string>;
 	spi: {
@@ -44,9 +60,21 @@ export interface RunReport {
 		volumeMean: number | null;
 		volumeCpk: number | null;
 		teMean: number | null;
-		series: { serial: string; inspectedAt: string; volumeMean: number | null; teMean: number | null; fails: number }[];
+		series: {
+			serial: string;
+			inspectedAt: string;
+			volumeMean: number | null;
+			teMean: number | null;
+			fails: number;
+		}[];
 	};
-	topFailing: { refdes: string; padClass: string; fails: number; warns: number; inspected: number }[];
+	topFailing: {
+		refdes: string;
+		padClass: string;
+		fails: number;
+		warns: number;
+		inspected: number;
+	}[];
 	signals: ReportSignal[];
 	notes: string[];
 }
@@ -83,7 +111,13 @@ function signalRows(db: Db, where: string, params: unknown[]): ReportSignal[] {
 		acknowledged:
 			s.ack_at === null
 				? null
-				: { at: iso(s.ack_at)!, by: s.ack_by, cause: s.ack_cause, action: s.ack_action, note: s.ack_note }
+				: {
+						at: iso(s.ack_at)!,
+						by: s.ack_by,
+						cause: s.ack_cause,
+						action: s.ack_action,
+						note: s.ack_note
+					}
 	}));
 }
 
@@ -106,21 +140,24 @@ export async function runReport(db: Db, runId: number): Promise<RunReport> {
 		.get(runId) as Record<string, unknown> | undefined;
 	if (!r) throw new ApiError(404, { error: `No print run ${runId}.` });
 	const st = r.stencil_id
-		? (c.prepare(`select id, name, revision, technology, thickness_um from stencils where id = ?`).get(r.stencil_id) as
-				| Record<string, unknown>
-				| undefined)
+		? (c
+				.prepare(`select id, name, revision, technology, thickness_um from stencils where id = ?`)
+				.get(r.stencil_id) as Record<string, unknown> | undefined)
 		: undefined;
 	const lot = r.paste_lot_id
-		? (c.prepare(`select lot_number, alloy, powder_type from paste_lots where id = ?`).get(r.paste_lot_id) as
-				| Record<string, unknown>
-				| undefined)
+		? (c
+				.prepare(`select lot_number, alloy, powder_type from paste_lots where id = ?`)
+				.get(r.paste_lot_id) as Record<string, unknown> | undefined)
 		: undefined;
 	const logged = JSON.parse(r.parameters as string) as Record<string, unknown>;
-	const recipe = r.recipe_parameters ? (JSON.parse(r.recipe_parameters as string) as Record<string, unknown>) : {};
+	const recipe = r.recipe_parameters
+		? (JSON.parse(r.recipe_parameters as string) as Record<string, unknown>)
+		: {};
 	const parameters = Object.entries(logged).map(([key, value]) => ({
 		key,
 		value,
-		window: (recipe[key] as { min: number; target: number; max: number } | string | undefined) ?? null
+		window:
+			(recipe[key] as { min: number; target: number; max: number } | string | undefined) ?? null
 	}));
 	const boards = c
 		.prepare(
@@ -156,17 +193,28 @@ export async function runReport(db: Db, runId: number): Promise<RunReport> {
 		teCount += b.te_count;
 	}
 	const passBoards = boards.filter((b) => b.fail_count === 0).length;
-	const outcome = runOutcome({ boards: boards.length, passBoards, pads, volumeSum, withinSs, withinDf });
+	const outcome = runOutcome({
+		boards: boards.length,
+		passBoards,
+		pads,
+		volumeSum,
+		withinSs,
+		withinDf
+	});
 	const notes: string[] = [];
 	// The failing components: the run's boards up to the map's pad bound.
 	let budget = 0;
 	const scanned = boards.filter((b) => (budget += b.pad_count) <= MAX_MAP_PADS);
 	if (scanned.length < boards.length)
-		notes.push(`Failing components are counted over the first ${scanned.length} of ${boards.length} boards.`);
+		notes.push(
+			`Failing components are counted over the first ${scanned.length} of ${boards.length} boards.`
+		);
 	const perPad = await padFailures(db, scanned);
 	const byRefdes = new Map<string, { fails: number; warns: number; inspected: number }>();
 	if (perPad.size > 0) {
-		const refdesOf = c.prepare(`select id, refdes from spi_pads where product_code = ?`).all(r.product) as {
+		const refdesOf = c
+			.prepare(`select id, refdes from spi_pads where product_code = ?`)
+			.all(r.product) as {
 			id: number;
 			refdes: string;
 		}[];
@@ -185,7 +233,8 @@ export async function runReport(db: Db, runId: number): Promise<RunReport> {
 		.filter((x) => x.fails > 0)
 		.sort((a, b) => b.fails - a.fails || a.refdes.localeCompare(b.refdes))
 		.slice(0, 20);
-	if (boards.length > MAX_REPORT_BOARDS) notes.push(`The chart shows the last ${MAX_REPORT_BOARDS} of ${boards.length} boards.`);
+	if (boards.length > MAX_REPORT_BOARDS)
+		notes.push(`The chart shows the last ${MAX_REPORT_BOARDS} of ${boards.length} boards.`);
 	const signals = signalRows(
 		db,
 		`exists (select 1 from json_each(s.point_keys) k where k.value = ?)
@@ -218,7 +267,11 @@ export async function runReport(db: Db, runId: number): Promise<RunReport> {
 				}
 			: null,
 		pasteLot: lot
-			? { lotNumber: lot.lot_number as string, alloy: lot.alloy as string, powderType: lot.powder_type as number }
+			? {
+					lotNumber: lot.lot_number as string,
+					alloy: lot.alloy as string,
+					powderType: lot.powder_type as number
+				}
 			: null,
 		parameters,
 		deviations: JSON.parse(r.deviations as string) as unknown[],
@@ -299,7 +352,8 @@ export function lineWeekReport(db: Db, lineCode: string, week: string): LineWeek
 		});
 	const end = start + 7 * 86_400_000;
 	const c = db.$client;
-	const line = c.prepare(`select id, code from lines where code = ?`).get(lineCode) as { id: number; code: string } | undefined;
+	const line = c.prepare(`select id, code from lines where code = ?`).get(lineCode) as
+		{ id: number; code: string } | undefined;
 	if (!line) throw new ApiError(404, { error: `No line ${lineCode}.` });
 	const runs = c
 		.prepare(
@@ -372,6 +426,11 @@ export function lineWeekReport(db: Db, lineCode: string, week: string): LineWeek
 			   where j.value in (select id from spi_boards where line_code = ? and inspected_at >= ? and inspected_at < ?)))`,
 			[start, end, line.id, start - 7 * 86_400_000, end, start, end, line.code, start, end]
 		),
-		total: { runs: runs.length, boards, passBoards, firstPassYield: boards > 0 ? passBoards / boards : null }
+		total: {
+			runs: runs.length,
+			boards,
+			passBoards,
+			firstPassYield: boards > 0 ? passBoards / boards : null
+		}
 	};
 }

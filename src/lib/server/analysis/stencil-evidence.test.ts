@@ -9,7 +9,10 @@ let sh220 = 0;
 beforeAll(async () => {
 	t = openTestDatabase();
 	await seedDemoData(t.db);
-	sh220 = t.db.$client.prepare(`select id from stencils where name = 'ST-SH220'`).pluck().get() as number;
+	sh220 = t.db.$client
+		.prepare(`select id from stencils where name = 'ST-SH220'`)
+		.pluck()
+		.get() as number;
 }, 120_000);
 afterAll(() => t.close());
 
@@ -18,7 +21,9 @@ describe('stencilWear', () => {
 		const w = stencilWear(t.db, sh220, 0.05);
 		expect(w.points).toHaveLength(24);
 		// 12 boards printed per demo run: the k-th run starts after 12·k prints.
-		expect(w.points.map((p) => p.printsBefore)).toEqual(Array.from({ length: 24 }, (_, k) => 12 * k));
+		expect(w.points.map((p) => p.printsBefore)).toEqual(
+			Array.from({ length: 24 }, (_, k) => 12 * k)
+		);
 		const line = linearRegression(
 			w.points.map((p) => p.printsBefore),
 			w.points.map((p) => p.teMean!)
@@ -41,7 +46,10 @@ describe('stencilWear', () => {
 		expect(second).toBeGreaterThan(first);
 	});
 	it('needs three runs with TE', () => {
-		const pb = t.db.$client.prepare(`select id from stencils where name = 'ST-PB100' and revision = 'A'`).pluck().get() as number;
+		const pb = t.db.$client
+			.prepare(`select id from stencils where name = 'ST-PB100' and revision = 'A'`)
+			.pluck()
+			.get() as number;
 		const w = stencilWear(t.db, pb, 0.05);
 		expect(w.fit).toBeNull();
 		expect(w.reason).toMatch(/a trend needs 3/);
@@ -65,6 +73,10 @@ describe('predictedTeForStencil', () => {
 	});
 	it('reads its query strictly', () => {
 		expect(() => readStencilQuery(new URL('http://x/?stencil=abc'), false)).toThrow();
-		expect(readStencilQuery(new URL('http://x/?stencil=3&drop=0.1'), true)).toEqual({ stencilId: 3, drop: 0.1, floor: 0.7 });
+		expect(readStencilQuery(new URL('http://x/?stencil=3&drop=0.1'), true)).toEqual({
+			stencilId: 3,
+			drop: 0.1,
+			floor: 0.7
+		});
 	});
 });

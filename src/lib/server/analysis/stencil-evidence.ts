@@ -20,7 +20,10 @@ export const MAX_WEAR_RUNS = 5000;
 /** Apertures listed in the predicted-TE answer (lowest predicted TE first). */
 export const MAX_LISTED_APERTURES = 200;
 
-export function readStencilQuery(url: URL, withDrop: boolean): { stencilId: number; drop: number; floor: number } {
+export function readStencilQuery(
+	url: URL,
+	withDrop: boolean
+): { stencilId: number; drop: number; floor: number } {
 	const q = new QueryReader(url, withDrop ? ['stencil', 'drop'] : ['stencil', 'floor']);
 	const stencilId = q.integer('stencil', 1, 999_999_999);
 	if (stencilId === null && !q.problems.some((p) => p.field === 'stencil'))
@@ -44,7 +47,14 @@ function stencilOr404<T>(work: () => T): T {
 export interface WearAnswer {
 	stencilId: number;
 	/** One point per run with inspected boards: prints on the stencil before the run started. */
-	points: { runId: number; startedAt: string; printsBefore: number; teMean: number | null; volumeMean: number | null; boards: number }[];
+	points: {
+		runId: number;
+		startedAt: string;
+		printsBefore: number;
+		teMean: number | null;
+		volumeMean: number | null;
+		boards: number;
+	}[];
 	fit: { intercept: number; slope: number; slopeSe: number; perThousandPrints: number } | null;
 	/** Fitted TE at the first run minus fitted TE at the latest (positive = lost). */
 	teDrop: number | null;
@@ -57,7 +67,12 @@ export interface WearAnswer {
 	 * assuming boards are inspected in print order and the run wipes every `wipeIntervalPrints`
 	 * from its start; runs without a logged interval are left out.
 	 */
-	sinceWipe: { printsSinceWipe: number; boards: number; teMean: number | null; volumeMean: number | null }[];
+	sinceWipe: {
+		printsSinceWipe: number;
+		boards: number;
+		teMean: number | null;
+		volumeMean: number | null;
+	}[];
 }
 
 /** Boards read for the since-wipe grouping (newest first). */
@@ -79,7 +94,14 @@ export function stencilWear(db: Db, stencilId: number, drop: number): WearAnswer
 			   (select sum(b.volume_pct_mean * b.volume_pct_count) / nullif(sum(b.volume_pct_count), 0) from spi_boards b where b.print_run_id = r.id) as vol
 			 from print_runs r where r.stencil_id = ? order by r.started_at, r.id`
 		)
-		.all(stencilId) as { id: number; started_at: number; boards_printed: number; boards: number; te: number | null; vol: number | null }[];
+		.all(stencilId) as {
+		id: number;
+		started_at: number;
+		boards_printed: number;
+		boards: number;
+		te: number | null;
+		vol: number | null;
+	}[];
 	let prints = 0;
 	const all = rows.map((r) => {
 		const p = {
@@ -115,13 +137,27 @@ export function stencilWear(db: Db, stencilId: number, drop: number): WearAnswer
 	const base = { stencilId, points, drop, sinceWipe };
 	const xs = withTe.map((p) => p.printsBefore);
 	if (withTe.length < 3 || !(Math.max(...xs) > Math.min(...xs)))
-		return { ...base, fit: null, teDrop: null, flagged: false, reason: `${withTe.length} runs with transfer efficiency; a trend needs 3 at different print counts` };
-	const line = linearRegression(xs, withTe.map((p) => p.teMean as number));
+		return {
+			...base,
+			fit: null,
+			teDrop: null,
+			flagged: false,
+			reason: `${withTe.length} runs with transfer efficiency; a trend needs 3 at different print counts`
+		};
+	const line = linearRegression(
+		xs,
+		withTe.map((p) => p.teMean as number)
+	);
 	const teDrop = -line.slope * (Math.max(...xs) - Math.min(...xs));
 	const upper = line.slope + studentTQuantile(0.975, line.degreesOfFreedom) * line.slopeSe;
 	return {
 		...base,
-		fit: { intercept: line.intercept, slope: line.slope, slopeSe: line.slopeSe, perThousandPrints: line.slope * 1000 },
+		fit: {
+			intercept: line.intercept,
+			slope: line.slope,
+			slopeSe: line.slopeSe,
+			perThousandPrints: line.slope * 1000
+		},
 		teDrop,
 		flagged: teDrop > drop && upper < 0,
 		reason: null
@@ -132,7 +168,11 @@ export interface PredictedTeAnswer {
 	stencilId: number;
 	technology: string;
 	floor: number;
-	model: { coefficients: { upper: number; lower: number; knee: number; scale: number }; areaRatioMin: number; areaRatioMax: number } | null;
+	model: {
+		coefficients: { upper: number; lower: number; knee: number; scale: number };
+		areaRatioMin: number;
+		areaRatioMax: number;
+	} | null;
 	learnedMinAreaRatio: number | null;
 	reason: string | null;
 	apertures: number;
@@ -140,7 +180,16 @@ export interface PredictedTeAnswer {
 	belowFloor: number;
 	notCovered: number;
 	/** The lowest predicted TE first, at most MAX_LISTED_APERTURES. */
-	listed: { id: number; refdes: string; pad: string; areaRatio: number; predictedTe: number; lower: number; upper: number; covered: boolean }[];
+	listed: {
+		id: number;
+		refdes: string;
+		pad: string;
+		areaRatio: number;
+		predictedTe: number;
+		lower: number;
+		upper: number;
+		covered: boolean;
+	}[];
 }
 
 /**
@@ -155,10 +204,30 @@ export async function predictedTeForStencil(
 ): Promise<PredictedTeAnswer> {
 	const check = stencilOr404(() => checkStoredStencil(db, stencilId));
 	const technology = check.stencil.technology;
-	const te = await transferEfficiency(db, { technology, paste: null, powder: null, fromMs: null, toMs: null, floor });
-	const base = { stencilId, technology, floor, learnedMinAreaRatio: te.learnedMinAreaRatio, apertures: check.apertures.length };
+	const te = await transferEfficiency(db, {
+		technology,
+		paste: null,
+		powder: null,
+		fromMs: null,
+		toMs: null,
+		floor
+	});
+	const base = {
+		stencilId,
+		technology,
+		floor,
+		learnedMinAreaRatio: te.learnedMinAreaRatio,
+		apertures: check.apertures.length
+	};
 	if (!te.fit)
-		return { ...base, model: null, reason: te.reason, belowFloor: 0, notCovered: check.apertures.length, listed: [] };
+		return {
+			...base,
+			model: null,
+			reason: te.reason,
+			belowFloor: 0,
+			notCovered: check.apertures.length,
+			listed: []
+		};
 	const arMin = te.fit.areaRatioMin;
 	const arMax = te.fit.areaRatioMax;
 	const fitLike = {

@@ -38,7 +38,13 @@ export async function seedTeTestData(
 	const arTo = options.arTo ?? 1.6;
 	const stencil = createStencil(
 		db,
-		{ name, revision: 'A', thicknessUm: t, technology: options.technology ?? 'electroformed', notes: '' },
+		{
+			name,
+			revision: 'A',
+			thicknessUm: t,
+			technology: options.technology ?? 'electroformed',
+			notes: ''
+		},
 		null
 	);
 	const apertures = Array.from({ length: count }, (_, i) => {
@@ -70,7 +76,10 @@ export async function seedTeTestData(
 	for (let b = 0; b < boards; b++) {
 		const at = new Date(start + b * 60_000).toISOString();
 		for (const a of apertures) {
-			const te = Math.max(0.01, predictTe(options.curve, a.ar) + (options.sdTe ?? 0.05) * rng.normal());
+			const te = Math.max(
+				0.01,
+				predictTe(options.curve, a.ar) + (options.sdTe ?? 0.05) * rng.normal()
+			);
 			const um3 = Math.round(te * a.volumeUm3);
 			expected.push({ ar: a.ar, te: um3 / a.volumeUm3 });
 			lines.push(
@@ -87,6 +96,7 @@ export async function seedTeTestData(
 		})(),
 		createdBy: 'system'
 	});
-	if (outcome.status !== 'imported') throw new Error(`test data not imported: ${JSON.stringify(outcome)}`);
+	if (outcome.status !== 'imported')
+		throw new Error(`test data not imported: ${JSON.stringify(outcome)}`);
 	return { stencil, expected };
 }

@@ -17,7 +17,11 @@ describe('traceBoard', () => {
 		expect(a.boards).toHaveLength(1);
 		const b = a.boards[0];
 		expect(b.board.product).toBe('SH-220');
-		expect(b.stencil).toMatchObject({ name: 'ST-SH220', technology: 'laser-stainless', thicknessUm: 100 });
+		expect(b.stencil).toMatchObject({
+			name: 'ST-SH220',
+			technology: 'laser-stainless',
+			thicknessUm: 100
+		});
 		expect(b.pasteLot).toMatchObject({ lotNumber: 'PL-2026-0390', powderType: 4 });
 		expect(b.recipe?.version).toBeGreaterThanOrEqual(1);
 		expect(b.operator?.name).toBe('Cleo Marrowby');
@@ -25,7 +29,8 @@ describe('traceBoard', () => {
 		expect(b.board.pass + b.board.warn + b.board.fail).toBe(b.board.pads);
 		const flagged = b.board.warn + b.board.fail;
 		expect(b.flaggedPads.length).toBe(Math.min(50, flagged));
-		if (b.flaggedPads.length > 0) expect(b.flaggedPads[0].result).toBe(b.board.fail > 0 ? 'fail' : 'warn');
+		if (b.flaggedPads.length > 0)
+			expect(b.flaggedPads[0].result).toBe(b.board.fail > 0 ? 'fail' : 'warn');
 	});
 	it('lists serials that begin with a prefix, and says when nothing matches', () => {
 		const a = traceBoard(t.db, 'FW-SH220-000001');
@@ -48,7 +53,10 @@ describe('traceBoard', () => {
 				.prepare(`select id from spi_boards where print_run_id = ? limit 1`)
 				.pluck()
 				.get(Number(runKey!.slice(4))) as number);
-		const serial = t.db.$client.prepare(`select serial from spi_boards where id = ?`).pluck().get(boardId) as string;
+		const serial = t.db.$client
+			.prepare(`select serial from spi_boards where id = ?`)
+			.pluck()
+			.get(boardId) as string;
 		const a = traceBoard(t.db, serial);
 		const board = a.boards.find((b) => b.board.id === boardId)!;
 		expect(board.signals.map((x) => x.id)).toContain(s!.id);

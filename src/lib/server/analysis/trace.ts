@@ -42,12 +42,24 @@ export interface BoardTrace {
 		relativeHumidityPct: number | null;
 		deviations: number;
 	} | null;
-	stencil: { id: number; name: string; revision: string; technology: string; thicknessUm: number } | null;
+	stencil: {
+		id: number;
+		name: string;
+		revision: string;
+		technology: string;
+		thicknessUm: number;
+	} | null;
 	pasteLot: { id: number; lotNumber: string; alloy: string; powderType: number } | null;
 	recipe: { id: number; version: number } | null;
 	operator: { id: number; name: string } | null;
 	/** Pads that warned or failed, worst first (at most MAX_LISTED_PADS). */
-	flaggedPads: { refdes: string; pad: string; panelIndex: number; result: 'warn' | 'fail'; volumePct: number | null }[];
+	flaggedPads: {
+		refdes: string;
+		pad: string;
+		panelIndex: number;
+		result: 'warn' | 'fail';
+		volumePct: number | null;
+	}[];
 	signals: {
 		id: number;
 		characteristic: string;
@@ -117,7 +129,9 @@ export function traceBoard(db: Db, serial: string): TraceAnswer {
 			? (runOf.get(b.print_run_id) as Record<string, unknown> | undefined)
 			: undefined;
 		const stencilId = (b.stencil_id as number | null) ?? (run?.stencil_id as number | null) ?? null;
-		const st = stencilId ? (stencilOf.get(stencilId) as Record<string, unknown> | undefined) : undefined;
+		const st = stencilId
+			? (stencilOf.get(stencilId) as Record<string, unknown> | undefined)
+			: undefined;
 		const lot = run?.paste_lot_id
 			? (lotOf.get(run.paste_lot_id) as Record<string, unknown> | undefined)
 			: undefined;

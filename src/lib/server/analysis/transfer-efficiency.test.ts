@@ -40,7 +40,8 @@ describe('transferEfficiency (SQL aggregation over pads)', () => {
 		const c = r.fit!.coefficients;
 		expect(Math.abs(c.knee - TRUTH.knee)).toBeLessThan(0.03);
 		expect(Math.abs(c.upper - TRUTH.upper)).toBeLessThan(0.03);
-		const trueLimit = TRUTH.knee - TRUTH.scale * Math.log((TRUTH.upper - TRUTH.lower) / (0.7 - TRUTH.lower) - 1);
+		const trueLimit =
+			TRUTH.knee - TRUTH.scale * Math.log((TRUTH.upper - TRUTH.lower) / (0.7 - TRUTH.lower) - 1);
 		expect(Math.abs(r.learnedMinAreaRatio! - trueLimit)).toBeLessThan(0.03);
 		expect(r.reason).toBeNull();
 		expect(predictTe(c, 1.5)).toBeGreaterThan(0.9);
@@ -72,11 +73,16 @@ describe('transferEfficiency (SQL aggregation over pads)', () => {
 		]);
 		// Same answers up to the order of floating-point sums (slices are summed separately).
 		const rounded = (v: unknown) =>
-			JSON.parse(JSON.stringify(v, (_k, x) => (typeof x === 'number' ? Number(x.toPrecision(9)) : x)));
+			JSON.parse(
+				JSON.stringify(v, (_k, x) => (typeof x === 'number' ? Number(x.toPrecision(9)) : x))
+			);
 		expect(rounded(a)).toEqual(rounded(alone));
 		expect(rounded(b)).toEqual(rounded(aloneLater));
 		expect(
-			t.db.$client.prepare(`select count(*) from sqlite_temp_master where name like 'analysis_te_%'`).pluck().get()
+			t.db.$client
+				.prepare(`select count(*) from sqlite_temp_master where name like 'analysis_te_%'`)
+				.pluck()
+				.get()
 		).toBe(0);
 	}, 60_000);
 });

@@ -1,4 +1,9 @@
-import { analyseTransferEfficiency, areaRatioBin, TE_BUCKET_MAX, TE_BUCKET_WIDTH } from '$lib/analysis';
+import {
+	analyseTransferEfficiency,
+	areaRatioBin,
+	TE_BUCKET_MAX,
+	TE_BUCKET_WIDTH
+} from '$lib/analysis';
 import type { TeAnalysis, TeHistogramRow } from '$lib/analysis';
 import type { Db } from '../db';
 import { checkStoredStencil } from '../stencils/evaluation';
@@ -111,7 +116,9 @@ export async function transferEfficiency(
 	const tag = ++requestCounter;
 	const boardsTable = `temp.analysis_te_boards_${tag}`;
 	const padsTable = `temp.analysis_te_pads_${tag}`;
-	conn.exec(`create table ${boardsTable} (board_id integer primary key, stencil_id integer not null)`);
+	conn.exec(
+		`create table ${boardsTable} (board_id integer primary key, stencil_id integer not null)`
+	);
 	conn.exec(`create table ${padsTable} (
 		stencil_id integer not null, pad_id integer not null, bin integer not null,
 		area_ratio real not null, inv_volume real not null,
@@ -156,19 +163,24 @@ export async function transferEfficiency(
 			 where m.volume_um3 is not null
 			 group by 1, 2`
 		);
-		const padCount = conn.prepare(
-			`select coalesce(sum(b.pad_count), 0) from ${boardsTable} tb join spi_boards b on b.id = tb.board_id`
-		).pluck();
+		const padCount = conn
+			.prepare(
+				`select coalesce(sum(b.pad_count), 0) from ${boardsTable} tb join spi_boards b on b.id = tb.board_id`
+			)
+			.pluck();
 		// Slices of about PADS_PER_SLICE pads, merged here; the event loop runs between slices.
 		// CROSS JOIN fixes the loop order (SQLite keeps it as written): the slice's boards outside,
 		// their pads by the measurement key, then the pad map; otherwise the planner, without
 		// statistics on the temporary tables, may scan every measurement for each slice.
 		const cells = new Map<number, TeHistogramRow>();
 		let allPads = 0;
-		for (let i = 0; i < boardsUsed.length; ) {
+		for (let i = 0; i < boardsUsed.length;) {
 			let slicePads = 0;
 			const slice: BoardRow[] = [];
-			while (i < boardsUsed.length && (slice.length === 0 || slicePads + boardsUsed[i].te_count <= padsPerSlice)) {
+			while (
+				i < boardsUsed.length &&
+				(slice.length === 0 || slicePads + boardsUsed[i].te_count <= padsPerSlice)
+			) {
 				slicePads += boardsUsed[i].te_count;
 				slice.push(boardsUsed[i++]);
 			}

@@ -25,7 +25,9 @@ function spiFile(prefix: string, boards: number, padsPerBoard: number): Uint8Arr
 	for (let b = 0; b < boards; b++) {
 		const at = new Date(Date.UTC(2026, 2, 2, 8, 0, b)).toISOString();
 		for (let p = 0; p < padsPerBoard; p++) {
-			lines.push(`${prefix}-${b},${at},L1,PB-100,0,U${p % 40},${p},${95 + (p % 10)},100,120,0,0,pass`);
+			lines.push(
+				`${prefix}-${b},${at},L1,PB-100,0,U${p % 40},${p},${95 + (p % 10)},100,120,0,0,pass`
+			);
 		}
 	}
 	return new TextEncoder().encode(lines.join('\n') + '\n');
@@ -44,7 +46,9 @@ function visible(db: Database.Database) {
 	const n = (sql: string) => db.prepare(sql).pluck().get() as number;
 	return {
 		imports: n(`select count(*) from spi_imports where status = 'imported'`),
-		boards: n(`select count(*) from spi_boards b join spi_imports i on i.id = b.import_id where i.status = 'imported'`),
+		boards: n(
+			`select count(*) from spi_boards b join spi_imports i on i.id = b.import_id where i.status = 'imported'`
+		),
 		pads: n(
 			`select count(*) from spi_pad_measurements m join spi_boards b on b.id = m.board_id
 			 join spi_imports i on i.id = b.import_id where i.status = 'imported'`
@@ -60,7 +64,12 @@ afterEach(() => t.close());
 describe('backups', { timeout: 120_000 }, () => {
 	it('takes a consistent copy while an import runs; the checked restore matches and passes integrity_check', async () => {
 		const db = t.db;
-		const first = await ingestSpiFile(db, { source: 'api', fileName: 'a.csv', body: chunks(spiFile('BK-A', 20, 50)), createdBy: 'user:1' });
+		const first = await ingestSpiFile(db, {
+			source: 'api',
+			fileName: 'a.csv',
+			body: chunks(spiFile('BK-A', 20, 50)),
+			createdBy: 'user:1'
+		});
 		expect(first.status).toBe('imported');
 		const before = visible(db.$client);
 
@@ -126,7 +135,9 @@ describe('backups', { timeout: 120_000 }, () => {
 
 		const otherApp = join(t.dir, 'other.db');
 		const other = new Database(otherApp);
-		other.exec('create table notes (id integer primary key, body text); insert into notes (body) values (1)');
+		other.exec(
+			'create table notes (id integer primary key, body text); insert into notes (body) values (1)'
+		);
 		other.close();
 		await expect(restoreDatabase(otherApp, target)).rejects.toThrow(/not a Rollbead database/);
 
@@ -147,7 +158,8 @@ describe('backups', { timeout: 120_000 }, () => {
 
 	it('keeps the newest BACKUP_KEEP backups and reads the schedule strictly', async () => {
 		const dir = join(t.dir, 'kept');
-		for (let day = 1; day <= 5; day++) await backupDatabase(t.db.$client, dir, new Date(Date.UTC(2026, 0, day)));
+		for (let day = 1; day <= 5; day++)
+			await backupDatabase(t.db.$client, dir, new Date(Date.UTC(2026, 0, day)));
 		expect(pruneBackups(dir, 3)).toHaveLength(2);
 		expect(listBackups(dir).map((b) => b.name)).toEqual([
 			'rollbead-20260105T000000000Z.db',
@@ -161,20 +173,29 @@ describe('backups', { timeout: 120_000 }, () => {
 			everyMs: 6 * 3_600_000,
 			keep: 14
 		});
-		expect(backupScheduleFrom({ BACKUP_EVERY: '1d', BACKUP_KEEP: '30', BACKUP_DIR: '/mnt/nas/rb' }, 'x.db')).toEqual({
+		expect(
+			backupScheduleFrom(
+				{ BACKUP_EVERY: '1d', BACKUP_KEEP: '30', BACKUP_DIR: '/mnt/nas/rb' },
+				'x.db'
+			)
+		).toEqual({
 			dir: '/mnt/nas/rb',
 			everyMs: 86_400_000,
 			keep: 30
 		});
 		expect(() => backupScheduleFrom({ BACKUP_EVERY: 'daily' }, 'x.db')).toThrow(/30m, 6h or 1d/);
 		expect(() => backupScheduleFrom({ BACKUP_EVERY: '1m' }, 'x.db')).toThrow(/at least 5m/);
-		expect(() => backupScheduleFrom({ BACKUP_EVERY: '1h', BACKUP_KEEP: '0' }, 'x.db')).toThrow(/BACKUP_KEEP/);
+		expect(() => backupScheduleFrom({ BACKUP_EVERY: '1h', BACKUP_KEEP: '0' }, 'x.db')).toThrow(
+			/BACKUP_KEEP/
+		);
 	});
 
 	it('the schedule backs up on its interval and keeps the newest BACKUP_KEEP', async () => {
 		const dir = join(t.dir, 'scheduled');
 		const logged: string[] = [];
-		const stop = startBackupSchedule(t.db.$client, { dir, everyMs: 40, keep: 2 }, (m) => logged.push(m));
+		const stop = startBackupSchedule(t.db.$client, { dir, everyMs: 40, keep: 2 }, (m) =>
+			logged.push(m)
+		);
 		for (let waited = 0; logged.length < 4 && waited < 10_000; waited += 20) {
 			await new Promise((r) => setTimeout(r, 20));
 		}

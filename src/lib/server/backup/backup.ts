@@ -10,7 +10,15 @@
  * Only this module and scripts/backup.ts, scripts/restore.ts use it; no HTTP route does.
  */
 import Database from 'better-sqlite3';
-import { copyFileSync, existsSync, mkdirSync, readdirSync, renameSync, rmSync, statSync } from 'node:fs';
+import {
+	copyFileSync,
+	existsSync,
+	mkdirSync,
+	readdirSync,
+	renameSync,
+	rmSync,
+	statSync
+} from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
 
 const BACKUP_NAME = /^rollbead-(\d{8}T\d{6}(?:\d{3})?Z)\.db$/;
@@ -71,7 +79,8 @@ export function checkDatabaseFile(file: string): FileCheck {
 	const problems: string[] = [];
 	const counts: Record<string, number> = {};
 	let migrations = 0;
-	if (!existsSync(file)) return { ok: false, problems: [`${file} does not exist.`], counts, migrations };
+	if (!existsSync(file))
+		return { ok: false, problems: [`${file} does not exist.`], counts, migrations };
 	let db: Database.Database | undefined;
 	try {
 		db = new Database(file, { readonly: true, fileMustExist: true });
@@ -81,16 +90,19 @@ export function checkDatabaseFile(file: string): FileCheck {
 			problems.push(`integrity_check: ${messages.slice(0, 5).join('; ')}`);
 		}
 		const tables = new Set(
-			(db.prepare(`select name from sqlite_master where type = 'table'`).all() as { name: string }[]).map(
-				(r) => r.name
-			)
+			(
+				db.prepare(`select name from sqlite_master where type = 'table'`).all() as {
+					name: string;
+				}[]
+			).map((r) => r.name)
 		);
 		const missing = REQUIRED_TABLES.filter((t) => !tables.has(t));
 		if (missing.length) problems.push(`not a Rollbead database (no table ${missing.join(', ')})`);
 		else {
 			migrations = db.prepare('select count(*) from __drizzle_migrations').pluck().get() as number;
 			for (const table of COUNTED_TABLES) {
-				if (tables.has(table)) counts[table] = db.prepare(`select count(*) from "${table}"`).pluck().get() as number;
+				if (tables.has(table))
+					counts[table] = db.prepare(`select count(*) from "${table}"`).pluck().get() as number;
 			}
 		}
 	} catch (err) {
@@ -124,17 +136,25 @@ export type RestoreResult = { restored: string; previousKeptAs: string | null; c
  * check. The current database (with its -wal) is first copied beside it as
  * `<name>.before-restore-<time>.db`, so a restore can be undone. Run it while Rollbead is stopped.
  */
-export async function restoreDatabase(file: string, target: string, now = new Date()): Promise<RestoreResult> {
+export async function restoreDatabase(
+	file: string,
+	target: string,
+	now = new Date()
+): Promise<RestoreResult> {
 	const check = checkDatabaseFile(file);
 	if (!check.ok) {
 		throw new RestoreRefusedError(`${file} was not restored: ${check.problems.join('; ')}`);
 	}
 	const targetPath = resolve(target);
-	if (resolve(file) === targetPath) throw new RestoreRefusedError('The backup is the database itself.');
+	if (resolve(file) === targetPath)
+		throw new RestoreRefusedError('The backup is the database itself.');
 	mkdirSync(dirname(targetPath), { recursive: true });
 	let previousKeptAs: string | null = null;
 	if (existsSync(targetPath)) {
-		previousKeptAs = join(dirname(targetPath), `${basename(targetPath, '.db')}.before-restore-${stamp(now)}.db`);
+		previousKeptAs = join(
+			dirname(targetPath),
+			`${basename(targetPath, '.db')}.before-restore-${stamp(now)}.db`
+		);
 		// Through the backup API too: it includes whatever is still in the -wal file.
 		const current = new Database(targetPath, { fileMustExist: true });
 		try {
@@ -179,12 +199,17 @@ export type BackupSchedule = { dir: string; everyMs: number; keep: number };
  * `backups` beside the database), BACKUP_KEEP (default 14). A malformed value is an error, not a
  * silent default: the operator asked for backups and must get them.
  */
-export function backupScheduleFrom(env: NodeJS.ProcessEnv, databaseFile: string): BackupSchedule | null {
+export function backupScheduleFrom(
+	env: NodeJS.ProcessEnv,
+	databaseFile: string
+): BackupSchedule | null {
 	const every = env.BACKUP_EVERY?.trim();
 	if (!every) return null;
 	const match = /^(\d{1,5})\s*(m|h|d)$/i.exec(every);
 	if (!match) throw new Error(`BACKUP_EVERY must look like 30m, 6h or 1d (got "${every}").`);
-	const everyMs = Number(match[1]) * { m: 60_000, h: 3_600_000, d: 86_400_000 }[match[2].toLowerCase() as 'm' | 'h' | 'd'];
+	const everyMs =
+		Number(match[1]) *
+		{ m: 60_000, h: 3_600_000, d: 86_400_000 }[match[2].toLowerCase() as 'm' | 'h' | 'd'];
 	if (everyMs < 5 * 60_000) throw new Error(`BACKUP_EVERY must be at least 5m (got "${every}").`);
 	const keepText = env.BACKUP_KEEP?.trim() || '14';
 	if (!/^\d{1,4}$/.test(keepText) || Number(keepText) < 1) {

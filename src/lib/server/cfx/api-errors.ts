@@ -7,7 +7,10 @@ export async function cfxCall<T>(fn: () => T | Promise<T>): Promise<T> {
 		return await fn();
 	} catch (err) {
 		if (err instanceof CfxInputError) {
-			throw new ApiError(err.status, { error: err.message, fields: [{ field: err.field, message: err.message }] });
+			throw new ApiError(err.status, {
+				error: err.message,
+				fields: [{ field: err.field, message: err.message }]
+			});
 		}
 		throw err;
 	}

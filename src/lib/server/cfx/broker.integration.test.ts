@@ -24,7 +24,11 @@ const QUEUE = `/queue/rollbead-it-${process.pid}-${Date.now()}`;
 async function brokerAnswers(): Promise<boolean> {
 	const url = new URL(BROKER_URL);
 	return new Promise((resolve) => {
-		const socket = tcpConnect({ host: url.hostname, port: Number(url.port || 5672), timeout: 1500 });
+		const socket = tcpConnect({
+			host: url.hostname,
+			port: Number(url.port || 5672),
+			timeout: 1500
+		});
 		socket.once('connect', () => {
 			socket.destroy();
 			resolve(true);
@@ -59,7 +63,12 @@ if (!reachable) {
 const ref = (name: string) => JSON.parse(readFileSync(`reference/cfx/${name}`, 'utf8'));
 
 /** A publisher on its own connection, sending data sections (as the CFX SDK does). */
-async function openPublisher(address = QUEUE): Promise<{ send: (m: { id: string; body: Buffer; gzip?: boolean }) => Promise<void>; close: () => void }> {
+async function openPublisher(
+	address = QUEUE
+): Promise<{
+	send: (m: { id: string; body: Buffer; gzip?: boolean }) => Promise<void>;
+	close: () => void;
+}> {
 	const url = new URL(BROKER_URL);
 	const container = rhea.create_container({ id: 'rollbead-it-publisher' });
 	const conn: Connection = container.connect({
@@ -157,7 +166,11 @@ describe.skipIf(!reachable)('CFX endpoint with a real broker', () => {
 		const quiet = () => {};
 		let receiver: CfxReceiver = startCfxReceiver(db, config, quiet);
 		await receiver.whenConnected();
-		expect(receiver.status()).toMatchObject({ configured: true, connected: true, addresses: [QUEUE] });
+		expect(receiver.status()).toMatchObject({
+			configured: true,
+			connected: true,
+			addresses: [QUEUE]
+		});
 
 		const boards = Array.from({ length: BOARDS }, (_, i) => board(i));
 		let sent = 0;
@@ -180,16 +193,22 @@ describe.skipIf(!reachable)('CFX endpoint with a real broker', () => {
 				for (const [k, env] of b.printer.entries()) await publish(`p-${i}-${k}`, env, k === 1);
 			}
 			await publish(`s-${i}`, b.inspected, i % 2 === 0);
-			if (i === 3) await publisher.send({ id: `s-${i}`, body: Buffer.from(JSON.stringify(b.inspected)) }); // redelivered by the sender
+			if (i === 3)
+				await publisher.send({ id: `s-${i}`, body: Buffer.from(JSON.stringify(b.inspected)) }); // redelivered by the sender
 		}
 		const first = receiver.status();
 		await receiver.stop();
 		receiver = startCfxReceiver(db, config, quiet);
 		await receiver.whenConnected();
-		await until('every message stored', () => count(`select count(*) from cfx_messages`) === ids.size);
+		await until(
+			'every message stored',
+			() => count(`select count(*) from cfx_messages`) === ids.size
+		);
 		await receiver.idle();
 		const second = receiver.status();
-		console.log(`[cfx broker test] before the drop: ${JSON.stringify(first)}; after the restart: ${JSON.stringify(second)}`);
+		console.log(
+			`[cfx broker test] before the drop: ${JSON.stringify(first)}; after the restart: ${JSON.stringify(second)}`
+		);
 		// The restarted receiver got what was published while no one listened.
 		expect(second.received).toBeGreaterThan(0);
 		expect(first.duplicates + second.duplicates).toBeGreaterThanOrEqual(1); // s-3 sent twice
@@ -199,7 +218,11 @@ describe.skipIf(!reachable)('CFX endpoint with a real broker', () => {
 		expect(count(`select count(*) from spi_boards`)).toBe(BOARDS);
 		expect(count(`select count(distinct serial) from spi_boards`)).toBe(BOARDS);
 		expect(count(`select count(*) from cfx_units`)).toBe(BOARDS);
-		expect(count(`select count(*) from cfx_units where completed_at is not null and processed_at is not null`)).toBe(BOARDS);
+		expect(
+			count(
+				`select count(*) from cfx_units where completed_at is not null and processed_at is not null`
+			)
+		).toBe(BOARDS);
 		// One run opened from the recipe name; every board printed counted once on it.
 		expect(count(`select count(*) from print_runs`)).toBe(1);
 		expect(count(`select boards_printed from print_runs`)).toBe(BOARDS);
@@ -208,57 +231,91 @@ describe.skipIf(!reachable)('CFX endpoint with a real broker', () => {
 		await receiver.stop();
 	});
 
-	it.skipIf(!controllable)('reconnects with backoff when the broker goes away and comes back', async () => {
-		const config = cfxConfigFromEnv({ CFX_URL: BROKER_URL, CFX_ADDRESSES: QUEUE })!;
-		const lines: string[] = [];
-		const receiver = startCfxReceiver(db, config, (line) => lines.push(line));
-		await receiver.whenConnected();
-		publisher.close();
-		execFileSync('rabbitmqctl', ['stop_app'], { stdio: 'ignore', timeout: 60_000 });
-		try {
-			await until('the loss noticed', () => !receiver.status().connected, 10_000);
-			await new Promise((r) => setTimeout(r, 2000));
-		} finally {
-			execFileSync('rabbitmqctl', ['start_app'], { stdio: 'ignore', timeout: 60_000 });
+	it.skipIf(!controllable)(
+		'reconnects with backoff when the broker goes away and comes back',
+		async () => {
+			const config = cfxConfigFromEnv({ CFX_URL: BROKER_URL, CFX_ADDRESSES: QUEUE })!;
+			const lines: string[] = [];
+			const receiver = startCfxReceiver(db, config, (line) => lines.push(line));
+			await receiver.whenConnected();
+			publisher.close();
+			execFileSync('rabbitmqctl', ['stop_app'], { stdio: 'ignore', timeout: 60_000 });
+			try {
+				await until('the loss noticed', () => !receiver.status().connected, 10_000);
+				await new Promise((r) => setTimeout(r, 2000));
+			} finally {
+				execFileSync('rabbitmqctl', ['start_app'], { stdio: 'ignore', timeout: 60_000 });
+			}
+			await Promise.race([
+				receiver.whenConnected(),
+				new Promise((_, reject) =>
+					setTimeout(() => reject(new Error(`not reconnected: ${lines.join(' | ')}`)), 60_000)
+				)
+			]);
+			// Retried at growing intervals (0.5 s, 1 s, 2 s …) while the broker was away.
+			const delays = lines
+				.map((l) => /reconnecting in (\d+) ms/.exec(l)?.[1])
+				.filter(Boolean)
+				.map(Number);
+			expect(delays.slice(0, 3)).toEqual([500, 1000, 2000].slice(0, Math.min(3, delays.length)));
+			expect(delays.length).toBeGreaterThanOrEqual(2);
+			publisher = await openPublisher();
+			const before = count(`select count(*) from cfx_messages`);
+			await publisher.send({
+				id: 'after-reconnect',
+				body: Buffer.from(JSON.stringify(board(800).printer))
+			});
+			await until(
+				'stored after the reconnect',
+				() => count(`select count(*) from cfx_messages`) === before + 1
+			);
+			await receiver.idle();
+			expect(receiver.status()).toMatchObject({ connected: true, stored: 1 });
+			await receiver.stop();
 		}
-		await Promise.race([
-			receiver.whenConnected(),
-			new Promise((_, reject) => setTimeout(() => reject(new Error(`not reconnected: ${lines.join(' | ')}`)), 60_000))
-		]);
-		// Retried at growing intervals (0.5 s, 1 s, 2 s …) while the broker was away.
-		const delays = lines.map((l) => /reconnecting in (\d+) ms/.exec(l)?.[1]).filter(Boolean).map(Number);
-		expect(delays.slice(0, 3)).toEqual([500, 1000, 2000].slice(0, Math.min(3, delays.length)));
-		expect(delays.length).toBeGreaterThanOrEqual(2);
-		publisher = await openPublisher();
-		const before = count(`select count(*) from cfx_messages`);
-		await publisher.send({ id: 'after-reconnect', body: Buffer.from(JSON.stringify(board(800).printer)) });
-		await until('stored after the reconnect', () => count(`select count(*) from cfx_messages`) === before + 1);
-		await receiver.idle();
-		expect(receiver.status()).toMatchObject({ connected: true, stored: 1 });
-		await receiver.stop();
-	});
+	);
 
-	it.skipIf(!controllable)('CFX_DURABLE=1: messages queued while Rollbead is down survive a broker restart', async () => {
-		const name = `rollbead-it-durable-${process.pid}-${Date.now()}`;
-		const config = cfxConfigFromEnv({ CFX_URL: BROKER_URL, CFX_ADDRESSES: `/queue/${name}`, CFX_DURABLE: '1' })!;
-		let receiver = startCfxReceiver(db, config, () => {});
-		await receiver.whenConnected();
-		await receiver.stop(); // Rollbead down; the durable queue stays
-		const machines = await openPublisher(`/amq/queue/${name}`);
-		await machines.send({ id: 'durable-1', body: Buffer.from(JSON.stringify(board(700).printer)) });
-		await machines.send({ id: 'durable-2', body: Buffer.from(JSON.stringify(board(701).printer)), gzip: true });
-		machines.close();
-		publisher.close();
-		execFileSync('rabbitmqctl', ['stop_app'], { stdio: 'ignore', timeout: 60_000 });
-		execFileSync('rabbitmqctl', ['start_app'], { stdio: 'ignore', timeout: 60_000 });
-		publisher = await openPublisher();
-		receiver = startCfxReceiver(db, config, () => {});
-		await receiver.whenConnected();
-		await until('both stored', () => count(`select count(*) from cfx_messages where message_key in ('id:durable-1', 'id:durable-2') and outcome = 'stored'`) === 2);
-		await receiver.idle();
-		expect(receiver.status()).toMatchObject({ stored: 2, duplicates: 0 });
-		await receiver.stop();
-	});
+	it.skipIf(!controllable)(
+		'CFX_DURABLE=1: messages queued while Rollbead is down survive a broker restart',
+		async () => {
+			const name = `rollbead-it-durable-${process.pid}-${Date.now()}`;
+			const config = cfxConfigFromEnv({
+				CFX_URL: BROKER_URL,
+				CFX_ADDRESSES: `/queue/${name}`,
+				CFX_DURABLE: '1'
+			})!;
+			let receiver = startCfxReceiver(db, config, () => {});
+			await receiver.whenConnected();
+			await receiver.stop(); // Rollbead down; the durable queue stays
+			const machines = await openPublisher(`/amq/queue/${name}`);
+			await machines.send({
+				id: 'durable-1',
+				body: Buffer.from(JSON.stringify(board(700).printer))
+			});
+			await machines.send({
+				id: 'durable-2',
+				body: Buffer.from(JSON.stringify(board(701).printer)),
+				gzip: true
+			});
+			machines.close();
+			publisher.close();
+			execFileSync('rabbitmqctl', ['stop_app'], { stdio: 'ignore', timeout: 60_000 });
+			execFileSync('rabbitmqctl', ['start_app'], { stdio: 'ignore', timeout: 60_000 });
+			publisher = await openPublisher();
+			receiver = startCfxReceiver(db, config, () => {});
+			await receiver.whenConnected();
+			await until(
+				'both stored',
+				() =>
+					count(
+						`select count(*) from cfx_messages where message_key in ('id:durable-1', 'id:durable-2') and outcome = 'stored'`
+					) === 2
+			);
+			await receiver.idle();
+			expect(receiver.status()).toMatchObject({ stored: 2, duplicates: 0 });
+			await receiver.stop();
+		}
+	);
 
 	it('malformed and hostile messages are quarantined with their reasons; the endpoint goes on', async () => {
 		const config = cfxConfigFromEnv({ CFX_URL: BROKER_URL, CFX_ADDRESSES: QUEUE })!;
@@ -281,7 +338,10 @@ describe.skipIf(!reachable)('CFX endpoint with a real broker', () => {
 		// A good message after them is still stored.
 		const after = board(901);
 		await publisher.send({ id: 'h-after', body: Buffer.from(JSON.stringify(after.printer)) });
-		await until('the hostile messages settled', () => count(`select count(*) from cfx_messages`) === before + hostile.length + 1);
+		await until(
+			'the hostile messages settled',
+			() => count(`select count(*) from cfx_messages`) === before + hostile.length + 1
+		);
 		await receiver.idle();
 		const reasons = Object.fromEntries(listQuarantine(db).map((q) => [q.messageKey, q.reason]));
 		expect(reasons['id:h-json']).toMatch(/^body is not JSON/);
@@ -292,8 +352,16 @@ describe.skipIf(!reachable)('CFX endpoint with a real broker', () => {
 		);
 		expect(reasons['id:h-volume']).toMatch(/Vol and EVol must be numbers$/);
 		expect(reasons['id:h-utf8']).toBe('body is not valid UTF-8');
-		expect(receiver.status()).toMatchObject({ connected: true, quarantined: hostile.length, stored: 1 });
-		expect(count(`select count(*) from cfx_messages where message_key = 'id:h-after' and outcome = 'stored'`)).toBe(1);
+		expect(receiver.status()).toMatchObject({
+			connected: true,
+			quarantined: hostile.length,
+			stored: 1
+		});
+		expect(
+			count(
+				`select count(*) from cfx_messages where message_key = 'id:h-after' and outcome = 'stored'`
+			)
+		).toBe(1);
 		await receiver.stop();
 	});
 });

@@ -13,7 +13,12 @@ let t: ReturnType<typeof openTestDatabase>;
 let db: Db;
 let n = 0;
 const store = (env: unknown) =>
-	storeCfxMessage(db, { messageKey: `k${++n}`, body: Buffer.from(JSON.stringify(env)), contentEncoding: null, receivedAtMs: Date.now() });
+	storeCfxMessage(db, {
+		messageKey: `k${++n}`,
+		body: Buffer.from(JSON.stringify(env)),
+		contentEncoding: null,
+		receivedAtMs: Date.now()
+	});
 const at = (hhmm: string) => `2026-12-03T${hhmm}:00Z`;
 
 function printed(serial: string, time: string) {
@@ -36,7 +41,12 @@ afterEach(() => t.close());
 
 describe('printer OEE and changeovers from stored messages', () => {
 	it('computes each factor from the messages of the shift (figures worked by hand)', async () => {
-		for (const [serial, time] of [['B1', '07:00'], ['B2', '07:01'], ['B3', '07:02'], ['B4', '07:30']]) {
+		for (const [serial, time] of [
+			['B1', '07:00'],
+			['B2', '07:01'],
+			['B3', '07:02'],
+			['B4', '07:30']
+		]) {
 			expect((await store(printed(serial, time))).status).toBe('stored');
 		}
 		const fault = ref('fault-occurred.json');
@@ -65,10 +75,20 @@ describe('printer OEE and changeovers from stored messages', () => {
 		expect((await store(passing)).status).toBe('stored');
 
 		const [morning, afternoon] = printerOee(db, { day: '2026-12-03' });
-		expect(morning.shift).toEqual({ start: '2026-12-03T06:00:00.000Z', end: '2026-12-03T14:00:00.000Z' });
+		expect(morning.shift).toEqual({
+			start: '2026-12-03T06:00:00.000Z',
+			end: '2026-12-03T14:00:00.000Z'
+		});
 		// Boards at minutes 60, 61, 62, 90 of the shift; idle beyond 5 min: 5–60, 67–90, 95–480
 		// = 55 + 23 + 385 = 463 min, the fault (70–80) inside it; run time 17 min.
-		expect(morning).toMatchObject({ boards: 4, faultMs: 10 * 60_000, unavailableMs: 463 * 60_000, runMs: 17 * 60_000, inspected: 2, firstPassed: 1 });
+		expect(morning).toMatchObject({
+			boards: 4,
+			faultMs: 10 * 60_000,
+			unavailableMs: 463 * 60_000,
+			runMs: 17 * 60_000,
+			inspected: 2,
+			firstPassed: 1
+		});
 		expect(morning.availability.value).toBeCloseTo(17 / 480, 12);
 		// 4 boards × 22.5 s (the demonstrated best: every reported cycle time is 22.5 s) / 17 min.
 		expect(morning.performance.value).toBeCloseTo(90 / (17 * 60), 12);
@@ -78,14 +98,28 @@ describe('printer OEE and changeovers from stored messages', () => {
 		expect(afternoon).toMatchObject({ boards: 0, runMs: 5 * 60_000, performance: { value: null } });
 
 		// Stencil change at 07:05: last board 07:02, first after 07:30.
-		const changes = lineChangeovers(db, { fromMs: Date.parse(at('00:00')), toMs: Date.parse(at('23:59')) });
+		const changes = lineChangeovers(db, {
+			fromMs: Date.parse(at('00:00')),
+			toMs: Date.parse(at('23:59'))
+		});
 		expect(changes).toEqual([
-			expect.objectContaining({ line: 'L1', kind: 'stencil', from: 'ST-GOOD', to: 'ST-WORN', durationMs: 28 * 60_000 })
+			expect.objectContaining({
+				line: 'L1',
+				kind: 'stencil',
+				from: 'ST-GOOD',
+				to: 'ST-WORN',
+				durationMs: 28 * 60_000
+			})
 		]);
 	});
 
 	it('splits a day into shifts at their starts, the last one running into the next day', () => {
-		expect(shiftsOfDay('2026-12-03', ['22:00', '06:00', '14:00']).map((s) => [new Date(s.startMs).toISOString(), new Date(s.endMs).toISOString()])).toEqual([
+		expect(
+			shiftsOfDay('2026-12-03', ['22:00', '06:00', '14:00']).map((s) => [
+				new Date(s.startMs).toISOString(),
+				new Date(s.endMs).toISOString()
+			])
+		).toEqual([
 			['2026-12-03T06:00:00.000Z', '2026-12-03T14:00:00.000Z'],
 			['2026-12-03T14:00:00.000Z', '2026-12-03T22:00:00.000Z'],
 			['2026-12-03T22:00:00.000Z', '2026-12-04T06:00:00.000Z']

@@ -19,9 +19,14 @@ export interface PrinterShiftOee extends OeeResult {
 }
 
 /** The shifts of one UTC day from their start times (`06:00`…), each up to the next start. */
-export function shiftsOfDay(dayUtc: string, starts: readonly string[]): { startMs: number; endMs: number }[] {
+export function shiftsOfDay(
+	dayUtc: string,
+	starts: readonly string[]
+): { startMs: number; endMs: number }[] {
 	const day = Date.parse(`${dayUtc}T00:00:00Z`);
-	const minutes = [...new Set(starts.map((s) => Number(s.slice(0, 2)) * 60 + Number(s.slice(3, 5))))].sort((a, b) => a - b);
+	const minutes = [
+		...new Set(starts.map((s) => Number(s.slice(0, 2)) * 60 + Number(s.slice(3, 5))))
+	].sort((a, b) => a - b);
 	return minutes.map((m, i) => ({
 		startMs: day + m * 60_000,
 		endMs: day + (i + 1 < minutes.length ? minutes[i + 1] : minutes[0] + 24 * 60) * 60_000
@@ -30,9 +35,17 @@ export function shiftsOfDay(dayUtc: string, starts: readonly string[]): { startM
 
 export class OeeRequestError extends Error {}
 
-function countBoards(db: Db, endpointOrLine: 'endpoint_id' | 'line_id', id: number, fromMs: number, toMs: number): number {
+function countBoards(
+	db: Db,
+	endpointOrLine: 'endpoint_id' | 'line_id',
+	id: number,
+	fromMs: number,
+	toMs: number
+): number {
 	return db.$client
-		.prepare(`select count(*) from cfx_units where ${endpointOrLine} = ? and processed_at >= ? and processed_at < ?`)
+		.prepare(
+			`select count(*) from cfx_units where ${endpointOrLine} = ? and processed_at >= ? and processed_at < ?`
+		)
 		.pluck()
 		.get(id, fromMs, toMs) as number;
 }
@@ -43,14 +56,24 @@ function countBoards(db: Db, endpointOrLine: 'endpoint_id' | 'line_id', id: numb
  */
 export function printerOee(
 	db: Db,
-	options: { day: string; shiftStarts?: readonly string[]; line?: string | null; idleAfterMs?: number }
+	options: {
+		day: string;
+		shiftStarts?: readonly string[];
+		line?: string | null;
+		idleAfterMs?: number;
+	}
 ): PrinterShiftOee[] {
 	const printers = db.$client
 		.prepare(
 			`select e.id, e.handle, e.line_id as lineId, l.code as line from cfx_endpoints e join lines l on l.id = e.line_id
 			  where e.kind = 'printer' ${options.line ? 'and upper(l.code) = upper(?)' : ''} order by l.code, e.handle`
 		)
-		.all(...(options.line ? [options.line] : [])) as { id: number; handle: string; lineId: number; line: string }[];
+		.all(...(options.line ? [options.line] : [])) as {
+		id: number;
+		handle: string;
+		lineId: number;
+		line: string;
+	}[];
 	const shifts = shiftsOfDay(options.day, options.shiftStarts ?? DEFAULT_SHIFT_STARTS);
 	const boardsOf = db.$client.prepare(
 		`select u.unit_identifier as serial, u.processed_at as atMs, p.code as product, u.cycle_time_ms as cycleTimeMs
@@ -73,8 +96,12 @@ export function printerOee(
 	const out: PrinterShiftOee[] = [];
 	for (const printer of printers) {
 		for (const shift of shifts) {
-			if (countBoards(db, 'endpoint_id', printer.id, shift.startMs, shift.endMs) > MAX_BOARDS_READ) {
-				throw new OeeRequestError(`${printer.handle} printed more than ${MAX_BOARDS_READ} boards in one shift`);
+			if (
+				countBoards(db, 'endpoint_id', printer.id, shift.startMs, shift.endMs) > MAX_BOARDS_READ
+			) {
+				throw new OeeRequestError(
+					`${printer.handle} printed more than ${MAX_BOARDS_READ} boards in one shift`
+				);
 			}
 			const rows = boardsOf.all(printer.lineId, printer.id, shift.startMs, shift.endMs) as {
 				serial: string;
@@ -83,19 +110,35 @@ export function printerOee(
 				cycleTimeMs: number | null;
 			}[];
 			const cycles = new Map<string, number[]>();
-			for (const c of cyclesOf.all(printer.lineId, printer.id, shift.endMs - DEMONSTRATED_WINDOW_MS, shift.endMs) as { product: string; ms: number }[]) {
+			for (const c of cyclesOf.all(
+				printer.lineId,
+				printer.id,
+				shift.endMs - DEMONSTRATED_WINDOW_MS,
+				shift.endMs
+			) as { product: string; ms: number }[]) {
 				cycles.set(c.product, [...(cycles.get(c.product) ?? []), c.ms]);
 			}
 			const demonstrated: Record<string, number> = {};
 			for (const [product, list] of cycles) demonstrated[product] = nearestRank(list, 10)!;
-			const faults = (faultsOf.all(printer.id, shift.endMs) as { occurredAtMs: number; faultId: string | null; clearedAtMs: number | null }[])
+			const faults = (
+				faultsOf.all(printer.id, shift.endMs) as {
+					occurredAtMs: number;
+					faultId: string | null;
+					clearedAtMs: number | null;
+				}[]
+			)
 				// An uncleared fault with no id cannot be matched: it counts up to the shift's end.
 				.filter((f) => f.clearedAtMs === null || f.clearedAtMs > shift.startMs);
 			const result = computeOee({
 				shift,
 				boards: rows.map((r) => {
 					const fails = firstInspection.get(r.serial) as number | undefined;
-					return { atMs: r.atMs, product: r.product, cycleTimeMs: r.cycleTimeMs, firstPassed: fails === undefined ? null : fails === 0 };
+					return {
+						atMs: r.atMs,
+						product: r.product,
+						cycleTimeMs: r.cycleTimeMs,
+						firstPassed: fails === undefined ? null : fails === 0
+					};
 				}),
 				faults,
 				// Recipes carry no ideal cycle time yet: the printer's demonstrated best stands in.
@@ -106,7 +149,10 @@ export function printerOee(
 			out.push({
 				printer: printer.handle,
 				line: printer.line,
-				shift: { start: new Date(shift.startMs).toISOString(), end: new Date(shift.endMs).toISOString() },
+				shift: {
+					start: new Date(shift.startMs).toISOString(),
+					end: new Date(shift.endMs).toISOString()
+				},
 				...result
 			});
 		}
@@ -128,7 +174,9 @@ export function lineChangeovers(
 	const out: (Changeover & { line: string })[] = [];
 	for (const line of lines) {
 		if (countBoards(db, 'line_id', line.id, options.fromMs, options.toMs) > MAX_BOARDS_READ) {
-			throw new OeeRequestError(`line ${line.code} printed more than ${MAX_BOARDS_READ} boards in the period: ask for a shorter one`);
+			throw new OeeRequestError(
+				`line ${line.code} printed more than ${MAX_BOARDS_READ} boards in the period: ask for a shorter one`
+			);
 		}
 		const boards = db.$client
 			.prepare(
@@ -137,14 +185,16 @@ export function lineChangeovers(
 				  where u.line_id = ? and e.kind = 'printer' and u.processed_at >= ? and u.processed_at < ?`
 			)
 			.all(line.id, options.fromMs, options.toMs) as { atMs: number; product: string | null }[];
-		const stencilChanges = (
-			db.$client
-				.prepare(
-					`select at as atMs, json_extract(detail, '$.oldName') as "from", json_extract(detail, '$.newName') as "to"
+		const stencilChanges = db.$client
+			.prepare(
+				`select at as atMs, json_extract(detail, '$.oldName') as "from", json_extract(detail, '$.newName') as "to"
 					   from cfx_line_events where line_id = ? and kind = 'stencil-changed' and at >= ? and at < ?`
-				)
-				.all(line.id, options.fromMs, options.toMs) as { atMs: number; from: string | null; to: string | null }[]
-		);
+			)
+			.all(line.id, options.fromMs, options.toMs) as {
+			atMs: number;
+			from: string | null;
+			to: string | null;
+		}[];
 		for (const c of changeovers(boards, stencilChanges)) out.push({ ...c, line: line.code });
 	}
 	return out;

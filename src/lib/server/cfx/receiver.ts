@@ -10,7 +10,13 @@
 import rhea from 'rhea';
 import type { Connection, ConnectionOptions, Delivery, EventContext, Receiver } from 'rhea';
 import type { Db } from '../db';
-import { REMEMBER_IDS_MS, bodyBytes, cfxMessageKey, pruneReceivedIds, storeCfxMessage } from './store';
+import {
+	REMEMBER_IDS_MS,
+	bodyBytes,
+	cfxMessageKey,
+	pruneReceivedIds,
+	storeCfxMessage
+} from './store';
 
 export interface CfxConfig {
 	host: string;
@@ -43,7 +49,9 @@ const OPEN_TIMEOUT_MS = 10_000;
  * Read CFX_URL / CFX_ADDRESSES. Null when CFX_URL is unset (nothing starts).
  * @throws Error naming the variable when set but unreadable (start-up stops with the message).
  */
-export function cfxConfigFromEnv(env: Record<string, string | undefined> = process.env): CfxConfig | null {
+export function cfxConfigFromEnv(
+	env: Record<string, string | undefined> = process.env
+): CfxConfig | null {
 	const raw = env.CFX_URL?.trim();
 	if (!raw) return null;
 	let url: URL;
@@ -62,10 +70,12 @@ export function cfxConfigFromEnv(env: Record<string, string | undefined> = proce
 		.split(',')
 		.map((a) => a.trim())
 		.filter((a) => a !== '');
-	if (addresses.length > MAX_ADDRESSES) throw new Error(`CFX_ADDRESSES lists more than ${MAX_ADDRESSES} addresses`);
+	if (addresses.length > MAX_ADDRESSES)
+		throw new Error(`CFX_ADDRESSES lists more than ${MAX_ADDRESSES} addresses`);
 	for (const a of addresses) {
 		// eslint-disable-next-line no-control-regex
-		if (a.length > 200 || /[\u0000-\u001f\s]/.test(a)) throw new Error(`CFX_ADDRESSES: "${a.slice(0, 40)}" is not an address`);
+		if (a.length > 200 || /[\u0000-\u001f\s]/.test(a))
+			throw new Error(`CFX_ADDRESSES: "${a.slice(0, 40)}" is not an address`);
 	}
 	const decode = (s: string) => {
 		try {
@@ -175,8 +185,14 @@ export function startCfxReceiver(
 			try {
 				const raw = normaliseBody(message.body);
 				const key = cfxMessageKey(message.message_id, bodyBytes(raw));
-				const encoding = typeof message.content_encoding === 'string' ? message.content_encoding : null;
-				const outcome = await storeCfxMessage(db, { messageKey: key, body: raw, contentEncoding: encoding, receivedAtMs });
+				const encoding =
+					typeof message.content_encoding === 'string' ? message.content_encoding : null;
+				const outcome = await storeCfxMessage(db, {
+					messageKey: key,
+					body: raw,
+					contentEncoding: encoding,
+					receivedAtMs
+				});
 				if (outcome.status === 'duplicate') counts.duplicates++;
 				else if (outcome.status === 'quarantined') counts.quarantined++;
 				else if (outcome.status === 'stored') {
@@ -335,7 +351,8 @@ export function startCfxReceiver(
 				/* already closed */
 			}
 		},
-		whenConnected: () => (connected ? Promise.resolve() : new Promise((r) => connectedWaiters.push(r))),
+		whenConnected: () =>
+			connected ? Promise.resolve() : new Promise((r) => connectedWaiters.push(r)),
 		idle: () => (pending === 0 ? Promise.resolve() : new Promise((r) => idleWaiters.push(r))),
 		recentLagsMs: () => [...lags]
 	};

@@ -41,7 +41,11 @@ function envelope(file: string, change: (env: Record<string, any>) => void = () 
 	return Buffer.from(JSON.stringify(env));
 }
 
-const count = (sql: string, ...args: unknown[]) => db.$client.prepare(sql).pluck().get(...args) as number;
+const count = (sql: string, ...args: unknown[]) =>
+	db.$client
+		.prepare(sql)
+		.pluck()
+		.get(...args) as number;
 
 beforeEach(() => {
 	t = openTestDatabase();
@@ -49,7 +53,14 @@ beforeEach(() => {
 	({ admin } = seedPrintlogFixture(db).actors as { admin: Actor });
 	db.insert(products).values({ code: 'FW-CTRL-200', name: 'Controller' }).run();
 	db.insert(stencils)
-		.values({ name: 'ST-CTRL-200-A', revision: 'A', thicknessUm: 120, technology: 'laser-stainless', state: 'in-use', ratedLifePrints: 50000 })
+		.values({
+			name: 'ST-CTRL-200-A',
+			revision: 'A',
+			thicknessUm: 120,
+			technology: 'laser-stainless',
+			state: 'in-use',
+			ratedLifePrints: 50000
+		})
 		.run();
 	saveEndpoint(db, { handle: 'fenmoor.l1.printer', line: 'L1', kind: 'printer' }, admin);
 	saveEndpoint(db, { handle: 'fenmoor.l1.spi', line: 'l1', kind: 'inspection' }, admin);
@@ -59,16 +70,36 @@ afterEach(() => t.close());
 
 describe('storeCfxMessage', () => {
 	it('a printer line without typing: work, print parameters, run opened by recipe name, boards counted', async () => {
-		expect(await storeCfxMessage(db, msg(envelope('work-started.json')))).toMatchObject({ status: 'stored' });
-		expect(await storeCfxMessage(db, msg(envelope('units-processed-print.json')))).toMatchObject({ status: 'stored' });
-		const run = db.$client.prepare(`select * from print_runs where ended_at is null`).get() as Record<string, unknown>;
-		expect(run).toMatchObject({ boards_printed: 0, started_at: Date.parse('2026-12-03T07:15:52.500Z') });
-		expect(JSON.parse(run.warnings as string)[0]).toBe('opened from CFX messages of fenmoor.l1.printer');
-		const unit = db.$client
-			.prepare(`select * from cfx_units where unit_identifier = 'FW-PNL-000101' and position_number = 1`)
+		expect(await storeCfxMessage(db, msg(envelope('work-started.json')))).toMatchObject({
+			status: 'stored'
+		});
+		expect(await storeCfxMessage(db, msg(envelope('units-processed-print.json')))).toMatchObject({
+			status: 'stored'
+		});
+		const run = db.$client
+			.prepare(`select * from print_runs where ended_at is null`)
 			.get() as Record<string, unknown>;
-		expect(unit).toMatchObject({ print_run_id: run.id, cycle_time_ms: 22_500, recipe_name: 'FW-CTRL-200' });
-		expect(JSON.parse(unit.parameters as string)).toMatchObject({ squeegeePressureKg: 6.5, squeegeeSpeedMmS: 45 });
+		expect(run).toMatchObject({
+			boards_printed: 0,
+			started_at: Date.parse('2026-12-03T07:15:52.500Z')
+		});
+		expect(JSON.parse(run.warnings as string)[0]).toBe(
+			'opened from CFX messages of fenmoor.l1.printer'
+		);
+		const unit = db.$client
+			.prepare(
+				`select * from cfx_units where unit_identifier = 'FW-PNL-000101' and position_number = 1`
+			)
+			.get() as Record<string, unknown>;
+		expect(unit).toMatchObject({
+			print_run_id: run.id,
+			cycle_time_ms: 22_500,
+			recipe_name: 'FW-CTRL-200'
+		});
+		expect(JSON.parse(unit.parameters as string)).toMatchObject({
+			squeegeePressureKg: 6.5,
+			squeegeeSpeedMmS: 45
+		});
 		// The two positions of the panel: work started both, one printed so far.
 		expect(count(`select count(*) from cfx_units`)).toBe(2);
 		const completed = envelope('work-started.json', (e) => {
@@ -93,7 +124,11 @@ describe('storeCfxMessage', () => {
 		// The recipe strokes 'alternating'; the printer reported FirstPrintDirection 'backward'.
 		expect(deviations).toEqual([
 			expect.objectContaining({ parameter: 'squeegeeSpeedMmS', value: 150, min: 20, max: 100 }),
-			expect.objectContaining({ parameter: 'printStroke', value: 'back-to-front', expected: 'alternating' })
+			expect.objectContaining({
+				parameter: 'printStroke',
+				value: 'back-to-front',
+				expected: 'alternating'
+			})
 		]);
 	});
 
@@ -129,11 +164,16 @@ describe('storeCfxMessage', () => {
 	});
 
 	it('forgets settled ids older than the window, never held ones', async () => {
-		await storeCfxMessage(db, { ...msg(envelope('work-started.json'), 'old'), receivedAtMs: 1_000 });
+		await storeCfxMessage(db, {
+			...msg(envelope('work-started.json'), 'old'),
+			receivedAtMs: 1_000
+		});
 		await storeCfxMessage(db, { ...msg(Buffer.from('nope'), 'old-bad'), receivedAtMs: 1_000 });
 		await storeCfxMessage(db, msg(envelope('fault-occurred.json'), 'new'));
 		expect(pruneReceivedIds(db, 2_000)).toBe(1);
-		expect(db.$client.prepare(`select message_key from cfx_messages order by message_key`).pluck().all()).toEqual(['new', 'old-bad']);
+		expect(
+			db.$client.prepare(`select message_key from cfx_messages order by message_key`).pluck().all()
+		).toEqual(['new', 'old-bad']);
 	});
 
 	it('an unmapped handle is quarantined, then stored once mapped and retried', async () => {
@@ -141,16 +181,21 @@ describe('storeCfxMessage', () => {
 		const out = await storeCfxMessage(db, msg(body, 'q1'));
 		expect(out).toEqual({
 			status: 'quarantined',
-			reason: 'handle "fenmoor.l2.printer" is not mapped to a line (add it under Admin → Machine messages)'
+			reason:
+				'handle "fenmoor.l2.printer" is not mapped to a line (add it under Admin → Machine messages)'
 		});
-		expect(listQuarantine(db)).toMatchObject([{ messageKey: 'q1', handle: 'fenmoor.l2.printer', status: 'held' }]);
+		expect(listQuarantine(db)).toMatchObject([
+			{ messageKey: 'q1', handle: 'fenmoor.l2.printer', status: 'held' }
+		]);
 		// A redelivery of the held message is not held twice.
 		expect((await storeCfxMessage(db, msg(body, 'q1'))).status).toBe('duplicate');
 		const id = listQuarantine(db)[0].id;
 		saveEndpoint(db, { handle: 'fenmoor.l2.printer', line: 'L2', kind: 'printer' }, admin);
 		expect((await retryQuarantined(db, id)).status).toBe('stored');
 		expect(listQuarantine(db)).toEqual([]);
-		expect(recentLineEvents(db, null)).toMatchObject([{ line: 'L2', kind: 'fault', detail: { code: 'ERR-PASTE-LOW' } }]);
+		expect(recentLineEvents(db, null)).toMatchObject([
+			{ line: 'L2', kind: 'fault', detail: { code: 'ERR-PASTE-LOW' } }
+		]);
 		expect(cfxCounts(db)).toMatchObject({ stored: 1, quarantined: 0 });
 	});
 
@@ -159,7 +204,10 @@ describe('storeCfxMessage', () => {
 			Buffer.from('{"MessageName":'),
 			gzipSync(Buffer.alloc(20 * 1024 * 1024, 32)),
 			Buffer.from(JSON.stringify([ref('work-started.json'), { MessageName: 'X' }])),
-			envelope('units-inspected-spi.json', (e) => (e.MessageBody.InspectedUnits[0].Inspections[0].Measurements[0].Vol = 'lots'))
+			envelope(
+				'units-inspected-spi.json',
+				(e) => (e.MessageBody.InspectedUnits[0].Inspections[0].Measurements[0].Vol = 'lots')
+			)
 		];
 		const reasons = [];
 		for (const body of bad) {
@@ -169,16 +217,23 @@ describe('storeCfxMessage', () => {
 		}
 		expect(reasons[0]).toMatch(/^body is not JSON/);
 		expect(reasons[1]).toMatch(/inflates beyond/);
-		expect(reasons[2]).toBe('envelope 2: X: envelope has no Source (the sender\'s CFX handle)');
+		expect(reasons[2]).toBe("envelope 2: X: envelope has no Source (the sender's CFX handle)");
 		expect(reasons[3]).toMatch(/Measurements\[0\] \(R1\.1\): Vol and EVol must be numbers$/);
 		const impossible = await storeCfxMessage(
 			db,
-			msg(envelope('units-processed-print.json', (e) => (e.MessageBody.UnitProcessData[0].UnitProcessData.Strokes[0].PrintSpeed = 0)))
+			msg(
+				envelope(
+					'units-processed-print.json',
+					(e) => (e.MessageBody.UnitProcessData[0].UnitProcessData.Strokes[0].PrintSpeed = 0)
+				)
+			)
 		);
 		expect(impossible.status === 'quarantined' && impossible.reason).toMatch(
 			/^CFX\.Production\.Processing\.UnitsProcessed: unit FW-PNL-000101: squeegeeSpeedMmS must be > 0/
 		);
-		expect(count(`select count(*) from cfx_units`) + count(`select count(*) from spi_boards`)).toBe(0);
+		expect(count(`select count(*) from cfx_units`) + count(`select count(*) from spi_boards`)).toBe(
+			0
+		);
 		expect(count(`select count(*) from print_runs`)).toBe(0);
 		expect(cfxCounts(db).quarantined).toBe(5);
 		discardQuarantined(db, listQuarantine(db)[0].id, admin);
@@ -188,19 +243,29 @@ describe('storeCfxMessage', () => {
 	it('SPI values the ingest refuses quarantine the message with the ingest’s words', async () => {
 		await storeCfxMessage(db, msg(envelope('units-processed-print.json')));
 		// Z of 5 mm = 5000 µm, outside the canonical 0–2000 µm range.
-		const body = envelope('units-inspected-spi.json', (e) => (e.MessageBody.InspectedUnits[0].Inspections[0].Measurements[0].Z = 5));
+		const body = envelope(
+			'units-inspected-spi.json',
+			(e) => (e.MessageBody.InspectedUnits[0].Inspections[0].Measurements[0].Z = 5)
+		);
 		const out = await storeCfxMessage(db, msg(body));
 		expect(out.status).toBe('quarantined');
-		expect(out.status === 'quarantined' && out.reason).toMatch(/^SPI ingest refused the measurements \(1 error\(s\)\): row 2, column "height_um"/);
+		expect(out.status === 'quarantined' && out.reason).toMatch(
+			/^SPI ingest refused the measurements \(1 error\(s\)\): row 2, column "height_um"/
+		);
 		expect(count(`select count(*) from spi_boards`)).toBe(0);
 	});
 
 	it('a unit whose product cannot be told is held for assignment, then ingested', async () => {
-		const body = envelope('units-inspected-spi.json', (e) => (e.MessageBody.RecipeName = 'NOT-A-PRODUCT'));
+		const body = envelope(
+			'units-inspected-spi.json',
+			(e) => (e.MessageBody.RecipeName = 'NOT-A-PRODUCT')
+		);
 		expect((await storeCfxMessage(db, msg(body))).status).toBe('stored');
 		expect(count(`select count(*) from spi_boards`)).toBe(0);
 		const pending = listPendingInspections(db);
-		expect(pending).toMatchObject([{ line: 'L1', unitIdentifier: 'FW-PNL-000101', padCount: 3, recipeName: 'NOT-A-PRODUCT' }]);
+		expect(pending).toMatchObject([
+			{ line: 'L1', unitIdentifier: 'FW-PNL-000101', padCount: 3, recipeName: 'NOT-A-PRODUCT' }
+		]);
 		const assigned = await assignPendingInspection(db, pending[0].id, 'fw-ctrl-200', admin);
 		expect(assigned.status).toBe('imported');
 		expect(count(`select count(*) from spi_boards where product_code = 'FW-CTRL-200'`)).toBe(1);
@@ -223,9 +288,12 @@ describe('storeCfxMessage', () => {
 			);
 		await storeCfxMessage(db, msg(change('2026-12-03T07:00:00Z', 'ST-CTRL-200-A')));
 		await storeCfxMessage(db, msg(envelope('units-processed-print.json')));
-		expect(db.$client.prepare(`select s.name from print_runs r join stencils s on s.id = r.stencil_id`).pluck().get()).toBe(
-			'ST-CTRL-200-A'
-		);
+		expect(
+			db.$client
+				.prepare(`select s.name from print_runs r join stencils s on s.id = r.stencil_id`)
+				.pluck()
+				.get()
+		).toBe('ST-CTRL-200-A');
 		await storeCfxMessage(db, msg(change('2026-12-03T08:00:00Z', 'ST-GOOD')));
 		expect(count(`select ended_at from print_runs`)).toBe(Date.parse('2026-12-03T08:00:00Z'));
 	});

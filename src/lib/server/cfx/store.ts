@@ -65,7 +65,9 @@ export function cfxMessageKey(messageId: unknown, bodyBytes: Uint8Array | null):
 	if (messageId instanceof Uint8Array && messageId.byteLength <= 64) {
 		return `id:${Buffer.from(messageId).toString('hex')}`;
 	}
-	return `sha256:${createHash('sha256').update(bodyBytes ?? new Uint8Array()).digest('hex')}`;
+	return `sha256:${createHash('sha256')
+		.update(bodyBytes ?? new Uint8Array())
+		.digest('hex')}`;
 }
 
 /** The body as bytes for the quarantine list and the hash (bounded by the decoder's limit). */
@@ -129,7 +131,9 @@ export function saveEndpoint(
 				.run(line.id, input.kind, before.id);
 		} else {
 			db.$client
-				.prepare(`insert into cfx_endpoints (handle, line_id, kind, created_by_user_id) values (?, ?, ?, ?)`)
+				.prepare(
+					`insert into cfx_endpoints (handle, line_id, kind, created_by_user_id) values (?, ?, ?, ?)`
+				)
 				.run(input.handle, line.id, input.kind, actor?.kind === 'user' ? actor.id : null);
 		}
 		const endpoint = endpointByHandle(db, input.handle)!;
@@ -146,7 +150,9 @@ export function saveEndpoint(
 
 /** Whether a message with this key was already settled (stored, quarantined or ignored). */
 function seen(db: Db, key: string): boolean {
-	return db.$client.prepare(`select 1 from cfx_messages where message_key = ?`).get(key) !== undefined;
+	return (
+		db.$client.prepare(`select 1 from cfx_messages where message_key = ?`).get(key) !== undefined
+	);
 }
 
 function quarantine(
@@ -171,7 +177,15 @@ function quarantine(
 				`insert into cfx_quarantine (message_key, received_at, handle, message_name, reason, body, content_encoding)
 				 values (?, ?, ?, ?, ?, ?, ?)`
 			)
-			.run(msg.messageKey, msg.receivedAtMs, handle, messageName, reason, bytes ? Buffer.from(bytes) : null, msg.contentEncoding);
+			.run(
+				msg.messageKey,
+				msg.receivedAtMs,
+				handle,
+				messageName,
+				reason,
+				bytes ? Buffer.from(bytes) : null,
+				msg.contentEncoding
+			);
 		db.$client
 			.prepare(
 				`insert into cfx_messages (message_key, received_at, outcome, handle, message_names) values (?, ?, 'quarantined', ?, ?)`
@@ -246,7 +260,8 @@ function openMachineRun(
 	const recipe = currentRecipeFor(db, ep.lineId, product.productId);
 	const stencil = currentStencilOfLine(db, ep.lineId);
 	const warnings = [`opened from CFX messages of ${ep.handle}`];
-	if (!stencil) warnings.push('stencil not reported by the printer (StencilChanged) or unknown to Rollbead');
+	if (!stencil)
+		warnings.push('stencil not reported by the printer (StencilChanged) or unknown to Rollbead');
 	const id = Number(
 		db.$client
 			.prepare(
@@ -268,7 +283,12 @@ function openMachineRun(
 		action: 'start',
 		entity: 'print_run',
 		entityId: id,
-		after: { source: 'cfx', handle: ep.handle, product: product.productCode, stencil: stencil?.name ?? null }
+		after: {
+			source: 'cfx',
+			handle: ep.handle,
+			product: product.productCode,
+			stencil: stencil?.name ?? null
+		}
 	});
 	lineEvent(db, ep, 'run-opened', atMs, { runId: id, product: product.productCode }, messageKey);
 	out.events.push({ kind: 'run', what: 'started', runId: id });
@@ -322,7 +342,13 @@ function unitRow(
 		.get(ep.id, unitIdentifier, positionNumber) as { id: number } | undefined;
 }
 
-function newUnit(db: Db, ep: CfxEndpoint, unitIdentifier: string, positionNumber: number, transactionId: string | null): number {
+function newUnit(
+	db: Db,
+	ep: CfxEndpoint,
+	unitIdentifier: string,
+	positionNumber: number,
+	transactionId: string | null
+): number {
 	return Number(
 		db.$client
 			.prepare(
@@ -333,14 +359,28 @@ function newUnit(db: Db, ep: CfxEndpoint, unitIdentifier: string, positionNumber
 }
 
 /** Write one record (inside the message's transaction). SPI records were handled before. */
-function applyRecord(db: Db, ep: CfxEndpoint, rec: CfxRecord, messageKey: string, out: Pending): void {
+function applyRecord(
+	db: Db,
+	ep: CfxEndpoint,
+	rec: CfxRecord,
+	messageKey: string,
+	out: Pending
+): void {
 	const at = rec.atMs;
 	switch (rec.kind) {
 		case 'work-started': {
 			const product = productFor(db, ep.lineId, null);
 			for (const u of rec.units) {
-				const row = unitRow(db, ep, u.unitIdentifier, u.positionNumber, rec.transactionId, 'started');
-				const id = row?.id ?? newUnit(db, ep, u.unitIdentifier, u.positionNumber, rec.transactionId);
+				const row = unitRow(
+					db,
+					ep,
+					u.unitIdentifier,
+					u.positionNumber,
+					rec.transactionId,
+					'started'
+				);
+				const id =
+					row?.id ?? newUnit(db, ep, u.unitIdentifier, u.positionNumber, rec.transactionId);
 				db.$client
 					.prepare(
 						`update cfx_units set transaction_id = ?, started_at = ?, print_run_id = coalesce(print_run_id, ?),
@@ -348,7 +388,14 @@ function applyRecord(db: Db, ep: CfxEndpoint, rec: CfxRecord, messageKey: string
 					)
 					.run(rec.transactionId, at, product?.run?.id ?? null, product?.productId ?? null, id);
 			}
-			lineEvent(db, ep, 'work-started', at, { transactionId: rec.transactionId, units: rec.units.length }, messageKey);
+			lineEvent(
+				db,
+				ep,
+				'work-started',
+				at,
+				{ transactionId: rec.transactionId, units: rec.units.length },
+				messageKey
+			);
 			return;
 		}
 		case 'units-processed': {
@@ -363,15 +410,26 @@ function applyRecord(db: Db, ep: CfxEndpoint, rec: CfxRecord, messageKey: string
 				if (product) {
 					const recipe = currentRecipeFor(db, ep.lineId, product.productId);
 					if (recipe) {
-						deviations = checkRunAgainstRecipe({ ...u.parameters }, {
-							line: ep.line,
-							product: product.productCode,
-							parameters: recipe.parameters
-						}).deviations;
+						deviations = checkRunAgainstRecipe(
+							{ ...u.parameters },
+							{
+								line: ep.line,
+								product: product.productCode,
+								parameters: recipe.parameters
+							}
+						).deviations;
 					}
 				}
-				const row = unitRow(db, ep, u.unitIdentifier, u.positionNumber, rec.transactionId, 'processed');
-				const id = row?.id ?? newUnit(db, ep, u.unitIdentifier, u.positionNumber, rec.transactionId);
+				const row = unitRow(
+					db,
+					ep,
+					u.unitIdentifier,
+					u.positionNumber,
+					rec.transactionId,
+					'processed'
+				);
+				const id =
+					row?.id ?? newUnit(db, ep, u.unitIdentifier, u.positionNumber, rec.transactionId);
 				db.$client
 					.prepare(
 						`update cfx_units set transaction_id = coalesce(transaction_id, ?), processed_at = ?, result = ?,
@@ -382,7 +440,11 @@ function applyRecord(db: Db, ep: CfxEndpoint, rec: CfxRecord, messageKey: string
 						rec.transactionId,
 						at,
 						u.result,
-						JSON.stringify({ ...u.parameters, printOffsets: u.printOffsets, firstPrintDirection: u.firstPrintDirection }),
+						JSON.stringify({
+							...u.parameters,
+							printOffsets: u.printOffsets,
+							firstPrintDirection: u.firstPrintDirection
+						}),
 						JSON.stringify(deviations),
 						u.cycleTimeMs,
 						recipeName,
@@ -396,36 +458,66 @@ function applyRecord(db: Db, ep: CfxEndpoint, rec: CfxRecord, messageKey: string
 		case 'work-completed': {
 			const ids = new Set<number>();
 			const listed = rec.units.length
-				? rec.units.map((u) => unitRow(db, ep, u.unitIdentifier, u.positionNumber, rec.transactionId, 'completed'))
+				? rec.units.map((u) =>
+						unitRow(db, ep, u.unitIdentifier, u.positionNumber, rec.transactionId, 'completed')
+					)
 				: (db.$client
-						.prepare(`select id from cfx_units where endpoint_id = ? and transaction_id = ? and completed_at is null`)
+						.prepare(
+							`select id from cfx_units where endpoint_id = ? and transaction_id = ? and completed_at is null`
+						)
 						.all(ep.id, rec.transactionId) as { id: number }[]);
 			for (const row of listed) if (row) ids.add(row.id);
 			const runs = new Map<number, number>();
 			for (const id of ids) {
 				const unit = db.$client
-					.prepare(`select print_run_id as runId, completed_at as completedAt from cfx_units where id = ?`)
+					.prepare(
+						`select print_run_id as runId, completed_at as completedAt from cfx_units where id = ?`
+					)
 					.get(id) as { runId: number | null; completedAt: number | null };
 				if (unit.completedAt !== null) continue;
-				db.$client.prepare(`update cfx_units set completed_at = ?, result = coalesce(result, ?) where id = ?`).run(at, rec.result, id);
-				if (unit.runId !== null && ep.kind === 'printer') runs.set(unit.runId, (runs.get(unit.runId) ?? 0) + 1);
+				db.$client
+					.prepare(
+						`update cfx_units set completed_at = ?, result = coalesce(result, ?) where id = ?`
+					)
+					.run(at, rec.result, id);
+				if (unit.runId !== null && ep.kind === 'printer')
+					runs.set(unit.runId, (runs.get(unit.runId) ?? 0) + 1);
 			}
 			// A board position printed counts once on its run (the stencil's print count follows).
 			for (const [runId, n] of runs) {
-				db.$client.prepare(`update print_runs set boards_printed = boards_printed + ? where id = ?`).run(n, runId);
+				db.$client
+					.prepare(`update print_runs set boards_printed = boards_printed + ? where id = ?`)
+					.run(n, runId);
 			}
-			lineEvent(db, ep, 'work-completed', at, { transactionId: rec.transactionId, result: rec.result, units: ids.size }, messageKey);
+			lineEvent(
+				db,
+				ep,
+				'work-completed',
+				at,
+				{ transactionId: rec.transactionId, result: rec.result, units: ids.size },
+				messageKey
+			);
 			return;
 		}
 		case 'units-arrived':
 		case 'units-departed': {
 			const arrived = rec.kind === 'units-arrived';
 			for (const u of rec.units) {
-				const row = unitRow(db, ep, u.unitIdentifier, u.positionNumber, null, arrived ? null : 'departed');
+				const row = unitRow(
+					db,
+					ep,
+					u.unitIdentifier,
+					u.positionNumber,
+					null,
+					arrived ? null : 'departed'
+				);
 				const fresh = arrived && (!row || hasColumn(db, row.id, 'arrived_at'));
-				const id = fresh || !row ? newUnit(db, ep, u.unitIdentifier, u.positionNumber, null) : row.id;
+				const id =
+					fresh || !row ? newUnit(db, ep, u.unitIdentifier, u.positionNumber, null) : row.id;
 				db.$client
-					.prepare(`update cfx_units set ${arrived ? 'arrived_at' : 'departed_at'} = ? where id = ?`)
+					.prepare(
+						`update cfx_units set ${arrived ? 'arrived_at' : 'departed_at'} = ? where id = ?`
+					)
 					.run(at, id);
 			}
 			return;
@@ -442,19 +534,38 @@ function applyRecord(db: Db, ep: CfxEndpoint, rec: CfxRecord, messageKey: string
 						at,
 						`printer clean${rec.mode ? `, mode ${rec.mode}` : ''}`,
 						`CFX StencilCleaned from ${ep.handle}` +
-							(rec.cyclesSinceLastClean !== null ? `; ${rec.cyclesSinceLastClean} prints since the last clean` : ''),
+							(rec.cyclesSinceLastClean !== null
+								? `; ${rec.cyclesSinceLastClean} prints since the last clean`
+								: ''),
 						`cfx:${ep.handle}`
 					);
 				out.events.push({ kind: 'stencil', stencilId: stencil.id });
 			}
-			lineEvent(db, ep, rec.kind, at, { stencil: rec.toolName, known: !!stencil, mode: rec.mode, cyclesSinceLastClean: rec.cyclesSinceLastClean, durationMs: rec.durationMs }, messageKey);
+			lineEvent(
+				db,
+				ep,
+				rec.kind,
+				at,
+				{
+					stencil: rec.toolName,
+					known: !!stencil,
+					mode: rec.mode,
+					cyclesSinceLastClean: rec.cyclesSinceLastClean,
+					durationMs: rec.durationMs
+				},
+				messageKey
+			);
 			return;
 		}
 		case 'stencil-changed': {
 			// A stencil change ends a run CFX opened (the next board opens one with the new stencil).
 			const open = openRunOnLine(db, ep.lineId);
 			if (open && cfxOpened(db, open.id)) {
-				db.$client.prepare(`update print_runs set ended_at = ? where id = ? and ended_at is null and started_at <= ?`).run(at, open.id, at);
+				db.$client
+					.prepare(
+						`update print_runs set ended_at = ? where id = ? and ended_at is null and started_at <= ?`
+					)
+					.run(at, open.id, at);
 				out.events.push({ kind: 'run', what: 'ended', runId: open.id });
 			}
 			lineEvent(db, ep, rec.kind, at, { oldName: rec.oldName, newName: rec.newName }, messageKey);
@@ -465,16 +576,47 @@ function applyRecord(db: Db, ep: CfxEndpoint, rec: CfxRecord, messageKey: string
 			lineEvent(db, ep, rec.kind, at, { oldName: rec.oldName, newName: rec.newName }, messageKey);
 			return;
 		case 'squeegee-cleaned':
-			lineEvent(db, ep, rec.kind, at, { squeegee: rec.toolName, mode: rec.mode, durationMs: rec.durationMs }, messageKey);
+			lineEvent(
+				db,
+				ep,
+				rec.kind,
+				at,
+				{ squeegee: rec.toolName, mode: rec.mode, durationMs: rec.durationMs },
+				messageKey
+			);
 			return;
 		case 'fault-occurred':
-			lineEvent(db, ep, 'fault', at, { faultId: rec.faultId, code: rec.code, cause: rec.cause, severity: rec.severity, description: rec.description }, messageKey);
+			lineEvent(
+				db,
+				ep,
+				'fault',
+				at,
+				{
+					faultId: rec.faultId,
+					code: rec.code,
+					cause: rec.cause,
+					severity: rec.severity,
+					description: rec.description
+				},
+				messageKey
+			);
 			return;
 		case 'fault-cleared':
 			lineEvent(db, ep, 'fault-cleared', at, { faultId: rec.faultId }, messageKey);
 			return;
 		case 'station-state-changed':
-			lineEvent(db, ep, 'station-state', at, { oldState: rec.oldState, newState: rec.newState, oldStateDurationMs: rec.oldStateDurationMs }, messageKey);
+			lineEvent(
+				db,
+				ep,
+				'station-state',
+				at,
+				{
+					oldState: rec.oldState,
+					newState: rec.newState,
+					oldStateDurationMs: rec.oldStateDurationMs
+				},
+				messageKey
+			);
 			return;
 		case 'units-inspected':
 			return; // stored before the transaction (ingestSpiFile)
@@ -482,14 +624,18 @@ function applyRecord(db: Db, ep: CfxEndpoint, rec: CfxRecord, messageKey: string
 }
 
 function hasColumn(db: Db, id: number, column: 'arrived_at'): boolean {
-	const row = db.$client.prepare(`select ${column} as v from cfx_units where id = ?`).get(id) as { v: number | null };
+	const row = db.$client.prepare(`select ${column} as v from cfx_units where id = ?`).get(id) as {
+		v: number | null;
+	};
 	return row.v !== null;
 }
 
 function cfxOpened(db: Db, runId: number): boolean {
 	return (
 		db.$client
-			.prepare(`select 1 from cfx_line_events where kind = 'run-opened' and json_extract(detail, '$.runId') = ?`)
+			.prepare(
+				`select 1 from cfx_line_events where kind = 'run-opened' and json_extract(detail, '$.runId') = ?`
+			)
 			.get(runId) !== undefined
 	);
 }
@@ -504,7 +650,12 @@ function inspectedUnitContext(
 	ep: CfxEndpoint,
 	unitIdentifier: string,
 	recipeName: string | null
-): { productId: number; productCode: string; runId: number | null; stencilName: string | null } | null {
+): {
+	productId: number;
+	productCode: string;
+	runId: number | null;
+	stencilName: string | null;
+} | null {
 	const printed = db.$client
 		.prepare(
 			`select u.product_id as productId, p.code as productCode, u.print_run_id as runId, s.name as stencilName
@@ -522,7 +673,9 @@ function inspectedUnitContext(
 		productId: product.productId,
 		productCode: product.productCode,
 		runId: product.run?.id ?? null,
-		stencilName: product.run ? product.run.stencilName : (currentStencilOfLine(db, ep.lineId)?.name ?? null)
+		stencilName: product.run
+			? product.run.stencilName
+			: (currentStencilOfLine(db, ep.lineId)?.name ?? null)
 	};
 }
 
@@ -534,7 +687,10 @@ async function storeInspections(
 	messageKey: string
 ): Promise<{ pending: InspectedUnit[][] } | { reason: string }> {
 	// One CSV per (product, run, stencil): a board's rows must agree on them.
-	const groups = new Map<string, { ctx: NonNullable<ReturnType<typeof inspectedUnitContext>>; units: InspectedUnit[] }>();
+	const groups = new Map<
+		string,
+		{ ctx: NonNullable<ReturnType<typeof inspectedUnitContext>>; units: InspectedUnit[] }
+	>();
 	const unknown = new Map<string, InspectedUnit[]>();
 	for (const u of rec.units) {
 		if (u.pads.length === 0) continue;
@@ -568,7 +724,9 @@ async function storeInspections(
 		});
 		if (outcome.status === 'rejected') {
 			const first = outcome.errors.slice(0, 3).map(formatIngestIssue).join('; ');
-			return { reason: `SPI ingest refused the measurements (${outcome.errorCount} error(s)): ${first}` };
+			return {
+				reason: `SPI ingest refused the measurements (${outcome.errorCount} error(s)): ${first}`
+			};
 		}
 	}
 	return { pending: [...unknown.values()] };
@@ -592,7 +750,8 @@ export async function storeCfxMessage(
 	const ignored: string[] = [];
 	for (const env of decoded.envelopes) {
 		const mapped = mapEnvelope(env);
-		if (mapped.status === 'quarantine') return quarantine(db, msg, env.source, env.messageName, mapped.reason, retryOf);
+		if (mapped.status === 'quarantine')
+			return quarantine(db, msg, env.source, env.messageName, mapped.reason, retryOf);
 		const ep = endpointByHandle(db, env.source);
 		if (!ep) {
 			return quarantine(
@@ -614,19 +773,33 @@ export async function storeCfxMessage(
 		for (const u of rec.units) {
 			const errors = validateRunParameters({ ...u.parameters });
 			if (errors.length) {
-				const what = errors.map((e) => `${e.field.replace(/^parameters\./, '')} ${e.message}`).join('; ');
-				return quarantine(db, msg, rec.handle, rec.messageName, `${rec.messageName}: unit ${u.unitIdentifier}: ${what}`, retryOf);
+				const what = errors
+					.map((e) => `${e.field.replace(/^parameters\./, '')} ${e.message}`)
+					.join('; ');
+				return quarantine(
+					db,
+					msg,
+					rec.handle,
+					rec.messageName,
+					`${rec.messageName}: unit ${u.unitIdentifier}: ${what}`,
+					retryOf
+				);
 			}
 		}
 	}
 	const first = decoded.envelopes[0];
 	const names = [...new Set(decoded.envelopes.map((e) => e.messageName))].join(',').slice(0, 500);
 	// SPI first: idempotent by content, so a crash before the transaction below is harmless.
-	const held: { ep: CfxEndpoint; rec: Extract<CfxRecord, { kind: 'units-inspected' }>; units: InspectedUnit[] }[] = [];
+	const held: {
+		ep: CfxEndpoint;
+		rec: Extract<CfxRecord, { kind: 'units-inspected' }>;
+		units: InspectedUnit[];
+	}[] = [];
 	for (const { rec, ep } of records) {
 		if (rec.kind !== 'units-inspected') continue;
 		const result = await storeInspections(db, ep, rec, msg.messageKey);
-		if ('reason' in result) return quarantine(db, msg, ep.handle, rec.messageName, result.reason, retryOf);
+		if ('reason' in result)
+			return quarantine(db, msg, ep.handle, rec.messageName, result.reason, retryOf);
 		for (const units of result.pending) held.push({ ep, rec, units });
 	}
 	const out: Pending = { events: [] };
@@ -651,7 +824,9 @@ export async function storeCfxMessage(
 		}
 		const outcome = records.length ? 'stored' : 'ignored';
 		if (retryOf !== null) {
-			db.$client.prepare(`update cfx_quarantine set status = 'retried', resolved_at = ? where id = ?`).run(Date.now(), retryOf);
+			db.$client
+				.prepare(`update cfx_quarantine set status = 'retried', resolved_at = ? where id = ?`)
+				.run(Date.now(), retryOf);
 			db.$client
 				.prepare(`update cfx_messages set outcome = ?, sent_at = ? where message_key = ?`)
 				.run(outcome, first.timeStampMs, msg.messageKey);
@@ -665,7 +840,8 @@ export async function storeCfxMessage(
 	});
 	for (const event of out.events) publishFloorEvent(event);
 	// Print-parameter charts judge runs opened or ended by machines as they judge typed ones.
-	for (const event of out.events) if (event.kind === 'run') await evaluateChartsForRun(db, event.runId);
+	for (const event of out.events)
+		if (event.kind === 'run') await evaluateChartsForRun(db, event.runId);
 	if (records.length === 0) return { status: 'ignored', reason: ignored[0] ?? 'nothing to store' };
 	return { status: 'stored', records: records.length, sentAtMs: first.timeStampMs };
 }
@@ -703,14 +879,20 @@ export interface QuarantinedMessage {
 }
 
 /** Held messages (newest first), or all when `all`. */
-export function listQuarantine(db: Db, options: { all?: boolean; limit?: number } = {}): QuarantinedMessage[] {
+export function listQuarantine(
+	db: Db,
+	options: { all?: boolean; limit?: number } = {}
+): QuarantinedMessage[] {
 	const rows = db.$client
 		.prepare(
 			`select id, message_key as messageKey, received_at as receivedAt, handle, message_name as messageName, reason, status,
 			        coalesce(length(body), 0) as sizeBytes
 			   from cfx_quarantine ${options.all ? '' : `where status = 'held'`} order by id desc limit ?`
 		)
-		.all(Math.min(Math.max(options.limit ?? 200, 1), 1000)) as (Omit<QuarantinedMessage, 'receivedAt'> & { receivedAt: number })[];
+		.all(Math.min(Math.max(options.limit ?? 200, 1), 1000)) as (Omit<
+		QuarantinedMessage,
+		'receivedAt'
+	> & { receivedAt: number })[];
 	return rows.map((r) => ({ ...r, receivedAt: new Date(r.receivedAt).toISOString() }));
 }
 
@@ -721,34 +903,67 @@ export function listQuarantine(db: Db, options: { all?: boolean; limit?: number 
  */
 export async function retryQuarantined(db: Db, id: number): Promise<StoreOutcome> {
 	const row = db.$client
-		.prepare(`select message_key as messageKey, received_at as receivedAt, body, content_encoding as contentEncoding, status from cfx_quarantine where id = ?`)
-		.get(id) as { messageKey: string; receivedAt: number; body: Buffer | null; contentEncoding: string | null; status: string } | undefined;
+		.prepare(
+			`select message_key as messageKey, received_at as receivedAt, body, content_encoding as contentEncoding, status from cfx_quarantine where id = ?`
+		)
+		.get(id) as
+		| {
+				messageKey: string;
+				receivedAt: number;
+				body: Buffer | null;
+				contentEncoding: string | null;
+				status: string;
+		  }
+		| undefined;
 	if (!row) throw new CfxInputError(404, 'id', `no quarantined message #${id}`);
-	if (row.status !== 'held') throw new CfxInputError(409, 'id', `message #${id} is already ${row.status}`);
+	if (row.status !== 'held')
+		throw new CfxInputError(409, 'id', `message #${id} is already ${row.status}`);
 	return storeCfxMessage(
 		db,
-		{ messageKey: row.messageKey, body: row.body, contentEncoding: row.contentEncoding, receivedAtMs: row.receivedAt },
+		{
+			messageKey: row.messageKey,
+			body: row.body,
+			contentEncoding: row.contentEncoding,
+			receivedAtMs: row.receivedAt
+		},
 		{ retryOf: id }
 	);
 }
 
 /** Discard a held message (kept as 'discarded' for the record, body dropped). */
-export function discardQuarantined(db: Db, id: number, actor: Parameters<typeof recordAudit>[1]): void {
+export function discardQuarantined(
+	db: Db,
+	id: number,
+	actor: Parameters<typeof recordAudit>[1]
+): void {
 	db.transaction((tx) => {
-		const row = db.$client.prepare(`select status, reason from cfx_quarantine where id = ?`).get(id) as
-			| { status: string; reason: string }
-			| undefined;
+		const row = db.$client
+			.prepare(`select status, reason from cfx_quarantine where id = ?`)
+			.get(id) as { status: string; reason: string } | undefined;
 		if (!row) throw new CfxInputError(404, 'id', `no quarantined message #${id}`);
-		if (row.status !== 'held') throw new CfxInputError(409, 'id', `message #${id} is already ${row.status}`);
+		if (row.status !== 'held')
+			throw new CfxInputError(409, 'id', `message #${id} is already ${row.status}`);
 		db.$client
-			.prepare(`update cfx_quarantine set status = 'discarded', body = null, resolved_at = ?, resolved_by_user_id = ? where id = ?`)
+			.prepare(
+				`update cfx_quarantine set status = 'discarded', body = null, resolved_at = ?, resolved_by_user_id = ? where id = ?`
+			)
 			.run(Date.now(), actor?.kind === 'user' ? actor.id : null, id);
-		recordAudit(tx, actor, { action: 'discard', entity: 'cfx_message', entityId: id, before: { reason: row.reason } });
+		recordAudit(tx, actor, {
+			action: 'discard',
+			entity: 'cfx_message',
+			entityId: id,
+			before: { reason: row.reason }
+		});
 	});
 }
 
 /** Counts since the database began: stored, quarantined (held now), ignored, pending units. */
-export function cfxCounts(db: Db): { stored: number; quarantined: number; ignored: number; pendingUnits: number } {
+export function cfxCounts(db: Db): {
+	stored: number;
+	quarantined: number;
+	ignored: number;
+	pendingUnits: number;
+} {
 	const c = db.$client
 		.prepare(
 			`select (select count(*) from cfx_messages where outcome = 'stored') as stored,
@@ -798,9 +1013,19 @@ export async function assignPendingInspection(
 			`select p.status, p.units, p.inspected_at as inspectedAt, p.message_key as messageKey, l.code as line, e.handle
 			   from cfx_pending_inspections p join lines l on l.id = p.line_id join cfx_endpoints e on e.id = p.endpoint_id where p.id = ?`
 		)
-		.get(id) as { status: string; units: string; inspectedAt: number; messageKey: string; line: string; handle: string } | undefined;
+		.get(id) as
+		| {
+				status: string;
+				units: string;
+				inspectedAt: number;
+				messageKey: string;
+				line: string;
+				handle: string;
+		  }
+		| undefined;
 	if (!row) throw new CfxInputError(404, 'id', `no held inspection #${id}`);
-	if (row.status !== 'pending') throw new CfxInputError(409, 'id', `inspection #${id} is already ${row.status}`);
+	if (row.status !== 'pending')
+		throw new CfxInputError(409, 'id', `inspection #${id} is already ${row.status}`);
 	const product = productByCode(db, productCode);
 	if (!product) throw new CfxInputError(422, 'product', `no product has the code "${productCode}"`);
 	const csv = spiCsvForUnits(JSON.parse(row.units) as InspectedUnit[], {
@@ -820,13 +1045,24 @@ export async function assignPendingInspection(
 		userId: actor?.kind === 'user' ? actor.id : null
 	});
 	if (outcome.status === 'rejected') {
-		throw new CfxInputError(422, 'units', `SPI ingest refused the measurements: ${outcome.errors.slice(0, 3).map(formatIngestIssue).join('; ')}`);
+		throw new CfxInputError(
+			422,
+			'units',
+			`SPI ingest refused the measurements: ${outcome.errors.slice(0, 3).map(formatIngestIssue).join('; ')}`
+		);
 	}
 	db.transaction((tx) => {
 		db.$client
-			.prepare(`update cfx_pending_inspections set status = 'assigned', product_id = ?, import_id = ? where id = ?`)
+			.prepare(
+				`update cfx_pending_inspections set status = 'assigned', product_id = ?, import_id = ? where id = ?`
+			)
 			.run(product.id, outcome.id, id);
-		recordAudit(tx, actor, { action: 'assign', entity: 'cfx_inspection', entityId: id, after: { product: product.code, importId: outcome.id } });
+		recordAudit(tx, actor, {
+			action: 'assign',
+			entity: 'cfx_inspection',
+			entityId: id,
+			after: { product: product.code, importId: outcome.id }
+		});
 	});
 	return { importId: outcome.id, status: outcome.status };
 }
@@ -847,5 +1083,9 @@ export function recentLineEvents(db: Db, lineId: number | null, limit = 50) {
 		at: number;
 		detail: string;
 	}[];
-	return rows.map((r) => ({ ...r, at: new Date(r.at).toISOString(), detail: JSON.parse(r.detail) as Record<string, unknown> }));
+	return rows.map((r) => ({
+		...r,
+		at: new Date(r.at).toISOString(),
+		detail: JSON.parse(r.detail) as Record<string, unknown>
+	}));
 }

@@ -13,7 +13,10 @@ import { openSignalCounts } from '../spc/signals';
  */
 export const CAPABILITY_MAX_AGE_MS = 60_000;
 
-type Entry = { atMs: number; fact: Omit<CharacteristicFact, 'openSignals'> & { target: number | null } };
+type Entry = {
+	atMs: number;
+	fact: Omit<CharacteristicFact, 'openSignals'> & { target: number | null };
+};
 const entries = new Map<number, Entry>();
 const refreshing = new Set<number>();
 let refreshQueue: number[] = [];

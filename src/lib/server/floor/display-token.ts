@@ -9,7 +9,11 @@ import { verifyApiToken } from '../tokens';
  * taken there (a token in a URL ends up in histories and logs; it must not be able to change
  * anything); every other path still wants the Authorization header.
  */
-export const DISPLAY_TOKEN_PATHS: ReadonlySet<string> = new Set(['/wall', '/api/lines/overview', '/api/lines/stream']);
+export const DISPLAY_TOKEN_PATHS: ReadonlySet<string> = new Set([
+	'/wall',
+	'/api/lines/overview',
+	'/api/lines/stream'
+]);
 
 export type DisplayIdentity = { actor: Actor } | { error: string } | null;
 
@@ -23,7 +27,10 @@ export function displayIdentity(db: Db, path: string, query: URLSearchParams): D
 	const token = query.get('token');
 	if (token === null) return null;
 	const check = verifyApiToken(db, token.trim());
-	if (!check.ok) return { error: `The display token is ${check.reason === 'unknown' ? 'not known' : check.reason}.` };
+	if (!check.ok)
+		return {
+			error: `The display token is ${check.reason === 'unknown' ? 'not known' : check.reason}.`
+		};
 	if (check.actor.role !== 'viewer') {
 		return { error: 'A display token must be an API token of role viewer (read-only).' };
 	}

@@ -9,7 +9,11 @@
 export type FloorEvent =
 	| { kind: 'spi-import'; importId: number; boardIds: readonly number[] }
 	| { kind: 'run'; what: 'started' | 'ended' | 'corrected'; runId: number }
-	| { kind: 'signal'; what: 'raised' | 'acknowledged' | 'assigned' | 'escalated'; signalIds: readonly number[] }
+	| {
+			kind: 'signal';
+			what: 'raised' | 'acknowledged' | 'assigned' | 'escalated';
+			signalIds: readonly number[];
+	  }
 	| { kind: 'paste-lot'; lotId: number }
 	| { kind: 'stencil'; stencilId: number };
 

@@ -1,9 +1,5 @@
 import type Database from 'better-sqlite3';
-import {
-	checkTensionReadings,
-	lotExpiresAtMs,
-	replayPasteEvents
-} from '$lib/printlog';
+import { checkTensionReadings, lotExpiresAtMs, replayPasteEvents } from '$lib/printlog';
 import type { BoardFact, CharacteristicFact, LineFacts, SignalFact } from '$lib/floor/tile';
 import type { Db } from '../db';
 import { capabilityStates } from './capability-cache';
@@ -29,9 +25,9 @@ function prepare(conn: Database.Database) {
 			   from print_runs r join products p on p.id = r.product_id
 			  where r.ended_at is null`
 		),
-		lastEnded: conn.prepare(
-			`select ended_at from print_runs where line_id = ? order by started_at desc limit 1`
-		).pluck(),
+		lastEnded: conn
+			.prepare(`select ended_at from print_runs where line_id = ? order by started_at desc limit 1`)
+			.pluck(),
 		runBoards: conn.prepare(`select count(*) as n from spi_boards where print_run_id = ?`).pluck(),
 		runBoardsSince: conn
 			.prepare(`select count(*) from spi_boards where print_run_id = ? and inspected_at >= ?`)
@@ -58,9 +54,7 @@ function prepare(conn: Database.Database) {
 			        max_on_stencil_minutes as maxOnStencil, max_out_of_cold_minutes as maxOutOfCold
 			   from paste_lots where id = ?`
 		),
-		lotEvents: conn.prepare(
-			`select event, at from paste_events where lot_id = ? order by at, id`
-		),
+		lotEvents: conn.prepare(`select event, at from paste_events where lot_id = ? order by at, id`),
 		openSignals: conn.prepare(
 			`select s.id, s.characteristic_id as characteristicId, c.name as characteristic, c.product_id as productId,
 			        s.rule, s.created_at as createdAt, s.point_key as pointKey, s.board_ids as boardIds,
@@ -71,7 +65,9 @@ function prepare(conn: Database.Database) {
 			  where s.ack_at is null
 			  order by s.id desc limit 2000`
 		),
-		boardLineRun: conn.prepare(`select line_id as lineId, print_run_id as runId from spi_boards where id = ?`),
+		boardLineRun: conn.prepare(
+			`select line_id as lineId, print_run_id as runId from spi_boards where id = ?`
+		),
 		runLine: conn.prepare(`select line_id from print_runs where id = ?`).pluck()
 	};
 }
@@ -97,7 +93,8 @@ function placeOfSignal(s: Statements, id: number, pointKey: string, boardIds: nu
 		place = { lineId: (s.runLine.get(runId) as number | undefined) ?? null, runId };
 	} else {
 		const board = boardIds.length
-			? (s.boardLineRun.get(boardIds[boardIds.length - 1]) as { lineId: number | null; runId: number | null } | undefined)
+			? (s.boardLineRun.get(boardIds[boardIds.length - 1]) as
+					{ lineId: number | null; runId: number | null } | undefined)
 			: undefined;
 		place = { lineId: board?.lineId ?? null, runId: board?.runId ?? null };
 	}
@@ -177,22 +174,39 @@ function wipeInterval(parameters: string): number | null {
 	}
 }
 
-function stencilFacts(s: Statements, stencilId: number, run: OpenRun, liveBoards: number): LineFacts['stencil'] {
+function stencilFacts(
+	s: Statements,
+	stencilId: number,
+	run: OpenRun,
+	liveBoards: number
+): LineFacts['stencil'] {
 	const row = s.stencil.get(stencilId) as
-		| { id: number; name: string; revision: string; state: string; thicknessUm: number; ratedLifePrints: number | null }
+		| {
+				id: number;
+				name: string;
+				revision: string;
+				state: string;
+				thicknessUm: number;
+				ratedLifePrints: number | null;
+		  }
 		| undefined;
 	if (!row) return null;
 	const cleaning = s.lastEvent.get(stencilId, 'cleaning') as { at: number } | undefined;
 	const cleanedAt = cleaning?.at ?? null;
 	let printCount = 0;
 	let sinceClean = 0;
-	for (const r of s.stencilRuns.all(stencilId) as { id: number; startedAt: number; boardsPrinted: number }[]) {
+	for (const r of s.stencilRuns.all(stencilId) as {
+		id: number;
+		startedAt: number;
+		boardsPrinted: number;
+	}[]) {
 		const boards = r.id === run.id ? liveBoards : r.boardsPrinted;
 		printCount += boards;
 		if (cleanedAt === null || r.startedAt >= cleanedAt) sinceClean += boards;
 		else if (r.id === run.id) sinceClean += s.runBoardsSince.get(run.id, cleanedAt) as number;
 	}
-	const tension = s.lastEvent.get(stencilId, 'tension') as { at: number; readings: string | null } | undefined;
+	const tension = s.lastEvent.get(stencilId, 'tension') as
+		{ at: number; readings: string | null } | undefined;
 	let lastTension: NonNullable<LineFacts['stencil']>['lastTension'] = null;
 	if (tension) {
 		let readings: number[] = [];
@@ -217,7 +231,13 @@ function stencilFacts(s: Statements, stencilId: number, run: OpenRun, liveBoards
 
 function lotFacts(s: Statements, lotId: number, nowMs: number): LineFacts['pasteLot'] {
 	const row = s.lot.get(lotId) as
-		| { id: number; lotNumber: string; expiresOn: string; maxOnStencil: number; maxOutOfCold: number }
+		| {
+				id: number;
+				lotNumber: string;
+				expiresOn: string;
+				maxOnStencil: number;
+				maxOutOfCold: number;
+		  }
 		| undefined;
 	if (!row) return null;
 	const events = s.lotEvents.all(lotId) as { event: string; at: number }[];
@@ -251,10 +271,15 @@ export function loadLineFacts(db: Db, nowMs: number, lineIds?: readonly number[]
 		(l) => !wanted || wanted.has(l.id)
 	);
 	const runs = new Map(
-		(s.openRuns.all() as OpenRun[]).filter((r) => !wanted || wanted.has(r.lineId)).map((r) => [r.lineId, r])
+		(s.openRuns.all() as OpenRun[])
+			.filter((r) => !wanted || wanted.has(r.lineId))
+			.map((r) => [r.lineId, r])
 	);
 	const signals = openSignalsByLine(db);
-	const capability = capabilityStates(db, [...runs.values()].map((r) => ({ productId: r.productId, lineId: r.lineId })));
+	const capability = capabilityStates(
+		db,
+		[...runs.values()].map((r) => ({ productId: r.productId, lineId: r.lineId }))
+	);
 	return lines.map((line) => {
 		const run = runs.get(line.id) ?? null;
 		const boards: BoardFact[] = (
@@ -291,8 +316,10 @@ export function loadLineFacts(db: Db, nowMs: number, lineIds?: readonly number[]
 		}
 		const liveBoards = Math.max(run.boardsPrinted, s.runBoards.get(run.id) as number);
 		const stencil = run.stencilId === null ? null : stencilFacts(s, run.stencilId, run, liveBoards);
-		const chars: (CharacteristicFact & { target: number | null })[] = capability.get(`${run.productId}:${line.id}`) ?? [];
-		const targetOf = (measure: string) => chars.find((c) => c.measure === measure && c.target !== null)?.target ?? null;
+		const chars: (CharacteristicFact & { target: number | null })[] =
+			capability.get(`${run.productId}:${line.id}`) ?? [];
+		const targetOf = (measure: string) =>
+			chars.find((c) => c.measure === measure && c.target !== null)?.target ?? null;
 		return {
 			line,
 			run: {

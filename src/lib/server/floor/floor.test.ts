@@ -9,7 +9,12 @@ import { spcCharacteristics, spcLimitVersions, spcSignals, mailOutbox } from '..
 import { subscribeFloorEvents, type PublishedFloorEvent } from './events';
 import { eventsAfter, eventId, openStream, stopLiveOverview, DEBOUNCE_MS } from './live';
 import { FACTS_MAX_AGE_MS, lineOverview } from './overview';
-import { assignSignal, AssignError, escalateAfterMinutes, escalateOverdueSignals } from './signal-owners';
+import {
+	assignSignal,
+	AssignError,
+	escalateAfterMinutes,
+	escalateOverdueSignals
+} from './signal-owners';
 import { clearCapabilityCache } from './capability-cache';
 
 const HEADER =
@@ -25,7 +30,9 @@ function spiFile(tag: string, times: number[], fail: (i: number) => boolean = ()
 	times.forEach((ms, i) => {
 		const at = new Date(ms).toISOString();
 		rows.push(`${tag}-${i},${at},L1,P1,0,C1,1,${100 + i},100,120,-2,3,pass`);
-		rows.push(`${tag}-${i},${at},L1,P1,0,C2,1,${100 + i},100,124,2,-3,${fail(i) ? 'fail' : 'pass'}`);
+		rows.push(
+			`${tag}-${i},${at},L1,P1,0,C2,1,${100 + i},100,124,2,-3,${fail(i) ? 'fail' : 'pass'}`
+		);
 	});
 	return rows.join('\n') + '\n';
 }
@@ -42,7 +49,8 @@ afterEach(() => {
 	t.close();
 });
 
-const tileOf = (code: string, now = Date.now()) => lineOverview(t.db, now).lines.find((l) => l.lineCode === code)!;
+const tileOf = (code: string, now = Date.now()) =>
+	lineOverview(t.db, now).lines.find((l) => l.lineCode === code)!;
 
 describe('line overview from the database', () => {
 	it('idle lines without a run; a started run with its stencil, paste and SPI boards', async () => {
@@ -54,17 +62,40 @@ describe('line overview from the database', () => {
 		expect(typeof before.at).toBe('string');
 
 		const now = Date.now();
-		addPasteEvent(t.db, 'LOT-OK', { event: 'out-of-cold-storage', at: new Date(now - 6 * 3_600_000).toISOString() }, fx.actors.technician);
-		addPasteEvent(t.db, 'LOT-OK', { event: 'opened', at: new Date(now - 2 * 3_600_000).toISOString() }, fx.actors.technician);
-		addPasteEvent(t.db, 'LOT-OK', { event: 'on-stencil', at: new Date(now - 60 * 60_000).toISOString() }, fx.actors.technician);
+		addPasteEvent(
+			t.db,
+			'LOT-OK',
+			{ event: 'out-of-cold-storage', at: new Date(now - 6 * 3_600_000).toISOString() },
+			fx.actors.technician
+		);
+		addPasteEvent(
+			t.db,
+			'LOT-OK',
+			{ event: 'opened', at: new Date(now - 2 * 3_600_000).toISOString() },
+			fx.actors.technician
+		);
+		addPasteEvent(
+			t.db,
+			'LOT-OK',
+			{ event: 'on-stencil', at: new Date(now - 60 * 60_000).toISOString() },
+			fx.actors.technician
+		);
 		const run = startRun(
 			t.db,
-			runPayload({ startedAt: new Date(now - 30 * 60_000).toISOString(), parameters: { ...runPayload().parameters, wipeIntervalPrints: 4 } }) as never,
+			runPayload({
+				startedAt: new Date(now - 30 * 60_000).toISOString(),
+				parameters: { ...runPayload().parameters, wipeIntervalPrints: 4 }
+			}) as never,
 			fx.actors.technician
 		);
 		// 10 boards in the last 5 minutes, 3 of them with a failing pad.
 		const times = Array.from({ length: 10 }, (_, i) => now - (10 - i) * 30_000);
-		const outcome = await ingestSpiFile(t.db, { source: 'api', fileName: 'a.csv', body: once(spiFile('FL', times, (i) => i >= 7)), createdBy: 'user:1' });
+		const outcome = await ingestSpiFile(t.db, {
+			source: 'api',
+			fileName: 'a.csv',
+			body: once(spiFile('FL', times, (i) => i >= 7)),
+			createdBy: 'user:1'
+		});
 		expect(outcome.status).toBe('imported');
 
 		const tile = tileOf('L1', now);
@@ -76,16 +107,35 @@ describe('line overview from the database', () => {
 		// Board means: volume 100 + i over i = 0..9 → 104.5; height (120 + 124) / 2; offsets 0.
 		expect(tile.spi.volumePct).toEqual({ mean: 104.5, target: 100, boards: 10 });
 		expect(tile.spi.heightUm).toEqual({ mean: 122, target: 127, boards: 10 });
-		expect(tile.stencil).toMatchObject({ name: 'ST-GOOD', printCount: 10, printsSinceClean: 10, lastTensionAt: null });
-		expect(tile.paste).toMatchObject({ lotNumber: 'LOT-OK', minutesOnStencil: 60, maxOnStencilMinutes: 480 });
+		expect(tile.stencil).toMatchObject({
+			name: 'ST-GOOD',
+			printCount: 10,
+			printsSinceClean: 10,
+			lastTensionAt: null
+		});
+		expect(tile.paste).toMatchObject({
+			lotNumber: 'LOT-OK',
+			minutesOnStencil: 60,
+			maxOnStencilMinutes: 480
+		});
 		const due = Object.fromEntries(tile.due.map((d) => [d.key, d]));
 		expect(due['tension-check'].status).toBe('due');
 		// 10 prints with a wipe every 4: the next in 2.
 		expect(due.wipe).toMatchObject({ remainingPrints: 2 });
 		expect(due['paste-on-stencil']).toMatchObject({ status: 'ok', remainingMinutes: 420 });
 
-		addStencilLifeEntry(t.db, fx.stencilIds.good, { kind: 'tension', readingsNPerCm: [40, 41, 39, 42, 40] }, fx.actors.technician);
-		addStencilLifeEntry(t.db, fx.stencilIds.good, { kind: 'cleaning', detail: 'wet wipe, IPA' }, fx.actors.technician);
+		addStencilLifeEntry(
+			t.db,
+			fx.stencilIds.good,
+			{ kind: 'tension', readingsNPerCm: [40, 41, 39, 42, 40] },
+			fx.actors.technician
+		);
+		addStencilLifeEntry(
+			t.db,
+			fx.stencilIds.good,
+			{ kind: 'cleaning', detail: 'wet wipe, IPA' },
+			fx.actors.technician
+		);
 		const after = tileOf('L1');
 		expect(after.stencil).toMatchObject({ printsSinceClean: 0 });
 		expect(after.due.find((d) => d.key === 'tension-check')!.status).toBe('ok');
@@ -96,21 +146,40 @@ describe('line overview from the database', () => {
 });
 
 describe('key characteristics on the tile', () => {
-	it('each active chart of the run\'s product and line with the capability verdict and its target', async () => {
+	it("each active chart of the run's product and line with the capability verdict and its target", async () => {
 		const { createCharacteristic } = await import('../spc/characteristics');
 		const chart = createCharacteristic(
 			t.db,
-			{ name: 'Paste volume · P1', productId: 1, lineIds: [], measure: 'volume-pct', chartKind: 'i-mr', lsl: 60, target: 105, usl: 140 },
+			{
+				name: 'Paste volume · P1',
+				productId: 1,
+				lineIds: [],
+				measure: 'volume-pct',
+				chartKind: 'i-mr',
+				lsl: 60,
+				target: 105,
+				usl: 140
+			},
 			fx.actors.engineer
 		);
 		startRun(t.db, runPayload() as never, fx.actors.technician);
 		const now = Date.now();
 		const times = Array.from({ length: 12 }, (_, i) => now - (12 - i) * 30_000);
-		await ingestSpiFile(t.db, { source: 'api', fileName: 'c.csv', body: once(spiFile('CH', times)), createdBy: 'user:1' });
+		await ingestSpiFile(t.db, {
+			source: 'api',
+			fileName: 'c.csv',
+			body: once(spiFile('CH', times)),
+			createdBy: 'user:1'
+		});
 		const tile = tileOf('L1');
 		expect(tile.characteristics).toHaveLength(1);
 		const c = tile.characteristics[0];
-		expect(c).toMatchObject({ id: chart.id, name: 'Paste volume · P1', measure: 'volume-pct', openSignals: 0 });
+		expect(c).toMatchObject({
+			id: chart.id,
+			name: 'Paste volume · P1',
+			measure: 'volume-pct',
+			openSignals: 0
+		});
 		expect(['not-stable', 'capable', 'marginal', 'not-capable', 'not-assessed']).toContain(c.level);
 		// The chart's own target replaces the nominal 100 % for the volume mean.
 		expect(tile.spi.volumePct.target).toBe(105);
@@ -130,7 +199,10 @@ describe('the facts cache', () => {
 		t.db.$client.prepare(`update lines set name = 'Line uno' where code = 'L1'`).run();
 		// A run started on L1 publishes an event: the next read has the new facts.
 		startRun(t.db, runPayload() as never, fx.actors.technician);
-		expect(tileOf('L1', now + FACTS_MAX_AGE_MS + 2)).toMatchObject({ lineName: 'Line uno', run: { boardsPrinted: 0 } });
+		expect(tileOf('L1', now + FACTS_MAX_AGE_MS + 2)).toMatchObject({
+			lineName: 'Line uno',
+			run: { boardsPrinted: 0 }
+		});
 	});
 });
 
@@ -139,9 +211,19 @@ describe('events and the stream', () => {
 		const seen: PublishedFloorEvent[] = [];
 		const stop = subscribeFloorEvents((e) => seen.push(e));
 		const run = startRun(t.db, runPayload() as never, fx.actors.technician);
-		await ingestSpiFile(t.db, { source: 'api', fileName: 'b.csv', body: once(spiFile('EV', [Date.now()])), createdBy: 'user:1' });
+		await ingestSpiFile(t.db, {
+			source: 'api',
+			fileName: 'b.csv',
+			body: once(spiFile('EV', [Date.now()])),
+			createdBy: 'user:1'
+		});
 		addPasteEvent(t.db, 'LOT-OK', { event: 'out-of-cold-storage' }, fx.actors.technician);
-		addStencilLifeEntry(t.db, fx.stencilIds.good, { kind: 'cleaning', detail: 'wipe' }, fx.actors.technician);
+		addStencilLifeEntry(
+			t.db,
+			fx.stencilIds.good,
+			{ kind: 'cleaning', detail: 'wipe' },
+			fx.actors.technician
+		);
 		await new Promise((r) => setTimeout(r, 0));
 		stop();
 		expect(seen.map((e) => e.kind)).toEqual(['run', 'spi-import', 'paste-lot', 'stencil']);
@@ -164,7 +246,12 @@ describe('events and the stream', () => {
 		text = '';
 		const run = startRun(t.db, runPayload() as never, fx.actors.technician);
 		addPasteEvent(t.db, 'LOT-OK', { event: 'out-of-cold-storage' }, fx.actors.technician);
-		addStencilLifeEntry(t.db, fx.stencilIds.good, { kind: 'cleaning', detail: 'wipe' }, fx.actors.technician);
+		addStencilLifeEntry(
+			t.db,
+			fx.stencilIds.good,
+			{ kind: 'cleaning', detail: 'wipe' },
+			fx.actors.technician
+		);
 		await new Promise((r) => setTimeout(r, DEBOUNCE_MS + 100));
 		await readUntil(/event: line\ndata: .*\n\n/);
 		// Three events, one line, one tile.
@@ -196,7 +283,15 @@ describe('signals with owners', () => {
 	function seedSignal(createdAt: Date) {
 		const c = t.db
 			.insert(spcCharacteristics)
-			.values({ name: 'Volume C1', productId: 1, lineIds: [], measure: 'volume-pct', padSelection: { kind: 'all' }, chartKind: 'i-mr', rules: ['1'] })
+			.values({
+				name: 'Volume C1',
+				productId: 1,
+				lineIds: [],
+				measure: 'volume-pct',
+				padSelection: { kind: 'all' },
+				chartKind: 'i-mr',
+				rules: ['1']
+			})
 			.returning()
 			.get();
 		const v = t.db
@@ -206,7 +301,16 @@ describe('signals with owners', () => {
 			.get();
 		return t.db
 			.insert(spcSignals)
-			.values({ characteristicId: c.id, limitVersionId: v.id, rule: '1', chartPart: 'location', pointKey: 'board:1', pointKeys: ['board:1'], boardIds: [], createdAt })
+			.values({
+				characteristicId: c.id,
+				limitVersionId: v.id,
+				rule: '1',
+				chartPart: 'location',
+				pointKey: 'board:1',
+				pointKeys: ['board:1'],
+				boardIds: [],
+				createdAt
+			})
 			.returning()
 			.get();
 	}
@@ -214,8 +318,13 @@ describe('signals with owners', () => {
 	it('assigns an owner (audited), refuses unknown people and acknowledged signals', () => {
 		const s = seedSignal(new Date());
 		const owner = assignSignal(t.db, s.id, fx.actors.technician.id!, fx.actors.quality);
-		expect(owner.assignee).toMatchObject({ id: fx.actors.technician.kind === 'user' ? fx.actors.technician.id : 0, name: 'T technician' });
-		const audit = t.db.$client.prepare(`select action, before, after from audit_log where action = 'assign-signal'`).all();
+		expect(owner.assignee).toMatchObject({
+			id: fx.actors.technician.kind === 'user' ? fx.actors.technician.id : 0,
+			name: 'T technician'
+		});
+		const audit = t.db.$client
+			.prepare(`select action, before, after from audit_log where action = 'assign-signal'`)
+			.all();
 		expect(audit).toHaveLength(1);
 		expect(() => assignSignal(t.db, s.id, 9999, fx.actors.quality)).toThrow(AssignError);
 		expect(() => assignSignal(t.db, 424242, null, fx.actors.quality)).toThrow(/No signal/);
@@ -227,7 +336,15 @@ describe('signals with owners', () => {
 		const old = seedSignal(new Date(Date.now() - 90 * 60_000));
 		const fresh = t.db
 			.insert(spcSignals)
-			.values({ characteristicId: old.characteristicId, limitVersionId: old.limitVersionId, rule: '1', chartPart: 'location', pointKey: 'board:2', pointKeys: ['board:2'], boardIds: [] })
+			.values({
+				characteristicId: old.characteristicId,
+				limitVersionId: old.limitVersionId,
+				rule: '1',
+				chartPart: 'location',
+				pointKey: 'board:2',
+				pointKeys: ['board:2'],
+				boardIds: []
+			})
 			.returning()
 			.get();
 		assignSignal(t.db, old.id, fx.actors.technician.id!, fx.actors.quality);
@@ -235,9 +352,14 @@ describe('signals with owners', () => {
 		expect(await escalateOverdueSignals(t.db, 60)).toEqual([]);
 		const mails = t.db.select().from(mailOutbox).all();
 		expect(mails).toHaveLength(1);
-		expect(mails[0]).toMatchObject({ toAddresses: 'technician@t.example', kind: 'signal-escalation' });
+		expect(mails[0]).toMatchObject({
+			toAddresses: 'technician@t.example',
+			kind: 'signal-escalation'
+		});
 		expect(mails[0].textBody).toContain('Volume C1');
-		const escalated = t.db.$client.prepare(`select id, escalated_at is not null as done from spc_signals order by id`).all();
+		const escalated = t.db.$client
+			.prepare(`select id, escalated_at is not null as done from spc_signals order by id`)
+			.all();
 		expect(escalated).toEqual([
 			{ id: old.id, done: 1 },
 			{ id: fresh.id, done: 0 }
@@ -259,12 +381,18 @@ describe('display tokens', () => {
 		const viewer = createApiToken(t.db, { name: 'wall', role: 'viewer' }, fx.actors.admin).token;
 		const engineer = createApiToken(t.db, { name: 'eng', role: 'engineer' }, fx.actors.admin).token;
 		const q = (token: string) => new URLSearchParams({ token });
-		expect(displayIdentity(t.db, '/wall', q(viewer))).toMatchObject({ actor: { kind: 'token', role: 'viewer' } });
-		expect(displayIdentity(t.db, '/api/lines/stream', q(viewer))).toMatchObject({ actor: { role: 'viewer' } });
+		expect(displayIdentity(t.db, '/wall', q(viewer))).toMatchObject({
+			actor: { kind: 'token', role: 'viewer' }
+		});
+		expect(displayIdentity(t.db, '/api/lines/stream', q(viewer))).toMatchObject({
+			actor: { role: 'viewer' }
+		});
 		expect(displayIdentity(t.db, '/api/lines/overview', q(engineer))).toEqual({
 			error: 'A display token must be an API token of role viewer (read-only).'
 		});
-		expect(displayIdentity(t.db, '/wall', q('rb_nonsense'))).toEqual({ error: 'The display token is malformed.' });
+		expect(displayIdentity(t.db, '/wall', q('rb_nonsense'))).toEqual({
+			error: 'The display token is malformed.'
+		});
 		// Elsewhere the query is ignored: the Authorization header is the only way in.
 		expect(displayIdentity(t.db, '/api/print-runs', q(viewer))).toBeNull();
 		expect(displayIdentity(t.db, '/wall', new URLSearchParams())).toBeNull();

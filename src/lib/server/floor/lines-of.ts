@@ -6,15 +6,27 @@ export function linesOfEvent(db: Db, e: PublishedFloorEvent): number[] {
 	const c = db.$client;
 	switch (e.kind) {
 		case 'spi-import':
-			return (
-				c.prepare(`select distinct line_id from spi_boards where import_id = ? and line_id is not null`).pluck().all(e.importId) as number[]
-			);
+			return c
+				.prepare(
+					`select distinct line_id from spi_boards where import_id = ? and line_id is not null`
+				)
+				.pluck()
+				.all(e.importId) as number[];
 		case 'run':
-			return c.prepare(`select line_id from print_runs where id = ?`).pluck().all(e.runId) as number[];
+			return c
+				.prepare(`select line_id from print_runs where id = ?`)
+				.pluck()
+				.all(e.runId) as number[];
 		case 'paste-lot':
-			return c.prepare(`select line_id from print_runs where paste_lot_id = ? and ended_at is null`).pluck().all(e.lotId) as number[];
+			return c
+				.prepare(`select line_id from print_runs where paste_lot_id = ? and ended_at is null`)
+				.pluck()
+				.all(e.lotId) as number[];
 		case 'stencil':
-			return c.prepare(`select line_id from print_runs where stencil_id = ? and ended_at is null`).pluck().all(e.stencilId) as number[];
+			return c
+				.prepare(`select line_id from print_runs where stencil_id = ? and ended_at is null`)
+				.pluck()
+				.all(e.stencilId) as number[];
 		case 'signal':
 			return signalLines(db, e.signalIds);
 	}
@@ -22,7 +34,9 @@ export function linesOfEvent(db: Db, e: PublishedFloorEvent): number[] {
 
 function signalLines(db: Db, ids: readonly number[]): number[] {
 	const out = new Set<number>();
-	const sig = db.$client.prepare(`select point_key as pointKey, board_ids as boardIds from spc_signals where id = ?`);
+	const sig = db.$client.prepare(
+		`select point_key as pointKey, board_ids as boardIds from spc_signals where id = ?`
+	);
 	const runLine = db.$client.prepare(`select line_id from print_runs where id = ?`).pluck();
 	const boardLine = db.$client.prepare(`select line_id from spi_boards where id = ?`).pluck();
 	for (const id of ids.slice(0, 500)) {
@@ -34,7 +48,8 @@ function signalLines(db: Db, ids: readonly number[]): number[] {
 		else {
 			try {
 				const boards = JSON.parse(row.boardIds) as number[];
-				if (boards.length) line = boardLine.get(boards[boards.length - 1]) as number | null | undefined;
+				if (boards.length)
+					line = boardLine.get(boards[boards.length - 1]) as number | null | undefined;
 			} catch {
 				line = null;
 			}
@@ -43,4 +58,3 @@ function signalLines(db: Db, ids: readonly number[]): number[] {
 	}
 	return [...out];
 }
-

@@ -72,7 +72,11 @@ function write(client: Client, text: string): void {
 	}
 }
 
-function append(event: StreamEvent['event'], payload: unknown, publishedAtMs: number | null): StreamEvent {
+function append(
+	event: StreamEvent['event'],
+	payload: unknown,
+	publishedAtMs: number | null
+): StreamEvent {
 	const e: StreamEvent = { seq: ++seq, event, data: JSON.stringify(payload), publishedAtMs };
 	ring.push(e);
 	if (ring.length > RING_SIZE) ring.splice(0, ring.length - RING_SIZE);
@@ -92,7 +96,16 @@ function onEvent(e: PublishedFloorEvent): void {
 		return;
 	}
 	if (e.kind === 'signal') {
-		append('signal', { what: e.what, signalIds: e.signalIds, lineIds, at: new Date(e.publishedAtMs).toISOString() }, e.publishedAtMs);
+		append(
+			'signal',
+			{
+				what: e.what,
+				signalIds: e.signalIds,
+				lineIds,
+				at: new Date(e.publishedAtMs).toISOString()
+			},
+			e.publishedAtMs
+		);
 	}
 	for (const id of lineIds) {
 		// Keep the first publish time of a burst: the delay is counted from the earliest change.
@@ -174,35 +187,41 @@ export const openStreams = () => clients.size;
 export function openStream(db: Db, lastEventId: string | null): Response {
 	startLiveOverview(db);
 	if (clients.size >= MAX_STREAMS) {
-		return new Response(JSON.stringify({ error: `Too many open streams (${MAX_STREAMS}); try again later.` }), {
-			status: 503,
-			headers: { 'content-type': 'application/json', 'retry-after': '30' }
-		});
+		return new Response(
+			JSON.stringify({ error: `Too many open streams (${MAX_STREAMS}); try again later.` }),
+			{
+				status: 503,
+				headers: { 'content-type': 'application/json', 'retry-after': '30' }
+			}
+		);
 	}
 	let client: Client;
-	const stream = new ReadableStream<Uint8Array>({
-		start(controller) {
-			client = { controller, closed: false };
-			let head = `retry: 3000\n\n`;
-			const missed = eventsAfter(lastEventId);
-			if (missed) {
-				for (const e of missed) head += frame(e);
-			} else {
-				const tiles = lineTiles(db);
-				// The snapshot carries the newest id, so a reconnect resumes after it.
-				for (const tile of tiles) {
-					head += `id: ${eventId(seq)}\nevent: line\ndata: ${JSON.stringify(tile)}\n\n`;
+	const stream = new ReadableStream<Uint8Array>(
+		{
+			start(controller) {
+				client = { controller, closed: false };
+				let head = `retry: 3000\n\n`;
+				const missed = eventsAfter(lastEventId);
+				if (missed) {
+					for (const e of missed) head += frame(e);
+				} else {
+					const tiles = lineTiles(db);
+					// The snapshot carries the newest id, so a reconnect resumes after it.
+					for (const tile of tiles) {
+						head += `id: ${eventId(seq)}\nevent: line\ndata: ${JSON.stringify(tile)}\n\n`;
+					}
+					head += `id: ${eventId(seq)}\nevent: snapshot\ndata: {"lines":${tiles.length}}\n\n`;
 				}
-				head += `id: ${eventId(seq)}\nevent: snapshot\ndata: {"lines":${tiles.length}}\n\n`;
+				controller.enqueue(encoder.encode(head));
+				clients.add(client);
+			},
+			cancel() {
+				client.closed = true;
+				clients.delete(client);
 			}
-			controller.enqueue(encoder.encode(head));
-			clients.add(client);
 		},
-		cancel() {
-			client.closed = true;
-			clients.delete(client);
-		}
-	}, new ByteLengthQueuingStrategy({ highWaterMark: STREAM_HIGH_WATER_BYTES }));
+		new ByteLengthQueuingStrategy({ highWaterMark: STREAM_HIGH_WATER_BYTES })
+	);
 	return new Response(stream, {
 		headers: {
 			'content-type': 'text/event-stream; charset=utf-8',

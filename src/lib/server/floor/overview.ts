@@ -47,7 +47,10 @@ export function lineTiles(db: Db, nowMs = Date.now(), lineIds?: readonly number[
 	const cache = cacheOf(db);
 	applyEvents(db, cache);
 	// Which lines are active: one small indexed read, always current (lines are added or retired).
-	const active = db.$client.prepare(`select id from lines where active = 1 order by code`).pluck().all() as number[];
+	const active = db.$client
+		.prepare(`select id from lines where active = 1 order by code`)
+		.pluck()
+		.all() as number[];
 	const wanted = lineIds ? active.filter((id) => lineIds.includes(id)) : active;
 	const missing = wanted.filter((id) => !cache.facts.has(id));
 	// Aged facts are refreshed a few at a time, oldest first, so lines that went quiet together do

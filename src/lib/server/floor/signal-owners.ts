@@ -58,10 +58,17 @@ export function assignSignal(db: Db, id: number, userId: number | null, actor: A
 		.get();
 	if (!signal) throw new AssignError(404, `No signal with id ${id}.`);
 	if (signal.ackAt) {
-		throw new AssignError(409, `Signal ${id} was acknowledged at ${signal.ackAt.toISOString()}; it needs no owner.`);
+		throw new AssignError(
+			409,
+			`Signal ${id} was acknowledged at ${signal.ackAt.toISOString()}; it needs no owner.`
+		);
 	}
 	if (userId !== null) {
-		const user = db.select({ id: users.id, active: users.active }).from(users).where(eq(users.id, userId)).get();
+		const user = db
+			.select({ id: users.id, active: users.active })
+			.from(users)
+			.where(eq(users.id, userId))
+			.get();
 		if (!user) throw new AssignError(422, `No person with id ${userId}.`, 'userId');
 		if (!user.active) throw new AssignError(422, `Person ${userId} is deactivated.`, 'userId');
 	}
@@ -88,7 +95,12 @@ export function assignableUsers(db: Db): { id: number; name: string; role: strin
 	return db
 		.select({ id: users.id, name: users.name, role: users.role })
 		.from(users)
-		.where(and(eq(users.active, true), inArray(users.role, ['technician', 'quality', 'engineer', 'admin'])))
+		.where(
+			and(
+				eq(users.active, true),
+				inArray(users.role, ['technician', 'quality', 'engineer', 'admin'])
+			)
+		)
 		.orderBy(users.name)
 		.all();
 }
@@ -112,7 +124,11 @@ const ESCALATE_BATCH = 200;
  * transaction as the outbox rows are written, so a signal is never escalated twice.
  * @returns the ids escalated.
  */
-export async function escalateOverdueSignals(db: Db, afterMinutes: number, nowMs = Date.now()): Promise<number[]> {
+export async function escalateOverdueSignals(
+	db: Db,
+	afterMinutes: number,
+	nowMs = Date.now()
+): Promise<number[]> {
 	if (!(afterMinutes > 0)) return [];
 	const cutoff = new Date(nowMs - afterMinutes * 60_000);
 	const due = db
@@ -128,7 +144,13 @@ export async function escalateOverdueSignals(db: Db, afterMinutes: number, nowMs
 		.from(spcSignals)
 		.innerJoin(spcCharacteristics, eq(spcCharacteristics.id, spcSignals.characteristicId))
 		.leftJoin(users, and(eq(users.id, spcSignals.assigneeUserId), eq(users.active, true)))
-		.where(and(isNull(spcSignals.ackAt), isNull(spcSignals.escalatedAt), lte(spcSignals.createdAt, cutoff)))
+		.where(
+			and(
+				isNull(spcSignals.ackAt),
+				isNull(spcSignals.escalatedAt),
+				lte(spcSignals.createdAt, cutoff)
+			)
+		)
 		.orderBy(spcSignals.id)
 		.limit(ESCALATE_BATCH)
 		.all();
@@ -155,7 +177,10 @@ export async function escalateOverdueSignals(db: Db, afterMinutes: number, nowMs
 	}
 	const ids = due.map((d) => d.id);
 	db.transaction((tx) => {
-		tx.update(spcSignals).set({ escalatedAt: new Date(nowMs) }).where(inArray(spcSignals.id, ids)).run();
+		tx.update(spcSignals)
+			.set({ escalatedAt: new Date(nowMs) })
+			.where(inArray(spcSignals.id, ids))
+			.run();
 		recordAudit(tx, null, {
 			action: 'escalate-signal',
 			entity: 'spc-signal',
@@ -190,7 +215,9 @@ export function startSignalEscalation(db: Db, env: NodeJS.ProcessEnv = process.e
 	const minutes = escalateAfterMinutes(env);
 	if (escalationTimer || minutes === 0) return;
 	const check = () =>
-		void escalateOverdueSignals(db, minutes).catch((err) => console.error('[floor] signal escalation failed', err));
+		void escalateOverdueSignals(db, minutes).catch((err) =>
+			console.error('[floor] signal escalation failed', err)
+		);
 	escalationTimer = setInterval(check, 60_000);
 	escalationTimer.unref?.();
 	check();

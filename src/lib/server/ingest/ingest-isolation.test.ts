@@ -132,7 +132,10 @@ describe('SPI import isolation', { timeout: 120_000 }, () => {
 	});
 
 	it('after a stop mid-import: start-up cleanup removes the partial rows; the file then imports whole', async () => {
-		const kept = await ingestSpiFile(t.db, request(pausedBody(3, -1, '', 'FW-KEPT').body, 'kept.csv'));
+		const kept = await ingestSpiFile(
+			t.db,
+			request(pausedBody(3, -1, '', 'FW-KEPT').body, 'kept.csv')
+		);
 		expect(kept.status).toBe('imported');
 		const before = counts(t.db.$client);
 		const file = pausedBody(200, 150);

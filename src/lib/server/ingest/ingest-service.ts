@@ -397,7 +397,9 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 			// the row stays 'importing' and the next start-up removes it.
 			try {
 				await discardImportRows(conn, writer.importId);
-				conn.prepare(`delete from spi_imports where id = ? and status = 'importing'`).run(writer.importId);
+				conn
+					.prepare(`delete from spi_imports where id = ? and status = 'importing'`)
+					.run(writer.importId);
 			} catch (cleanupErr) {
 				console.warn(
 					'[rollbead] could not remove the rows of a failed SPI import (removed at the next start):',
@@ -495,7 +497,8 @@ function checkpointAndClose(conn: Database.Database): void {
 		return checkpointInline(file, err);
 	}
 	worker.once('message', (outcome: { ok: boolean; error?: string }) => {
-		if (!outcome.ok) console.warn('[rollbead] WAL checkpoint after an SPI import failed:', outcome.error);
+		if (!outcome.ok)
+			console.warn('[rollbead] WAL checkpoint after an SPI import failed:', outcome.error);
 	});
 	worker.once('error', (err) => checkpointInline(file, err));
 	worker.unref();
@@ -619,8 +622,7 @@ function createBatchWriter(
 		Math.max(
 			(conn.prepare(`select max(id) from ${table}`).pluck().get() as number | null) ?? 0,
 			(conn.prepare(`select seq from sqlite_sequence where name = ?`).pluck().get(table) as
-				| number
-				| undefined) ?? 0
+				number | undefined) ?? 0
 		) + 1;
 	const raiseSequence = (table: string, seq: number) => {
 		const changed = conn

@@ -84,9 +84,11 @@ describe('parser thread memory ceiling', { timeout: 120_000 }, () => {
 		// The archive copy and its hash cover every byte, including chunks the thread never saw.
 		expect(outcome.sha256).toBe(sha(chunks));
 		const stored = first.writer.commit(outcome.sha256);
-		expect(createHash('sha256').update(readFileSync(join(first.dir, stored))).digest('hex')).toBe(
-			outcome.sha256
-		);
+		expect(
+			createHash('sha256')
+				.update(readFileSync(join(first.dir, stored)))
+				.digest('hex')
+		).toBe(outcome.sha256);
 
 		// The next file gets a working thread.
 		const good = onePadBoards(50);

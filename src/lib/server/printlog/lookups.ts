@@ -62,7 +62,11 @@ export function stencilByName(db: Db, name: string): StencilRef | undefined {
 
 /** Every stencil, for scan matching and lists. */
 export function listStencilRefs(db: Db): StencilRef[] {
-	return db.select(stencilColumns).from(stencils).orderBy(asc(stencils.name), desc(stencils.id)).all();
+	return db
+		.select(stencilColumns)
+		.from(stencils)
+		.orderBy(asc(stencils.name), desc(stencils.id))
+		.all();
 }
 
 /** Find a paste lot id by lot number (case-insensitive). */
@@ -94,5 +98,7 @@ export function resolveLineProduct(
 
 /** Look a line id up (for messages). */
 export function lineCodeById(db: Db, id: number): string {
-	return db.select({ code: lines.code }).from(lines).where(eq(lines.id, id)).get()?.code ?? `#${id}`;
+	return (
+		db.select({ code: lines.code }).from(lines).where(eq(lines.id, id)).get()?.code ?? `#${id}`
+	);
 }

@@ -40,7 +40,13 @@ export type PasteLotView = {
 };
 
 /** One logged handling event. */
-export type PasteEventView = { id: number; event: string; at: Date; note: string; by: string | null };
+export type PasteEventView = {
+	id: number;
+	event: string;
+	at: Date;
+	note: string;
+	by: string | null;
+};
 
 type LotRow = typeof pasteLots.$inferSelect;
 
@@ -102,7 +108,11 @@ export function listPasteLots(db: Db, nowMs = Date.now()): PasteLotView[] {
 }
 
 /** One lot by id, or by lot number when `ref` is not an id of a lot. */
-export function getPasteLot(db: Db, ref: number | string, nowMs = Date.now()): PasteLotView | undefined {
+export function getPasteLot(
+	db: Db,
+	ref: number | string,
+	nowMs = Date.now()
+): PasteLotView | undefined {
 	const byNumber = typeof ref === 'string' ? pasteLotIdByNumber(db, ref) : undefined;
 	const id = byNumber ?? (/^\d+$/.test(String(ref)) ? Number(ref) : undefined);
 	if (id === undefined) return undefined;
@@ -180,7 +190,8 @@ export function addPasteEvent(
 ): { lot: PasteLotView; warnings: string[] } {
 	return db.transaction((tx) => {
 		const lot = getPasteLot(tx as unknown as Db, ref, nowMs);
-		if (!lot) throw new PrintlogRequestError(404, [{ field: 'id', message: `no paste lot "${ref}"` }]);
+		if (!lot)
+			throw new PrintlogRequestError(404, [{ field: 'id', message: `no paste lot "${ref}"` }]);
 		const atMs = input.at ? Date.parse(input.at) : nowMs;
 		const check = checkNextPasteEvent(
 			asPasteEvents(lot.events),
@@ -207,7 +218,12 @@ export function addPasteEvent(
 			action: 'paste-event',
 			entity: 'paste_lot',
 			entityId: lot.id,
-			after: { eventId: row.id, event: input.event, at: new Date(atMs).toISOString(), note: input.note ?? '' }
+			after: {
+				eventId: row.id,
+				event: input.event,
+				at: new Date(atMs).toISOString(),
+				note: input.note ?? ''
+			}
 		});
 		// Listeners run after this synchronous transaction has committed.
 		publishFloorEvent({ kind: 'paste-lot', lotId: lot.id });
@@ -229,8 +245,12 @@ export function updatePasteHandling(
 ): PasteLotView {
 	return db.transaction((tx) => {
 		const lot = getPasteLot(tx as unknown as Db, ref, nowMs);
-		if (!lot) throw new PrintlogRequestError(404, [{ field: 'id', message: `no paste lot "${ref}"` }]);
-		const merged = { ...lot.handling, ...Object.fromEntries(Object.entries(overrides).filter(([, v]) => v !== undefined)) };
+		if (!lot)
+			throw new PrintlogRequestError(404, [{ field: 'id', message: `no paste lot "${ref}"` }]);
+		const merged = {
+			...lot.handling,
+			...Object.fromEntries(Object.entries(overrides).filter(([, v]) => v !== undefined))
+		};
 		const { settings, errors } = resolvePasteHandling(merged);
 		if (errors.length) throw new PrintlogRequestError(422, errors);
 		tx.update(pasteLots).set(settings).where(eq(pasteLots.id, lot.id)).run();

@@ -162,21 +162,55 @@ describe('starting a run', () => {
 	});
 
 	it('an expired lot blocks the run; an engineer may use it with a note, kept on the run (issue 13)', () => {
-		const tech = refusal(() => startRun(db, parse({ pasteLot: 'LOT-OLD', overrideReason: 'rush' }), fx.actors.technician, T0));
+		const tech = refusal(() =>
+			startRun(db, parse({ pasteLot: 'LOT-OLD', overrideReason: 'rush' }), fx.actors.technician, T0)
+		);
 		expect(tech.fields.map((f) => f.field).sort()).toEqual(['overrideReason', 'pasteLot']);
 		expect(runCount()).toBe(0);
-		const started = startRun(db, parse({ pasteLot: 'LOT-OLD', overrideReason: 'viscosity re-tested in spec, QA ok' }), fx.actors.engineer, T0);
+		const started = startRun(
+			db,
+			parse({ pasteLot: 'LOT-OLD', overrideReason: 'viscosity re-tested in spec, QA ok' }),
+			fx.actors.engineer,
+			T0
+		);
 		const run = getRun(db, started.id)!;
 		expect(run.overrideReason).toBe('viscosity re-tested in spec, QA ok');
-		expect(started.warnings.join(' ')).toContain("expired (expiry 2020-01-31); used on the engineer's override");
+		expect(started.warnings.join(' ')).toContain(
+			"expired (expiry 2020-01-31); used on the engineer's override"
+		);
 	});
 
 	it('a lot past its time on the stencil blocks the run with the reason', () => {
-		addPasteEvent(db, 'LOT-OK', { event: 'out-of-cold-storage', at: '2026-03-01T08:00:00Z' }, fx.actors.technician, T0);
-		addPasteEvent(db, 'LOT-OK', { event: 'opened', at: '2026-03-01T12:00:00Z' }, fx.actors.technician, T0);
-		addPasteEvent(db, 'LOT-OK', { event: 'on-stencil', at: '2026-03-01T12:05:00Z' }, fx.actors.technician, T0);
+		addPasteEvent(
+			db,
+			'LOT-OK',
+			{ event: 'out-of-cold-storage', at: '2026-03-01T08:00:00Z' },
+			fx.actors.technician,
+			T0
+		);
+		addPasteEvent(
+			db,
+			'LOT-OK',
+			{ event: 'opened', at: '2026-03-01T12:00:00Z' },
+			fx.actors.technician,
+			T0
+		);
+		addPasteEvent(
+			db,
+			'LOT-OK',
+			{ event: 'on-stencil', at: '2026-03-01T12:05:00Z' },
+			fx.actors.technician,
+			T0
+		);
 		const error = refusal(() => startRun(db, parse(), fx.actors.technician, T0));
-		expect(error.fields).toEqual([{ field: 'pasteLot', message: expect.stringContaining('has been on the stencil for 19 h 55 min, over the 8 h limit') }]);
+		expect(error.fields).toEqual([
+			{
+				field: 'pasteLot',
+				message: expect.stringContaining(
+					'has been on the stencil for 19 h 55 min, over the 8 h limit'
+				)
+			}
+		]);
 	});
 
 	it('warns about a lot still warming up (4 h common-practice default)', () => {
@@ -369,7 +403,13 @@ describe('board serial and corrections of every field', () => {
 		endRun(db, id, { boardsPrinted: 50 }, fx.actors.technician, T0 + 3_600_000);
 		createPasteLot(
 			db,
-			{ lotNumber: 'LOT-TWO', alloy: 'SAC305', powderType: 4, expiresOn: '2099-12-31', confirmDates: true },
+			{
+				lotNumber: 'LOT-TWO',
+				alloy: 'SAC305',
+				powderType: 4,
+				expiresOn: '2099-12-31',
+				confirmDates: true
+			},
 			fx.actors.technician
 		);
 		const corrected = correctRun(

@@ -308,7 +308,11 @@ export function startRun(
 				warnings.push(`${r.message}; used on the engineer's override: ${override}`);
 				overridden = true;
 			} else {
-				const how = r.canOverride ? (mayOverride ? ' (give an override reason to use it anyway)' : ' (an engineer can override with a reason)') : '';
+				const how = r.canOverride
+					? mayOverride
+						? ' (give an override reason to use it anyway)'
+						: ' (an engineer can override with a reason)'
+					: '';
 				errors.push({ field: 'pasteLot', message: r.message + how });
 			}
 		}

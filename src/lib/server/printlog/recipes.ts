@@ -40,8 +40,9 @@ function baseQuery(db: Db) {
 		.leftJoin(users, eq(users.id, printRecipes.createdByUserId));
 }
 
-const asVersion = (row: { parameters: Record<string, unknown> } & Omit<RecipeVersion, 'parameters'>) =>
-	({ ...row, parameters: row.parameters as RecipeParameters }) as RecipeVersion;
+const asVersion = (
+	row: { parameters: Record<string, unknown> } & Omit<RecipeVersion, 'parameters'>
+) => ({ ...row, parameters: row.parameters as RecipeParameters }) as RecipeVersion;
 
 /** The newest version of every recipe, by line then product. */
 export function listCurrentRecipes(db: Db): RecipeVersion[] {
@@ -129,7 +130,12 @@ export function saveRecipe(
 			entity: 'print_recipe',
 			entityId: row.id,
 			before: current
-				? { line: line!.code, product: product!.code, version: current.version, parameters: current.parameters }
+				? {
+						line: line!.code,
+						product: product!.code,
+						version: current.version,
+						parameters: current.parameters
+					}
 				: null,
 			after: { line: line!.code, product: product!.code, version, parameters }
 		});

@@ -35,15 +35,24 @@ export function seedPrintlogFixture(db: Db) {
 			.get();
 		actors[role] = { kind: 'user', id: row.id, email: row.email, name: row.name, role };
 	}
-	db.insert(lines).values([
-		{ code: 'L1', name: 'Line 1' },
-		{ code: 'L2', name: 'Line 2' }
-	]).run();
+	db.insert(lines)
+		.values([
+			{ code: 'L1', name: 'Line 1' },
+			{ code: 'L2', name: 'Line 2' }
+		])
+		.run();
 	db.insert(products).values({ code: 'P1', name: 'Board 1' }).run();
 	const stencil = (name: string, state: string, ratedLifePrints: number | null) =>
 		db
 			.insert(stencils)
-			.values({ name, revision: 'A', thicknessUm: 127, technology: 'laser-stainless', state, ratedLifePrints })
+			.values({
+				name,
+				revision: 'A',
+				thicknessUm: 127,
+				technology: 'laser-stainless',
+				state,
+				ratedLifePrints
+			})
 			.returning({ id: stencils.id })
 			.get().id;
 	const ids = {
@@ -56,12 +65,24 @@ export function seedPrintlogFixture(db: Db) {
 	createPasteLot(
 		db,
 		// Far-future and long-expired dates on purpose, so tests never age: confirmed at receipt.
-		{ lotNumber: 'LOT-OK', alloy: 'SAC305', powderType: 4, expiresOn: '2099-12-31', confirmDates: true },
+		{
+			lotNumber: 'LOT-OK',
+			alloy: 'SAC305',
+			powderType: 4,
+			expiresOn: '2099-12-31',
+			confirmDates: true
+		},
 		actors.technician
 	);
 	createPasteLot(
 		db,
-		{ lotNumber: 'LOT-OLD', alloy: 'Sn63Pb37', powderType: 3, expiresOn: '2020-01-31', confirmDates: true },
+		{
+			lotNumber: 'LOT-OLD',
+			alloy: 'Sn63Pb37',
+			powderType: 3,
+			expiresOn: '2020-01-31',
+			confirmDates: true
+		},
 		actors.technician
 	);
 	return { actors, stencilIds: ids };

@@ -103,16 +103,50 @@ describe('paste lots', () => {
 		});
 
 	it('a lot received already expired, or with an expiry years ahead, needs the dates confirmed (issue 13)', () => {
-		const expired = refusal(() => createPasteLot(db, lot({ lotNumber: 'PL-OLD', expiresOn: '2020-06-30', confirmDates: false }), fx.actors.technician, T0));
+		const expired = refusal(() =>
+			createPasteLot(
+				db,
+				lot({ lotNumber: 'PL-OLD', expiresOn: '2020-06-30', confirmDates: false }),
+				fx.actors.technician,
+				T0
+			)
+		);
 		expect(expired.status).toBe(422);
-		expect(expired.fields).toEqual([{ field: 'expiresOn', message: 'the lot expired on 2020-06-30, before today (2026-03-02): it may not be used' }]);
+		expect(expired.fields).toEqual([
+			{
+				field: 'expiresOn',
+				message: 'the lot expired on 2020-06-30, before today (2026-03-02): it may not be used'
+			}
+		]);
 		expect(expired.extra).toEqual({ needsConfirmation: true });
-		const far = refusal(() => createPasteLot(db, lot({ lotNumber: 'PL-FAR', confirmDates: false }), fx.actors.technician, T0));
+		const far = refusal(() =>
+			createPasteLot(
+				db,
+				lot({ lotNumber: 'PL-FAR', confirmDates: false }),
+				fx.actors.technician,
+				T0
+			)
+		);
 		expect(far.fields[0].message).toContain('more than 2 years ahead');
 		expect(getPasteLot(db, 'PL-OLD')).toBeUndefined();
-		const confirmed = createPasteLot(db, lot({ lotNumber: 'PL-OLD', expiresOn: '2020-06-30' }), fx.actors.technician, T0);
+		const confirmed = createPasteLot(
+			db,
+			lot({ lotNumber: 'PL-OLD', expiresOn: '2020-06-30' }),
+			fx.actors.technician,
+			T0
+		);
 		expect(confirmed.lotNumber).toBe('PL-OLD');
-		const plausible = createPasteLot(db, lot({ lotNumber: 'PL-OK', expiresOn: '2026-08-31', receivedOn: '2026-03-01', confirmDates: false }), fx.actors.technician, T0);
+		const plausible = createPasteLot(
+			db,
+			lot({
+				lotNumber: 'PL-OK',
+				expiresOn: '2026-08-31',
+				receivedOn: '2026-03-01',
+				confirmDates: false
+			}),
+			fx.actors.technician,
+			T0
+		);
 		expect(plausible.expiresOn).toBe('2026-08-31');
 	});
 

@@ -72,8 +72,9 @@ export function runTrends(
 				startedAt: r.startedAt.toISOString(),
 				value: key === 'ambientTempC' || key === 'relativeHumidityPct' ? r[key] : r.parameters[key]
 			}))
-			.filter((p): p is { runId: number; startedAt: string; value: number } =>
-				typeof p.value === 'number' && Number.isFinite(p.value)
+			.filter(
+				(p): p is { runId: number; startedAt: string; value: number } =>
+					typeof p.value === 'number' && Number.isFinite(p.value)
 			);
 		if (series.length === 0) continue;
 		const spec = NUMERIC_PARAMETERS[key];

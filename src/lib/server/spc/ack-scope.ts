@@ -12,7 +12,11 @@ export function patternScopeCounts(db: Db, signalIds: number[]): Map<number, num
 	const out = new Map<number, number>();
 	if (signalIds.length === 0) return out;
 	const rows = db
-		.select({ id: spcSignals.id, runId: spcSignals.runId, characteristicId: spcSignals.characteristicId })
+		.select({
+			id: spcSignals.id,
+			runId: spcSignals.runId,
+			characteristicId: spcSignals.characteristicId
+		})
 		.from(spcSignals)
 		.where(inArray(spcSignals.id, signalIds.slice(0, 1000)))
 		.all();
@@ -20,7 +24,11 @@ export function patternScopeCounts(db: Db, signalIds: number[]): Map<number, num
 	const counts = new Map<string, number>();
 	if (runIds.length) {
 		for (const c of db
-			.select({ runId: spcSignals.runId, characteristicId: spcSignals.characteristicId, n: sql<number>`count(*)` })
+			.select({
+				runId: spcSignals.runId,
+				characteristicId: spcSignals.characteristicId,
+				n: sql<number>`count(*)`
+			})
 			.from(spcSignals)
 			.where(and(inArray(spcSignals.runId, runIds), isNull(spcSignals.ackAt)))
 			.groupBy(spcSignals.runId, spcSignals.characteristicId)
@@ -28,17 +36,30 @@ export function patternScopeCounts(db: Db, signalIds: number[]): Map<number, num
 			counts.set(`${c.runId}:${c.characteristicId}`, c.n);
 		}
 	}
-	for (const r of rows) out.set(r.id, r.runId === null ? 1 : Math.max(1, counts.get(`${r.runId}:${r.characteristicId}`) ?? 1));
+	for (const r of rows)
+		out.set(
+			r.id,
+			r.runId === null ? 1 : Math.max(1, counts.get(`${r.runId}:${r.characteristicId}`) ?? 1)
+		);
 	return out;
 }
 
 /** The open signals a pattern acknowledgement of `signal` closes (the same chart and run). */
-export function patternTargets(db: Pick<Db, 'select'>, signal: { id: number; runId: number | null; characteristicId: number }): number[] {
+export function patternTargets(
+	db: Pick<Db, 'select'>,
+	signal: { id: number; runId: number | null; characteristicId: number }
+): number[] {
 	if (signal.runId === null) return [signal.id];
 	return db
 		.select({ id: spcSignals.id })
 		.from(spcSignals)
-		.where(and(eq(spcSignals.runId, signal.runId), eq(spcSignals.characteristicId, signal.characteristicId), isNull(spcSignals.ackAt)))
+		.where(
+			and(
+				eq(spcSignals.runId, signal.runId),
+				eq(spcSignals.characteristicId, signal.characteristicId),
+				isNull(spcSignals.ackAt)
+			)
+		)
 		.all()
 		.map((r) => r.id);
 }

@@ -5,7 +5,11 @@ import { seedDemoData } from '../seed';
 import { chartJson } from './api-shapes';
 import { chartDetail } from './chart-service';
 import { chartSummary } from './summary';
-import { setCapabilityThresholds, getCapabilityThresholds, ThresholdsError } from './capability-settings';
+import {
+	setCapabilityThresholds,
+	getCapabilityThresholds,
+	ThresholdsError
+} from './capability-settings';
 import { assessmentLine } from './signal-mail';
 
 let db: Db;
@@ -36,7 +40,9 @@ describe('demo charts: one assessment everywhere (issue 13, finding 1)', () => {
 		expect(api.assessment.stability.openSignals).toHaveLength(row.openSignals);
 		// The points are named as users know them, never "run:15".
 		expect(api.assessment.detail).not.toMatch(/run:\d/);
-		expect(assessmentLine(db, row.id)).toBe(`Capability: ${row.assessment.headline}. ${row.assessment.detail}`);
+		expect(assessmentLine(db, row.id)).toBe(
+			`Capability: ${row.assessment.headline}. ${row.assessment.detail}`
+		);
 	});
 
 	it('squeegee speed: the 65 mm/s run above the 60 mm/s USL is observed out of spec', () => {
@@ -53,7 +59,9 @@ describe('demo charts: one assessment everywhere (issue 13, finding 1)', () => {
 		expect(row.openSignals).toBe(0);
 		expect(row.assessment.stability.flaggedPoints).toBeGreaterThan(0);
 		expect(row.level).toBe('not-stable');
-		expect(row.assessment.detail).toContain(`flag ${row.assessment.stability.flaggedPoints} of the ${row.points} points`);
+		expect(row.assessment.detail).toContain(
+			`flag ${row.assessment.stability.flaggedPoints} of the ${row.points} points`
+		);
 	});
 
 	it('no verdict contradicts its own chart: capable only when nothing is flagged or open', () => {
@@ -62,19 +70,38 @@ describe('demo charts: one assessment everywhere (issue 13, finding 1)', () => {
 			const flagged = new Set((d.chart?.violations ?? []).flatMap((v) => v.points)).size;
 			const stable = flagged === 0 && row.openSignals === 0;
 			if (!stable) expect(row.level, row.name).toBe('not-stable');
-			if (row.level === 'capable') expect(row.assessment.basis?.lowerBound ?? 0).toBeGreaterThanOrEqual(row.assessment.thresholds.capable);
+			if (row.level === 'capable')
+				expect(row.assessment.basis?.lowerBound ?? 0).toBeGreaterThanOrEqual(
+					row.assessment.thresholds.capable
+				);
 		}
 	});
 
 	it('thresholds are a site setting: stricter ones change the verdict everywhere; bad ones are refused', () => {
 		expect(getCapabilityThresholds(db)).toMatchObject({ capable: 1.33, marginal: 1 });
-		expect(() => setCapabilityThresholds(db, { capable: 0.9, marginal: 1, confidenceLevel: 0.95 }, null as never)).toThrow(ThresholdsError);
+		expect(() =>
+			setCapabilityThresholds(
+				db,
+				{ capable: 0.9, marginal: 1, confidenceLevel: 0.95 },
+				null as never
+			)
+		).toThrow(ThresholdsError);
 		const before = byName('Squeegee pressure');
-		setCapabilityThresholds(db, { capable: 4.9, marginal: 4, confidenceLevel: 0.95 }, { kind: 'user', id: 1, name: 'Test', role: 'engineer' } as never);
+		setCapabilityThresholds(db, { capable: 4.9, marginal: 4, confidenceLevel: 0.95 }, {
+			kind: 'user',
+			id: 1,
+			name: 'Test',
+			role: 'engineer'
+		} as never);
 		const after = byName('Squeegee pressure');
 		expect(before.level).toBe('capable');
 		expect(after.level).toBe('not-capable');
 		expect(after.assessment.thresholds.capable).toBe(4.9);
-		setCapabilityThresholds(db, { capable: 1.33, marginal: 1, confidenceLevel: 0.95 }, { kind: 'user', id: 1, name: 'Test', role: 'engineer' } as never);
+		setCapabilityThresholds(db, { capable: 1.33, marginal: 1, confidenceLevel: 0.95 }, {
+			kind: 'user',
+			id: 1,
+			name: 'Test',
+			role: 'engineer'
+		} as never);
 	});
 });

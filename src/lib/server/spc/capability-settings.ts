@@ -1,6 +1,10 @@
 import { and, eq, isNull } from 'drizzle-orm';
 import type { Actor } from '$lib/access';
-import { DEFAULT_CAPABILITY_THRESHOLDS, thresholdErrors, type CapabilityThresholds } from '$lib/spc';
+import {
+	DEFAULT_CAPABILITY_THRESHOLDS,
+	thresholdErrors,
+	type CapabilityThresholds
+} from '$lib/spc';
 import type { Db } from '../db';
 import { settings } from '../db/schema';
 import { recordAudit } from '../audit';
@@ -26,8 +30,14 @@ export function getCapabilityThresholds(db: Db): CapabilityThresholds {
 		.get();
 	const v = (row?.value ?? {}) as Partial<Record<keyof CapabilityThresholds, unknown>>;
 	const pick = (k: keyof CapabilityThresholds) =>
-		typeof v[k] === 'number' && Number.isFinite(v[k]) ? (v[k] as number) : DEFAULT_CAPABILITY_THRESHOLDS[k];
-	const t = { capable: pick('capable'), marginal: pick('marginal'), confidenceLevel: pick('confidenceLevel') };
+		typeof v[k] === 'number' && Number.isFinite(v[k])
+			? (v[k] as number)
+			: DEFAULT_CAPABILITY_THRESHOLDS[k];
+	const t = {
+		capable: pick('capable'),
+		marginal: pick('marginal'),
+		confidenceLevel: pick('confidenceLevel')
+	};
 	// A stored value that no longer passes the checks falls back to the defaults as a whole.
 	return thresholdErrors(t).length ? { ...DEFAULT_CAPABILITY_THRESHOLDS } : t;
 }
@@ -36,10 +46,19 @@ export function getCapabilityThresholds(db: Db): CapabilityThresholds {
  * Change the thresholds (audited).
  * @throws ThresholdsError naming the first bad field.
  */
-export function setCapabilityThresholds(db: Db, t: CapabilityThresholds, actor: Actor): CapabilityThresholds {
+export function setCapabilityThresholds(
+	db: Db,
+	t: CapabilityThresholds,
+	actor: Actor
+): CapabilityThresholds {
 	const errors = thresholdErrors(t);
-	const words = { capable: 'Capable from', marginal: 'Marginal from', confidenceLevel: 'Confidence' };
-	if (errors.length) throw new ThresholdsError(errors[0].field, `${words[errors[0].field]} ${errors[0].message}.`);
+	const words = {
+		capable: 'Capable from',
+		marginal: 'Marginal from',
+		confidenceLevel: 'Confidence'
+	};
+	if (errors.length)
+		throw new ThresholdsError(errors[0].field, `${words[errors[0].field]} ${errors[0].message}.`);
 	const before = getCapabilityThresholds(db);
 	db.transaction((tx) => {
 		const existing = tx
@@ -47,9 +66,20 @@ export function setCapabilityThresholds(db: Db, t: CapabilityThresholds, actor: 
 			.from(settings)
 			.where(and(isNull(settings.siteId), eq(settings.key, KEY)))
 			.get();
-		if (existing) tx.update(settings).set({ value: t, updatedAt: new Date() }).where(eq(settings.id, existing.id)).run();
-		else tx.insert(settings).values({ siteId: null, key: KEY, value: t, updatedAt: new Date() }).run();
-		recordAudit(tx, actor, { action: 'update', entity: 'setting', entityId: KEY, before: { ...before }, after: { ...t } });
+		if (existing)
+			tx.update(settings)
+				.set({ value: t, updatedAt: new Date() })
+				.where(eq(settings.id, existing.id))
+				.run();
+		else
+			tx.insert(settings).values({ siteId: null, key: KEY, value: t, updatedAt: new Date() }).run();
+		recordAudit(tx, actor, {
+			action: 'update',
+			entity: 'setting',
+			entityId: KEY,
+			before: { ...before },
+			after: { ...t }
+		});
 	});
 	return t;
 }
@@ -69,13 +99,18 @@ export function getMinBaselineSubgroups(db: Db): number {
 		.where(and(isNull(settings.siteId), eq(settings.key, BASELINE_KEY)))
 		.get();
 	const v = row?.value;
-	return typeof v === 'number' && Number.isInteger(v) && v >= 10 && v <= 200 ? v : DEFAULT_MIN_BASELINE_SUBGROUPS;
+	return typeof v === 'number' && Number.isInteger(v) && v >= 10 && v <= 200
+		? v
+		: DEFAULT_MIN_BASELINE_SUBGROUPS;
 }
 
 /** @throws ThresholdsError unless a whole number 10–200. */
 export function setMinBaselineSubgroups(db: Db, n: number, actor: Actor): number {
 	if (!Number.isInteger(n) || n < 10 || n > 200) {
-		throw new ThresholdsError('minBaselineSubgroups', 'Subgroups to freeze limits must be a whole number from 10 to 200.');
+		throw new ThresholdsError(
+			'minBaselineSubgroups',
+			'Subgroups to freeze limits must be a whole number from 10 to 200.'
+		);
 	}
 	const before = getMinBaselineSubgroups(db);
 	db.transaction((tx) => {
@@ -84,9 +119,22 @@ export function setMinBaselineSubgroups(db: Db, n: number, actor: Actor): number
 			.from(settings)
 			.where(and(isNull(settings.siteId), eq(settings.key, BASELINE_KEY)))
 			.get();
-		if (existing) tx.update(settings).set({ value: n, updatedAt: new Date() }).where(eq(settings.id, existing.id)).run();
-		else tx.insert(settings).values({ siteId: null, key: BASELINE_KEY, value: n, updatedAt: new Date() }).run();
-		recordAudit(tx, actor, { action: 'update', entity: 'setting', entityId: BASELINE_KEY, before: { value: before }, after: { value: n } });
+		if (existing)
+			tx.update(settings)
+				.set({ value: n, updatedAt: new Date() })
+				.where(eq(settings.id, existing.id))
+				.run();
+		else
+			tx.insert(settings)
+				.values({ siteId: null, key: BASELINE_KEY, value: n, updatedAt: new Date() })
+				.run();
+		recordAudit(tx, actor, {
+			action: 'update',
+			entity: 'setting',
+			entityId: BASELINE_KEY,
+			before: { value: before },
+			after: { value: n }
+		});
 	});
 	return n;
 }

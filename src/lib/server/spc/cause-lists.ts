@@ -65,7 +65,12 @@ export function cleanList(entries: readonly string[]): string[] {
  * Replace one list (audited). Past acknowledgements keep the text they chose.
  * @throws Error when the cleaned list is empty.
  */
-export function setCauseList(db: Db, which: keyof CauseLists, entries: readonly string[], actor: Actor | null): string[] {
+export function setCauseList(
+	db: Db,
+	which: keyof CauseLists,
+	entries: readonly string[],
+	actor: Actor | null
+): string[] {
 	const list = cleanList(entries);
 	if (list.length === 0) throw new Error(`The list of ${which} needs at least one entry.`);
 	const before = getCauseLists(db)[which];
@@ -76,11 +81,22 @@ export function setCauseList(db: Db, which: keyof CauseLists, entries: readonly 
 			.where(and(isNull(settings.siteId), eq(settings.key, KEYS[which])))
 			.get();
 		if (existing) {
-			tx.update(settings).set({ value: list, updatedAt: new Date() }).where(eq(settings.id, existing.id)).run();
+			tx.update(settings)
+				.set({ value: list, updatedAt: new Date() })
+				.where(eq(settings.id, existing.id))
+				.run();
 		} else {
-			tx.insert(settings).values({ siteId: null, key: KEYS[which], value: list, updatedAt: new Date() }).run();
+			tx.insert(settings)
+				.values({ siteId: null, key: KEYS[which], value: list, updatedAt: new Date() })
+				.run();
 		}
-		recordAudit(tx, actor, { action: 'update', entity: 'setting', entityId: KEYS[which], before: { list: before }, after: { list } });
+		recordAudit(tx, actor, {
+			action: 'update',
+			entity: 'setting',
+			entityId: KEYS[which],
+			before: { list: before },
+			after: { list }
+		});
 	});
 	return list;
 }

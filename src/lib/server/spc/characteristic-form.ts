@@ -16,7 +16,12 @@ export function characteristicFromForm(form: FormData): Record<string, unknown> 
 	const padKind = text('padKind') || 'all';
 	const padSelection =
 		padKind === 'refdes'
-			? { kind: 'refdes', refdes: text('refdes').split(/[\s,;]+/).filter(Boolean) }
+			? {
+					kind: 'refdes',
+					refdes: text('refdes')
+						.split(/[\s,;]+/)
+						.filter(Boolean)
+				}
 			: padKind === 'area-ratio'
 				? { kind: 'area-ratio', min: num('arMin'), max: num('arMax') }
 				: { kind: 'all' };

@@ -66,7 +66,10 @@ export function checkCharacteristic(
 		}
 	}
 	if (input.measure === 'transfer-efficiency-pct' && input.padSelection.kind !== 'all') {
-		out.push({ field: 'padSelection', message: 'transfer efficiency is charted for all pads only (from the board aggregates)' });
+		out.push({
+			field: 'padSelection',
+			message: 'transfer efficiency is charted for all pads only (from the board aggregates)'
+		});
 	}
 	const perPoint = input.subgroupMode === 'consecutive' ? input.subgroupSize : 1;
 	if (input.measure === 'print-parameter' || input.subgroupMode === 'consecutive') {

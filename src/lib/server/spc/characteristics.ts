@@ -1,7 +1,14 @@
 import { and, eq } from 'drizzle-orm';
 import type { Actor } from '$lib/access';
 import type { Db } from '../db';
-import { lines, products, spcCharacteristics, spcFollowers, users, type PadSelection } from '../db/schema';
+import {
+	lines,
+	products,
+	spcCharacteristics,
+	spcFollowers,
+	users,
+	type PadSelection
+} from '../db/schema';
 import { recordAudit } from '../audit';
 import { getCharacteristic, type CharacteristicSummary } from './chart-service';
 import {
@@ -23,17 +30,29 @@ function validate(db: Db, raw: unknown): CharacteristicInput {
 	const parsed = characteristicInputSchema.safeParse(raw);
 	if (!parsed.success) {
 		throw new CharacteristicInputError(
-			parsed.error.issues.map((i) => ({ field: i.path.map(String).join('.') || 'body', message: i.message }))
+			parsed.error.issues.map((i) => ({
+				field: i.path.map(String).join('.') || 'body',
+				message: i.message
+			}))
 		);
 	}
 	const input = parsed.data;
 	const problems = checkCharacteristic(input, CHARTABLE_PARAMETERS);
-	if (!db.select({ id: products.id }).from(products).where(eq(products.id, input.productId)).get()) {
+	if (
+		!db.select({ id: products.id }).from(products).where(eq(products.id, input.productId)).get()
+	) {
 		problems.push({ field: 'productId', message: `no product with id ${input.productId}` });
 	}
-	const known = new Set(db.select({ id: lines.id }).from(lines).all().map((l) => l.id));
+	const known = new Set(
+		db
+			.select({ id: lines.id })
+			.from(lines)
+			.all()
+			.map((l) => l.id)
+	);
 	const unknown = input.lineIds.filter((id) => !known.has(id));
-	if (unknown.length) problems.push({ field: 'lineIds', message: `no line with id ${unknown.join(', ')}` });
+	if (unknown.length)
+		problems.push({ field: 'lineIds', message: `no line with id ${unknown.join(', ')}` });
 	if (problems.length) throw new CharacteristicInputError(problems);
 	return input;
 }
@@ -45,7 +64,8 @@ function unitFor(input: CharacteristicInput): string {
 }
 
 function padSelection(p: CharacteristicInput['padSelection']): PadSelection {
-	if (p.kind === 'area-ratio') return { kind: 'area-ratio', min: p.min ?? null, max: p.max ?? null };
+	if (p.kind === 'area-ratio')
+		return { kind: 'area-ratio', min: p.min ?? null, max: p.max ?? null };
 	return p;
 }
 
@@ -75,7 +95,11 @@ function values(input: CharacteristicInput) {
  * Create a characteristic (audited); unset specs take the measure's defaults.
  * @throws CharacteristicInputError with the problems by field.
  */
-export function createCharacteristic(db: Db, raw: unknown, actor: Actor | null): CharacteristicSummary {
+export function createCharacteristic(
+	db: Db,
+	raw: unknown,
+	actor: Actor | null
+): CharacteristicSummary {
 	const input = validate(db, raw);
 	const id = db.transaction((tx) => {
 		const row = tx
@@ -83,7 +107,12 @@ export function createCharacteristic(db: Db, raw: unknown, actor: Actor | null):
 			.values({ ...values(input), createdByUserId: actor?.kind === 'user' ? actor.id : null })
 			.returning()
 			.get();
-		recordAudit(tx, actor, { action: 'create', entity: 'spc-characteristic', entityId: row.id, after: { ...row } });
+		recordAudit(tx, actor, {
+			action: 'create',
+			entity: 'spc-characteristic',
+			entityId: row.id,
+			after: { ...row }
+		});
 		return row.id;
 	});
 	return getCharacteristic(db, id);
@@ -94,24 +123,47 @@ export function createCharacteristic(db: Db, raw: unknown, actor: Actor | null):
  * the chart type changes the chart falls back to Phase I until new limits are frozen.
  * @throws CharacteristicInputError, or NotFoundError for an unknown id.
  */
-export function updateCharacteristic(db: Db, id: number, raw: unknown, actor: Actor | null): CharacteristicSummary {
+export function updateCharacteristic(
+	db: Db,
+	id: number,
+	raw: unknown,
+	actor: Actor | null
+): CharacteristicSummary {
 	const before = getCharacteristic(db, id);
 	const input = validate(db, raw);
 	db.transaction((tx) => {
-		const row = tx.update(spcCharacteristics).set(values(input)).where(eq(spcCharacteristics.id, id)).returning().get();
-		recordAudit(tx, actor, { action: 'update', entity: 'spc-characteristic', entityId: id, before: { ...before }, after: { ...row } });
+		const row = tx
+			.update(spcCharacteristics)
+			.set(values(input))
+			.where(eq(spcCharacteristics.id, id))
+			.returning()
+			.get();
+		recordAudit(tx, actor, {
+			action: 'update',
+			entity: 'spc-characteristic',
+			entityId: id,
+			before: { ...before },
+			after: { ...row }
+		});
 	});
 	return getCharacteristic(db, id);
 }
 
 /** Follow or stop following a chart's signal mail (people only; tokens have no mailbox). */
-export function setFollowing(db: Db, characteristicId: number, userId: number, follow: boolean): void {
+export function setFollowing(
+	db: Db,
+	characteristicId: number,
+	userId: number,
+	follow: boolean
+): void {
 	getCharacteristic(db, characteristicId);
 	if (follow) {
 		db.insert(spcFollowers).values({ characteristicId, userId }).onConflictDoNothing().run();
 	} else {
 		db.delete(spcFollowers)
-			.where(and(eq(spcFollowers.characteristicId, characteristicId), eq(spcFollowers.userId, userId)))
+			.where(
+				and(eq(spcFollowers.characteristicId, characteristicId), eq(spcFollowers.userId, userId))
+			)
 			.run();
 	}
 }

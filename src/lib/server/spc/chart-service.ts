@@ -84,10 +84,18 @@ export class NotFoundError extends Error {}
 export function summarize(db: Db, rows: CharacteristicRow[]): CharacteristicSummary[] {
 	if (rows.length === 0) return [];
 	const productCodes = new Map(
-		db.select({ id: products.id, code: products.code }).from(products).all().map((p) => [p.id, p.code])
+		db
+			.select({ id: products.id, code: products.code })
+			.from(products)
+			.all()
+			.map((p) => [p.id, p.code])
 	);
 	const lineCodes = new Map(
-		db.select({ id: lines.id, code: lines.code }).from(lines).all().map((l) => [l.id, l.code])
+		db
+			.select({ id: lines.id, code: lines.code })
+			.from(lines)
+			.all()
+			.map((l) => [l.id, l.code])
 	);
 	return rows.map((c) => ({
 		...c,
@@ -107,7 +115,10 @@ export function getCharacteristic(db: Db, id: number): CharacteristicSummary {
 }
 
 export function listCharacteristics(db: Db): CharacteristicSummary[] {
-	return summarize(db, db.select().from(spcCharacteristics).orderBy(asc(spcCharacteristics.name)).all());
+	return summarize(
+		db,
+		db.select().from(spcCharacteristics).orderBy(asc(spcCharacteristics.name)).all()
+	);
 }
 
 /** Newest frozen limits of a characteristic, or undefined in Phase I. */
@@ -172,14 +183,16 @@ function modalSize(sizes: number[]): number {
  * @throws SpcInputError as the engine's point builders.
  */
 export function pointsFor(kind: ChartKind, subgroups: SourceSubgroup[]): ChartPoint[] {
-	if (!subgroups.length || !subgroups[0].stats) return chartPoints(kind, engineData(kind, subgroups));
+	if (!subgroups.length || !subgroups[0].stats)
+		return chartPoints(kind, engineData(kind, subgroups));
 	const size = modalSize(subgroups.map((s) => s.stats?.n ?? 0));
 	const useRange = kind === 'xbar-r' || (kind === 'between-within' && size <= 10);
 	return subgroups.map((s, i) => {
 		const st = s.stats ?? { n: 0, mean: NaN, sd: NaN, range: NaN };
 		const point: ChartPoint = { location: st.mean, dispersion: useRange ? st.range : st.sd, size };
 		if (kind === 'between-within') {
-			point.movingRange = i === 0 ? null : Math.abs(st.mean - (subgroups[i - 1].stats?.mean ?? NaN));
+			point.movingRange =
+				i === 0 ? null : Math.abs(st.mean - (subgroups[i - 1].stats?.mean ?? NaN));
 		}
 		return point;
 	});
@@ -199,23 +212,36 @@ export function phaseOneLimits(
 ): ChartLimits {
 	const exclude: number[] = [];
 	subgroups.forEach((s, i) => {
-		const outside =
-			(from && s.at && s.at < from) || (to && s.at && s.at > to) ? true : false;
+		const outside = (from && s.at && s.at < from) || (to && s.at && s.at > to) ? true : false;
 		if (outside || excludedKeys.has(s.key)) exclude.push(i);
 	});
 	return computeLimits(c.chartKind as ChartKind, points, { exclude });
 }
 
 /** Open (unacknowledged) signals of a characteristic, named as the user knows the points. */
-export function openSignalRefs(db: Db, characteristicId: number, labels: Map<string, string> = new Map()): OpenSignalRef[] {
+export function openSignalRefs(
+	db: Db,
+	characteristicId: number,
+	labels: Map<string, string> = new Map()
+): OpenSignalRef[] {
 	return db
-		.select({ id: spcSignals.id, rule: spcSignals.rule, chartPart: spcSignals.chartPart, pointKey: spcSignals.pointKey })
+		.select({
+			id: spcSignals.id,
+			rule: spcSignals.rule,
+			chartPart: spcSignals.chartPart,
+			pointKey: spcSignals.pointKey
+		})
 		.from(spcSignals)
 		.where(and(eq(spcSignals.characteristicId, characteristicId), isNull(spcSignals.ackAt)))
 		.orderBy(asc(spcSignals.id))
 		.limit(1000)
 		.all()
-		.map((s) => ({ id: s.id, rule: s.rule, chartPart: s.chartPart, point: labels.get(s.pointKey) ?? pointKeyWords(s.pointKey) }));
+		.map((s) => ({
+			id: s.id,
+			rule: s.rule,
+			chartPart: s.chartPart,
+			point: labels.get(s.pointKey) ?? pointKeyWords(s.pointKey)
+		}));
 }
 
 interface AssessmentContext {
@@ -225,7 +251,11 @@ interface AssessmentContext {
 	thresholds: CapabilityThresholds;
 }
 
-function noCapability(c: CharacteristicRow, message: string, ctx: AssessmentContext): CapabilityView {
+function noCapability(
+	c: CharacteristicRow,
+	message: string,
+	ctx: AssessmentContext
+): CapabilityView {
 	const assessment = assessCapability({
 		capability: null,
 		capabilityMessage: message,
@@ -234,7 +264,15 @@ function noCapability(c: CharacteristicRow, message: string, ctx: AssessmentCont
 		observed: null,
 		...ctx
 	});
-	return { result: null, histogram: null, lsl: c.lsl, usl: c.usl, target: c.target, message, assessment };
+	return {
+		result: null,
+		histogram: null,
+		lsl: c.lsl,
+		usl: c.usl,
+		target: c.target,
+		message,
+		assessment
+	};
 }
 
 /**
@@ -271,7 +309,11 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 		points = pointsFor(kind, subgroups);
 		const frozen = versions[0];
 		const frozenLimits = frozen?.limits;
-		if (frozenLimits && frozenLimits.kind === kind && frozenLimits.subgroupSize === points[0].size) {
+		if (
+			frozenLimits &&
+			frozenLimits.kind === kind &&
+			frozenLimits.subgroupSize === points[0].size
+		) {
 			limits = frozenLimits;
 			phase = 'II';
 			version = frozen.version;
@@ -280,7 +322,14 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 				message = `The chart type or subgroup size changed since limits v${frozen.version}; these limits are computed (Phase I). Freeze a new version.`;
 			}
 			const excluded = new Set(exclusions.map((e) => e.key));
-			limits = phaseOneLimits(c, subgroups, points, excluded, options.baselineFrom, options.baselineTo);
+			limits = phaseOneLimits(
+				c,
+				subgroups,
+				points,
+				excluded,
+				options.baselineFrom,
+				options.baselineTo
+			);
 		}
 	} catch (e) {
 		if (!(e instanceof SpcInputError)) throw e;
@@ -288,7 +337,8 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 		return { ...base, chart: null, capability: noCapability(c, msg, empty), message: msg };
 	}
 	if (!(limits.sigmaWithin > 0)) {
-		const msg = 'Zero variation: every subgroup has the same values, so the limits collapse; check the gauge resolution or the data.';
+		const msg =
+			'Zero variation: every subgroup has the same values, so the limits collapse; check the gauge resolution or the data.';
 		return { ...base, chart: null, capability: noCapability(c, msg, empty), message: msg };
 	}
 	const rules = ruleList(c);
@@ -334,7 +384,8 @@ function capabilityOf(
 	limits: ChartLimits,
 	ctx: AssessmentContext
 ): CapabilityView {
-	if (c.lsl == null && c.usl == null) return noCapability(c, 'Set LSL and/or USL to see capability.', ctx);
+	if (c.lsl == null && c.usl == null)
+		return noCapability(c, 'Set LSL and/or USL to see capability.', ctx);
 	try {
 		let result: CapabilityResult;
 		let values: number[];
@@ -348,18 +399,46 @@ function capabilityOf(
 				target: c.target
 			});
 			// The histogram shows the pads of the newest boards; the indices use every shown board.
-			values = samplePadValues(db, c, subgroups.map((s) => s.boardId ?? 0));
-			observed = countPadsOutOfSpec(db, c, subgroups.map((s) => s.boardId ?? 0), c.lsl, c.usl);
+			values = samplePadValues(
+				db,
+				c,
+				subgroups.map((s) => s.boardId ?? 0)
+			);
+			observed = countPadsOutOfSpec(
+				db,
+				c,
+				subgroups.map((s) => s.boardId ?? 0),
+				c.lsl,
+				c.usl
+			);
 		} else {
 			values = subgroups.flatMap((s) => s.values);
-			result = processCapability({ values, sigmaWithin: limits.sigmaWithin, lsl: c.lsl, usl: c.usl, target: c.target });
+			result = processCapability({
+				values,
+				sigmaWithin: limits.sigmaWithin,
+				lsl: c.lsl,
+				usl: c.usl,
+				target: c.target
+			});
 			observed = countOutOfSpec(values, c.lsl, c.usl);
 		}
-		const assessment = assessCapability({ capability: result, lsl: c.lsl, usl: c.usl, observed, ...ctx });
+		const assessment = assessCapability({
+			capability: result,
+			lsl: c.lsl,
+			usl: c.usl,
+			observed,
+			...ctx
+		});
 		return {
 			result,
 			histogram: values.length
-				? capabilityHistogram(values, { mean: result.mean, sigmaOverall: result.sigmaOverall, sigmaWithin: result.sigmaWithin, lsl: c.lsl, usl: c.usl })
+				? capabilityHistogram(values, {
+						mean: result.mean,
+						sigmaOverall: result.sigmaOverall,
+						sigmaWithin: result.sigmaWithin,
+						lsl: c.lsl,
+						usl: c.usl
+					})
 				: null,
 			lsl: c.lsl,
 			usl: c.usl,
@@ -376,5 +455,8 @@ function capabilityOf(
 /** Characteristic ids by id list (helper for signals and summary). */
 export function characteristicsByIds(db: Db, ids: number[]): CharacteristicSummary[] {
 	if (!ids.length) return [];
-	return summarize(db, db.select().from(spcCharacteristics).where(inArray(spcCharacteristics.id, ids)).all());
+	return summarize(
+		db,
+		db.select().from(spcCharacteristics).where(inArray(spcCharacteristics.id, ids)).all()
+	);
 }

@@ -12,9 +12,23 @@ export type { CharacteristicRow, SourceSubgroup };
 export const valuesPerPoint = (c: CharacteristicRow) =>
 	c.subgroupMode === 'consecutive' ? Math.max(1, c.subgroupSize) : 1;
 
-function printParameterValue(run: { parameters: Record<string, unknown>; ambientTempC: number | null; relativeHumidityPct: number | null }, key: string): number | null {
-	const raw = run.parameters?.[key] ?? (key === 'ambientTempC' ? run.ambientTempC : key === 'relativeHumidityPct' ? run.relativeHumidityPct : null);
-	const v = typeof raw === 'number' ? raw : typeof raw === 'string' && raw.trim() ? Number(raw) : NaN;
+function printParameterValue(
+	run: {
+		parameters: Record<string, unknown>;
+		ambientTempC: number | null;
+		relativeHumidityPct: number | null;
+	},
+	key: string
+): number | null {
+	const raw =
+		run.parameters?.[key] ??
+		(key === 'ambientTempC'
+			? run.ambientTempC
+			: key === 'relativeHumidityPct'
+				? run.relativeHumidityPct
+				: null);
+	const v =
+		typeof raw === 'number' ? raw : typeof raw === 'string' && raw.trim() ? Number(raw) : NaN;
 	return Number.isFinite(v) ? v : null;
 }
 
@@ -24,7 +38,11 @@ function printParameterValue(run: { parameters: Record<string, unknown>; ambient
  * subgroups (an incomplete newest group waits). SPI measures: `loadSpiSubgroups`.
  * @example loadSubgroups(db, characteristic, 200).map((s) => s.values)
  */
-export function loadSubgroups(db: Db, c: CharacteristicRow, limitSubgroups = 200): SourceSubgroup[] {
+export function loadSubgroups(
+	db: Db,
+	c: CharacteristicRow,
+	limitSubgroups = 200
+): SourceSubgroup[] {
 	if (isSpiMeasure(c.measure)) return loadSpiSubgroups(db, c, limitSubgroups);
 	const key = c.parameterKey ?? '';
 	const per = valuesPerPoint(c);
@@ -50,7 +68,12 @@ export function loadSubgroups(db: Db, c: CharacteristicRow, limitSubgroups = 200
 		.all()
 		.reverse();
 	const usable = rows
-		.map((r) => ({ id: r.id, startedAt: r.startedAt, lineCode: r.lineCode, value: printParameterValue(r, key) }))
+		.map((r) => ({
+			id: r.id,
+			startedAt: r.startedAt,
+			lineCode: r.lineCode,
+			value: printParameterValue(r, key)
+		}))
 		.filter((r): r is typeof r & { value: number } => r.value !== null);
 	const out: SourceSubgroup[] = [];
 	const full = usable.length - (usable.length % per);
@@ -60,7 +83,10 @@ export function loadSubgroups(db: Db, c: CharacteristicRow, limitSubgroups = 200
 		const last = group[group.length - 1];
 		out.push({
 			key: `run:${first.id}`,
-			label: per === 1 ? `run ${first.id} · ${first.lineCode}` : `runs ${first.id}–${last.id} · ${first.lineCode}`,
+			label:
+				per === 1
+					? `run ${first.id} · ${first.lineCode}`
+					: `runs ${first.id}–${last.id} · ${first.lineCode}`,
 			boardId: null,
 			boardIds: [],
 			at: last.startedAt,
@@ -71,7 +97,11 @@ export function loadSubgroups(db: Db, c: CharacteristicRow, limitSubgroups = 200
 }
 
 /** Characteristics whose data a print run of this product and line feeds (for evaluation). */
-export function characteristicsFor(db: Db, productId: number, lineId: number | null): CharacteristicRow[] {
+export function characteristicsFor(
+	db: Db,
+	productId: number,
+	lineId: number | null
+): CharacteristicRow[] {
 	return db
 		.select()
 		.from(spcCharacteristics)

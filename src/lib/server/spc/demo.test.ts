@@ -16,13 +16,25 @@ describe('SPC demo', () => {
 		await seedDemoData(db);
 		const charts = chartSummary(db);
 		expect(charts.map((c) => c.name)).toEqual(
-			expect.arrayContaining(['Squeegee speed · PB-100 · SMT-1', 'Squeegee pressure · PB-100 · SMT-1', 'Paste volume · PB-100 · SMT-1'])
+			expect.arrayContaining([
+				'Squeegee speed · PB-100 · SMT-1',
+				'Squeegee pressure · PB-100 · SMT-1',
+				'Paste volume · PB-100 · SMT-1'
+			])
 		);
 		// Worst first: the chart with open signals leads.
-		expect(charts[0]).toMatchObject({ name: 'Squeegee speed · PB-100 · SMT-1', phase: 'II', limitsVersion: 1 });
+		expect(charts[0]).toMatchObject({
+			name: 'Squeegee speed · PB-100 · SMT-1',
+			phase: 'II',
+			limitsVersion: 1
+		});
 		const open = listSignals(db, { status: 'open' });
 		expect(open.some((s) => s.rule === 'we-1' && s.value === 65)).toBe(true);
-		const mails = db.select().from(mailOutbox).all().filter((m) => m.kind === 'signal');
+		const mails = db
+			.select()
+			.from(mailOutbox)
+			.all()
+			.filter((m) => m.kind === 'signal');
 		expect(mails).toHaveLength(1);
 		expect(mails[0].toAddresses).toBe('engineer@fenmoor.example');
 	}, 30_000);

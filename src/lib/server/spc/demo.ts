@@ -72,6 +72,15 @@ export async function seedDemoSpc(db: Db): Promise<void> {
 	excludePoint(db, pressure.id, `run:${runs[2].id}`, 'Demo: new blade fitted mid-run', system);
 	// Only nine runs exist before the logged 65 mm/s run: preliminary limits, frozen below the
 	// usual 20 subgroups on purpose and said so in the note (the chart page shows it too).
-	freezeLimits(db, speed.id, { baselineTo: runs[8].startedAt, note: 'Preliminary demo baseline: first nine runs (fewer than 20)', minSubgroups: 9 }, system);
+	freezeLimits(
+		db,
+		speed.id,
+		{
+			baselineTo: runs[8].startedAt,
+			note: 'Preliminary demo baseline: first nine runs (fewer than 20)',
+			minSubgroups: 9
+		},
+		system
+	);
 	await evaluateSignalsFor(db, [{ productId: product.id, lineId: line.id }]);
 }

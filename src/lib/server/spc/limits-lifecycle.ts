@@ -43,7 +43,12 @@ export interface FreezeOptions {
  * @throws LimitsError when the baseline has fewer subgroups than the minimum (default 20, a
  *   site setting), too little data or no variation.
  */
-export function freezeLimits(db: Db, id: number, options: FreezeOptions, actor: Actor | null): LimitVersionSummary {
+export function freezeLimits(
+	db: Db,
+	id: number,
+	options: FreezeOptions,
+	actor: Actor | null
+): LimitVersionSummary {
 	const c = getCharacteristic(db, id);
 	const subgroups = loadSubgroups(db, c, Math.max(1, Math.min(5000, options.limit ?? 200)));
 	const exclusions = listExclusions(db, id);
@@ -52,13 +57,26 @@ export function freezeLimits(db: Db, id: number, options: FreezeOptions, actor: 
 	let limits;
 	try {
 		const points = pointsFor(kind, subgroups);
-		limits = phaseOneLimits(c, subgroups, points, excludedKeys, options.baselineFrom, options.baselineTo);
+		limits = phaseOneLimits(
+			c,
+			subgroups,
+			points,
+			excludedKeys,
+			options.baselineFrom,
+			options.baselineTo
+		);
 	} catch (e) {
 		if (!(e instanceof SpcInputError)) throw e;
-		throw new LimitsError('baseline', `Cannot compute limits from this baseline: ${e.field}: ${e.reason}.`);
+		throw new LimitsError(
+			'baseline',
+			`Cannot compute limits from this baseline: ${e.field}: ${e.reason}.`
+		);
 	}
 	if (!(limits.sigmaWithin > 0) || !Number.isFinite(limits.location.ucl)) {
-		throw new LimitsError('baseline', 'Zero variation in the baseline: the limits would collapse onto the centre line.');
+		throw new LimitsError(
+			'baseline',
+			'Zero variation in the baseline: the limits would collapse onto the centre line.'
+		);
 	}
 	const used = limits.baselineIndices.map((i) => subgroups[i]);
 	const minimum = options.minSubgroups ?? getMinBaselineSubgroups(db);
@@ -114,17 +132,38 @@ export function freezeLimits(db: Db, id: number, options: FreezeOptions, actor: 
  * Leave a point out of the next baseline, with the reason (audited).
  * @throws LimitsError without a reason.
  */
-export function excludePoint(db: Db, id: number, pointKey: string, reason: string, actor: Actor | null): void {
+export function excludePoint(
+	db: Db,
+	id: number,
+	pointKey: string,
+	reason: string,
+	actor: Actor | null
+): void {
 	getCharacteristic(db, id);
 	const why = reason.trim();
-	if (!why) throw new LimitsError('reason', 'Say why the point is excluded (the assignable cause).');
-	if (!/^(run|board):\d+$/.test(pointKey)) throw new LimitsError('pointKey', `"${pointKey}" is not a point of this chart.`);
+	if (!why)
+		throw new LimitsError('reason', 'Say why the point is excluded (the assignable cause).');
+	if (!/^(run|board):\d+$/.test(pointKey))
+		throw new LimitsError('pointKey', `"${pointKey}" is not a point of this chart.`);
 	db.transaction((tx) => {
 		tx.insert(spcExclusions)
-			.values({ characteristicId: id, pointKey, reason: why.slice(0, 500), createdByUserId: actor?.kind === 'user' ? actor.id : null })
-			.onConflictDoUpdate({ target: [spcExclusions.characteristicId, spcExclusions.pointKey], set: { reason: why.slice(0, 500) } })
+			.values({
+				characteristicId: id,
+				pointKey,
+				reason: why.slice(0, 500),
+				createdByUserId: actor?.kind === 'user' ? actor.id : null
+			})
+			.onConflictDoUpdate({
+				target: [spcExclusions.characteristicId, spcExclusions.pointKey],
+				set: { reason: why.slice(0, 500) }
+			})
 			.run();
-		recordAudit(tx, actor, { action: 'exclude-point', entity: 'spc-characteristic', entityId: id, after: { pointKey, reason: why } });
+		recordAudit(tx, actor, {
+			action: 'exclude-point',
+			entity: 'spc-characteristic',
+			entityId: id,
+			after: { pointKey, reason: why }
+		});
 	});
 }
 
@@ -134,6 +173,11 @@ export function includePoint(db: Db, id: number, pointKey: string, actor: Actor 
 		tx.delete(spcExclusions)
 			.where(and(eq(spcExclusions.characteristicId, id), eq(spcExclusions.pointKey, pointKey)))
 			.run();
-		recordAudit(tx, actor, { action: 'include-point', entity: 'spc-characteristic', entityId: id, after: { pointKey } });
+		recordAudit(tx, actor, {
+			action: 'include-point',
+			entity: 'spc-characteristic',
+			entityId: id,
+			after: { pointKey }
+		});
 	});
 }

@@ -37,13 +37,62 @@ export interface MeasureDefaults {
  * the stencil thickness).
  */
 export const MEASURE_DEFAULTS: Record<Measure, MeasureDefaults> = {
-	'volume-pct': { label: 'Paste volume', unit: '%', lsl: 50, target: 100, usl: 150, source: 'trade practice for SPI acceptance windows (50–150 %)' },
-	'height-um': { label: 'Paste height', unit: 'µm', lsl: null, target: null, usl: null, source: 'depends on the stencil thickness; set per product' },
-	'area-pct': { label: 'Paste area', unit: '%', lsl: 50, target: 100, usl: 150, source: 'common practice (mirrors the volume window)' },
-	'offset-x-um': { label: 'Offset X', unit: 'µm', lsl: null, target: 0, usl: null, source: 'target 0; limits depend on pad size' },
-	'offset-y-um': { label: 'Offset Y', unit: 'µm', lsl: null, target: 0, usl: null, source: 'target 0; limits depend on pad size' },
-	'transfer-efficiency-pct': { label: 'Transfer efficiency', unit: '%', lsl: 50, target: 100, usl: 150, source: 'trade practice (transfer efficiency = deposit volume as % of aperture volume)' },
-	'print-parameter': { label: 'Print parameter', unit: '', lsl: null, target: null, usl: null, source: 'the recipe window of the parameter' }
+	'volume-pct': {
+		label: 'Paste volume',
+		unit: '%',
+		lsl: 50,
+		target: 100,
+		usl: 150,
+		source: 'trade practice for SPI acceptance windows (50–150 %)'
+	},
+	'height-um': {
+		label: 'Paste height',
+		unit: 'µm',
+		lsl: null,
+		target: null,
+		usl: null,
+		source: 'depends on the stencil thickness; set per product'
+	},
+	'area-pct': {
+		label: 'Paste area',
+		unit: '%',
+		lsl: 50,
+		target: 100,
+		usl: 150,
+		source: 'common practice (mirrors the volume window)'
+	},
+	'offset-x-um': {
+		label: 'Offset X',
+		unit: 'µm',
+		lsl: null,
+		target: 0,
+		usl: null,
+		source: 'target 0; limits depend on pad size'
+	},
+	'offset-y-um': {
+		label: 'Offset Y',
+		unit: 'µm',
+		lsl: null,
+		target: 0,
+		usl: null,
+		source: 'target 0; limits depend on pad size'
+	},
+	'transfer-efficiency-pct': {
+		label: 'Transfer efficiency',
+		unit: '%',
+		lsl: 50,
+		target: 100,
+		usl: 150,
+		source: 'trade practice (transfer efficiency = deposit volume as % of aperture volume)'
+	},
+	'print-parameter': {
+		label: 'Print parameter',
+		unit: '',
+		lsl: null,
+		target: null,
+		usl: null,
+		source: 'the recipe window of the parameter'
+	}
 };
 
 /** Unit of a print parameter from its key suffix (squeegeeSpeedMmS → mm/s). */

@@ -3,7 +3,13 @@ import { parseStudyText } from './parse-study-text';
 
 describe('parseStudyText', () => {
 	it.each([
-		['1 2 3\n4 5 6', [[1, 2, 3], [4, 5, 6]]],
+		[
+			'1 2 3\n4 5 6',
+			[
+				[1, 2, 3],
+				[4, 5, 6]
+			]
+		],
 		['1,2;3\t4', [[1, 2, 3, 4]]],
 		['\n 1.5 \n\n-2e1\n', [[1.5], [-20]]],
 		['a b\n1 2', [[1, 2]]],

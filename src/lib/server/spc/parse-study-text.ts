@@ -55,7 +55,10 @@ export function parseStudyText(text: string, maxErrors = 20): StudyTextResult {
 	}
 	if (errors.length) return { ok: false, errors };
 	if (rows.length === 0) {
-		return { ok: false, errors: [{ field: 'data', message: 'no numbers found; paste at least two rows' }] };
+		return {
+			ok: false,
+			errors: [{ field: 'data', message: 'no numbers found; paste at least two rows' }]
+		};
 	}
 	return { ok: true, rows, lineOf, headerSkipped };
 }

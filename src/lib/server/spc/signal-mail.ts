@@ -21,7 +21,8 @@ function ruleText(rule: string): string {
 }
 
 function describeSignal(s: SignalRow, c: CharacteristicSummary | undefined): string {
-	const value = s.value == null ? '' : ` value ${Number(s.value.toPrecision(6))}${c?.unit ? ' ' + c.unit : ''}`;
+	const value =
+		s.value == null ? '' : ` value ${Number(s.value.toPrecision(6))}${c?.unit ? ' ' + c.unit : ''}`;
 	const when = s.pointAt ? ` at ${s.pointAt.toISOString().slice(0, 16).replace('T', ' ')} UTC` : '';
 	const n = s.pointKeys.length;
 	return `- ${ruleText(s.rule)} (rule ${s.rule}) on the ${s.chartPart.replace('-', ' ')} chart: ${pointKeyWords(s.pointKey)}${value}${when}; ${n} point${n === 1 ? '' : 's'} in the pattern`;
@@ -74,11 +75,16 @@ function scheduleFlush(db: Db): void {
  * DIGEST_WINDOW_MS, the runs wait and go out together as one digest when the window ends.
  * @returns outbox ids of the mails sent now.
  */
-export async function notifyFollowers(db: Db, runStarts: SignalRow[], now = new Date()): Promise<number[]> {
+export async function notifyFollowers(
+	db: Db,
+	runStarts: SignalRow[],
+	now = new Date()
+): Promise<number[]> {
 	const sent: number[] = [];
 	if (runStarts.length === 0) return sent;
 	const byChart = new Map<number, SignalRow[]>();
-	for (const s of runStarts) byChart.set(s.characteristicId, [...(byChart.get(s.characteristicId) ?? []), s]);
+	for (const s of runStarts)
+		byChart.set(s.characteristicId, [...(byChart.get(s.characteristicId) ?? []), s]);
 	const chars = new Map(characteristicsByIds(db, [...byChart.keys()]).map((c) => [c.id, c]));
 	const since = new Date(now.getTime() - DIGEST_WINDOW_MS);
 	for (const [chartId, signals] of byChart) {
@@ -86,9 +92,16 @@ export async function notifyFollowers(db: Db, runStarts: SignalRow[], now = new 
 		const followers = listFollowers(db, chartId);
 		const assessment = followers.length ? assessmentLine(db, chartId) : '';
 		for (const follower of followers) {
-			const queued = db.select({ id: spcMailQueue.id }).from(spcMailQueue).where(eq(spcMailQueue.userId, follower.userId)).get();
+			const queued = db
+				.select({ id: spcMailQueue.id })
+				.from(spcMailQueue)
+				.where(eq(spcMailQueue.userId, follower.userId))
+				.get();
 			if (queued || recentSignalMails(db, follower.email, since) >= DIGEST_THRESHOLD) {
-				for (const s of signals) db.insert(spcMailQueue).values({ userId: follower.userId, signalId: s.id, createdAt: now }).run();
+				for (const s of signals)
+					db.insert(spcMailQueue)
+						.values({ userId: follower.userId, signalId: s.id, createdAt: now })
+						.run();
 				scheduleFlush(db);
 				continue;
 			}
@@ -133,9 +146,15 @@ export async function flushDigests(db: Db, now = new Date(), force = false): Pro
 		if (!force && now.getTime() - oldest < DIGEST_WINDOW_MS) continue;
 		const ids = rows.map((r) => r.q.id);
 		if (rows[0].active) {
-			const chars = new Map(characteristicsByIds(db, [...new Set(rows.map((r) => r.s.characteristicId))]).map((c) => [c.id, c]));
+			const chars = new Map(
+				characteristicsByIds(db, [...new Set(rows.map((r) => r.s.characteristicId))]).map((c) => [
+					c.id,
+					c
+				])
+			);
 			const byChart = new Map<number, SignalRow[]>();
-			for (const r of rows) byChart.set(r.s.characteristicId, [...(byChart.get(r.s.characteristicId) ?? []), r.s]);
+			for (const r of rows)
+				byChart.set(r.s.characteristicId, [...(byChart.get(r.s.characteristicId) ?? []), r.s]);
 			const text = [
 				`${rows.length} new signal run${rows.length === 1 ? '' : 's'} on ${byChart.size} chart${byChart.size === 1 ? '' : 's'} in the last few minutes:`,
 				...[...byChart].flatMap(([chartId, signals]) => [

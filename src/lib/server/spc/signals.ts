@@ -24,7 +24,11 @@ export const EVALUATION_TAIL = 40;
  * run (`runId`); the others start a run.
  * @returns the newly stored signals, oldest first.
  */
-export function evaluateCharacteristic(db: Db, c: CharacteristicRow, tail = EVALUATION_TAIL): SignalRow[] {
+export function evaluateCharacteristic(
+	db: Db,
+	c: CharacteristicRow,
+	tail = EVALUATION_TAIL
+): SignalRow[] {
 	const version = latestLimitVersion(db, c.id);
 	if (!version) return [];
 	const limits = version.limits as unknown as ChartLimits;
@@ -52,14 +56,25 @@ export function evaluateCharacteristic(db: Db, c: CharacteristicRow, tail = EVAL
 	const stored = db
 		.select({ rule: spcSignals.rule, part: spcSignals.chartPart, key: spcSignals.pointKey })
 		.from(spcSignals)
-		.where(and(eq(spcSignals.characteristicId, c.id), eq(spcSignals.limitVersionId, version.id), inArray(spcSignals.pointKey, tailKeys)))
+		.where(
+			and(
+				eq(spcSignals.characteristicId, c.id),
+				eq(spcSignals.limitVersionId, version.id),
+				inArray(spcSignals.pointKey, tailKeys)
+			)
+		)
 		.all();
 	const seen = new Set(stored.map((r) => `${r.rule}|${r.part}|${r.key}`));
-	const fresh = violations.filter((v) => !seen.has(`${v.rule}|${v.chart}|${subgroups[v.index].key}`));
+	const fresh = violations.filter(
+		(v) => !seen.has(`${v.rule}|${v.chart}|${subgroups[v.index].key}`)
+	);
 	if (fresh.length === 0) return [];
 	return db.transaction((tx) => {
 		// Runs continue only from the latest signals (patterns span at most 15 points).
-		const recent: Pick<SignalRow, 'id' | 'rule' | 'chartPart' | 'pointKey' | 'pointKeys' | 'runId'>[] = tx
+		const recent: Pick<
+			SignalRow,
+			'id' | 'rule' | 'chartPart' | 'pointKey' | 'pointKeys' | 'runId'
+		>[] = tx
 			.select({
 				id: spcSignals.id,
 				rule: spcSignals.rule,
@@ -89,7 +104,12 @@ export function evaluateCharacteristic(db: Db, c: CharacteristicRow, tail = EVAL
 					pointKeys,
 					boardIds: [...new Set(v.points.flatMap((i) => subgroups[i].boardIds))],
 					pointAt: s.at,
-					value: v.chart === 'location' ? points[v.index].location : v.chart === 'dispersion' ? points[v.index].dispersion : (points[v.index].movingRange ?? null)
+					value:
+						v.chart === 'location'
+							? points[v.index].location
+							: v.chart === 'dispersion'
+								? points[v.index].dispersion
+								: (points[v.index].movingRange ?? null)
 				})
 				.onConflictDoNothing()
 				.returning()
@@ -132,7 +152,8 @@ export async function evaluateSignalsFor(
 			created.push(...evaluateCharacteristic(db, c));
 		}
 	}
-	if (created.length) publishFloorEvent({ kind: 'signal', what: 'raised', signalIds: created.map((s) => s.id) });
+	if (created.length)
+		publishFloorEvent({ kind: 'signal', what: 'raised', signalIds: created.map((s) => s.id) });
 	const runs = created.filter(startsRun);
 	if (runs.length) {
 		await notifyFollowers(db, runs);
@@ -165,7 +186,9 @@ export function listSignals(db: Db, filters: SignalFilters = {}): SignalSummary[
 	const where: (SQL | undefined)[] = [
 		filters.status === 'open' ? isNull(spcSignals.ackAt) : undefined,
 		filters.status === 'acknowledged' ? isNotNull(spcSignals.ackAt) : undefined,
-		filters.characteristicId ? eq(spcSignals.characteristicId, filters.characteristicId) : undefined,
+		filters.characteristicId
+			? eq(spcSignals.characteristicId, filters.characteristicId)
+			: undefined,
 		filters.rule ? eq(spcSignals.rule, filters.rule) : undefined,
 		filters.from ? gte(spcSignals.createdAt, filters.from) : undefined,
 		filters.to ? lte(spcSignals.createdAt, filters.to) : undefined,
@@ -178,7 +201,12 @@ export function listSignals(db: Db, filters: SignalFilters = {}): SignalSummary[
 		.orderBy(desc(spcSignals.id))
 		.limit(Math.max(1, Math.min(1000, filters.limit ?? 200)))
 		.all();
-	const chars = new Map(characteristicsByIds(db, [...new Set(rows.map((r) => r.characteristicId))]).map((c) => [c.id, c]));
+	const chars = new Map(
+		characteristicsByIds(db, [...new Set(rows.map((r) => r.characteristicId))]).map((c) => [
+			c.id,
+			c
+		])
+	);
 	return rows.map((r) => {
 		const c = chars.get(r.characteristicId);
 		return {
@@ -232,23 +260,43 @@ export interface AcknowledgeInput {
  * plus a note; records who and when (audited).
  * @throws AcknowledgeError (404 unknown, 409 already acknowledged, 422 cause/action not listed).
  */
-export function acknowledgeSignal(db: Db, id: number, input: AcknowledgeInput, actor: Actor): SignalSummary[] {
+export function acknowledgeSignal(
+	db: Db,
+	id: number,
+	input: AcknowledgeInput,
+	actor: Actor
+): SignalSummary[] {
 	const row = db.select().from(spcSignals).where(eq(spcSignals.id, id)).get();
 	if (!row) throw new AcknowledgeError(404, `No signal with id ${id}.`);
-	if (row.ackAt) throw new AcknowledgeError(409, `Signal ${id} was already acknowledged by ${row.ackBy} at ${row.ackAt.toISOString()}.`);
+	if (row.ackAt)
+		throw new AcknowledgeError(
+			409,
+			`Signal ${id} was already acknowledged by ${row.ackBy} at ${row.ackAt.toISOString()}.`
+		);
 	const lists = getCauseLists(db);
 	if (!lists.causes.includes(input.cause)) {
-		throw new AcknowledgeError(422, `"${input.cause}" is not in the list of assignable causes (${lists.causes.join(', ')}).`, 'cause');
+		throw new AcknowledgeError(
+			422,
+			`"${input.cause}" is not in the list of assignable causes (${lists.causes.join(', ')}).`,
+			'cause'
+		);
 	}
 	if (!lists.actions.includes(input.action)) {
-		throw new AcknowledgeError(422, `"${input.action}" is not in the list of corrective actions (${lists.actions.join(', ')}).`, 'action');
+		throw new AcknowledgeError(
+			422,
+			`"${input.action}" is not in the list of corrective actions (${lists.actions.join(', ')}).`,
+			'action'
+		);
 	}
 	const now = new Date();
 	const ids = db.transaction((tx) => {
 		// The wider scope stays on this chart: the open signals of the same run of the same rule.
 		const targets = input.wholeRun ? patternTargets(tx, row) : [id];
 		if (input.expectedCount !== undefined && targets.length !== input.expectedCount) {
-			throw new AcknowledgeError(409, `This would now close ${targets.length} signals, not ${input.expectedCount}: the list changed; look again and confirm.`);
+			throw new AcknowledgeError(
+				409,
+				`This would now close ${targets.length} signals, not ${input.expectedCount}: the list changed; look again and confirm.`
+			);
 		}
 		tx.update(spcSignals)
 			.set({
@@ -279,7 +327,6 @@ export function getSignal(db: Db, id: number): SignalSummary | undefined {
 	return listSignals(db, { ids: [id] })[0];
 }
 
-
 /**
  * Call after each committed SPI import with the ids of the boards it stored: evaluates the
  * charts those boards feed (their product and line), stores new signals and mails followers.
@@ -301,7 +348,10 @@ export async function evaluateSignalsAfterIngest(db: Db, boardIds: number[]): Pr
  * Call after a print run is logged or corrected: evaluates the print-parameter charts of its
  * product and line. Like `evaluateSignalsAfterIngest`, it logs instead of throwing.
  */
-export async function evaluateSignalsAfterPrintRun(db: Db, run: { productId: number; lineId: number }): Promise<SignalRow[]> {
+export async function evaluateSignalsAfterPrintRun(
+	db: Db,
+	run: { productId: number; lineId: number }
+): Promise<SignalRow[]> {
 	try {
 		return await evaluateSignalsFor(db, [run]);
 	} catch (err) {

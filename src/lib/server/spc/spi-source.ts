@@ -1,18 +1,79 @@
 import { and, eq, inArray, isNotNull } from 'drizzle-orm';
 import { apertureGeometry, areaRatio, type ApertureInput } from '$lib/stencil';
 import type { Db } from '../db';
-import { apertures, products, spiBoards, spiPadMeasurements, spiPads, stencils } from '../db/schema';
+import {
+	apertures,
+	products,
+	spiBoards,
+	spiPadMeasurements,
+	spiPads,
+	stencils
+} from '../db/schema';
 import type { CharacteristicRow, SourceSubgroup } from './source-types';
 
 /** Per-board aggregate columns and pad-measurement column of each SPI measure. */
 const COLUMNS = {
-	'volume-pct': { count: spiBoards.volumePctCount, mean: spiBoards.volumePctMean, sd: spiBoards.volumePctSd, range: spiBoards.volumePctRange, min: spiBoards.volumePctMin, max: spiBoards.volumePctMax, pad: spiPadMeasurements.volumeCentiPct, scale: 1 },
-	'area-pct': { count: spiBoards.areaPctCount, mean: spiBoards.areaPctMean, sd: spiBoards.areaPctSd, range: spiBoards.areaPctRange, min: spiBoards.areaPctMin, max: spiBoards.areaPctMax, pad: spiPadMeasurements.areaCentiPct, scale: 1 },
-	'height-um': { count: spiBoards.heightUmCount, mean: spiBoards.heightUmMean, sd: spiBoards.heightUmSd, range: spiBoards.heightUmRange, min: spiBoards.heightUmMin, max: spiBoards.heightUmMax, pad: spiPadMeasurements.heightCentiUm, scale: 1 },
-	'offset-x-um': { count: spiBoards.offsetXUmCount, mean: spiBoards.offsetXUmMean, sd: spiBoards.offsetXUmSd, range: spiBoards.offsetXUmRange, min: spiBoards.offsetXUmMin, max: spiBoards.offsetXUmMax, pad: spiPadMeasurements.offsetXCentiUm, scale: 1 },
-	'offset-y-um': { count: spiBoards.offsetYUmCount, mean: spiBoards.offsetYUmMean, sd: spiBoards.offsetYUmSd, range: spiBoards.offsetYUmRange, min: spiBoards.offsetYUmMin, max: spiBoards.offsetYUmMax, pad: spiPadMeasurements.offsetYCentiUm, scale: 1 },
+	'volume-pct': {
+		count: spiBoards.volumePctCount,
+		mean: spiBoards.volumePctMean,
+		sd: spiBoards.volumePctSd,
+		range: spiBoards.volumePctRange,
+		min: spiBoards.volumePctMin,
+		max: spiBoards.volumePctMax,
+		pad: spiPadMeasurements.volumeCentiPct,
+		scale: 1
+	},
+	'area-pct': {
+		count: spiBoards.areaPctCount,
+		mean: spiBoards.areaPctMean,
+		sd: spiBoards.areaPctSd,
+		range: spiBoards.areaPctRange,
+		min: spiBoards.areaPctMin,
+		max: spiBoards.areaPctMax,
+		pad: spiPadMeasurements.areaCentiPct,
+		scale: 1
+	},
+	'height-um': {
+		count: spiBoards.heightUmCount,
+		mean: spiBoards.heightUmMean,
+		sd: spiBoards.heightUmSd,
+		range: spiBoards.heightUmRange,
+		min: spiBoards.heightUmMin,
+		max: spiBoards.heightUmMax,
+		pad: spiPadMeasurements.heightCentiUm,
+		scale: 1
+	},
+	'offset-x-um': {
+		count: spiBoards.offsetXUmCount,
+		mean: spiBoards.offsetXUmMean,
+		sd: spiBoards.offsetXUmSd,
+		range: spiBoards.offsetXUmRange,
+		min: spiBoards.offsetXUmMin,
+		max: spiBoards.offsetXUmMax,
+		pad: spiPadMeasurements.offsetXCentiUm,
+		scale: 1
+	},
+	'offset-y-um': {
+		count: spiBoards.offsetYUmCount,
+		mean: spiBoards.offsetYUmMean,
+		sd: spiBoards.offsetYUmSd,
+		range: spiBoards.offsetYUmRange,
+		min: spiBoards.offsetYUmMin,
+		max: spiBoards.offsetYUmMax,
+		pad: spiPadMeasurements.offsetYCentiUm,
+		scale: 1
+	},
 	// Stored as a fraction; charted in % (× 100). Pad-level TE needs aperture volumes: all pads only.
-	'transfer-efficiency-pct': { count: spiBoards.teCount, mean: spiBoards.teMean, sd: spiBoards.teSd, range: spiBoards.teRange, min: spiBoards.teMin, max: spiBoards.teMax, pad: null, scale: 100 }
+	'transfer-efficiency-pct': {
+		count: spiBoards.teCount,
+		mean: spiBoards.teMean,
+		sd: spiBoards.teSd,
+		range: spiBoards.teRange,
+		min: spiBoards.teMin,
+		max: spiBoards.teMax,
+		pad: null,
+		scale: 100
+	}
 } as const;
 
 type SpiMeasure = keyof typeof COLUMNS;
@@ -37,21 +98,42 @@ const PAD_COLUMN: Record<SpiMeasure, string | null> = {
 	'transfer-efficiency-pct': null
 };
 
-type BoardRow = { id: number; serial: string; at: Date; lineCode: string; count: number; mean: number | null; sd: number | null; range: number | null };
+type BoardRow = {
+	id: number;
+	serial: string;
+	at: Date;
+	lineCode: string;
+	count: number;
+	mean: number | null;
+	sd: number | null;
+	range: number | null;
+};
 
 // Prepared once per database, measure and number of lines: this query is the chart's hot path
 // (an index range scan on product + time, newest first).
 const statements = new WeakMap<object, Map<string, import('better-sqlite3').Statement>>();
 
-function newestBoards(db: Db, c: CharacteristicRow, measure: SpiMeasure, minCount: number, limit: number): BoardRow[] {
-	const product = db.select({ code: products.code }).from(products).where(eq(products.id, c.productId)).get();
+function newestBoards(
+	db: Db,
+	c: CharacteristicRow,
+	measure: SpiMeasure,
+	minCount: number,
+	limit: number
+): BoardRow[] {
+	const product = db
+		.select({ code: products.code })
+		.from(products)
+		.where(eq(products.id, c.productId))
+		.get();
 	const p = PREFIX[measure];
 	const key = `${p}:${c.lineIds.length}`;
 	let cache = statements.get(db.$client);
 	if (!cache) statements.set(db.$client, (cache = new Map()));
 	let stmt = cache.get(key);
 	if (!stmt) {
-		const lineFilter = c.lineIds.length ? `and line_id in (${c.lineIds.map(() => '?').join(', ')})` : '';
+		const lineFilter = c.lineIds.length
+			? `and line_id in (${c.lineIds.map(() => '?').join(', ')})`
+			: '';
 		stmt = db.$client.prepare(
 			`select id, serial, inspected_at as at, line_code as lineCode, ${p}_count as count, ${p}_mean as mean,
 			 ${p}_sd as sd, ${p}_range as range from spi_boards
@@ -60,11 +142,23 @@ function newestBoards(db: Db, c: CharacteristicRow, measure: SpiMeasure, minCoun
 		);
 		cache.set(key, stmt);
 	}
-	const rows = stmt.all(product?.code ?? '', ...c.lineIds, minCount, limit) as (Omit<BoardRow, 'at'> & { at: number })[];
+	const rows = stmt.all(product?.code ?? '', ...c.lineIds, minCount, limit) as (Omit<
+		BoardRow,
+		'at'
+	> & { at: number })[];
 	const out: BoardRow[] = new Array(rows.length);
 	for (let i = 0; i < rows.length; i++) {
 		const r = rows[i];
-		out[rows.length - 1 - i] = { id: r.id, serial: r.serial, at: new Date(r.at), lineCode: r.lineCode, count: r.count, mean: r.mean, sd: r.sd, range: r.range };
+		out[rows.length - 1 - i] = {
+			id: r.id,
+			serial: r.serial,
+			at: new Date(r.at),
+			lineCode: r.lineCode,
+			count: r.count,
+			mean: r.mean,
+			sd: r.sd,
+			range: r.range
+		};
 	}
 	return out;
 }
@@ -73,7 +167,11 @@ function newestBoards(db: Db, c: CharacteristicRow, measure: SpiMeasure, minCoun
 export function selectedPadIds(db: Db, c: CharacteristicRow): number[] | null {
 	const sel = c.padSelection;
 	if (sel.kind === 'all') return null;
-	const product = db.select({ code: products.code }).from(products).where(eq(products.id, c.productId)).get();
+	const product = db
+		.select({ code: products.code })
+		.from(products)
+		.where(eq(products.id, c.productId))
+		.get();
 	const code = product?.code ?? '';
 	if (sel.kind === 'refdes') {
 		return db
@@ -108,15 +206,32 @@ export function selectedPadIds(db: Db, c: CharacteristicRow): number[] | null {
  * (no pad rows read); a refdes list or area-ratio band: the selected pads' measurements. For
  * I-MR, and for n consecutive boards, each board contributes one value: its mean.
  */
-export function loadSpiSubgroups(db: Db, c: CharacteristicRow, limitSubgroups: number): SourceSubgroup[] {
+export function loadSpiSubgroups(
+	db: Db,
+	c: CharacteristicRow,
+	limitSubgroups: number
+): SourceSubgroup[] {
 	const col = COLUMNS[c.measure as SpiMeasure];
 	if (!col) return [];
 	const perPoint = c.subgroupMode === 'consecutive' ? Math.max(1, c.subgroupSize) : 1;
 	const padIds = selectedPadIds(db, c);
-	const boards = newestBoards(db, c, c.measure as SpiMeasure, padIds ? 1 : 2, Math.min(200_000, limitSubgroups * perPoint));
+	const boards = newestBoards(
+		db,
+		c,
+		c.measure as SpiMeasure,
+		padIds ? 1 : 2,
+		Math.min(200_000, limitSubgroups * perPoint)
+	);
 	if (boards.length === 0) return [];
 	const s = col.scale;
-	let perBoard: { id: number; serial: string; at: Date; lineCode: string; values: number[]; stats: SourceSubgroup['stats'] }[];
+	let perBoard: {
+		id: number;
+		serial: string;
+		at: Date;
+		lineCode: string;
+		values: number[];
+		stats: SourceSubgroup['stats'];
+	}[];
 	if (padIds === null) {
 		perBoard = boards
 			.filter((b) => b.mean !== null)
@@ -126,7 +241,12 @@ export function loadSpiSubgroups(db: Db, c: CharacteristicRow, limitSubgroups: n
 				at: b.at,
 				lineCode: b.lineCode,
 				values: [],
-				stats: { n: b.count, mean: (b.mean ?? 0) * s, sd: (b.sd ?? 0) * s, range: (b.range ?? 0) * s }
+				stats: {
+					n: b.count,
+					mean: (b.mean ?? 0) * s,
+					sd: (b.sd ?? 0) * s,
+					range: (b.range ?? 0) * s
+				}
 			}));
 	} else {
 		if (!col.pad || padIds.length === 0) return [];
@@ -137,7 +257,12 @@ export function loadSpiSubgroups(db: Db, c: CharacteristicRow, limitSubgroups: n
 			const rows = db
 				.select({ boardId: spiPadMeasurements.boardId, v: padCol })
 				.from(spiPadMeasurements)
-				.where(and(inArray(spiPadMeasurements.boardId, ids.slice(i, i + 500)), inArray(spiPadMeasurements.padId, padIds)))
+				.where(
+					and(
+						inArray(spiPadMeasurements.boardId, ids.slice(i, i + 500)),
+						inArray(spiPadMeasurements.padId, padIds)
+					)
+				)
 				.all();
 			for (const r of rows) {
 				if (r.v === null) continue;
@@ -148,14 +273,29 @@ export function loadSpiSubgroups(db: Db, c: CharacteristicRow, limitSubgroups: n
 		}
 		perBoard = boards
 			.filter((b) => (byBoard.get(b.id)?.length ?? 0) > 0)
-			.map((b) => ({ id: b.id, serial: b.serial, at: b.at, lineCode: b.lineCode, values: byBoard.get(b.id) ?? [], stats: undefined }));
+			.map((b) => ({
+				id: b.id,
+				serial: b.serial,
+				at: b.at,
+				lineCode: b.lineCode,
+				values: byBoard.get(b.id) ?? [],
+				stats: undefined
+			}));
 	}
 	const boardMean = (b: (typeof perBoard)[number]) =>
 		b.stats ? b.stats.mean : b.values.reduce((a, v) => a + v, 0) / b.values.length;
 	const out: SourceSubgroup[] = [];
 	if (perPoint === 1 && c.chartKind !== 'i-mr') {
 		for (const b of perBoard) {
-			out.push({ key: `board:${b.id}`, label: `${b.serial} · ${b.lineCode}`, boardId: b.id, boardIds: [b.id], at: b.at, values: b.values, stats: b.stats });
+			out.push({
+				key: `board:${b.id}`,
+				label: `${b.serial} · ${b.lineCode}`,
+				boardId: b.id,
+				boardIds: [b.id],
+				at: b.at,
+				values: b.values,
+				stats: b.stats
+			});
 		}
 	} else {
 		const full = perBoard.length - (perBoard.length % perPoint);
@@ -164,7 +304,10 @@ export function loadSpiSubgroups(db: Db, c: CharacteristicRow, limitSubgroups: n
 			const last = group[group.length - 1];
 			out.push({
 				key: `board:${group[0].id}`,
-				label: perPoint === 1 ? `${last.serial} · ${last.lineCode}` : `${group[0].serial}…${last.serial} · ${last.lineCode}`,
+				label:
+					perPoint === 1
+						? `${last.serial} · ${last.lineCode}`
+						: `${group[0].serial}…${last.serial} · ${last.lineCode}`,
 				boardId: last.id,
 				boardIds: group.map((g) => g.id),
 				at: last.at,
@@ -179,7 +322,12 @@ export function loadSpiSubgroups(db: Db, c: CharacteristicRow, limitSubgroups: n
  * Pad values of the newest boards (at most 50) of a characteristic, for the histogram only, at
  * most `maxValues`.
  */
-export function samplePadValues(db: Db, c: CharacteristicRow, boardIds: number[], maxValues = 5_000): number[] {
+export function samplePadValues(
+	db: Db,
+	c: CharacteristicRow,
+	boardIds: number[],
+	maxValues = 5_000
+): number[] {
 	const col = COLUMNS[c.measure as SpiMeasure];
 	if (!col?.pad || boardIds.length === 0) return [];
 	const padIds = selectedPadIds(db, c);
@@ -192,8 +340,15 @@ export function samplePadValues(db: Db, c: CharacteristicRow, boardIds: number[]
 	stmt.raw(true);
 	const out: number[] = [];
 	// Newest boards first until enough values: the histogram shows the current state.
-	for (let i = boardIds.length - 1; i >= 0 && out.length < maxValues && boardIds.length - i <= 50; i--) {
-		const rows = stmt.all(boardIds[i], padSet ? 1_000_000 : maxValues - out.length) as [number, number][];
+	for (
+		let i = boardIds.length - 1;
+		i >= 0 && out.length < maxValues && boardIds.length - i <= 50;
+		i--
+	) {
+		const rows = stmt.all(boardIds[i], padSet ? 1_000_000 : maxValues - out.length) as [
+			number,
+			number
+		][];
 		for (const [padId, v] of rows) {
 			if (padSet && !padSet.has(padId)) continue;
 			out.push(v / 100);
@@ -204,7 +359,10 @@ export function samplePadValues(db: Db, c: CharacteristicRow, boardIds: number[]
 }
 
 /** Product and line of stored boards, to find the characteristics an import feeds. */
-export function boardScopes(db: Db, boardIds: number[]): { productId: number; lineId: number | null }[] {
+export function boardScopes(
+	db: Db,
+	boardIds: number[]
+): { productId: number; lineId: number | null }[] {
 	const scopes = new Map<string, { productId: number; lineId: number | null }>();
 	for (let i = 0; i < boardIds.length; i += 500) {
 		const rows = db
@@ -213,7 +371,8 @@ export function boardScopes(db: Db, boardIds: number[]): { productId: number; li
 			.where(inArray(spiBoards.id, boardIds.slice(i, i + 500)))
 			.all();
 		for (const r of rows) {
-			if (r.productId !== null) scopes.set(`${r.productId}:${r.lineId}`, { productId: r.productId, lineId: r.lineId });
+			if (r.productId !== null)
+				scopes.set(`${r.productId}:${r.lineId}`, { productId: r.productId, lineId: r.lineId });
 		}
 	}
 	return [...scopes.values()];
@@ -245,11 +404,15 @@ export function countPadsOutOfSpec(
 	for (let i = 0; i < ids.length; i += 500) {
 		const chunk = ids.slice(i, i + 500);
 		const rows = db.$client
-			.prepare(`select id, ${p}_count as count, ${p}_min as min, ${p}_max as max from spi_boards where id in (${chunk.map(() => '?').join(', ')})`)
+			.prepare(
+				`select id, ${p}_count as count, ${p}_min as min, ${p}_max as max from spi_boards where id in (${chunk.map(() => '?').join(', ')})`
+			)
 			.all(...chunk) as { id: number; count: number; min: number | null; max: number | null }[];
 		for (const r of rows) {
 			n += r.count ?? 0;
-			const outside = (lsl !== null && r.min !== null && r.min < lsl) || (usl !== null && r.max !== null && r.max > usl);
+			const outside =
+				(lsl !== null && r.min !== null && r.min < lsl) ||
+				(usl !== null && r.max !== null && r.max > usl);
 			if (!outside) continue;
 			// Pad values are stored in hundredths: compare in hundredths, as the aggregates were made.
 			const counted = db.$client
@@ -258,7 +421,10 @@ export function countPadsOutOfSpec(
 					 sum(case when ? is not null and ${column} > ? then 1 else 0 end) as above
 					 from spi_pad_measurements where board_id = ? and ${column} is not null`
 				)
-				.get(lslCenti, lslCenti, uslCenti, uslCenti, r.id) as { below: number | null; above: number | null };
+				.get(lslCenti, lslCenti, uslCenti, uslCenti, r.id) as {
+				below: number | null;
+				above: number | null;
+			};
 			below += counted.below ?? 0;
 			above += counted.above ?? 0;
 		}

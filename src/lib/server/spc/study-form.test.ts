@@ -11,8 +11,26 @@ function form(fields: Record<string, string | string[]>): FormData {
 
 describe('parseStudyForm', () => {
 	it('reads rows as subgroups, specs and rules', () => {
-		const out = parseStudyForm(form({ chart: 'xbar-r', data: 'a b\n1 2\n\n3 5', lsl: '0,5', usl: '9', rules: ['we-1', 'bogus'] }));
-		expect(out.ok && out.request).toEqual({ chart: 'xbar-r', subgroups: [[1, 2], [3, 5]], lsl: 0.5, usl: 9, target: null, rules: ['we-1'] });
+		const out = parseStudyForm(
+			form({
+				chart: 'xbar-r',
+				data: 'a b\n1 2\n\n3 5',
+				lsl: '0,5',
+				usl: '9',
+				rules: ['we-1', 'bogus']
+			})
+		);
+		expect(out.ok && out.request).toEqual({
+			chart: 'xbar-r',
+			subgroups: [
+				[1, 2],
+				[3, 5]
+			],
+			lsl: 0.5,
+			usl: 9,
+			target: null,
+			rules: ['we-1']
+		});
 	});
 
 	it('for I-MR every number is a value in reading order', () => {
@@ -35,15 +53,35 @@ describe('parseStudyForm', () => {
 		if (!out.ok) throw new Error('parse failed');
 		const view = studyView(out.request);
 		expect(view.ok).toBe(false);
-		if (!view.ok) expect(view.errors.map(out.where)[0].message).toMatch(/^line 3 \(subgroups\[1\]\)/);
+		if (!view.ok)
+			expect(view.errors.map(out.where)[0].message).toMatch(/^line 3 \(subgroups\[1\]\)/);
 	});
 });
 
 describe('characteristicFromForm', () => {
 	it('maps fields, blank specs to null and pad selections', () => {
 		const out = characteristicFromForm(
-			form({ name: ' V ', productId: '2', lineIds: ['1', '3'], measure: 'volume-pct', padKind: 'refdes', refdes: 'U1, R2 C3', chartKind: 'between-within', lsl: '', usl: '150', rules: ['we-1'] })
+			form({
+				name: ' V ',
+				productId: '2',
+				lineIds: ['1', '3'],
+				measure: 'volume-pct',
+				padKind: 'refdes',
+				refdes: 'U1, R2 C3',
+				chartKind: 'between-within',
+				lsl: '',
+				usl: '150',
+				rules: ['we-1']
+			})
 		);
-		expect(out).toMatchObject({ name: 'V', productId: 2, lineIds: [1, 3], padSelection: { kind: 'refdes', refdes: ['U1', 'R2', 'C3'] }, lsl: null, usl: 150, rules: ['we-1'] });
+		expect(out).toMatchObject({
+			name: 'V',
+			productId: 2,
+			lineIds: [1, 3],
+			padSelection: { kind: 'refdes', refdes: ['U1', 'R2', 'C3'] },
+			lsl: null,
+			usl: 150,
+			rules: ['we-1']
+		});
 	});
 });

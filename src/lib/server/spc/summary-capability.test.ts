@@ -39,10 +39,15 @@ describe('summaryCapability', () => {
 			else expect(fromSummary[key]).toBeCloseTo(fromValues[key] as number, 10);
 		}
 		expect(fromSummary.cpkInterval?.lower).toBeCloseTo(fromValues.cpkInterval?.lower ?? NaN, 10);
-		expect(fromSummary.expectedOverall?.ppmTotal).toBeCloseTo(fromValues.expectedOverall?.ppmTotal ?? NaN, 6);
+		expect(fromSummary.expectedOverall?.ppmTotal).toBeCloseTo(
+			fromValues.expectedOverall?.ppmTotal ?? NaN,
+			6
+		);
 	});
 
 	it('refuses LSL above USL', () => {
-		expect(() => summaryCapability({ groups: [statsOf(values)], sigmaWithin: 1, lsl: 5, usl: 1, target: null })).toThrow('LSL 5 must be below USL 1');
+		expect(() =>
+			summaryCapability({ groups: [statsOf(values)], sigmaWithin: 1, lsl: 5, usl: 1, target: null })
+		).toThrow('LSL 5 must be below USL 1');
 	});
 });

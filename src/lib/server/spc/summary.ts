@@ -76,7 +76,9 @@ const VERDICT_ORDER: Record<CapabilityVerdict, number> = {
  */
 export function chartSummary(db: Db, limit = 200): ChartSummaryRow[] {
 	const open = openSignalCounts(db);
-	const rows = listCharacteristics(db).map((c) => summaryRow(chartDetail(db, c.id, { limit }), open.get(c.id) ?? 0));
+	const rows = listCharacteristics(db).map((c) =>
+		summaryRow(chartDetail(db, c.id, { limit }), open.get(c.id) ?? 0)
+	);
 	const bound = (r: ChartSummaryRow) => r.assessment.basis?.lowerBound ?? Infinity;
 	return rows.sort(
 		(a, b) =>

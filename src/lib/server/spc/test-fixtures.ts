@@ -3,12 +3,21 @@ import { lines, printRuns, products, users } from '../db/schema';
 
 /** A product, two lines and an engineer in a fresh test database. */
 export function seedFactory(db: Db) {
-	const product = db.insert(products).values({ code: 'PB-100', name: 'Pump controller board' }).returning().get();
+	const product = db
+		.insert(products)
+		.values({ code: 'PB-100', name: 'Pump controller board' })
+		.returning()
+		.get();
 	const line1 = db.insert(lines).values({ code: 'SMT-1', name: 'Line 1' }).returning().get();
 	const line2 = db.insert(lines).values({ code: 'SMT-2', name: 'Line 2' }).returning().get();
 	const engineer = db
 		.insert(users)
-		.values({ email: 'eng@fenmoor.example', name: 'Ada Engineer', role: 'engineer', passwordHash: 'x' })
+		.values({
+			email: 'eng@fenmoor.example',
+			name: 'Ada Engineer',
+			role: 'engineer',
+			passwordHash: 'x'
+		})
 		.returning()
 		.get();
 	return { product, line1, line2, engineer };

@@ -13,7 +13,11 @@ export function toStencilApiError(err: unknown): unknown {
 	if (err instanceof ApertureImportError)
 		return new ApiError(422, {
 			error: 'The apertures were refused; nothing was imported.',
-			errors: err.problems.map((p) => ({ where: p.where, field: p.field, message: formatProblem(p) }))
+			errors: err.problems.map((p) => ({
+				where: p.where,
+				field: p.field,
+				message: formatProblem(p)
+			}))
 		});
 	if (err instanceof StencilInputError)
 		return new ApiError(400, {

@@ -25,7 +25,15 @@ function chip(
 }
 
 /** A QFN: `perSide` pads on each side at `pitchUm`, plus a 2 × 2 window-pane thermal pad. */
-function qfn(refdes: string, x: number, y: number, perSide: number, pitchUm: number, padL: number, padW: number) {
+function qfn(
+	refdes: string,
+	x: number,
+	y: number,
+	perSide: number,
+	pitchUm: number,
+	padL: number,
+	padW: number
+) {
 	const out: ApertureInput[] = [];
 	const span = ((perSide - 1) * pitchUm) / 2;
 	const edge = span + 900;
@@ -94,9 +102,13 @@ function bga(refdes: string, x: number, y: number, n: number, pitchUm: number, d
 export function demoPb100Apertures(qfnPadWidthUm = 220): ApertureInput[] {
 	const out: ApertureInput[] = [];
 	for (let i = 0; i < 60; i++)
-		out.push(...chip(`C${i + 1}`, 8000 + (i % 12) * 3000, 8000 + Math.floor(i / 12) * 2500, 1000, 500, 550));
+		out.push(
+			...chip(`C${i + 1}`, 8000 + (i % 12) * 3000, 8000 + Math.floor(i / 12) * 2500, 1000, 500, 550)
+		);
 	for (let i = 0; i < 30; i++)
-		out.push(...chip(`R${i + 1}`, 8000 + (i % 10) * 2000, 24000 + Math.floor(i / 10) * 1500, 500, 280, 300));
+		out.push(
+			...chip(`R${i + 1}`, 8000 + (i % 10) * 2000, 24000 + Math.floor(i / 10) * 1500, 500, 280, 300)
+		);
 	for (let i = 0; i < 4; i++) {
 		const x = 50000 + i * 9000;
 		for (let p = 0; p < 8; p++) {
@@ -179,7 +191,9 @@ export function seedDemoStencils(db: Db): void {
 			thicknessUm: 127,
 			technology: 'step',
 			notes: 'Step-down to 100 µm over U2 (0.5 mm BGA); U1 pads widened.',
-			stepRegions: [{ xMinUm: 42500, yMinUm: 42500, xMaxUm: 47500, yMaxUm: 47500, thicknessUm: 100 }]
+			stepRegions: [
+				{ xMinUm: 42500, yMinUm: 42500, xMaxUm: 47500, yMaxUm: 47500, thicknessUm: 100 }
+			]
 		},
 		null
 	);

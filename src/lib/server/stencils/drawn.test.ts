@@ -12,7 +12,9 @@ let close: () => void;
 beforeEach(() => {
 	({ db, close } = openTestDatabase());
 	db.$client
-		.prepare("insert into users (id, email, name, role, password_hash) values (1, 'e@x', 'E', 'engineer', 'x')")
+		.prepare(
+			"insert into users (id, email, name, role, password_hash) values (1, 'e@x', 'E', 'engineer', 'x')"
+		)
 		.run();
 });
 afterEach(() => close());
@@ -20,12 +22,35 @@ afterEach(() => close());
 it('stores the drawn mark of stroked openings and keeps it through a revision copy', () => {
 	const r = importGerberPasteLayer(readFileSync('reference/gerber/qfp45-strokes.gbr', 'utf8'));
 	if ('errors' in r) throw new Error(JSON.stringify(r.errors));
-	const s = createStencil(db, { name: 'ST-D', revision: 'A', thicknessUm: 120, technology: 'laser-stainless' }, engineer);
-	const flash = { refdes: 'R1', pad: '1', shape: 'circle' as const, diameterUm: 300, xUm: 0, yUm: 0, rotationDeg: 0 };
-	importApertures(db, s.id, [...r.apertures, flash], { source: 'gerber', mode: 'append' }, engineer);
+	const s = createStencil(
+		db,
+		{ name: 'ST-D', revision: 'A', thicknessUm: 120, technology: 'laser-stainless' },
+		engineer
+	);
+	const flash = {
+		refdes: 'R1',
+		pad: '1',
+		shape: 'circle' as const,
+		diameterUm: 300,
+		xUm: 0,
+		yUm: 0,
+		rotationDeg: 0
+	};
+	importApertures(
+		db,
+		s.id,
+		[...r.apertures, flash],
+		{ source: 'gerber', mode: 'append' },
+		engineer
+	);
 	const stored = loadApertures(db, s.id);
 	expect(stored.filter((a) => a.drawn === true)).toHaveLength(44);
 	expect(stored.find((a) => a.refdes === 'R1')?.drawn).toBeUndefined();
-	const b = createRevision(db, s.id, { revision: 'B', thicknessUm: 120, technology: 'laser-stainless' }, engineer);
+	const b = createRevision(
+		db,
+		s.id,
+		{ revision: 'B', thicknessUm: 120, technology: 'laser-stainless' },
+		engineer
+	);
 	expect(loadApertures(db, b.id).filter((a) => a.drawn === true)).toHaveLength(44);
 });

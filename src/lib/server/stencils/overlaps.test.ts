@@ -11,19 +11,38 @@ let close: () => void;
 beforeEach(() => {
 	({ db, close } = openTestDatabase());
 	db.$client
-		.prepare("insert into users (id, email, name, role, password_hash) values (1, 'e@x', 'E', 'engineer', 'x')")
+		.prepare(
+			"insert into users (id, email, name, role, password_hash) values (1, 'e@x', 'E', 'engineer', 'x')"
+		)
 		.run();
 });
 afterEach(() => close());
 
 const pad = (refdes: string, xUm: number): ApertureInput => ({
-	refdes, pad: '1', shape: 'rectangle', lengthUm: 1000, widthUm: 1000, xUm, yUm: 0, rotationDeg: 0
+	refdes,
+	pad: '1',
+	shape: 'rectangle',
+	lengthUm: 1000,
+	widthUm: 1000,
+	xUm,
+	yUm: 0,
+	rotationDeg: 0
 });
 
 it('names overlapping openings and gives the paste area summed and as a union', () => {
-	const s = createStencil(db, { name: 'ST-O', revision: 'A', thicknessUm: 120, technology: 'laser-stainless' }, engineer);
+	const s = createStencil(
+		db,
+		{ name: 'ST-O', revision: 'A', thicknessUm: 120, technology: 'laser-stainless' },
+		engineer
+	);
 	// C1 and C2 share 0.5 × 1 mm; C3 stands alone.
-	importApertures(db, s.id, [pad('C1', 0), pad('C2', 500), pad('C3', 5000)], { source: 'json', mode: 'append' }, engineer);
+	importApertures(
+		db,
+		s.id,
+		[pad('C1', 0), pad('C2', 500), pad('C3', 5000)],
+		{ source: 'json', mode: 'append' },
+		engineer
+	);
 	const o = stencilAdvice(checkStoredStencil(db, s.id)).overlaps;
 	expect(o.pairCount).toBe(1);
 	expect(o.pairs[0]).toMatchObject({ a: { refdes: 'C1' }, b: { refdes: 'C2' } });

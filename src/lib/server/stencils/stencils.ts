@@ -71,7 +71,11 @@ function regionsOf(db: Pick<Db, 'select'>, stencilId: number): StepRegion[] {
 }
 
 function withRegions(db: Pick<Db, 'select'>, row: Row): StencilRecord {
-	return { ...row, technology: row.technology as StencilTechnology, stepRegions: regionsOf(db, row.id) };
+	return {
+		...row,
+		technology: row.technology as StencilTechnology,
+		stepRegions: regionsOf(db, row.id)
+	};
 }
 
 /**
@@ -156,7 +160,9 @@ function insertStencil(
 		.returning({ id: stencils.id })
 		.get();
 	for (const r of input.stepRegions ?? [])
-		tx.insert(stencilStepRegions).values({ stencilId: row.id, ...r }).run();
+		tx.insert(stencilStepRegions)
+			.values({ stencilId: row.id, ...r })
+			.run();
 	return row.id;
 }
 
@@ -165,11 +171,20 @@ function insertStencil(
  * @throws DuplicateStencilError when that name already has that revision.
  * @example createStencil(db, { name: 'ST-PB100', revision: 'A', thicknessUm: 127, technology: 'laser-stainless' }, actor)
  */
-export function createStencil(db: Db, input: StencilCreateInput, actor: Actor | null): StencilRecord {
+export function createStencil(
+	db: Db,
+	input: StencilCreateInput,
+	actor: Actor | null
+): StencilRecord {
 	return db.transaction((tx) => {
 		const id = insertStencil(tx, input, actor, null);
 		const created = getStencil(tx, id);
-		recordAudit(tx, actor, { action: 'create', entity: 'stencil', entityId: id, after: snapshot(created) });
+		recordAudit(tx, actor, {
+			action: 'create',
+			entity: 'stencil',
+			entityId: id,
+			after: snapshot(created)
+		});
 		return created;
 	});
 }

@@ -1,11 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import {
-	MAX_CSV_BYTES,
-	MAX_GERBER_BYTES,
-	detectUploadFormat,
-	parseApertureUpload
-} from './upload';
+import { MAX_CSV_BYTES, MAX_GERBER_BYTES, detectUploadFormat, parseApertureUpload } from './upload';
 
 const fixture = (name: string) => readFileSync(`tests/fixtures/stencil/${name}`, 'utf8');
 const upload = (fileName: string, text: string, extra: object = {}) =>
@@ -56,7 +51,11 @@ describe('parseApertureUpload', () => {
 		expect(plain.unit).toBe('mm');
 		expect(plain.apertures).toHaveLength(7);
 		// Standard template C,0.25 → circle of 250 µm at (10, 10) mm.
-		expect(plain.apertures.find((a) => a.shape === 'circle')).toMatchObject({ diameterUm: 250, xUm: 10000, yUm: 10000 });
+		expect(plain.apertures.find((a) => a.shape === 'circle')).toMatchObject({
+			diameterUm: 250,
+			xUm: 10000,
+			yUm: 10000
+		});
 		const named = upload('paste-top.gbr', fixture('paste-top.gbr'), {
 			centroids: { fileName: 'centroids.csv', text: fixture('centroids.csv'), byteLength: 60 },
 			centroidUnit: 'mm',
@@ -64,21 +63,35 @@ describe('parseApertureUpload', () => {
 		});
 		expect(named.ok).toBe(true);
 		if (!named.ok) return;
-		expect(new Set(named.apertures.map((a) => a.refdes))).toEqual(new Set(['U7', 'U1', 'C3', 'J2']));
+		expect(new Set(named.apertures.map((a) => a.refdes))).toEqual(
+			new Set(['U7', 'U1', 'C3', 'J2'])
+		);
 		expect(named.warnings).toEqual([]);
 	});
 
 	it('reports a broken Gerber with its line and refuses oversized files (413)', () => {
-		const broken = upload('x.gbr', '%FSLAX26Y26*%\n%MOMM*%\n%ADD10C,0.25*%\nD10*\nX1000Y1000D03*\nD99*\nX2000Y1000D03*\nM02*\n');
+		const broken = upload(
+			'x.gbr',
+			'%FSLAX26Y26*%\n%MOMM*%\n%ADD10C,0.25*%\nD10*\nX1000Y1000D03*\nD99*\nX2000Y1000D03*\nM02*\n'
+		);
 		expect(broken.ok).toBe(false);
 		if (broken.ok) return;
 		expect(broken.status).toBe(422);
 		expect(broken.errors[0].line).toBeGreaterThan(0);
 		expect(broken.errors[0].message).toMatch(/^line \d+/);
-		const big = parseApertureUpload({ fileName: 'x.gbr', text: '%FSLAX26Y26*%', byteLength: MAX_GERBER_BYTES + 1 });
+		const big = parseApertureUpload({
+			fileName: 'x.gbr',
+			text: '%FSLAX26Y26*%',
+			byteLength: MAX_GERBER_BYTES + 1
+		});
 		expect(big).toMatchObject({ ok: false, status: 413 });
 		if (!big.ok) expect(big.error).toContain('at most 5 MB');
-		const bigCsv = parseApertureUpload({ fileName: 'x.csv', text: 'a', byteLength: MAX_CSV_BYTES + 1, unit: 'mm' });
+		const bigCsv = parseApertureUpload({
+			fileName: 'x.csv',
+			text: 'a',
+			byteLength: MAX_CSV_BYTES + 1,
+			unit: 'mm'
+		});
 		expect(bigCsv).toMatchObject({ ok: false, status: 413 });
 	});
 

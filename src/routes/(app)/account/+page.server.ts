@@ -25,14 +25,24 @@ export const actions = {
 			confirmPassword: String(data.get('confirmPassword') ?? '')
 		});
 		if (!parsed.success) {
-			const fields = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message]));
+			const fields = Object.fromEntries(
+				parsed.error.issues.map((i) => [String(i.path[0]), i.message])
+			);
 			return fail(400, { passwordFields: fields as Record<string, string> });
 		}
 		try {
-			await changePassword(getDb(), actor.id, parsed.data.currentPassword, parsed.data.newPassword, actor);
+			await changePassword(
+				getDb(),
+				actor.id,
+				parsed.data.currentPassword,
+				parsed.data.newPassword,
+				actor
+			);
 		} catch (err) {
 			if (err instanceof WrongPasswordError) {
-				return fail(400, { passwordFields: { currentPassword: err.message } as Record<string, string> });
+				return fail(400, {
+					passwordFields: { currentPassword: err.message } as Record<string, string>
+				});
 			}
 			throw err;
 		}
@@ -43,7 +53,12 @@ export const actions = {
 		if (actor.kind !== 'user') return fail(403, { passwordError: 'Only people sign in.' });
 		getDb().transaction((tx) => {
 			const n = endUserSessions(tx, actor.id);
-			recordAudit(tx, actor, { action: 'sign-out-everywhere', entity: 'user', entityId: actor.id, after: { sessionsEnded: n } });
+			recordAudit(tx, actor, {
+				action: 'sign-out-everywhere',
+				entity: 'user',
+				entityId: actor.id,
+				after: { sessionsEnded: n }
+			});
 		});
 		redirect(303, '/signin?changed=sessions');
 	}

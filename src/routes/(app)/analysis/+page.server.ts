@@ -82,7 +82,11 @@ export const actions: Actions = {
 		const technology = filters.technology as StencilTechnology;
 		const minAreaRatio = Math.ceil(te.learnedMinAreaRatio * 100 - 1e-9) / 100;
 		const current = siteThresholds(db);
-		saveSiteThresholds(db, { ...current, [technology]: { ...current[technology], minAreaRatio } }, actor);
+		saveSiteThresholds(
+			db,
+			{ ...current, [technology]: { ...current[technology], minAreaRatio } },
+			actor
+		);
 		return { adopted: { technology, minAreaRatio, learned: te.learnedMinAreaRatio } };
 	}
 };

@@ -42,7 +42,8 @@ export const actions = {
 			setCapabilityThresholds(getDb(), input, actor);
 			setMinBaselineSubgroups(getDb(), decimal(form.get('minBaseline')), actor);
 		} catch (err) {
-			if (err instanceof ThresholdsError) return fail(422, { action: 'thresholds', field: err.field, error: err.message });
+			if (err instanceof ThresholdsError)
+				return fail(422, { action: 'thresholds', field: err.field, error: err.message });
 			throw err;
 		}
 		return { action: 'thresholds', ok: 'Thresholds saved: every chart is judged with them now.' };

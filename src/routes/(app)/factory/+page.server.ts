@@ -3,7 +3,13 @@ import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { ENGINEERING, hasRole } from '$lib/access';
 import { getDb } from '$lib/server/db';
-import { createLine, createProduct, DuplicateCodeError, listLines, listProducts } from '$lib/server/factory';
+import {
+	createLine,
+	createProduct,
+	DuplicateCodeError,
+	listLines,
+	listProducts
+} from '$lib/server/factory';
 import { requireActor } from '$lib/server/guards';
 import { lineInputSchema, productInputSchema } from '$lib/schemas/factory';
 import type { Actions, PageServerLoad } from './$types';

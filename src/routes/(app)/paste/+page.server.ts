@@ -12,7 +12,10 @@ import type { Actions, PageServerLoad } from './$types';
 export const load: PageServerLoad = async ({ locals }) => {
 	const actor = requireActor(locals);
 	return {
-		lots: listPasteLots(getDb()).map(({ events, ...lot }) => ({ ...lot, eventCount: events.length })),
+		lots: listPasteLots(getDb()).map(({ events, ...lot }) => ({
+			...lot,
+			eventCount: events.length
+		})),
 		defaults: DEFAULT_PASTE_HANDLING,
 		canWrite: hasRole(actor, PRINT_LOGGERS),
 		form: await superValidate(zod4(pasteLotSchema), { errors: false })

@@ -14,9 +14,16 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const db = getDb();
 	const filters = signalQuery(url);
 	const signals = listSignals(db, filters);
-	const counts = patternScopeCounts(db, signals.filter((s) => s.status === 'open').map((s) => s.id));
+	const counts = patternScopeCounts(
+		db,
+		signals.filter((s) => s.status === 'open').map((s) => s.id)
+	);
 	return {
-		filters: { status: filters.status ?? 'all', chart: filters.characteristicId ?? null, rule: filters.rule ?? '' },
+		filters: {
+			status: filters.status ?? 'all',
+			chart: filters.characteristicId ?? null,
+			rule: filters.rule ?? ''
+		},
 		signals: signals.map(signalJson),
 		/** Open signals a "whole pattern" acknowledgement of each signal would close. */
 		patternCounts: Object.fromEntries(counts),
@@ -41,14 +48,35 @@ export const actions = {
 			expectedCount: wholeRun && Number.isInteger(count) && count > 0 ? count : undefined
 		};
 		// Nothing is chosen for the person: an empty cause or action is named, not defaulted.
-		if (!input.cause) return fail(422, { action: 'acknowledge', id, field: 'cause', error: 'Choose the assignable cause.' });
-		if (!input.action) return fail(422, { action: 'acknowledge', id, field: 'action', error: 'Choose the corrective action taken.' });
+		if (!input.cause)
+			return fail(422, {
+				action: 'acknowledge',
+				id,
+				field: 'cause',
+				error: 'Choose the assignable cause.'
+			});
+		if (!input.action)
+			return fail(422, {
+				action: 'acknowledge',
+				id,
+				field: 'action',
+				error: 'Choose the corrective action taken.'
+			});
 		try {
 			const done = acknowledgeSignal(getDb(), id, input, actor);
-			return { action: 'acknowledge', id, ok: `Acknowledged ${done.length} signal${done.length === 1 ? '' : 's'}.` };
+			return {
+				action: 'acknowledge',
+				id,
+				ok: `Acknowledged ${done.length} signal${done.length === 1 ? '' : 's'}.`
+			};
 		} catch (err) {
 			if (err instanceof AcknowledgeError) {
-				return fail(err.status, { action: 'acknowledge', id, field: err.field ?? 'cause', error: err.message });
+				return fail(err.status, {
+					action: 'acknowledge',
+					id,
+					field: err.field ?? 'cause',
+					error: err.message
+				});
 			}
 			throw err;
 		}

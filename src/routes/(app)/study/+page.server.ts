@@ -17,7 +17,13 @@ export const actions = {
 		const parsed = parseStudyForm(await request.formData());
 		if (!parsed.ok) return fail(422, { values: parsed.values, errors: parsed.errors });
 		const outcome = studyView(parsed.request, parsed.values.unit, getCapabilityThresholds(getDb()));
-		if (!outcome.ok) return fail(422, { values: parsed.values, errors: outcome.errors.map(parsed.where) });
-		return { values: parsed.values, errors: [], chart: outcome.chart, capability: outcome.capability };
+		if (!outcome.ok)
+			return fail(422, { values: parsed.values, errors: outcome.errors.map(parsed.where) });
+		return {
+			values: parsed.values,
+			errors: [],
+			chart: outcome.chart,
+			capability: outcome.capability
+		};
 	}
 } satisfies Actions;

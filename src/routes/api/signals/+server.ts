@@ -5,4 +5,6 @@ import { signalJson, signalQuery } from '$lib/server/spc/api-shapes';
 import { listSignals } from '$lib/server/spc/signals';
 
 /** Stored signals, newest first (`?status=open|acknowledged`, `chart`, `rule`, `limit`). */
-export const GET = apiRoute(({ url }) => json({ signals: listSignals(getDb(), signalQuery(url)).map(signalJson) }));
+export const GET = apiRoute(({ url }) =>
+	json({ signals: listSignals(getDb(), signalQuery(url)).map(signalJson) })
+);

@@ -26,9 +26,14 @@ export const load: PageServerLoad = ({ url }) => {
 export const actions = {
 	request: async ({ request }) => {
 		const data = await request.formData();
-		const parsed = resetRequestSchema.safeParse({ email: String(data.get('email') ?? '').slice(0, 300) });
+		const parsed = resetRequestSchema.safeParse({
+			email: String(data.get('email') ?? '').slice(0, 300)
+		});
 		if (!parsed.success) {
-			return fail(400, { requestError: parsed.error.issues[0].message, sent: null as string | null });
+			return fail(400, {
+				requestError: parsed.error.issues[0].message,
+				sent: null as string | null
+			});
 		}
 		const origin = appOrigin();
 		const ip = clientAddress();
@@ -48,14 +53,19 @@ export const actions = {
 			confirmPassword: String(data.get('confirmPassword') ?? '')
 		});
 		if (!parsed.success) {
-			const fields = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message]));
+			const fields = Object.fromEntries(
+				parsed.error.issues.map((i) => [String(i.path[0]), i.message])
+			);
 			return fail(400, { setFields: fields as Record<string, string>, done: false });
 		}
 		try {
 			await resetPassword(getDb(), parsed.data.token, parsed.data.newPassword);
 		} catch (err) {
 			if (err instanceof ResetLinkError) {
-				return fail(410, { setFields: { token: err.message } as Record<string, string>, done: false });
+				return fail(410, {
+					setFields: { token: err.message } as Record<string, string>,
+					done: false
+				});
 			}
 			throw err;
 		}

@@ -100,7 +100,10 @@ export const cfxUnits = sqliteTable(
 		/** Print parameters keyed like the recipe (squeegeePressureKg, …). */
 		parameters: text('parameters', { mode: 'json' }).$type<Record<string, unknown>>(),
 		/** Deviations from the recipe window found when the parameters arrived. */
-		deviations: text('deviations', { mode: 'json' }).$type<unknown[]>().notNull().default(sql`'[]'`),
+		deviations: text('deviations', { mode: 'json' })
+			.$type<unknown[]>()
+			.notNull()
+			.default(sql`'[]'`),
 		cycleTimeMs: integer('cycle_time_ms'),
 		createdAt: createdAt()
 	},

@@ -29,7 +29,9 @@ export const printRecipes = sqliteTable(
 		createdAt: createdAt(),
 		createdByUserId: integer('created_by_user_id').references(() => users.id)
 	},
-	(t) => [uniqueIndex('print_recipes_line_product_version_idx').on(t.lineId, t.productId, t.version)]
+	(t) => [
+		uniqueIndex('print_recipes_line_product_version_idx').on(t.lineId, t.productId, t.version)
+	]
 );
 
 /** Solder paste lots with the handling limits of their paste (minutes, from the data sheet). */
@@ -130,13 +132,19 @@ export const printRuns = sqliteTable(
 		/** Serial of the first board printed in the run, as scanned (optional). */
 		boardSerial: text('board_serial'),
 		/** Deviations found when the run was saved (or last corrected), as the pure check returns them. */
-		deviations: text('deviations', { mode: 'json' }).$type<unknown[]>().notNull().default(sql`'[]'`),
+		deviations: text('deviations', { mode: 'json' })
+			.$type<unknown[]>()
+			.notNull()
+			.default(sql`'[]'`),
 		deviationReasons: text('deviation_reasons', { mode: 'json' })
 			.$type<Record<string, string>>()
 			.notNull()
 			.default(sql`'{}'`),
 		/** Warnings shown when the run was logged (paste lot, stencil life), kept with the run. */
-		warnings: text('warnings', { mode: 'json' }).$type<string[]>().notNull().default(sql`'[]'`),
+		warnings: text('warnings', { mode: 'json' })
+			.$type<string[]>()
+			.notNull()
+			.default(sql`'[]'`),
 		/** An engineer's reason for using a quarantined or life-expired stencil. */
 		overrideReason: text('override_reason'),
 		overrideByUserId: integer('override_by_user_id').references(() => users.id),

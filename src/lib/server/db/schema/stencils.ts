@@ -35,9 +35,7 @@ export const stencils = sqliteTable(
 			.default(sql`(unixepoch('subsec') * 1000)`),
 		createdByUserId: integer('created_by_user_id').references(() => users.id),
 		/** The revision this one was started from (its apertures were copied), if any. */
-		basedOnStencilId: integer('based_on_stencil_id').references(
-			(): AnySQLiteColumn => stencils.id
-		)
+		basedOnStencilId: integer('based_on_stencil_id').references((): AnySQLiteColumn => stencils.id)
 	},
 	(t) => [uniqueIndex('stencils_name_revision_idx').on(t.name, t.revision)]
 );

@@ -37,8 +37,12 @@ export const load: PageServerLoad = async ({ locals }) => {
 				return [];
 			}
 		})(),
-		lines: db.$client.prepare(`select code, name from lines where active = 1 order by code`).all() as { code: string; name: string }[],
-		products: db.$client.prepare(`select code, name from products where active = 1 order by code`).all() as { code: string; name: string }[]
+		lines: db.$client
+			.prepare(`select code, name from lines where active = 1 order by code`)
+			.all() as { code: string; name: string }[],
+		products: db.$client
+			.prepare(`select code, name from products where active = 1 order by code`)
+			.all() as { code: string; name: string }[]
 	};
 };
 
@@ -48,7 +52,8 @@ function idFrom(data: FormData): number | null {
 }
 
 function refused(err: unknown, key: string) {
-	if (err instanceof CfxInputError) return fail(err.status, { [key]: `${err.field}: ${err.message}` });
+	if (err instanceof CfxInputError)
+		return fail(err.status, { [key]: `${err.field}: ${err.message}` });
 	throw err;
 }
 
@@ -63,12 +68,16 @@ export const actions = {
 		});
 		if (!parsed.success) {
 			return fail(400, {
-				endpointError: parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')
+				endpointError: parsed.error.issues
+					.map((i) => `${i.path.join('.')}: ${i.message}`)
+					.join('; ')
 			});
 		}
 		try {
 			const { endpoint, created } = saveEndpoint(getDb(), parsed.data, actor);
-			return { endpointSaved: `${endpoint.handle} → ${endpoint.line} (${endpoint.kind})${created ? '' : ', changed'}` };
+			return {
+				endpointSaved: `${endpoint.handle} → ${endpoint.line} (${endpoint.kind})${created ? '' : ', changed'}`
+			};
 		} catch (err) {
 			return refused(err, 'endpointError');
 		}
@@ -105,10 +114,13 @@ export const actions = {
 		const data = await request.formData();
 		const id = idFrom(data);
 		const parsed = cfxAssignSchema.safeParse({ product: data.get('product') ?? '' });
-		if (id === null || !parsed.success) return fail(400, { pendingError: 'Choose a product for the unit.' });
+		if (id === null || !parsed.success)
+			return fail(400, { pendingError: 'Choose a product for the unit.' });
 		try {
 			const out = await assignPendingInspection(getDb(), id, parsed.data.product, actor);
-			return { pendingDone: `Unit #${id} assigned to ${parsed.data.product}: SPI import #${out.importId} (${out.status}).` };
+			return {
+				pendingDone: `Unit #${id} assigned to ${parsed.data.product}: SPI import #${out.importId} (${out.status}).`
+			};
 		} catch (err) {
 			return refused(err, 'pendingError');
 		}

@@ -102,9 +102,16 @@ export const actions = {
 		if (!id || !user) return fail(404, { rowError: 'No such user.' });
 		const ended = db.transaction((tx) => {
 			const n = endUserSessions(tx, id);
-			recordAudit(tx, actor, { action: 'sign-out-everywhere', entity: 'user', entityId: id, after: { sessionsEnded: n } });
+			recordAudit(tx, actor, {
+				action: 'sign-out-everywhere',
+				entity: 'user',
+				entityId: id,
+				after: { sessionsEnded: n }
+			});
 			return n;
 		});
-		return { rowMessage: `${user.name} signed out everywhere (${ended} session${ended === 1 ? '' : 's'} ended).` };
+		return {
+			rowMessage: `${user.name} signed out everywhere (${ended} session${ended === 1 ? '' : 's'} ended).`
+		};
 	}
 } satisfies Actions;

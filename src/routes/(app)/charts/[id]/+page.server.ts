@@ -4,7 +4,12 @@ import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
 import { chartDetail, NotFoundError } from '$lib/server/spc/chart-service';
 import { listFollowers, setFollowing } from '$lib/server/spc/characteristics';
-import { excludePoint, freezeLimits, includePoint, LimitsError } from '$lib/server/spc/limits-lifecycle';
+import {
+	excludePoint,
+	freezeLimits,
+	includePoint,
+	LimitsError
+} from '$lib/server/spc/limits-lifecycle';
 import { listSignals } from '$lib/server/spc/signals';
 import { getMinBaselineSubgroups } from '$lib/server/spc/capability-settings';
 import type { Actions, PageServerLoad } from './$types';
@@ -62,9 +67,16 @@ export const actions = {
 		const actor = requireActor(locals, SPC_EDITORS);
 		const form = await request.formData();
 		try {
-			excludePoint(getDb(), chartId(params.id), String(form.get('pointKey') ?? ''), String(form.get('reason') ?? ''), actor);
+			excludePoint(
+				getDb(),
+				chartId(params.id),
+				String(form.get('pointKey') ?? ''),
+				String(form.get('reason') ?? ''),
+				actor
+			);
 		} catch (err) {
-			if (err instanceof LimitsError) return fail(422, { action: 'exclude', field: err.field, error: err.message });
+			if (err instanceof LimitsError)
+				return fail(422, { action: 'exclude', field: err.field, error: err.message });
 			throw err;
 		}
 		return { action: 'exclude', ok: 'Point excluded from the baseline.' };
@@ -81,26 +93,43 @@ export const actions = {
 		const from = dateParam(form.get('from'));
 		const to = dateParam(form.get('to'));
 		if (from === 'invalid' || to === 'invalid') {
-			return fail(422, { action: 'freeze', field: from === 'invalid' ? 'from' : 'to', error: 'Not a valid date and time.' });
+			return fail(422, {
+				action: 'freeze',
+				field: from === 'invalid' ? 'from' : 'to',
+				error: 'Not a valid date and time.'
+			});
 		}
 		try {
 			const v = freezeLimits(
 				getDb(),
 				chartId(params.id),
-				{ baselineFrom: from, baselineTo: to, note: String(form.get('note') ?? ''), limit: pointCount(String(form.get('n') ?? '')) },
+				{
+					baselineFrom: from,
+					baselineTo: to,
+					note: String(form.get('note') ?? ''),
+					limit: pointCount(String(form.get('n') ?? ''))
+				},
 				actor
 			);
-			return { action: 'freeze', ok: `Limits version ${v.version} frozen from ${v.baselinePoints} points.` };
+			return {
+				action: 'freeze',
+				ok: `Limits version ${v.version} frozen from ${v.baselinePoints} points.`
+			};
 		} catch (err) {
-			if (err instanceof LimitsError) return fail(422, { action: 'freeze', field: err.field, error: err.message });
+			if (err instanceof LimitsError)
+				return fail(422, { action: 'freeze', field: err.field, error: err.message });
 			throw err;
 		}
 	},
 	follow: async ({ locals, params, request }) => {
 		const actor = requireActor(locals);
-		if (actor.kind !== 'user') return fail(400, { action: 'follow', error: 'Only people can follow charts.' });
+		if (actor.kind !== 'user')
+			return fail(400, { action: 'follow', error: 'Only people can follow charts.' });
 		const follow = (await request.formData()).get('follow') === '1';
 		setFollowing(getDb(), chartId(params.id), actor.id, follow);
-		return { action: 'follow', ok: follow ? 'You will get e-mail about new signals.' : 'You no longer follow this chart.' };
+		return {
+			action: 'follow',
+			ok: follow ? 'You will get e-mail about new signals.' : 'You no longer follow this chart.'
+		};
 	}
 } satisfies Actions;

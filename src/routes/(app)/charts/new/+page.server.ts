@@ -24,7 +24,11 @@ export const actions = {
 		const actor = requireActor(locals, SPC_EDITORS);
 		let id: number;
 		try {
-			id = createCharacteristic(getDb(), characteristicFromForm(await request.formData()), actor).id;
+			id = createCharacteristic(
+				getDb(),
+				characteristicFromForm(await request.formData()),
+				actor
+			).id;
 		} catch (err) {
 			if (err instanceof CharacteristicInputError) return fail(422, { errors: err.problems });
 			throw err;

@@ -21,8 +21,7 @@ export const load: PageServerLoad = ({ locals, params, depends }) => {
 	const db = getDb();
 	const id = lineId(params.id);
 	const line = db.$client.prepare(`select id, code, name from lines where id = ?`).get(id) as
-		| { id: number; code: string; name: string }
-		| undefined;
+		{ id: number; code: string; name: string } | undefined;
 	if (!line) error(404, 'No such line.');
 	const boards = db.$client
 		.prepare(
@@ -69,14 +68,31 @@ export const actions = {
 			note: String(form.get('note') ?? '')
 		};
 		// Chosen by the person, never defaulted: an empty choice is refused here, not guessed.
-		if (!input.cause) return fail(422, { action: 'acknowledge', id, field: 'cause', error: 'Choose the assignable cause.' });
-		if (!input.action) return fail(422, { action: 'acknowledge', id, field: 'action', error: 'Choose the corrective action.' });
+		if (!input.cause)
+			return fail(422, {
+				action: 'acknowledge',
+				id,
+				field: 'cause',
+				error: 'Choose the assignable cause.'
+			});
+		if (!input.action)
+			return fail(422, {
+				action: 'acknowledge',
+				id,
+				field: 'action',
+				error: 'Choose the corrective action.'
+			});
 		try {
 			acknowledgeSignal(getDb(), id, input, actor);
 			return { action: 'acknowledge', id, ok: `Signal ${id} acknowledged.` };
 		} catch (err) {
 			if (err instanceof AcknowledgeError) {
-				return fail(err.status, { action: 'acknowledge', id, field: err.field ?? 'cause', error: err.message });
+				return fail(err.status, {
+					action: 'acknowledge',
+					id,
+					field: err.field ?? 'cause',
+					error: err.message
+				});
 			}
 			throw err;
 		}
@@ -92,9 +108,16 @@ export const actions = {
 		}
 		try {
 			const owner = assignSignal(getDb(), id, userId, actor);
-			return { action: 'assign', id, ok: owner.assignee ? `Signal ${id} is ${owner.assignee.name}'s.` : `Signal ${id} has no owner.` };
+			return {
+				action: 'assign',
+				id,
+				ok: owner.assignee
+					? `Signal ${id} is ${owner.assignee.name}'s.`
+					: `Signal ${id} has no owner.`
+			};
 		} catch (err) {
-			if (err instanceof AssignError) return fail(err.status, { action: 'assign', id, error: err.message });
+			if (err instanceof AssignError)
+				return fail(err.status, { action: 'assign', id, error: err.message });
 			throw err;
 		}
 	}

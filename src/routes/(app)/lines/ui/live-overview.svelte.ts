@@ -30,9 +30,7 @@ export class LiveOverview {
 	#attempt = 0;
 	#stopped = false;
 
-	constructor(
-		private readonly options: { token?: string | null; lineId?: number | null } = {}
-	) {}
+	constructor(private readonly options: { token?: string | null; lineId?: number | null } = {}) {}
 
 	#url(path: string, extra: Record<string, string> = {}): string {
 		const params = new URLSearchParams(extra);
@@ -54,7 +52,9 @@ export class LiveOverview {
 
 	async #fetchOverview(): Promise<void> {
 		try {
-			const response = await fetch(this.#url('/api/lines/overview'), { headers: { accept: 'application/json' } });
+			const response = await fetch(this.#url('/api/lines/overview'), {
+				headers: { accept: 'application/json' }
+			});
 			if (!response.ok) {
 				this.error = `The overview could not be loaded (${response.status}).`;
 				return;
@@ -76,7 +76,10 @@ export class LiveOverview {
 		if (this.#stopped) return;
 		this.#source?.close();
 		// A new EventSource cannot send Last-Event-ID itself: the stream also takes it in the query.
-		const url = this.#url('/api/lines/stream', this.#lastEventId ? { lastEventId: this.#lastEventId } : {});
+		const url = this.#url(
+			'/api/lines/stream',
+			this.#lastEventId ? { lastEventId: this.#lastEventId } : {}
+		);
 		const source = new EventSource(url);
 		this.#source = source;
 		const seen = (e: MessageEvent) => {

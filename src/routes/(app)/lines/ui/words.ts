@@ -31,7 +31,8 @@ export function capabilityWord(level: string): string {
 
 /** A colour class for a capability word (the word is shown too). */
 export function capabilityClass(level: string, openSignals: number): string {
-	if (openSignals > 0 || level === 'not-capable' || level === 'not-stable') return 'text-fault-700 dark:text-fault-300';
+	if (openSignals > 0 || level === 'not-capable' || level === 'not-stable')
+		return 'text-fault-700 dark:text-fault-300';
 	if (level === 'marginal') return 'text-flux-700 dark:text-flux-300';
 	if (level === 'capable' || level === 'highly-capable') return 'text-bead-700 dark:text-bead-300';
 	return 'text-tin-600 dark:text-tin-300';
@@ -50,11 +51,14 @@ export function clock(iso: string | null): string {
 	const d = new Date(iso);
 	const today = new Date().toDateString() === d.toDateString();
 	const time = d.toLocaleTimeString('en-GB', { hour: '2-digit', minute: '2-digit' });
-	return today ? time : `${d.toLocaleDateString('en-GB', { day: 'numeric', month: 'short' })} ${time}`;
+	return today
+		? time
+		: `${d.toLocaleDateString('en-GB', { day: 'numeric', month: 'short' })} ${time}`;
 }
 
 /** Percent with no decimals, or a dash. */
-export const pct = (v: number | null | undefined) => (v === null || v === undefined ? '–' : `${Math.round(v)} %`);
+export const pct = (v: number | null | undefined) =>
+	v === null || v === undefined ? '–' : `${Math.round(v)} %`;
 
 /** A number with `d` decimals, or a dash. */
 export const num = (v: number | null | undefined, d = 1) =>

@@ -4,7 +4,12 @@ import { leadHandlingCaution, PASTE_EVENTS } from '$lib/printlog';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
 import { askConfirmation } from '$lib/server/confirm';
-import { addPasteEvent, getPasteLot, PrintlogRequestError, updatePasteHandling } from '$lib/server/printlog';
+import {
+	addPasteEvent,
+	getPasteLot,
+	PrintlogRequestError,
+	updatePasteHandling
+} from '$lib/server/printlog';
 import { fieldErrorsFromZod, pasteEventSchema } from '$lib/schemas/printlog';
 import type { Actions, PageServerLoad } from './$types';
 

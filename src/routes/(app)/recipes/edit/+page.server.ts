@@ -29,7 +29,11 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 			// Offered at the field's precision (a pressure window derived from N/mm is 4.5887… kg):
 			// min rounded up and max down, so the offer stays inside the common-practice window.
 			const f = 10 ** spec.decimals;
-			const offered = w && { min: Math.ceil(w.min * f - 1e-9) / f, target: Math.round(w.target * f) / f, max: Math.floor(w.max * f + 1e-9) / f };
+			const offered = w && {
+				min: Math.ceil(w.min * f - 1e-9) / f,
+				target: Math.round(w.target * f) / f,
+				max: Math.floor(w.max * f + 1e-9) / f
+			};
 			return offered && k !== 'ambientTempC' && k !== 'relativeHumidityPct' ? [[k, offered]] : [];
 		})
 	);
@@ -44,17 +48,23 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 };
 
 /** Read the flat form (`<key>_min`, `<key>_target`, `<key>_max`, categorical `<key>`). */
-function parametersFrom(data: FormData): { parameters: Record<string, unknown>; errors: Record<string, string> } {
+function parametersFrom(data: FormData): {
+	parameters: Record<string, unknown>;
+	errors: Record<string, string>;
+} {
 	const parameters: Record<string, unknown> = {};
 	const errors: Record<string, string> = {};
 	for (const key of WINDOW_KEYS) {
-		const texts = (['min', 'target', 'max'] as const).map((edge) => String(data.get(`${key}_${edge}`) ?? '').trim());
+		const texts = (['min', 'target', 'max'] as const).map((edge) =>
+			String(data.get(`${key}_${edge}`) ?? '').trim()
+		);
 		if (texts.every((t) => t === '')) continue;
 		const [min, target, max] = texts.map((t) => (t === '' ? Number.NaN : Number(t)));
 		parameters[key] = { min, target, max };
 		texts.forEach((t, i) => {
 			if (t === '' || !Number.isFinite(Number(t))) {
-				errors[`${key}_${['min', 'target', 'max'][i]}`] = 'give a number (or leave all three blank)';
+				errors[`${key}_${['min', 'target', 'max'][i]}`] =
+					'give a number (or leave all three blank)';
 			}
 		});
 	}
@@ -88,13 +98,21 @@ export const actions = {
 		}
 		let version: number;
 		try {
-			version = saveRecipe(getDb(), { ...parsed.data, note: String(data.get('note') ?? '') }, actor).version;
+			version = saveRecipe(
+				getDb(),
+				{ ...parsed.data, note: String(data.get('note') ?? '') },
+				actor
+			).version;
 		} catch (err) {
 			if (!(err instanceof PrintlogRequestError)) throw err;
 			for (const f of err.fields) errors[f.field] = f.message;
 			return fail(err.status, { errors, values });
 		}
-		const query = new URLSearchParams({ line: input.line, product: input.product, saved: String(version) });
+		const query = new URLSearchParams({
+			line: input.line,
+			product: input.product,
+			saved: String(version)
+		});
 		redirect(303, `/recipes/history?${query}`);
 	}
 } satisfies Actions;

@@ -13,7 +13,8 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 		product,
 		versions: versions.map((v, i) => ({
 			...v,
-			changed: i + 1 < versions.length ? changedParameters(versions[i + 1].parameters, v.parameters) : []
+			changed:
+				i + 1 < versions.length ? changedParameters(versions[i + 1].parameters, v.parameters) : []
 		}))
 	};
 };

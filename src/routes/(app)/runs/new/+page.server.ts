@@ -82,7 +82,12 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 			state: lot.state,
 			events: lot.events.map((e) => ({ event: e.event, at: e.at.getTime() }))
 		})),
-		openRuns: openRuns(db).map((r) => ({ id: r.id, line: r.line, product: r.product, startedAt: r.startedAt })),
+		openRuns: openRuns(db).map((r) => ({
+			id: r.id,
+			line: r.line,
+			product: r.product,
+			startedAt: r.startedAt
+		})),
 		mayOverride: hasRole(actor, ENGINEERING),
 		bladeCodes: [
 			...new Set(listRuns(db, { limit: 300 }).flatMap((r) => (r.bladeCode ? [r.bladeCode] : [])))

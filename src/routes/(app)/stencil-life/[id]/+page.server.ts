@@ -1,6 +1,12 @@
 import { error, fail } from '@sveltejs/kit';
 import { ENGINEERING, hasRole, PRINT_LOGGERS } from '$lib/access';
-import { DEFAULT_TENSION, solventCleaningCaution, STENCIL_STATES, stencilTransitionProblem, type StencilState } from '$lib/printlog';
+import {
+	DEFAULT_TENSION,
+	solventCleaningCaution,
+	STENCIL_STATES,
+	stencilTransitionProblem,
+	type StencilState
+} from '$lib/printlog';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
 import {
@@ -13,7 +19,12 @@ import {
 	recordTension,
 	stencilEventLog
 } from '$lib/server/printlog';
-import { parseReadings, stencilCareSchema, stencilStateSchema, tensionFormSchema } from '$lib/schemas/printlog-forms';
+import {
+	parseReadings,
+	stencilCareSchema,
+	stencilStateSchema,
+	tensionFormSchema
+} from '$lib/schemas/printlog-forms';
 import type { Actions, PageServerLoad } from './$types';
 
 function stencilId(param: string): number {
@@ -31,7 +42,9 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	return {
 		life,
 		assessment: assessStencil(life),
-		nextStates: STENCIL_STATES.filter((s) => !stencilTransitionProblem(life.state as StencilState, s)),
+		nextStates: STENCIL_STATES.filter(
+			(s) => !stencilTransitionProblem(life.state as StencilState, s)
+		),
 		events: stencilEventLog(db, life.id),
 		runs: runs.slice(0, 100),
 		runTotal: runs.length,
@@ -98,6 +111,9 @@ export const actions = {
 		} catch (err) {
 			return failWith('care', err);
 		}
-		return { action: 'care', message: `${parsed.data.kind === 'cleaning' ? 'Cleaning' : 'Inspection'} logged.` };
+		return {
+			action: 'care',
+			message: `${parsed.data.kind === 'cleaning' ? 'Cleaning' : 'Inspection'} logged.`
+		};
 	}
 } satisfies Actions;

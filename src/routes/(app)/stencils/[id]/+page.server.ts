@@ -56,7 +56,13 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 				notes: check.stencil.notes,
 				stepRegions: check.stencil.stepRegions
 					.map((r) =>
-						[r.xMinUm / 1000, r.yMinUm / 1000, r.xMaxUm / 1000, r.yMaxUm / 1000, r.thicknessUm].join(' ')
+						[
+							r.xMinUm / 1000,
+							r.yMinUm / 1000,
+							r.xMaxUm / 1000,
+							r.yMaxUm / 1000,
+							r.thicknessUm
+						].join(' ')
 					)
 					.join('\n')
 			},
@@ -73,7 +79,10 @@ const strictNumber = (raw: string) =>
 
 /** Parse "x y;x y;…" (µm) into vertices; null when a pair is not two numbers. */
 function parseVertices(text: string): PointUm[] | null {
-	const pairs = text.split(';').map((p) => p.trim()).filter(Boolean);
+	const pairs = text
+		.split(';')
+		.map((p) => p.trim())
+		.filter(Boolean);
 	const out: PointUm[] = [];
 	for (const p of pairs) {
 		const xy = p.split(/[\s,]+/).map(strictNumber);
@@ -97,7 +106,12 @@ export const actions = {
 		}
 		let id: number;
 		try {
-			id = createRevision(getDb(), stencilId(params.id), { ...form.data, stepRegions: steps.regions }, actor).id;
+			id = createRevision(
+				getDb(),
+				stencilId(params.id),
+				{ ...form.data, stepRegions: steps.regions },
+				actor
+			).id;
 		} catch (err) {
 			if (!(err instanceof DuplicateStencilError)) throw err;
 			form.errors.revision = [err.message];
@@ -132,7 +146,13 @@ export const actions = {
 			if (d.shape === 'rounded-rectangle') aperture.cornerRadiusUm = d.cornerRadiusUm;
 		}
 		try {
-			importApertures(getDb(), stencilId(params.id), [aperture], { source: 'form', mode: 'append' }, actor);
+			importApertures(
+				getDb(),
+				stencilId(params.id),
+				[aperture],
+				{ source: 'form', mode: 'append' },
+				actor
+			);
 		} catch (err) {
 			if (!(err instanceof ApertureImportError)) throw err;
 			const errors = form.errors as Record<string, string[] | undefined>;
@@ -149,6 +169,8 @@ export const actions = {
 		const apertureId = Number((await request.formData()).get('apertureId'));
 		if (!Number.isSafeInteger(apertureId)) return fail(400, { rowError: 'No aperture named.' });
 		const removed = deleteAperture(getDb(), stencilId(params.id), apertureId, actor);
-		return removed ? { rowMessage: 'Aperture removed.' } : fail(404, { rowError: 'No such aperture.' });
+		return removed
+			? { rowMessage: 'Aperture removed.' }
+			: fail(404, { rowError: 'No such aperture.' });
 	}
 } satisfies Actions;

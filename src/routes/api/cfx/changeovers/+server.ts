@@ -14,14 +14,27 @@ export const GET = apiRoute(({ url }) => {
 	const to = parseInstant(url.searchParams.get('to'), 'to');
 	const fields = [
 		...unknown.map((k) => ({ field: k, message: 'is not a parameter of this route' })),
-		...[from, to].filter((r) => !r.ok).map((r) => ({ field: (r as { field: string }).field, message: (r as { message: string }).message }))
+		...[from, to]
+			.filter((r) => !r.ok)
+			.map((r) => ({
+				field: (r as { field: string }).field,
+				message: (r as { message: string }).message
+			}))
 	];
-	if (fields.length || !from.ok || !to.ok) throw new ApiError(400, { error: 'The query has invalid parameters.', fields });
+	if (fields.length || !from.ok || !to.ok)
+		throw new ApiError(400, { error: 'The query has invalid parameters.', fields });
 	if (to.value <= from.value || to.value - from.value > MAX_SPAN_MS) {
-		throw new ApiError(400, { error: 'The query has invalid parameters.', fields: [{ field: 'to', message: 'must be after from, at most 31 days later' }] });
+		throw new ApiError(400, {
+			error: 'The query has invalid parameters.',
+			fields: [{ field: 'to', message: 'must be after from, at most 31 days later' }]
+		});
 	}
 	try {
-		const found = lineChangeovers(getDb(), { fromMs: from.value, toMs: to.value, line: url.searchParams.get('line') });
+		const found = lineChangeovers(getDb(), {
+			fromMs: from.value,
+			toMs: to.value,
+			line: url.searchParams.get('line')
+		});
 		return json({
 			changeovers: found.map((c) => ({
 				line: c.line,
@@ -29,8 +42,10 @@ export const GET = apiRoute(({ url }) => {
 				at: new Date(c.atMs).toISOString(),
 				from: c.from,
 				to: c.to,
-				lastBoardBefore: c.lastBoardBeforeMs === null ? null : new Date(c.lastBoardBeforeMs).toISOString(),
-				firstBoardAfter: c.firstBoardAfterMs === null ? null : new Date(c.firstBoardAfterMs).toISOString(),
+				lastBoardBefore:
+					c.lastBoardBeforeMs === null ? null : new Date(c.lastBoardBeforeMs).toISOString(),
+				firstBoardAfter:
+					c.firstBoardAfterMs === null ? null : new Date(c.firstBoardAfterMs).toISOString(),
 				durationMs: c.durationMs
 			}))
 		});

@@ -14,9 +14,15 @@ export const GET = apiRoute(({ url }) => {
 	const idle = parseMinutes(url.searchParams.get('idleMinutes'), 'idleMinutes', 5, 1, 240);
 	const fields = [
 		...unknown.map((k) => ({ field: k, message: 'is not a parameter of this route' })),
-		...[day, shifts, idle].filter((r) => !r.ok).map((r) => ({ field: (r as { field: string }).field, message: (r as { message: string }).message }))
+		...[day, shifts, idle]
+			.filter((r) => !r.ok)
+			.map((r) => ({
+				field: (r as { field: string }).field,
+				message: (r as { message: string }).message
+			}))
 	];
-	if (fields.length || !day.ok || !shifts.ok || !idle.ok) throw new ApiError(400, { error: 'The query has invalid parameters.', fields });
+	if (fields.length || !day.ok || !shifts.ok || !idle.ok)
+		throw new ApiError(400, { error: 'The query has invalid parameters.', fields });
 	try {
 		const printers = printerOee(getDb(), {
 			day: day.value,

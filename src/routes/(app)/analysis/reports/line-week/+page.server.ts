@@ -13,7 +13,11 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	try {
 		return { report: lineWeekReport(getDb(), line, week) };
 	} catch (err) {
-		if (err instanceof ApiError) error(err.status, String(err.body.fields ? 'week must be an ISO week such as 2026-W09' : err.body.error));
+		if (err instanceof ApiError)
+			error(
+				err.status,
+				String(err.body.fields ? 'week must be an ISO week such as 2026-W09' : err.body.error)
+			);
 		throw err;
 	}
 };

@@ -14,7 +14,10 @@ export const GET: RequestHandler = ({ locals, params, url }) => {
 	if (!Number.isSafeInteger(id) || !findStencil(db, id)) error(404, 'No such stencil.');
 	const check = checkStoredStencil(db, id);
 	const only = url.searchParams.get('status');
-	const list = only === 'fail' || only === 'pass' ? check.apertures.filter((a) => a.status === only) : check.apertures;
+	const list =
+		only === 'fail' || only === 'pass'
+			? check.apertures.filter((a) => a.status === only)
+			: check.apertures;
 	const s = check.stencil;
 	const csv = aperturesCsv({ stencil: s, thresholds: check.thresholds, apertures: list });
 	return csvResponse(csv, `${s.name}-rev-${s.revision}-apertures.csv`);
