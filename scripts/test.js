@@ -21,6 +21,25 @@ function run(command, args) {
 	return result.status ?? 1;
 }
 
+// Static checks first (a few minutes in all): formatting, lint, types and the import rules. Each
+// counts as one check in the closing line.
+const STATIC_CHECKS = [
+	['formatting (prettier --check)', 'npx', ['prettier', '--check', '--log-level', 'warn', '.']],
+	['lint (eslint)', 'npx', ['eslint', '.']],
+	['types (svelte-check)', 'npm', ['run', '--silent', 'check', '--', '--threshold', 'error']],
+	[
+		'import rules (dependency-cruiser)',
+		'npx',
+		['depcruise', 'src', '--config', '.dependency-cruiser.cjs', '--output-type', 'err']
+	]
+];
+const staticFailures = [];
+for (const [name, command, args] of STATIC_CHECKS) {
+	console.log(`\n— ${name}`);
+	if (run(command, args) !== 0) staticFailures.push(name);
+}
+if (staticFailures.length) console.error(`Static checks failed: ${staticFailures.join(', ')}`);
+
 const unitStatus = run('npx', [
 	'vitest',
 	'run',
@@ -40,12 +59,18 @@ function readJson(path) {
 
 const unit = readJson('.test-results/unit.json');
 const e2e = readJson('.test-results/e2e.json');
-const passed = (unit?.numPassedTests ?? 0) + (e2e?.stats?.expected ?? 0);
+const staticPassed = STATIC_CHECKS.length - staticFailures.length;
+const passed = staticPassed + (unit?.numPassedTests ?? 0) + (e2e?.stats?.expected ?? 0);
 const failed =
-	(unit?.numFailedTests ?? 0) + (e2e?.stats?.unexpected ?? 0) + (e2e?.stats?.flaky ?? 0);
+	staticFailures.length +
+	(unit?.numFailedTests ?? 0) +
+	(e2e?.stats?.unexpected ?? 0) +
+	(e2e?.stats?.flaky ?? 0);
 const skipped = (unit?.numPendingTests ?? 0) + (e2e?.stats?.skipped ?? 0);
 const missing = [!unit && 'unit', !e2e && 'e2e'].filter(Boolean);
 if (missing.length) console.error(`No results from the ${missing.join(' and ')} run(s).`);
 
 console.log(`\n${passed} passed, ${failed} failed, ${skipped} skipped`);
-process.exit(unitStatus !== 0 || e2eStatus !== 0 || missing.length || failed ? 1 : 0);
+process.exit(
+	staticFailures.length || unitStatus !== 0 || e2eStatus !== 0 || missing.length || failed ? 1 : 0
+);
