@@ -155,7 +155,6 @@ export function text(value: unknown): string | null {
 	const s = String(value).trim();
 	if (s === '' || s.length > MAX_TEXT) return null;
 	// Control characters never belong in a handle, serial or designator.
-	// eslint-disable-next-line no-control-regex
 	if (/[\u0000-\u001f\u007f]/.test(s)) return null;
 	return s;
 }

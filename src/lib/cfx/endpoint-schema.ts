@@ -7,7 +7,6 @@ export const cfxEndpointSchema = z.object({
 		.trim()
 		.min(1, 'give the CFX handle the machine sends as Source')
 		.max(200, 'at most 200 characters')
-		// eslint-disable-next-line no-control-regex
 		.refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'control characters are not allowed'),
 	line: z.string().trim().min(1, 'give the line code').max(100, 'at most 100 characters'),
 	kind: z.enum(['printer', 'inspection'], { message: 'kind must be "printer" or "inspection"' })

@@ -13,7 +13,6 @@ export const MAX_BOARD_SERIAL_LENGTH = 100;
 
 const AIM_PREFIX = /^\][A-Za-z][0-9A-Za-z]/;
 // Scanners may send CR, LF, Tab or a GS (group separator, U+001D) around or inside the data.
-// eslint-disable-next-line no-control-regex
 const EDGE_CONTROLS = /^[\u0000-\u001f\u007f\s]+|[\u0000-\u001f\u007f\s]+$/g;
 /** Printable ASCII: space (U+0020) to tilde (U+007E). */
 const PRINTABLE_ASCII = /^[\u0020-\u007e]$/;

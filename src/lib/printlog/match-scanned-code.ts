@@ -12,7 +12,6 @@ export interface CodeCandidate {
 }
 
 const AIM_PREFIX = /^\][A-Za-z][0-9A-Za-z]/;
-// eslint-disable-next-line no-control-regex
 const CONTROL_CHARS = /[\u0000-\u001f\u007f]/g;
 
 /**

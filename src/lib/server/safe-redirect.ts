@@ -10,7 +10,6 @@
 export function sameOriginPath(target: unknown, origin: string, fallback = '/'): string {
 	if (typeof target !== 'string' || target.length === 0 || target.length > 2048) return fallback;
 	if (target[0] !== '/' || target[1] === '/' || target[1] === '\\') return fallback;
-	// eslint-disable-next-line no-control-regex
 	if (/[\u0000-\u001f\u007f\\]/.test(target)) return fallback;
 	let url: URL;
 	try {

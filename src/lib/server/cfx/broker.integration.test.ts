@@ -63,9 +63,7 @@ if (!reachable) {
 const ref = (name: string) => JSON.parse(readFileSync(`reference/cfx/${name}`, 'utf8'));
 
 /** A publisher on its own connection, sending data sections (as the CFX SDK does). */
-async function openPublisher(
-	address = QUEUE
-): Promise<{
+async function openPublisher(address = QUEUE): Promise<{
 	send: (m: { id: string; body: Buffer; gzip?: boolean }) => Promise<void>;
 	close: () => void;
 }> {

@@ -73,7 +73,6 @@ export function cfxConfigFromEnv(
 	if (addresses.length > MAX_ADDRESSES)
 		throw new Error(`CFX_ADDRESSES lists more than ${MAX_ADDRESSES} addresses`);
 	for (const a of addresses) {
-		// eslint-disable-next-line no-control-regex
 		if (a.length > 200 || /[\u0000-\u001f\s]/.test(a))
 			throw new Error(`CFX_ADDRESSES: "${a.slice(0, 40)}" is not an address`);
 	}
