@@ -1,7 +1,8 @@
 import { expect, test } from '@playwright/test';
 import { request as httpRequest } from 'node:http';
 import { readFileSync } from 'node:fs';
-import { bearer, signInAs, tokenFor } from './helpers';
+import Database from 'better-sqlite3';
+import { bearer, E2E_DATABASE, signInAs, tokenFor } from './helpers';
 
 const HEADER =
 	'board_serial,inspected_at,line,product,panel_index,refdes,pad,volume_pct,area_pct,height_um,offset_x_um,offset_y_um,result';
@@ -207,11 +208,20 @@ test.describe('SPI pages', () => {
 
 	test('board search and a demo board with its aperture map and pads', async ({ page }) => {
 		await signInAs(page, 'viewer');
+		// The demo's first inspected PB-100 board (its serial is the one its print run logged).
+		const db = new Database(E2E_DATABASE, { readonly: true });
+		const serial = db
+			.prepare(
+				`select serial from spi_boards where serial like 'FW-PB100-%' order by serial limit 1`
+			)
+			.pluck()
+			.get() as string;
+		db.close();
 		await page.goto('/boards');
-		await page.getByLabel('Board serial').fill('FW-PB100-0100001');
+		await page.getByLabel('Board serial').fill(serial);
 		await page.getByRole('button', { name: 'Search' }).click();
-		await page.getByTestId('board-list').getByRole('link', { name: 'FW-PB100-0100001' }).click();
-		await expect(page.getByRole('heading', { name: 'FW-PB100-0100001' })).toBeVisible();
+		await page.getByTestId('board-list').getByRole('link', { name: serial }).click();
+		await expect(page.getByRole('heading', { name: serial })).toBeVisible();
 		await expect(page.getByTestId('volume-map')).toBeVisible();
 		await expect(page.getByTestId('pad-table').locator('tbody tr').first()).toBeVisible();
 		await page.goto('/spi');
