@@ -300,9 +300,15 @@ test.describe('SPI mapping profiles', () => {
 		await page
 			.getByLabel('Mapping profile')
 			.selectOption({ label: `${name} · E2E inspector (invented layout)` });
-		await page
-			.locator('#files')
-			.setInputFiles({ name: `x1-${tag}.csv`, mimeType: 'text/csv', buffer: Buffer.from(file) });
+		// A file chosen before the page has hydrated is not seen by it: choose again until it is.
+		await expect(async () => {
+			await page
+				.locator('#files')
+				.setInputFiles({ name: `x1-${tag}.csv`, mimeType: 'text/csv', buffer: Buffer.from(file) });
+			await expect(page.getByRole('button', { name: /Import 1 file/ })).toBeVisible({
+				timeout: 2_000
+			});
+		}).toPass({ timeout: 30_000 });
 		await page.getByRole('button', { name: /Import 1 file/ }).click();
 		await expect(page.getByTestId('upload-summary')).toContainText(
 			'Imported: 2 boards, 3 pads, 0 rejected rows'
