@@ -66,9 +66,9 @@ export const NAV_GROUPS: readonly NavGroup[] = [
 		label: 'Print log',
 		purpose: 'Log print runs against recipe windows; paste lots and their handling times.',
 		sections: [
-			{ href: '/runs', label: 'Print runs', roles: ALL_ROLES, icon: 'clipboard-list' },
+			{ href: '/print-runs', label: 'Print runs', roles: ALL_ROLES, icon: 'clipboard-list' },
 			{ href: '/recipes', label: 'Recipes', roles: ALL_ROLES, icon: 'sliders-horizontal' },
-			{ href: '/paste', label: 'Paste lots', roles: ALL_ROLES, icon: 'package' }
+			{ href: '/paste-lots', label: 'Paste lots', roles: ALL_ROLES, icon: 'package' }
 		]
 	},
 	{
@@ -147,7 +147,7 @@ export function navigationFor(role: Role): NavGroup[] {
 export const PAGE_POLICY: readonly { prefix: string; roles: readonly Role[] }[] = [
 	{ prefix: '/admin', roles: ADMIN_ONLY },
 	{ prefix: '/audit', roles: AUDIT_READERS },
-	{ prefix: '/runs/new', roles: PRINT_LOGGERS },
+	{ prefix: '/print-runs/new', roles: PRINT_LOGGERS },
 	{ prefix: '/recipes/edit', roles: ENGINEERING },
 	{ prefix: '/spi/upload', roles: INSPECTION_IMPORTERS },
 	{ prefix: '/spi/profiles', roles: INSPECTION_IMPORTERS }

@@ -76,7 +76,7 @@ test.describe('confirmations before destructive actions', () => {
 		expect(created.status()).toBe(201);
 		const { id } = await created.json();
 		await signInAs(page, 'technician');
-		await page.goto(`/paste/${id}`);
+		await page.goto(`/paste-lots/${id}`);
 
 		await page.getByLabel('Event').selectOption('out-of-cold-storage');
 		await page.getByRole('button', { name: 'Log event' }).click();
@@ -121,7 +121,7 @@ test.describe('confirmations before destructive actions', () => {
 		const context = await browser.newContext({ javaScriptEnabled: false });
 		const page = await context.newPage();
 		await signInAs(page, 'technician');
-		await page.goto(`/paste/${id}`);
+		await page.goto(`/paste-lots/${id}`);
 		await page.getByLabel('Event').selectOption('discarded');
 		await page.getByRole('button', { name: 'Log event' }).click();
 		const step = page.getByRole('alertdialog', { name: `Discard paste lot ${lot}?` });

@@ -4,7 +4,7 @@ import { signInAs } from './helpers';
 // Issue 13, finding 3: an expired lot never gets a green tick; odd dates at receipt are confirmed.
 test('the run form marks the expired demo lot as refused, not with a tick', async ({ page }) => {
 	await signInAs(page, 'technician');
-	await page.goto('/runs/new?line=SMT-3&product=LM-48');
+	await page.goto('/print-runs/new?line=SMT-3&product=LM-48');
 	await page.locator('#field-pasteLot').fill('PL-2025-0977');
 	await page.locator('#field-pasteLot').press('Enter');
 	const status = page.locator('#field-pasteLot-status');
@@ -18,12 +18,12 @@ test('the run form marks the expired demo lot as refused, not with a tick', asyn
 	await page.locator('#field-stencil').press('Enter');
 	await page.getByRole('button', { name: 'Start run' }).click();
 	await expect(page.locator('#field-pasteLot-error')).toContainText('expired');
-	await expect(page).toHaveURL(/\/runs\/new/);
+	await expect(page).toHaveURL(/\/print-runs\/new/);
 });
 
 test('an engineer sees the override field for an expired lot', async ({ page }) => {
 	await signInAs(page, 'engineer');
-	await page.goto('/runs/new?line=SMT-3&product=LM-48');
+	await page.goto('/print-runs/new?line=SMT-3&product=LM-48');
 	await page.locator('#field-pasteLot').fill('PL-2025-0977');
 	await page.locator('#field-pasteLot').press('Enter');
 	await expect(page.getByLabel('Engineer override: why use this paste lot anyway?')).toBeVisible();
@@ -33,7 +33,7 @@ test('registering a lot with an expiry in 2020 warns and asks for confirmation',
 	page
 }) => {
 	await signInAs(page, 'technician');
-	await page.goto('/paste');
+	await page.goto('/paste-lots');
 	// The button works once the page has hydrated: click until the form shows.
 	await expect(async () => {
 		await page.getByRole('button', { name: 'Register a lot' }).click();
@@ -49,5 +49,5 @@ test('registering a lot with an expiry in 2020 warns and asks for confirmation',
 	await expect(page).toHaveURL(/\/paste(\?|$)/);
 	await page.getByTestId('confirm-dates').locator('input').check();
 	await page.getByRole('button', { name: 'Register lot' }).click();
-	await expect(page).toHaveURL(new RegExp(`/paste/${lot}`));
+	await expect(page).toHaveURL(new RegExp(`/paste-lots/${lot}`));
 });

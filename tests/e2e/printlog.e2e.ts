@@ -530,13 +530,13 @@ test.describe('print-log pages without JavaScript', () => {
 		await expect(page.getByTestId('viewer')).toContainText('Line technician', {
 			useInnerText: false
 		});
-		await page.goto('/runs/new?line=SMT-3&product=LM-48');
+		await page.goto('/print-runs/new?line=SMT-3&product=LM-48');
 		await expect(page.locator('#field-squeegeeSpeedMmS')).toHaveValue('30');
 		await page.locator('#field-stencil').fill('ST-PB100');
 		await page.locator('#field-pasteLot').fill('pl-2026-0412');
 		await page.locator('#field-boardSerial').fill('FW-LM48-000777');
 		await page.getByRole('button', { name: 'Start run' }).click();
-		await expect(page).toHaveURL(/\/runs\/\d+\?started=1/);
+		await expect(page).toHaveURL(/\/print-runs\/\d+\?started=1/);
 		await expect(page.getByText('Run started.')).toBeVisible();
 		await expect(page.getByText('version 1', { exact: true })).toBeVisible();
 		await expect(page.getByTestId('run-board-serial')).toHaveText('FW-LM48-000777');

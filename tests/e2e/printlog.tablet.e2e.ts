@@ -20,9 +20,9 @@ test.describe('print log on the tablet', () => {
 		page
 	}) => {
 		await signInAs(page, 'technician');
-		await page.goto('/runs');
+		await page.goto('/print-runs');
 		await page.getByRole('link', { name: 'Log a run' }).tap();
-		await expect(page).toHaveURL(/\/runs\/new/);
+		await expect(page).toHaveURL(/\/print-runs\/new/);
 		await hydrated(page);
 		await page.getByLabel('Line').selectOption('SMT-1');
 		await page.getByLabel('Product').selectOption('PB-100');
@@ -33,7 +33,7 @@ test.describe('print log on the tablet', () => {
 		await scan(page, 'stencil', 'st-pb100');
 		await expect(page.locator('#field-stencil-status')).toContainText('✓ ST-PB100 rev B');
 		// Enter ended the scan: the form was not submitted and the next scan field has the focus.
-		await expect(page).toHaveURL(/\/runs\/new/);
+		await expect(page).toHaveURL(/\/print-runs\/new/);
 		await expect(page.locator('#field-pasteLot')).toBeFocused();
 		await scan(page, 'pasteLot', 'PL-2026-0412');
 		await expect(page.locator('#field-pasteLot-status')).toContainText('✓ PL-2026-0412');
@@ -47,11 +47,11 @@ test.describe('print log on the tablet', () => {
 		await expect(page.locator('#field-squeegeeAngleDeg-reason-error')).toContainText(
 			'a reason is required'
 		);
-		await expect(page).toHaveURL(/\/runs\/new/);
+		await expect(page).toHaveURL(/\/print-runs\/new/);
 
 		await page.getByLabel('Reason for squeegee angle').fill('new blade holder, angle fixed at 65°');
 		await page.getByRole('button', { name: 'Start run' }).tap();
-		await expect(page).toHaveURL(/\/runs\/\d+\?started=1/);
+		await expect(page).toHaveURL(/\/print-runs\/\d+\?started=1/);
 		await expect(page.getByText('Run started.')).toBeVisible();
 		await expect(page.getByTestId('run-deviations')).toContainText(
 			'reason: new blade holder, angle fixed at 65°'
@@ -75,7 +75,7 @@ test.describe('print log on the tablet', () => {
 			).json()
 		).runs.length;
 		await signInAs(page, 'technician');
-		await page.goto('/runs/new?line=SMT-2&product=SH-220');
+		await page.goto('/print-runs/new?line=SMT-2&product=SH-220');
 		await hydrated(page);
 		await scan(page, 'stencil', 'ST-PB100');
 		await scan(page, 'pasteLot', 'PL-2025-0977');
@@ -84,7 +84,7 @@ test.describe('print log on the tablet', () => {
 		);
 		await page.getByRole('button', { name: 'Start run' }).tap();
 		await expect(page.locator('#field-pasteLot-error')).toContainText('expired');
-		await expect(page).toHaveURL(/\/runs\/new/);
+		await expect(page).toHaveURL(/\/print-runs\/new/);
 		const after = (
 			await (
 				await request.get('/api/print-runs?line=SMT-2', { headers: bearer(tokenFor('viewer')) })
@@ -97,7 +97,7 @@ test.describe('print log on the tablet', () => {
 		page
 	}) => {
 		await signInAs(page, 'technician');
-		await page.goto('/runs/new?line=SMT-3&product=LM-48');
+		await page.goto('/print-runs/new?line=SMT-3&product=LM-48');
 		await hydrated(page);
 		await scan(page, 'stencil', 'ST-PB10');
 		await expect(page.locator('#field-stencil-status')).toContainText(
@@ -114,7 +114,7 @@ test.describe('print log on the tablet', () => {
 		page
 	}) => {
 		await signInAs(page, 'technician');
-		await page.goto('/runs/new?line=SMT-3&product=LM-48');
+		await page.goto('/print-runs/new?line=SMT-3&product=LM-48');
 		await hydrated(page);
 		const stencil = page.locator('#field-stencil');
 		await stencil.click();
@@ -139,7 +139,7 @@ test.describe('print log on the tablet', () => {
 		request
 	}) => {
 		await signInAs(page, 'technician');
-		await page.goto('/runs/new?line=SMT-3&product=LM-48');
+		await page.goto('/print-runs/new?line=SMT-3&product=LM-48');
 		await hydrated(page);
 		await scan(page, 'stencil', 'ST-PB100');
 		await scan(page, 'pasteLot', 'PL-2026-0412');
@@ -156,7 +156,7 @@ test.describe('print log on the tablet', () => {
 		// The scanner sends its AIM prefix, the serial and Enter: the serial is kept in its own case,
 		// Enter does not submit the run, and the next field has the focus.
 		await scan(page, 'boardSerial', ']C1Fw-LM48-000501');
-		await expect(page).toHaveURL(/\/runs\/new/);
+		await expect(page).toHaveURL(/\/print-runs\/new/);
 		await expect(page.locator('#field-boardSerial')).toHaveValue('Fw-LM48-000501');
 		await expect(page.locator('#field-boardSerial-status')).toContainText('✓ Fw-LM48-000501');
 		await expect(page.locator('#field-squeegeeAngleDeg')).toBeFocused();
@@ -164,7 +164,7 @@ test.describe('print log on the tablet', () => {
 		expect(box?.height ?? 0).toBeGreaterThanOrEqual(44);
 
 		await page.getByRole('button', { name: 'Start run' }).tap();
-		await expect(page).toHaveURL(/\/runs\/\d+\?started=1/);
+		await expect(page).toHaveURL(/\/print-runs\/\d+\?started=1/);
 		await expect(page.getByTestId('run-board-serial')).toHaveText('Fw-LM48-000501');
 		const id = Number(new URL(page.url()).pathname.split('/').pop());
 		const api = await (
@@ -201,10 +201,10 @@ test.describe('print log on the tablet', () => {
 
 	test('a viewer cannot log a run', async ({ page, request }) => {
 		await signInAs(page, 'viewer');
-		await page.goto('/runs');
+		await page.goto('/print-runs');
 		await expect(page.getByRole('heading', { name: 'Print runs' })).toBeVisible();
 		await expect(page.getByRole('link', { name: 'Log a run' })).toHaveCount(0);
-		await page.goto('/runs/new?line=SMT-1&product=PB-100');
+		await page.goto('/print-runs/new?line=SMT-1&product=PB-100');
 		await expect(page.getByText('Viewers cannot open this page.')).toBeVisible();
 		const response = await request.post('/api/print-runs', {
 			headers: bearer(tokenFor('viewer')),

@@ -42,7 +42,7 @@ test.describe('security headers', () => {
 		expectBaseHeaders(bounced.headers(), 'redirect to /signin');
 
 		await signInAs(page, 'engineer');
-		for (const path of ['/', '/factory', '/runs', '/stencils']) {
+		for (const path of ['/', '/factory', '/print-runs', '/stencils']) {
 			const response = await page.goto(path);
 			expect(response?.status(), path).toBe(200);
 			const h = await response!.allHeaders();
@@ -109,7 +109,7 @@ test.describe('security headers', () => {
 		// The menu opens only when the page's script runs (hydrated under the nonce).
 		await nav.getByRole('button', { name: 'Control charts' }).click();
 		await expect(nav.getByRole('link', { name: 'Signals' })).toBeVisible();
-		for (const path of ['/runs', '/stencils', '/charts', '/spi', '/factory', '/study']) {
+		for (const path of ['/print-runs', '/stencils', '/charts', '/spi', '/factory', '/study']) {
 			await page.goto(path);
 			await expect(page.locator('h1').first()).toBeVisible();
 			await page.waitForLoadState('networkidle');

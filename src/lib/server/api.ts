@@ -123,10 +123,3 @@ export async function parseJsonBody<T>(request: Request, schema: ZodType<T>): Pr
 	if (!result.success) throw result.error;
 	return result.data;
 }
-
-/** A route parameter that must be a positive integer id (404 otherwise). */
-export function idParam(value: string | undefined, what = 'item'): number {
-	const id = Number(value);
-	if (!Number.isSafeInteger(id) || id <= 0) throw new ApiError(404, { error: `No such ${what}.` });
-	return id;
-}

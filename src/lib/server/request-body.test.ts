@@ -41,7 +41,7 @@ describe('readBoundedBody', () => {
 describe('bodyLimitKind', () => {
 	it('streams only the SPI upload, gives stencil files and studies the file limit', () => {
 		expect(bodyLimitKind('/api/spi/imports')).toBe('stream');
-		expect(bodyLimitKind('/api/stencils/[id]/apertures')).toBe('file');
+		expect(bodyLimitKind('/api/stencils/[id=id]/apertures')).toBe('file');
 		expect(bodyLimitKind('/api/spc/analyze')).toBe('file');
 		expect(bodyLimitKind('/api/lines')).toBe('small');
 		expect(bodyLimitKind(null)).toBe('small');

@@ -14,9 +14,9 @@ export type BodyLimitKind = 'stream' | 'file' | 'small';
 const STREAMED_ROUTES = new Set(['/api/spi/imports']);
 const FILE_ROUTES = new Set([
 	'/api/stencils',
-	'/api/stencils/[id]/apertures',
+	'/api/stencils/[id=id]/apertures',
 	'/(app)/stencils',
-	'/(app)/stencils/[id]',
+	'/(app)/stencils/[id=id]',
 	'/(app)/study',
 	'/api/spc/analyze'
 ]);

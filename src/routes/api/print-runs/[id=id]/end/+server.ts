@@ -1,0 +1,16 @@
+import { json } from '@sveltejs/kit';
+import { parseJsonText } from '$lib/server/api';
+import { getDb } from '$lib/server/db';
+import { endRun, evaluateChartsForRun, printlogApiRoute } from '$lib/server/printlog';
+import { endRunSchema } from '$lib/schemas/printlog-forms';
+
+/** End an open run; the body is optional: { endedAt?, boardsPrinted? }. */
+export const POST = printlogApiRoute(async ({ params, request }, actor) => {
+	const id = Number(params.id);
+	const text = await request.text();
+	let body: unknown = {};
+	if (text.trim() !== '') body = parseJsonText(text);
+	const run = endRun(getDb(), id, endRunSchema.parse(body), actor);
+	await evaluateChartsForRun(getDb(), id);
+	return json(run);
+});
