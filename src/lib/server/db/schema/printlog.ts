@@ -25,6 +25,8 @@ export const printRecipes = sqliteTable(
 		version: integer('version').notNull(),
 		/** Windows { min, target, max } per numeric key, canonical text per categorical key. */
 		parameters: text('parameters', { mode: 'json' }).$type<Record<string, unknown>>().notNull(),
+		/** Ideal cycle time of one board on this line (ms), for OEE performance; null: not set. */
+		idealCycleTimeMs: integer('ideal_cycle_time_ms'),
 		note: text('note').notNull().default(''),
 		createdAt: createdAt(),
 		createdByUserId: integer('created_by_user_id').references(() => users.id)

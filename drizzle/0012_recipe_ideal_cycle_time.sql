@@ -1,0 +1,1 @@
+ALTER TABLE `print_recipes` ADD `ideal_cycle_time_ms` integer;
