@@ -10,7 +10,6 @@ export * from './stencil-life';
 export * from './print-runs';
 export * from './trends';
 export { printlogApiRoute, queryObject } from './api-route';
-export { evaluateChartsForRun } from './run-signals';
 export {
 	stencilLifeApiView,
 	stencilEntryErrors,

@@ -16,3 +16,15 @@ export async function evaluateChartsForRun(db: Db, runId: number): Promise<void>
 		.get();
 	if (run) await evaluateSignalsAfterPrintRun(db, run);
 }
+
+/**
+ * Raise a run's signals once its change has committed; the print-run service calls this, routes
+ * never do. The charts of one line and product are judged (a few indexed reads over the last
+ * points) and new signals stored before this returns, so an answer sent next already shows them;
+ * only the mail to followers goes on after the request, off its path.
+ */
+export function raiseRunSignals(db: Db, runId: number): void {
+	evaluateChartsForRun(db, runId).catch((err) => {
+		console.error('[printlog] signal evaluation after a print run failed', err);
+	});
+}

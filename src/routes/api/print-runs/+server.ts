@@ -1,13 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { parseJsonBody } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import {
-	evaluateChartsForRun,
-	listRuns,
-	printlogApiRoute,
-	queryObject,
-	startRun
-} from '$lib/server/printlog';
+import { listRuns, printlogApiRoute, queryObject, startRun } from '$lib/server/printlog';
 import { printRunSchema } from '$lib/schemas/printlog';
 import { runFiltersSchema, toRunFilters } from '$lib/schemas/printlog-forms';
 
@@ -22,6 +16,5 @@ export const GET = printlogApiRoute(({ url }) => {
 export const POST = printlogApiRoute(async ({ request }, actor) => {
 	const input = await parseJsonBody(request, printRunSchema);
 	const started = startRun(getDb(), input, actor);
-	await evaluateChartsForRun(getDb(), started.id);
 	return json(started, { status: 201 });
 });

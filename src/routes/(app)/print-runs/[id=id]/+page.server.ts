@@ -13,7 +13,6 @@ import { requireActor } from '$lib/server/guards';
 import {
 	correctRun,
 	endRun,
-	evaluateChartsForRun,
 	getRun,
 	PrintlogRequestError,
 	listPasteLots,
@@ -148,7 +147,6 @@ export const actions = {
 		}
 		try {
 			endRun(getDb(), Number(params.id), { boardsPrinted }, actor);
-			await evaluateChartsForRun(getDb(), Number(params.id));
 		} catch (err) {
 			if (!(err instanceof PrintlogRequestError)) throw err;
 			return fail(err.status, { end: { errors: { boardsPrinted: err.message } } });
@@ -170,7 +168,6 @@ export const actions = {
 		if (Object.keys(errors).length || !parsed.success) return fail(400, { correct: { errors } });
 		try {
 			correctRun(db, id, parsed.data, actor);
-			await evaluateChartsForRun(db, id);
 		} catch (err) {
 			if (!(err instanceof PrintlogRequestError)) throw err;
 			for (const f of err.fields) errors[formField(f.field)] ??= f.message;

@@ -7,7 +7,6 @@ import { getDb } from '$lib/server/db';
 import { listLines, listProducts } from '$lib/server/factory';
 import { requireActor } from '$lib/server/guards';
 import {
-	evaluateChartsForRun,
 	lastRunOnLine,
 	lineByCode,
 	listCurrentRecipes,
@@ -110,7 +109,6 @@ export const actions = {
 		try {
 			if (problems || !parsed.success) throw new PrintlogRequestError(422, []);
 			id = startRun(getDb(), parsed.data, actor).id;
-			await evaluateChartsForRun(getDb(), id);
 		} catch (err) {
 			if (!(err instanceof PrintlogRequestError)) throw err;
 			const grouped = problems ?? runFormErrors(err.fields);

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { parseJsonBody } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { correctRun, evaluateChartsForRun, printlogApiRoute } from '$lib/server/printlog';
+import { correctRun, printlogApiRoute } from '$lib/server/printlog';
 import { correctRunSchema } from '$lib/schemas/printlog-forms';
 
 /** Correct a logged run; the reason and the before/after go to the audit log. */
@@ -9,6 +9,5 @@ export const POST = printlogApiRoute(async ({ params, request }, actor) => {
 	const id = Number(params.id);
 	const input = await parseJsonBody(request, correctRunSchema);
 	const run = correctRun(getDb(), id, input, actor);
-	await evaluateChartsForRun(getDb(), id);
 	return json(run);
 });

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { parseJsonText } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { endRun, evaluateChartsForRun, printlogApiRoute } from '$lib/server/printlog';
+import { endRun, printlogApiRoute } from '$lib/server/printlog';
 import { endRunSchema } from '$lib/schemas/printlog-forms';
 
 /** End an open run; the body is optional: { endedAt?, boardsPrinted? }. */
@@ -11,6 +11,5 @@ export const POST = printlogApiRoute(async ({ params, request }, actor) => {
 	let body: unknown = {};
 	if (text.trim() !== '') body = parseJsonText(text);
 	const run = endRun(getDb(), id, endRunSchema.parse(body), actor);
-	await evaluateChartsForRun(getDb(), id);
 	return json(run);
 });
