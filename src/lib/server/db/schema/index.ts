@@ -5,3 +5,4 @@ export * from './printlog';
 export * from './spc';
 export * from './spi';
 export * from './cfx';
+export * from './products';
