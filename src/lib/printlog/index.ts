@@ -134,3 +134,17 @@ export {
 	parseBoardSerial
 } from './board-serial';
 export { runChanges, describeRunChange, parameterLabel, type RunChange } from './run-changes';
+export {
+	BOARD_SIDES,
+	checkProductFit,
+	normaliseAlloy,
+	resolveProductFit,
+	type BoardSide,
+	type ProductFitCheck,
+	type ProductFitOutcome,
+	type ProductFitReason,
+	type ProductFitRefusal,
+	type ProductFitRules,
+	type RunMaterials,
+	type StencilApproval
+} from './product-fit';
