@@ -2,10 +2,7 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './helpers';
 
 // Page paths now match the API (/print-runs, /paste-lots); old links must still land.
-test('old print-run and paste-lot page paths redirect to the new ones', async ({
-	page,
-	request
-}) => {
+test('old print-run and paste-lot page paths redirect to the new ones', async ({ page }) => {
 	await signInAs(page, 'technician');
 	await page.goto('/runs/new?line=SMT-3&product=LM-48');
 	await expect(page).toHaveURL(/\/print-runs\/new\?line=SMT-3&product=LM-48$/);
@@ -13,7 +10,7 @@ test('old print-run and paste-lot page paths redirect to the new ones', async ({
 	await expect(page).toHaveURL(/\/paste-lots$/);
 	await expect(page.getByRole('heading', { level: 1 })).toContainText(/paste lots/i);
 
-	const direct = await request.get('/runs/7', { maxRedirects: 0 });
+	const direct = await page.request.get('/runs/7', { maxRedirects: 0 });
 	expect(direct.status()).toBe(308);
 	expect(direct.headers()['location']).toBe('/print-runs/7');
 });

@@ -46,7 +46,7 @@ test('registering a lot with an expiry in 2020 warns and asks for confirmation',
 	await page.getByLabel('Expires on (last day of use)').fill('2020-06-30');
 	await page.getByRole('button', { name: 'Register lot' }).click();
 	await expect(page.getByText('Check: the lot expired on 2020-06-30')).toBeVisible();
-	await expect(page).toHaveURL(/\/paste(\?|$)/);
+	await expect(page).toHaveURL(/\/paste-lots(\?|$)/);
 	await page.getByTestId('confirm-dates').locator('input').check();
 	await page.getByRole('button', { name: 'Register lot' }).click();
 	await expect(page).toHaveURL(new RegExp(`/paste-lots/${lot}`));
