@@ -29,8 +29,10 @@ export interface OeeInput {
 	faults: { faultId: string | null; occurredAtMs: number; clearedAtMs: number | null }[];
 	/** Ideal cycle time per product (ms); a product without one uses the demonstrated best. */
 	idealCycleMs: Record<string, number>;
-	/** Demonstrated best cycle time per product (ms), e.g. the 10th percentile of reported ones. */
+	/** Demonstrated best cycle time per product (ms), e.g. `demonstratedBestCycle(…).valueMs`. */
 	demonstratedCycleMs: Record<string, number>;
+	/** How each product's demonstrated best was found (shown in the sentence), e.g. `demonstratedBestCycle(…).how`. */
+	demonstratedHow?: Record<string, string>;
 	/** A gap between boards longer than this is idle beyond it (default 5 min). */
 	idleAfterMs?: number;
 }
@@ -131,7 +133,7 @@ export function computeOee(input: OeeInput): OeeResult {
 		sources.add(
 			input.idealCycleMs[product] !== undefined
 				? 'the recipe'
-				: "the printer's demonstrated best (10th percentile of its reported cycle times)"
+				: `the printer's demonstrated best (${input.demonstratedHow?.[product] ?? 'from its reported cycle times'})`
 		);
 		idealMs += ideal;
 	}
@@ -179,6 +181,42 @@ export function computeOee(input: OeeInput): OeeResult {
 		quality,
 		oee
 	};
+}
+
+/** Demonstrated best cycle time: this percentile of the last units' reported cycle times. */
+export const DEMONSTRATED_PERCENTILE = 5;
+/** How many of the printer's most recent units (of the product) the demonstrated best looks at. */
+export const DEMONSTRATED_LAST_UNITS = 500;
+
+/**
+ * The demonstrated best cycle time of a printer for one product: the `percentile`-th percentile
+ * (nearest rank) of the cycle times it reported for its last `lastUnits` units, a stand-in for
+ * an ideal when the recipe gives none (a low percentile, not the minimum, so one odd reading
+ * does not set the bar). Returns the value and the sentence that says how it was found.
+ * @param recentCycleMs cycle times, newest first (more than `lastUnits` are cut)
+ * @example demonstratedBestCycle([22000, 20000, 25000], 'P1').how
+ * // '5th percentile of the last 3 reported cycle times for P1 = 20.0 s'
+ */
+export function demonstratedBestCycle(
+	recentCycleMs: readonly number[],
+	product: string,
+	percentile = DEMONSTRATED_PERCENTILE,
+	lastUnits = DEMONSTRATED_LAST_UNITS
+): { valueMs: number; units: number; how: string } | undefined {
+	const recent = recentCycleMs.slice(0, lastUnits).filter((v) => Number.isFinite(v) && v > 0);
+	const valueMs = nearestRank(recent, percentile);
+	if (valueMs === undefined) return undefined;
+	return {
+		valueMs,
+		units: recent.length,
+		how: `${ordinal(percentile)} percentile of the last ${recent.length} reported cycle times for ${product} = ${(valueMs / 1000).toFixed(1)} s`
+	};
+}
+
+function ordinal(n: number): string {
+	const tens = n % 100;
+	if (tens >= 11 && tens <= 13) return `${n}th`;
+	return `${n}${({ 1: 'st', 2: 'nd', 3: 'rd' } as Record<number, string>)[n % 10] ?? 'th'}`;
 }
 
 /** The p-th percentile (nearest rank) of positive numbers, or undefined. */

@@ -19,7 +19,7 @@ export function parseDay(value: string | null, field = 'day'): ParamResult<strin
 	return { ok: true, value: value! };
 }
 
-/** Comma-separated shift starts `HH:MM` (UTC), 1 to 6 of them, all different. */
+/** Comma-separated shift starts `HH:MM` (site wall clock), 1 to 6 of them, all different. */
 export function parseShiftStarts(value: string | null): ParamResult<string[]> {
 	if (value === null) return { ok: true, value: ['06:00', '14:00', '22:00'] };
 	const parts = value.split(',').map((p) => p.trim());
@@ -32,7 +32,7 @@ export function parseShiftStarts(value: string | null): ParamResult<string[]> {
 		return {
 			ok: false,
 			field: 'shifts',
-			message: 'must be 1–6 different start times like 06:00,14:00,22:00 (UTC)'
+			message: 'must be 1–6 different start times like 06:00,14:00,22:00 (site time)'
 		};
 	}
 	return { ok: true, value: parts };

@@ -108,6 +108,8 @@ function entries<K extends string, S extends z.ZodType>(keys: readonly K[], make
 export const recipeSchema = z.strictObject({
 	product: code,
 	line: code,
+	/** Ideal cycle time of one board, s (OEE performance); omitted: the current version's kept; null: none. */
+	idealCycleTimeS: z.number().positive().max(3600).nullable().optional(),
 	parameters: z
 		.strictObject({
 			...entries(NUMERIC_PARAMETER_KEYS, windowSchema),

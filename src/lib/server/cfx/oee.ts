@@ -2,13 +2,20 @@
  * OEE per printer and shift, and changeover durations, read from what the CFX endpoint stored
  * (cfx_units, cfx_line_events, spi_boards). The computation is the pure `$lib/cfx/oee`.
  */
-import { changeovers, computeOee, nearestRank, type Changeover, type OeeResult } from '$lib/cfx';
+import {
+	changeovers,
+	computeOee,
+	demonstratedBestCycle,
+	DEMONSTRATED_LAST_UNITS,
+	type Changeover,
+	type OeeResult
+} from '$lib/cfx';
+import { shiftsOfDay as siteShiftsOfDay, type ShiftSettings } from '$lib/floor/shifts';
 import type { Db } from '../db';
+import { siteShiftSettings } from '../floor/shift-settings';
 
-/** Shift starts (UTC, HH:MM) used when the request names none. */
+/** Shift starts used when neither the request nor SHIFT_STARTS names any. */
 export const DEFAULT_SHIFT_STARTS = ['06:00', '14:00', '22:00'];
-/** How far back the demonstrated best cycle time looks. */
-const DEMONSTRATED_WINDOW_MS = 30 * 24 * 3_600_000;
 /** Most boards read for one printer and shift, or one line's changeovers (counted first). */
 export const MAX_BOARDS_READ = 200_000;
 
@@ -18,19 +25,16 @@ export interface PrinterShiftOee extends OeeResult {
 	shift: { start: string; end: string };
 }
 
-/** The shifts of one UTC day from their start times (`06:00`…), each up to the next start. */
+/**
+ * The shifts of one day from their start times (`06:00`…), each up to the next start, on the
+ * wall clock of `timeZone` (default UTC; see `$lib/floor/shifts`).
+ */
 export function shiftsOfDay(
-	dayUtc: string,
-	starts: readonly string[]
-): { startMs: number; endMs: number }[] {
-	const day = Date.parse(`${dayUtc}T00:00:00Z`);
-	const minutes = [
-		...new Set(starts.map((s) => Number(s.slice(0, 2)) * 60 + Number(s.slice(3, 5))))
-	].sort((a, b) => a - b);
-	return minutes.map((m, i) => ({
-		startMs: day + m * 60_000,
-		endMs: day + (i + 1 < minutes.length ? minutes[i + 1] : minutes[0] + 24 * 60) * 60_000
-	}));
+	day: string,
+	starts: readonly string[],
+	timeZone = 'UTC'
+): { startMs: number; endMs: number; key: string }[] {
+	return siteShiftsOfDay(day, { starts, timeZone });
 }
 
 export class OeeRequestError extends Error {}
@@ -57,12 +61,20 @@ function countBoards(
 export function printerOee(
 	db: Db,
 	options: {
+		/** A site-local day (the shifts starting on it). */
 		day: string;
+		/** Default: the site's (SHIFT_STARTS, SITE_TIME_ZONE). */
 		shiftStarts?: readonly string[];
+		timeZone?: string;
 		line?: string | null;
 		idleAfterMs?: number;
 	}
 ): PrinterShiftOee[] {
+	const site: ShiftSettings = siteShiftSettings();
+	const settings: ShiftSettings = {
+		starts: options.shiftStarts ?? site.starts,
+		timeZone: options.timeZone ?? site.timeZone
+	};
 	const printers = db.$client
 		.prepare(
 			`select e.id, e.handle, e.line_id as lineId, l.code as line from cfx_endpoints e join lines l on l.id = e.line_id
@@ -74,9 +86,9 @@ export function printerOee(
 		lineId: number;
 		line: string;
 	}[];
-	const shifts = shiftsOfDay(options.day, options.shiftStarts ?? DEFAULT_SHIFT_STARTS);
+	const shifts = siteShiftsOfDay(options.day, settings);
 	const boardsOf = db.$client.prepare(
-		`select u.unit_identifier as serial, u.processed_at as atMs, p.code as product, u.cycle_time_ms as cycleTimeMs
+		`select u.unit_identifier as serial, u.processed_at as atMs, p.code as product, u.product_id as productId, u.cycle_time_ms as cycleTimeMs
 		   from cfx_units u left join products p on p.id = u.product_id
 		  where u.line_id = ? and u.endpoint_id = ? and u.processed_at >= ? and u.processed_at < ? order by u.processed_at`
 	);
@@ -89,10 +101,21 @@ export function printerOee(
 		            and json_extract(c.detail, '$.faultId') = json_extract(f.detail, '$.faultId') and c.at >= f.at) as clearedAtMs
 		   from cfx_line_events f where f.endpoint_id = ? and f.kind = 'fault' and f.at < ?`
 	);
-	const cyclesOf = db.$client.prepare(
-		`select p.code as product, u.cycle_time_ms as ms from cfx_units u join products p on p.id = u.product_id
-		  where u.line_id = ? and u.endpoint_id = ? and u.processed_at >= ? and u.processed_at < ? and u.cycle_time_ms > 0 limit ${MAX_BOARDS_READ}`
-	);
+	// The printer's last units of a product before the shift's end, newest first (walks the
+	// line/time index backwards from the shift's end).
+	const recentCyclesOf = db.$client
+		.prepare(
+			`select u.cycle_time_ms from cfx_units u where u.line_id = ? and u.endpoint_id = ? and u.product_id = ?
+			    and u.processed_at < ? and u.cycle_time_ms > 0
+			  order by u.processed_at desc limit ${DEMONSTRATED_LAST_UNITS}`
+		)
+		.pluck();
+	const recipeIdealOf = db.$client
+		.prepare(
+			`select ideal_cycle_time_ms from print_recipes where line_id = ? and product_id = ?
+			  order by version desc limit 1`
+		)
+		.pluck();
 	const out: PrinterShiftOee[] = [];
 	for (const printer of printers) {
 		for (const shift of shifts) {
@@ -107,19 +130,30 @@ export function printerOee(
 				serial: string;
 				atMs: number;
 				product: string | null;
+				productId: number | null;
 				cycleTimeMs: number | null;
 			}[];
-			const cycles = new Map<string, number[]>();
-			for (const c of cyclesOf.all(
-				printer.lineId,
-				printer.id,
-				shift.endMs - DEMONSTRATED_WINDOW_MS,
-				shift.endMs
-			) as { product: string; ms: number }[]) {
-				cycles.set(c.product, [...(cycles.get(c.product) ?? []), c.ms]);
-			}
+			// Ideal per product: the current recipe's, else the printer's demonstrated best.
+			const ideal: Record<string, number> = {};
 			const demonstrated: Record<string, number> = {};
-			for (const [product, list] of cycles) demonstrated[product] = nearestRank(list, 10)!;
+			const demonstratedHow: Record<string, string> = {};
+			for (const r of rows) {
+				if (r.product === null || r.productId === null) continue;
+				if (r.product in ideal || r.product in demonstrated) continue;
+				const recipeIdeal = recipeIdealOf.get(printer.lineId, r.productId) as number | null;
+				if (recipeIdeal && recipeIdeal > 0) {
+					ideal[r.product] = recipeIdeal;
+					continue;
+				}
+				const best = demonstratedBestCycle(
+					recentCyclesOf.all(printer.lineId, printer.id, r.productId, shift.endMs) as number[],
+					r.product
+				);
+				if (best) {
+					demonstrated[r.product] = best.valueMs;
+					demonstratedHow[r.product] = best.how;
+				}
+			}
 			const faults = (
 				faultsOf.all(printer.id, shift.endMs) as {
 					occurredAtMs: number;
@@ -141,9 +175,9 @@ export function printerOee(
 					};
 				}),
 				faults,
-				// Recipes carry no ideal cycle time yet: the printer's demonstrated best stands in.
-				idealCycleMs: {},
+				idealCycleMs: ideal,
 				demonstratedCycleMs: demonstrated,
+				demonstratedHow,
 				idleAfterMs: options.idleAfterMs
 			});
 			out.push({

@@ -10,6 +10,7 @@
 import rhea from 'rhea';
 import type { Connection, ConnectionOptions, Delivery, EventContext, Receiver } from 'rhea';
 import type { Db } from '../db';
+import { siteShiftSettings } from '../floor/shift-settings';
 import {
 	REMEMBER_IDS_MS,
 	bodyBytes,
@@ -384,6 +385,8 @@ export function currentCfxReceiver(): CfxReceiver | null {
 
 /** Start the process-wide receiver from the environment, when CFX_URL is set. */
 export function startCfxFromEnv(db: Db): CfxReceiver | null {
+	// The shift definition OEE reads: a malformed SHIFT_STARTS / SITE_TIME_ZONE stops the start.
+	siteShiftSettings();
 	const config = cfxConfigFromEnv();
 	if (!config) return null;
 	current = startCfxReceiver(db, config);

@@ -15,6 +15,8 @@ export type RecipeVersion = {
 	product: string;
 	version: number;
 	parameters: RecipeParameters;
+	/** Ideal cycle time of one board, s (for OEE); null: not set. */
+	idealCycleTimeS: number | null;
 	note: string;
 	createdAt: Date;
 	createdBy: string | null;
@@ -26,6 +28,7 @@ const columns = {
 	product: products.code,
 	version: printRecipes.version,
 	parameters: printRecipes.parameters,
+	idealCycleTimeMs: printRecipes.idealCycleTimeMs,
 	note: printRecipes.note,
 	createdAt: printRecipes.createdAt,
 	createdBy: users.name
@@ -40,9 +43,18 @@ function baseQuery(db: Db) {
 		.leftJoin(users, eq(users.id, printRecipes.createdByUserId));
 }
 
-const asVersion = (
-	row: { parameters: Record<string, unknown> } & Omit<RecipeVersion, 'parameters'>
-) => ({ ...row, parameters: row.parameters as RecipeParameters }) as RecipeVersion;
+const asVersion = ({
+	idealCycleTimeMs,
+	...row
+}: { parameters: Record<string, unknown>; idealCycleTimeMs: number | null } & Omit<
+	RecipeVersion,
+	'parameters' | 'idealCycleTimeS'
+>) =>
+	({
+		...row,
+		parameters: row.parameters as RecipeParameters,
+		idealCycleTimeS: idealCycleTimeMs === null ? null : idealCycleTimeMs / 1000
+	}) as RecipeVersion;
 
 /** The newest version of every recipe, by line then product. */
 export function listCurrentRecipes(db: Db): RecipeVersion[] {
@@ -104,7 +116,16 @@ export function saveRecipe(
 	return db.transaction((tx) => {
 		const current = currentRecipeFor(tx as unknown as Db, line!.id, product!.id);
 		const parameters = stripUndefined(input.parameters);
-		if (current && sameParameters(current.parameters, parameters)) {
+		// Omitted: the current version's ideal cycle time carries over (the edit page has no field).
+		const idealCycleTimeS =
+			input.idealCycleTimeS === undefined
+				? (current?.idealCycleTimeS ?? null)
+				: input.idealCycleTimeS;
+		if (
+			current &&
+			sameParameters(current.parameters, parameters) &&
+			current.idealCycleTimeS === idealCycleTimeS
+		) {
 			throw new PrintlogRequestError(409, [
 				{
 					field: 'parameters',
@@ -120,6 +141,7 @@ export function saveRecipe(
 				productId: product!.id,
 				version,
 				parameters,
+				idealCycleTimeMs: idealCycleTimeS === null ? null : Math.round(idealCycleTimeS * 1000),
 				note: input.note?.trim() ?? '',
 				createdByUserId: actor?.kind === 'user' ? actor.id : null
 			})
@@ -137,7 +159,7 @@ export function saveRecipe(
 						parameters: current.parameters
 					}
 				: null,
-			after: { line: line!.code, product: product!.code, version, parameters }
+			after: { line: line!.code, product: product!.code, version, parameters, idealCycleTimeS }
 		});
 		return recipeById(tx as unknown as Db, row.id)!;
 	});

@@ -1,7 +1,9 @@
 import { fail } from '@sveltejs/kit';
 import { ADMIN_ONLY } from '$lib/access';
 import { cfxAssignSchema, cfxEndpointSchema } from '$lib/cfx/endpoint-schema';
+import { localDayOf } from '$lib/floor/shifts';
 import { getDb } from '$lib/server/db';
+import { siteShiftSettings } from '$lib/server/floor/shift-settings';
 import { requireActor } from '$lib/server/guards';
 import {
 	CfxInputError,
@@ -29,10 +31,11 @@ export const load: PageServerLoad = async ({ locals }) => {
 		quarantine: listQuarantine(db, { limit: 100 }),
 		pending: listPendingInspections(db, 100),
 		events: recentLineEvents(db, null, 30),
-		// Today's shifts (UTC); OeeRequestError past the read budget shows as no table.
+		// Today's shifts on the site clock; OeeRequestError past the read budget shows as no table.
+		shiftSettings: siteShiftSettings(),
 		oee: (() => {
 			try {
-				return printerOee(db, { day: new Date().toISOString().slice(0, 10) });
+				return printerOee(db, { day: localDayOf(Date.now(), siteShiftSettings().timeZone) });
 			} catch {
 				return [];
 			}

@@ -3,14 +3,23 @@ import { parseDay, parseMinutes, parseShiftStarts } from '$lib/cfx/query-params'
 import { ApiError, apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import { OeeRequestError, printerOee } from '$lib/server/cfx';
+import { siteShiftSettings } from '$lib/server/floor/shift-settings';
 
 const KNOWN = new Set(['day', 'line', 'shifts', 'idleMinutes']);
 
-/** OEE per printer and shift of one UTC day, each factor with how it was computed. */
+/**
+ * OEE per printer and shift of one site-local day, each factor with how it was computed. Shifts:
+ * the site's (SHIFT_STARTS on the SITE_TIME_ZONE clock) unless `shifts=` names others.
+ */
 export const GET = apiRoute(({ url }) => {
+	const site = siteShiftSettings();
 	const unknown = [...url.searchParams.keys()].filter((k) => !KNOWN.has(k));
 	const day = parseDay(url.searchParams.get('day'));
-	const shifts = parseShiftStarts(url.searchParams.get('shifts'));
+	const shiftsParam = url.searchParams.get('shifts');
+	const shifts =
+		shiftsParam === null
+			? { ok: true as const, value: [...site.starts] }
+			: parseShiftStarts(shiftsParam);
 	const idle = parseMinutes(url.searchParams.get('idleMinutes'), 'idleMinutes', 5, 1, 240);
 	const fields = [
 		...unknown.map((k) => ({ field: k, message: 'is not a parameter of this route' })),
@@ -27,10 +36,17 @@ export const GET = apiRoute(({ url }) => {
 		const printers = printerOee(getDb(), {
 			day: day.value,
 			shiftStarts: shifts.value,
+			timeZone: site.timeZone,
 			line: url.searchParams.get('line'),
 			idleAfterMs: idle.value * 60_000
 		});
-		return json({ day: day.value, shifts: shifts.value, idleMinutes: idle.value, printers });
+		return json({
+			day: day.value,
+			shifts: shifts.value,
+			timeZone: site.timeZone,
+			idleMinutes: idle.value,
+			printers
+		});
 	} catch (err) {
 		if (err instanceof OeeRequestError) throw new ApiError(422, { error: err.message });
 		throw err;
