@@ -27,6 +27,14 @@ module.exports = {
 					'^\\$env'
 				]
 			}
+		},
+		{
+			name: 'spc-analysis-owns-its-request',
+			severity: 'error',
+			comment:
+				'The pure SPC analysis holds its own request shape; form and API schemas build on it, never the reverse.',
+			from: { path: '^src/lib/spc/' },
+			to: { path: '^src/lib/schemas/' }
 		}
 	],
 	options: {

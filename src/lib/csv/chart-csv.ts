@@ -1,4 +1,4 @@
-import type { ChartView, ChartViewPoint } from '$lib/server/spc/view-types';
+import type { ChartView, ChartViewPoint } from '$lib/spc/view-types';
 import { writeCsv, type CsvCell } from './write-csv';
 
 export const CHART_CSV_HEADER = [

@@ -1,6 +1,6 @@
-import { spcAnalyzeRequestSchema, type SpcAnalyzeRequest } from '../schemas/spc';
+import { spcAnalyzeRequestSchema, type SpcAnalyzeRequest } from './analyze-request';
 import { jsonTooDeep, MAX_JSON_DEPTH } from '../json/json-depth';
-import { processCapability } from './capability';
+import { processCapability, type CapabilityResult } from './capability';
 import {
 	assessCapability,
 	countOutOfSpec,
@@ -36,9 +36,17 @@ export interface AnalyzeResult {
 
 /** Outcome of `analyzeStudy`: a result (HTTP 200) or field errors (HTTP 422). */
 export type AnalyzeOutcome =
-	| { ok: true; result: AnalyzeResult }
+	| { ok: true; result: AnalyzeResult; study: ComputedStudy }
 	/** `tooLarge`: refused by the work budget before validation (HTTP 413). */
 	| { ok: false; errors: FieldError[]; tooLarge?: boolean };
+
+/** What the study computed, beside the API answer, so a page draws it without computing again. */
+export interface ComputedStudy {
+	chart: ControlChart;
+	rules: RuleId[];
+	values: number[];
+	capability: CapabilityResult;
+}
 
 const CHART_NAMES = {
 	'xbar-r': 'X-bar/R',
@@ -161,7 +169,7 @@ export function analyzeStudy(
 	}
 	if (errors.length) return { ok: false, errors };
 
-	const rules = req.rules ?? DEFAULT_RULES;
+	const rules = [...(req.rules ?? DEFAULT_RULES)];
 	const violations = evaluateChart(chart.points, chart.limits, rules).map((v) => ({
 		rule: v.rule,
 		chart: v.chart,
@@ -197,7 +205,8 @@ export function analyzeStudy(
 			capability: capabilityJson(cap, assessment),
 			assessment,
 			violations
-		}
+		},
+		study: { chart, rules, values, capability: cap }
 	};
 }
 

@@ -114,3 +114,37 @@ export {
 	type FieldError,
 	type ParsedBody
 } from './analyze';
+export {
+	SPC_API_CHARTS,
+	spcAnalyzeRequestSchema,
+	spcChartSchema,
+	spcRuleSchema,
+	type SpcAnalyzeRequest
+} from './analyze-request';
+
+// Stored charts: inputs as plain data, computed once
+export {
+	groupBoards,
+	groupRuns,
+	printParameterValue,
+	valuesPerPoint,
+	type BoardStats,
+	type BoardValues,
+	type ChartCharacteristic,
+	type PrintRunValues,
+	type RunValue,
+	type SourceSubgroup
+} from './chart-input';
+export {
+	computeChart,
+	engineData,
+	needsPadEvidence,
+	phaseOneLimits,
+	pointsFor,
+	ruleList,
+	type ChartInputs,
+	type ComputedChart,
+	type PadEvidence
+} from './chart-detail';
+export { pooledStats, summaryCapability, type SubgroupStats } from './summary-capability';
+export type { CapabilityView, ChartView, ChartViewPoint } from './view-types';

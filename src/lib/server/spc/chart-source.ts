@@ -4,33 +4,10 @@ import { lines, printRuns, spcCharacteristics } from '../db/schema';
 import { isSpiMeasure } from './measures';
 import { loadSpiSubgroups } from './spi-source';
 
+import { groupRuns, printParameterValue, valuesPerPoint } from '$lib/spc';
 import type { CharacteristicRow, SourceSubgroup } from './source-types';
 
 export type { CharacteristicRow, SourceSubgroup };
-
-/** Values per plotted point: n for consecutive subgroups, else 1 (print log) or the pads. */
-export const valuesPerPoint = (c: CharacteristicRow) =>
-	c.subgroupMode === 'consecutive' ? Math.max(1, c.subgroupSize) : 1;
-
-function printParameterValue(
-	run: {
-		parameters: Record<string, unknown>;
-		ambientTempC: number | null;
-		relativeHumidityPct: number | null;
-	},
-	key: string
-): number | null {
-	const raw =
-		run.parameters?.[key] ??
-		(key === 'ambientTempC'
-			? run.ambientTempC
-			: key === 'relativeHumidityPct'
-				? run.relativeHumidityPct
-				: null);
-	const v =
-		typeof raw === 'number' ? raw : typeof raw === 'string' && raw.trim() ? Number(raw) : NaN;
-	return Number.isFinite(v) ? v : null;
-}
 
 /**
  * The newest `limitSubgroups` subgroups of a characteristic, oldest first. Print parameters: one
@@ -75,25 +52,7 @@ export function loadSubgroups(
 			value: printParameterValue(r, key)
 		}))
 		.filter((r): r is typeof r & { value: number } => r.value !== null);
-	const out: SourceSubgroup[] = [];
-	const full = usable.length - (usable.length % per);
-	for (let i = 0; i < full; i += per) {
-		const group = usable.slice(i, i + per);
-		const first = group[0];
-		const last = group[group.length - 1];
-		out.push({
-			key: `run:${first.id}`,
-			label:
-				per === 1
-					? `run ${first.id} · ${first.lineCode}`
-					: `runs ${first.id}–${last.id} · ${first.lineCode}`,
-			boardId: null,
-			boardIds: [],
-			at: last.startedAt,
-			values: group.map((g) => g.value)
-		});
-	}
-	return out.slice(-limitSubgroups);
+	return groupRuns(usable, per, limitSubgroups);
 }
 
 /** Characteristics whose data a print run of this product and line feeds (for evaluation). */

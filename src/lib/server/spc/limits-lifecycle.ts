@@ -1,5 +1,5 @@
 import { and, eq } from 'drizzle-orm';
-import { SpcInputError, type ChartKind } from '$lib/spc';
+import { phaseOneLimits, pointsFor, SpcInputError, type ChartKind } from '$lib/spc';
 import type { Actor } from '$lib/access';
 import type { Db } from '../db';
 import { spcExclusions, spcLimitVersions } from '../db/schema';
@@ -10,8 +10,6 @@ import {
 	getCharacteristic,
 	latestLimitVersion,
 	listExclusions,
-	phaseOneLimits,
-	pointsFor,
 	type LimitVersionSummary
 } from './chart-service';
 

@@ -1,11 +1,18 @@
 import { and, desc, eq, gte, inArray, isNotNull, isNull, lte, sql, type SQL } from 'drizzle-orm';
-import { evaluateChart, SpcInputError, type ChartKind, type ChartLimits } from '$lib/spc';
+import {
+	evaluateChart,
+	pointsFor,
+	ruleList,
+	SpcInputError,
+	type ChartKind,
+	type ChartLimits
+} from '$lib/spc';
 import type { Actor } from '$lib/access';
 import type { Db } from '../db';
 import { spcSignals } from '../db/schema';
 import { recordAudit } from '../audit';
 import { characteristicsFor, loadSubgroups, type CharacteristicRow } from './chart-source';
-import { characteristicsByIds, latestLimitVersion, pointsFor, ruleList } from './chart-service';
+import { characteristicsByIds, latestLimitVersion } from './chart-service';
 import { getCauseLists } from './cause-lists';
 import { patternTargets } from './ack-scope';
 import { flushDigests, notifyFollowers } from './signal-mail';

@@ -1,5 +1,13 @@
 import { and, eq, inArray, isNotNull } from 'drizzle-orm';
 import { apertureGeometry, areaRatio, type ApertureInput } from '$lib/stencil';
+import {
+	groupBoards,
+	valuesPerPoint,
+	type BoardValues,
+	type ObservedOutOfSpec,
+	type PadEvidence,
+	type SourceSubgroup
+} from '$lib/spc';
 import type { Db } from '../db';
 import {
 	apertures,
@@ -9,7 +17,7 @@ import {
 	spiPads,
 	stencils
 } from '../db/schema';
-import type { CharacteristicRow, SourceSubgroup } from './source-types';
+import type { CharacteristicRow } from './source-types';
 
 /** Per-board aggregate columns and pad-measurement column of each SPI measure. */
 const COLUMNS = {
@@ -107,6 +115,8 @@ type BoardRow = {
 	mean: number | null;
 	sd: number | null;
 	range: number | null;
+	min: number | null;
+	max: number | null;
 };
 
 // Prepared once per database, measure and number of lines: this query is the chart's hot path
@@ -136,7 +146,7 @@ function newestBoards(
 			: '';
 		stmt = db.$client.prepare(
 			`select id, serial, inspected_at as at, line_code as lineCode, ${p}_count as count, ${p}_mean as mean,
-			 ${p}_sd as sd, ${p}_range as range from spi_boards
+			 ${p}_sd as sd, ${p}_range as range, ${p}_min as min, ${p}_max as max from spi_boards
 			 where product_code = ? ${lineFilter} and ${p}_count >= ?
 			 order by inspected_at desc, id desc limit ?`
 		);
@@ -157,7 +167,9 @@ function newestBoards(
 			count: r.count,
 			mean: r.mean,
 			sd: r.sd,
-			range: r.range
+			range: r.range,
+			min: r.min,
+			max: r.max
 		};
 	}
 	return out;
@@ -213,7 +225,7 @@ export function loadSpiSubgroups(
 ): SourceSubgroup[] {
 	const col = COLUMNS[c.measure as SpiMeasure];
 	if (!col) return [];
-	const perPoint = c.subgroupMode === 'consecutive' ? Math.max(1, c.subgroupSize) : 1;
+	const perPoint = valuesPerPoint(c);
 	const padIds = selectedPadIds(db, c);
 	const boards = newestBoards(
 		db,
@@ -224,14 +236,7 @@ export function loadSpiSubgroups(
 	);
 	if (boards.length === 0) return [];
 	const s = col.scale;
-	let perBoard: {
-		id: number;
-		serial: string;
-		at: Date;
-		lineCode: string;
-		values: number[];
-		stats: SourceSubgroup['stats'];
-	}[];
+	let perBoard: BoardValues[];
 	if (padIds === null) {
 		perBoard = boards
 			.filter((b) => b.mean !== null)
@@ -245,7 +250,9 @@ export function loadSpiSubgroups(
 					n: b.count,
 					mean: (b.mean ?? 0) * s,
 					sd: (b.sd ?? 0) * s,
-					range: (b.range ?? 0) * s
+					range: (b.range ?? 0) * s,
+					min: b.min === null ? null : b.min * s,
+					max: b.max === null ? null : b.max * s
 				}
 			}));
 	} else {
@@ -282,80 +289,89 @@ export function loadSpiSubgroups(
 				stats: undefined
 			}));
 	}
-	const boardMean = (b: (typeof perBoard)[number]) =>
-		b.stats ? b.stats.mean : b.values.reduce((a, v) => a + v, 0) / b.values.length;
-	const out: SourceSubgroup[] = [];
-	if (perPoint === 1 && c.chartKind !== 'i-mr') {
-		for (const b of perBoard) {
-			out.push({
-				key: `board:${b.id}`,
-				label: `${b.serial} · ${b.lineCode}`,
-				boardId: b.id,
-				boardIds: [b.id],
-				at: b.at,
-				values: b.values,
-				stats: b.stats
-			});
-		}
-	} else {
-		const full = perBoard.length - (perBoard.length % perPoint);
-		for (let i = 0; i < full; i += perPoint) {
-			const group = perBoard.slice(i, i + perPoint);
-			const last = group[group.length - 1];
-			out.push({
-				key: `board:${group[0].id}`,
-				label:
-					perPoint === 1
-						? `${last.serial} · ${last.lineCode}`
-						: `${group[0].serial}…${last.serial} · ${last.lineCode}`,
-				boardId: last.id,
-				boardIds: group.map((g) => g.id),
-				at: last.at,
-				values: group.map(boardMean)
-			});
-		}
-	}
-	return out.slice(-limitSubgroups);
+	return groupBoards(perBoard, c, limitSubgroups);
+}
+
+function padStatement(db: Db, sql: string) {
+	let cache = statements.get(db.$client);
+	if (!cache) statements.set(db.$client, (cache = new Map()));
+	let stmt = cache.get(sql);
+	if (!stmt) cache.set(sql, (stmt = db.$client.prepare(sql)));
+	return stmt;
 }
 
 /**
- * Pad values of the newest boards (at most 50) of a characteristic, for the histogram only, at
- * most `maxValues`.
+ * The pads behind per-board aggregated subgroups (all pads), read once per chart request: pad
+ * values of the newest boards (at most 50 boards, `maxValues` values) for the histogram, and the
+ * pads of every shown board outside the spec for the observed ppm beside the expected one. Boards
+ * whose stored minimum and maximum lie inside the spec are counted from the aggregates alone;
+ * only the others have their pad rows counted. `observed` is null for measures without pad values
+ * (transfer efficiency).
  */
-export function samplePadValues(
+export function padEvidence(
 	db: Db,
 	c: CharacteristicRow,
-	boardIds: number[],
+	subgroups: readonly SourceSubgroup[],
 	maxValues = 5_000
-): number[] {
-	const col = COLUMNS[c.measure as SpiMeasure];
-	if (!col?.pad || boardIds.length === 0) return [];
-	const padIds = selectedPadIds(db, c);
-	const padSet = padIds ? new Set(padIds) : null;
-	const column = PAD_COLUMN[c.measure as SpiMeasure];
-	// A raw prepared statement: this runs on every chart view and reads thousands of rows.
-	const stmt = db.$client.prepare(
-		`select pad_id, ${column} from spi_pad_measurements where board_id = ? and ${column} is not null limit ?`
+): PadEvidence {
+	const measure = c.measure as SpiMeasure;
+	const column = PAD_COLUMN[measure];
+	const boards = subgroups.filter((s) => s.stats && s.boardId !== null && s.boardId > 0);
+	if (!column || c.padSelection.kind !== 'all' || boards.length === 0)
+		return { values: [], observed: null };
+	// Raw prepared statements: this runs on every chart view and reads thousands of rows.
+	const sample = padStatement(
+		db,
+		`select ${column} from spi_pad_measurements where board_id = ? and ${column} is not null limit ?`
 	);
-	stmt.raw(true);
-	const out: number[] = [];
+	const values: number[] = [];
 	// Newest boards first until enough values: the histogram shows the current state.
 	for (
-		let i = boardIds.length - 1;
-		i >= 0 && out.length < maxValues && boardIds.length - i <= 50;
+		let i = boards.length - 1;
+		i >= 0 && values.length < maxValues && boards.length - i <= 50;
 		i--
 	) {
-		const rows = stmt.all(boardIds[i], padSet ? 1_000_000 : maxValues - out.length) as [
-			number,
-			number
-		][];
-		for (const [padId, v] of rows) {
-			if (padSet && !padSet.has(padId)) continue;
-			out.push(v / 100);
-			if (out.length >= maxValues) break;
-		}
+		const rows = sample.raw(true).all(boards[i].boardId, maxValues - values.length) as [number][];
+		for (const [v] of rows) values.push(v / 100);
 	}
-	return out;
+	return { values, observed: padsOutOfSpec(db, column, boards, c.lsl, c.usl) };
+}
+
+function padsOutOfSpec(
+	db: Db,
+	column: string,
+	boards: readonly SourceSubgroup[],
+	lsl: number | null,
+	usl: number | null
+): ObservedOutOfSpec {
+	// Pad values are stored in hundredths: compare in hundredths, as the aggregates were made.
+	const lslCenti = lsl === null ? null : lsl * 100;
+	const uslCenti = usl === null ? null : usl * 100;
+	const count = padStatement(
+		db,
+		`select sum(case when ? is not null and ${column} < ? then 1 else 0 end) as below,
+		 sum(case when ? is not null and ${column} > ? then 1 else 0 end) as above
+		 from spi_pad_measurements where board_id = ? and ${column} is not null`
+	);
+	let n = 0;
+	let below = 0;
+	let above = 0;
+	for (const b of boards) {
+		const st = b.stats!;
+		n += st.n ?? 0;
+		const min = st.min ?? null;
+		const max = st.max ?? null;
+		const outside =
+			(lsl !== null && min !== null && min < lsl) || (usl !== null && max !== null && max > usl);
+		if (!outside) continue;
+		const counted = count.get(lslCenti, lslCenti, uslCenti, uslCenti, b.boardId) as {
+			below: number | null;
+			above: number | null;
+		};
+		below += counted.below ?? 0;
+		above += counted.above ?? 0;
+	}
+	return { n, belowLsl: below, aboveUsl: above };
 }
 
 /** Product and line of stored boards, to find the characteristics an import feeds. */
@@ -376,58 +392,4 @@ export function boardScopes(
 		}
 	}
 	return [...scopes.values()];
-}
-
-/**
- * Pads of the given boards measured outside the specification, for the observed ppm beside the
- * expected one. Boards whose stored minimum and maximum lie inside the spec are counted from the
- * aggregates alone; only the others have their pad rows counted. Null for measures without pad
- * values (transfer efficiency).
- */
-export function countPadsOutOfSpec(
-	db: Db,
-	c: CharacteristicRow,
-	boardIds: number[],
-	lsl: number | null,
-	usl: number | null
-): { n: number; belowLsl: number; aboveUsl: number } | null {
-	const measure = c.measure as SpiMeasure;
-	const column = PAD_COLUMN[measure];
-	if (!column || c.padSelection.kind !== 'all') return null;
-	const p = PREFIX[measure];
-	let n = 0;
-	let below = 0;
-	let above = 0;
-	const ids = boardIds.filter((id) => id > 0);
-	const lslCenti = lsl === null ? null : lsl * 100;
-	const uslCenti = usl === null ? null : usl * 100;
-	for (let i = 0; i < ids.length; i += 500) {
-		const chunk = ids.slice(i, i + 500);
-		const rows = db.$client
-			.prepare(
-				`select id, ${p}_count as count, ${p}_min as min, ${p}_max as max from spi_boards where id in (${chunk.map(() => '?').join(', ')})`
-			)
-			.all(...chunk) as { id: number; count: number; min: number | null; max: number | null }[];
-		for (const r of rows) {
-			n += r.count ?? 0;
-			const outside =
-				(lsl !== null && r.min !== null && r.min < lsl) ||
-				(usl !== null && r.max !== null && r.max > usl);
-			if (!outside) continue;
-			// Pad values are stored in hundredths: compare in hundredths, as the aggregates were made.
-			const counted = db.$client
-				.prepare(
-					`select sum(case when ? is not null and ${column} < ? then 1 else 0 end) as below,
-					 sum(case when ? is not null and ${column} > ? then 1 else 0 end) as above
-					 from spi_pad_measurements where board_id = ? and ${column} is not null`
-				)
-				.get(lslCenti, lslCenti, uslCenti, uslCenti, r.id) as {
-				below: number | null;
-				above: number | null;
-			};
-			below += counted.below ?? 0;
-			above += counted.above ?? 0;
-		}
-	}
-	return { n, belowLsl: below, aboveUsl: above };
 }

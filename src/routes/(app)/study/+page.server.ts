@@ -2,8 +2,8 @@ import { fail } from '@sveltejs/kit';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
 import { getCapabilityThresholds } from '$lib/server/spc/capability-settings';
-import { parseStudyForm } from '$lib/server/spc/study-form';
-import { studyView } from '$lib/server/spc/study-view';
+import { parseStudyForm } from '$lib/spc/study-form';
+import { studyView } from '$lib/spc/study-view';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals }) => {

@@ -3,7 +3,7 @@ import { SPC_EDITORS } from '$lib/access';
 import { getDb } from '$lib/server/db';
 import { listLines, listProducts } from '$lib/server/factory';
 import { requireActor } from '$lib/server/guards';
-import { characteristicFromForm } from '$lib/server/spc/characteristic-form';
+import { characteristicFromForm } from '$lib/spc/characteristic-form';
 import { createCharacteristic, CharacteristicInputError } from '$lib/server/spc/characteristics';
 import { CHARTABLE_PARAMETERS, MEASURE_DEFAULTS } from '$lib/server/spc/measures';
 import type { Actions, PageServerLoad } from './$types';

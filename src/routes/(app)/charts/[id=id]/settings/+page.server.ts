@@ -4,7 +4,7 @@ import { getDb } from '$lib/server/db';
 import { listLines, listProducts } from '$lib/server/factory';
 import { requireActor } from '$lib/server/guards';
 import { getCharacteristic, NotFoundError } from '$lib/server/spc/chart-service';
-import { characteristicFromForm } from '$lib/server/spc/characteristic-form';
+import { characteristicFromForm } from '$lib/spc/characteristic-form';
 import { CharacteristicInputError, updateCharacteristic } from '$lib/server/spc/characteristics';
 import { CHARTABLE_PARAMETERS, MEASURE_DEFAULTS } from '$lib/server/spc/measures';
 import type { Actions, PageServerLoad } from './$types';

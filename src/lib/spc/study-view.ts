@@ -1,16 +1,7 @@
-import {
-	analyzeStudy,
-	buildChart,
-	capabilityHistogram,
-	DEFAULT_RULES,
-	evaluateChart,
-	processCapability,
-	type AnalyzeResult,
-	type CapabilityThresholds,
-	type FieldError,
-	type RuleId
-} from '$lib/spc';
-import type { SpcAnalyzeRequest } from '$lib/schemas/spc';
+import { analyzeStudy, type AnalyzeResult, type FieldError } from './analyze';
+import type { SpcAnalyzeRequest } from './analyze-request';
+import { capabilityHistogram } from './capability-histogram';
+import type { CapabilityThresholds } from './capability-assessment';
 import type { CapabilityView, ChartView } from './view-types';
 
 const TITLES = {
@@ -37,25 +28,11 @@ export function studyView(
 ): StudyOutcome {
 	const outcome = analyzeStudy(request, thresholds);
 	if (!outcome.ok) return outcome;
-	const data =
-		request.chart === 'i-mr'
-			? (request.values ?? (request.subgroups ?? []).map((g) => g[0]))
-			: (request.subgroups ?? []);
-	// Validated by analyzeStudy above, so building again cannot throw.
-	const built = buildChart(request.chart, data);
-	const rules: RuleId[] = [...(request.rules ?? DEFAULT_RULES)];
-	const values = (data as (number | number[])[]).flat();
+	// One computation: the page draws what the API answer was computed from.
+	const { chart: built, rules, values, capability: cap } = outcome.study;
 	const lsl = request.lsl ?? null;
 	const usl = request.usl ?? null;
 	const target = request.target ?? null;
-	const cap = processCapability({
-		values,
-		sigmaWithin: built.limits.sigmaWithin,
-		lsl,
-		usl,
-		target,
-		mean: built.limits.location.cl
-	});
 	return {
 		ok: true,
 		result: outcome.result,
@@ -72,7 +49,7 @@ export function studyView(
 				excluded: false
 			})),
 			limits: built.limits,
-			violations: evaluateChart(built.points, built.limits, rules),
+			violations: outcome.result.violations,
 			rules,
 			phase: 'I',
 			limitsVersion: null

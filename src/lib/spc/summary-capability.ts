@@ -1,4 +1,5 @@
-import { capabilityFromSummary, SpcInputError, type CapabilityResult } from '$lib/spc';
+import { capabilityFromSummary, type CapabilityResult } from './capability';
+import { SpcInputError } from './spc-input-error';
 
 /** Count, mean and sample standard deviation of one subgroup (e.g. one board's pads). */
 export interface SubgroupStats {

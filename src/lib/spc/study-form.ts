@@ -1,8 +1,8 @@
-import { RULE_IDS, type RuleId } from '$lib/spc';
-import { SPC_API_CHARTS, type SpcAnalyzeRequest } from '$lib/schemas/spc';
+import { RULE_IDS, type RuleId } from './run-rules';
+import { SPC_API_CHARTS, type SpcAnalyzeRequest } from './analyze-request';
+import { parseStudyText, type StudyTextError } from './parse-study-text';
 
 type SpcChart = (typeof SPC_API_CHARTS)[number];
-import { parseStudyText, type StudyTextError } from './parse-study-text';
 
 /** What the study form sends back to itself (strings as typed, so nothing is lost on error). */
 export interface StudyFormValues {

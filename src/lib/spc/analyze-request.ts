@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { RULE_IDS } from '../spc/run-rules';
+import { RULE_IDS } from './run-rules';
 
 /**
  * Request body of `POST /api/spc/analyze` (types only; the cross-field checks such as

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import ref from '../../../../reference/spc/between-within-example.json';
+import ref from '../../../reference/spc/between-within-example.json';
 import { analyzeStudy } from '$lib/spc';
 import { parseStudyForm } from './study-form';
 import { studyView } from './study-view';

@@ -2,15 +2,12 @@
  * Shapes the chart pages render (client-safe types only: components import them with
  * `import type`, which is erased before bundling). Numbers are unrounded; the UI rounds.
  */
-import type {
-	CapabilityAssessment,
-	CapabilityHistogram,
-	CapabilityResult,
-	ChartKind,
-	ChartLimits,
-	RuleId,
-	Violation
-} from '$lib/spc';
+import type { CapabilityAssessment } from './capability-assessment';
+import type { CapabilityHistogram } from './capability-histogram';
+import type { CapabilityResult } from './capability';
+import type { ChartKind, ChartLimits } from './chart-types';
+import type { RuleId } from './run-rules';
+import type { Violation } from './evaluate-chart';
 
 /** One plotted subgroup with what the tooltip and click-through need. */
 export interface ChartViewPoint {
