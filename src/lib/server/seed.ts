@@ -5,6 +5,7 @@ import { createUser } from './users';
 import { DEMO_USERS } from './demo-accounts';
 import { seedDemoStencils } from './stencils/demo';
 import { seedDemoPrintlog } from './printlog/demo';
+import { seedDemoProductFit } from './printlog/demo-fit';
 import { seedDemoSpi } from './ingest/demo';
 import { seedDemoSpc } from './spc/demo';
 import { seedDemoAnalysis } from './analysis/demo';
@@ -51,5 +52,6 @@ export async function seedDemoData(db: Db): Promise<boolean> {
 	await seedDemoSpi(db);
 	await seedDemoSpc(db);
 	await seedDemoAnalysis(db);
+	seedDemoProductFit(db);
 	return true;
 }

@@ -2,7 +2,14 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { openTestDatabase } from '../testing';
 import type { Db } from '../db';
 import { seedDemoData } from '../seed';
-import { getPasteLot, listCurrentRecipes, listRuns, listStencilLife, runTrends } from './index';
+import {
+	getPasteLot,
+	listCurrentRecipes,
+	listProductFit,
+	listRuns,
+	listStencilLife,
+	runTrends
+} from './index';
 
 let db: Db;
 let close: () => void;
@@ -38,5 +45,25 @@ describe('print-log demo data', () => {
 		expect(stencil.printCount).toBe(runs.reduce((sum, r) => sum + r.boardsPrinted, 0));
 		const trends = runTrends(db, { line: 'SMT-1', product: 'PB-100' });
 		expect(trends.parameters.find((p) => p.key === 'squeegeeSpeedMmS')!.points).toHaveLength(14);
+	}, 30_000);
+
+	it('approves each demo stencil for its product and allows the demo pastes the runs use', async () => {
+		await seedDemoData(db);
+		const fit = Object.fromEntries(listProductFit(db).map((f) => [f.product, f]));
+		expect(fit['PB-100']).toMatchObject({
+			approvals: [{ stencilName: 'ST-PB100', side: 'top' }],
+			alloys: ['SAC305'],
+			powderTypes: [4, 5]
+		});
+		expect(fit['SH-220'].approvals).toEqual([{ stencilName: 'ST-SH220', side: 'top' }]);
+		expect(fit['LM-48'].approvals).toEqual([]);
+		// The demo runs fit their product: every one on an approved stencil with an allowed paste.
+		for (const run of listRuns(db)) {
+			const rules = fit[run.product];
+			expect(rules.approvals.map((a) => a.stencilName)).toContain(run.stencil);
+			const lot = getPasteLot(db, run.pasteLot!)!;
+			expect(rules.alloys).toContain(lot.alloy);
+			expect(rules.powderTypes).toContain(lot.powderType);
+		}
 	}, 30_000);
 });

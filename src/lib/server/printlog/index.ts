@@ -15,3 +15,4 @@ export {
 	stencilEntryErrors,
 	type StencilLifeApiView
 } from './stencil-life-api';
+export * from './product-fit';

@@ -1,13 +1,16 @@
 import type { Actor } from '$lib/access';
 import {
 	assessLotForRun,
+	checkProductFit,
 	checkRunAgainstRecipe,
 	deviationReasonErrors,
 	findOverlappingOpenRun,
 	normaliseScannedCode,
+	resolveProductFit,
 	validateRunTimes,
 	type Deviation,
-	type FieldError
+	type FieldError,
+	type ProductFitRefusal
 } from '$lib/printlog';
 import type { PrintRunPayload } from '$lib/schemas/printlog';
 import { recordAudit } from '../audit';
@@ -16,6 +19,7 @@ import { printRuns } from '../db/schema';
 import { publishFloorEvent } from '../floor/events';
 import { listStencilRefs, resolveLineProduct, stencilByName } from './lookups';
 import { asPasteEvents, getPasteLot, listPasteLots } from './paste-lots';
+import { productFitRules } from './product-fit';
 import { currentRecipeFor } from './recipes';
 import { PrintlogRequestError } from './request-error';
 import { getRun, inspectedProductOfSerial, openRuns } from './run-queries';
@@ -33,6 +37,9 @@ export type StartedRun = { id: number; deviations: ApiDeviation[]; warnings: str
  * reason (`deviationReasons.<parameter>`); a discarded lot, or an expired one or one past its
  * time on the stencil (`pasteLot`), and a stencil past its life or quarantined (`stencil`), the
  * last ones unless an engineer or admin gives `overrideReason` (kept on the run, audited);
+ * a stencil not approved for the product (`stencil`) or a paste alloy or powder type the product
+ * does not allow (`pasteLot`), named in `refusals` too and overridable the same way (the
+ * override gets an audit entry of its own, `override-product-fit`);
  * unreadable times. Then, in one transaction: 409 when the line already has an open run, else
  * the run is saved with its recipe version, deviations, reasons and warnings, and audited; its
  * control-chart signals are raised (`raiseRunSignals`).
@@ -140,6 +147,21 @@ export function startRun(
 		overridden ||= assessment.overridden;
 	}
 
+	// Stencil, paste and product belong together (issue 15): refused with the reason, unless an
+	// engineer's note overrides it (kept on the run and audited on its own below).
+	let fitRefusals: ProductFitRefusal[] = [];
+	if (product && stencilRef) {
+		const check = checkProductFit(productFitRules(db, product), {
+			stencil: stencilRef.name,
+			paste: lot && lotByNumber ? lot : null
+		});
+		const fit = resolveProductFit(check, { mayOverride, note: override });
+		errors.push(...fit.errors);
+		warnings.push(...fit.warnings);
+		fitRefusals = check.refuse;
+		overridden ||= fit.overridden;
+	}
+
 	if (errors.length > 0) {
 		const missing = errors
 			.filter((e) => e.field.startsWith('deviationReasons.'))
@@ -149,6 +171,7 @@ export function startRun(
 			: 'The run was not saved: ' + errors.map((e) => `${e.field}: ${e.message}`).join('; ');
 		throw new PrintlogRequestError(422, errors, summary, {
 			...(missing.length && { parameters: missing }),
+			...(fitRefusals.length && { refusals: fitRefusals }),
 			deviations: deviations.map(apiDeviation)
 		});
 	}
@@ -195,6 +218,14 @@ export function startRun(
 			entityId: row.id,
 			after: auditSnapshot(getRun(tx as unknown as Db, row.id)!)
 		});
+		if (fitRefusals.length) {
+			recordAudit(tx, actor, {
+				action: 'override-product-fit',
+				entity: 'print_run',
+				entityId: row.id,
+				after: { note: override, product: product!.code, refusals: fitRefusals }
+			});
+		}
 		return row.id;
 	});
 	publishFloorEvent({ kind: 'run', what: 'started', runId: id });

@@ -2,6 +2,8 @@ import type { Actor, Role } from '$lib/access';
 import type { Db } from '../db';
 import { lines, products, stencils, users } from '../db/schema';
 import { createPasteLot } from './paste-lots';
+import { productByCode } from './lookups';
+import { setProductFit } from './product-fit';
 import { saveRecipe } from './recipes';
 
 /** A recipe inside the common-practice windows (reference/printlog/defaults.md). */
@@ -24,7 +26,10 @@ export const ON_TARGET = {
 	wipeMode: 'wet-vacuum-dry'
 };
 
-/** A small factory: line L1/L2, product P1, stencils, users per role, a recipe and two lots. */
+/**
+ * A small factory: line L1/L2, product P1 (its stencils approved, both pastes allowed),
+ * stencils, users per role, a recipe and two lots.
+ */
 export function seedPrintlogFixture(db: Db) {
 	const actors = {} as Record<Role, Actor>;
 	for (const role of ['admin', 'engineer', 'technician', 'quality', 'viewer'] as Role[]) {
@@ -84,6 +89,17 @@ export function seedPrintlogFixture(db: Db) {
 			confirmDates: true
 		},
 		actors.technician
+	);
+	// P1 takes the fixture's stencils and both lots' pastes (the product-fit tests narrow it).
+	setProductFit(
+		db,
+		productByCode(db, 'P1')!.id,
+		{
+			approvals: ['ST-GOOD', 'ST-HOLD', 'ST-WORN'].map((stencil) => ({ stencil, side: 'top' })),
+			alloys: ['SAC305', 'Sn63Pb37'],
+			powderTypes: [3, 4]
+		},
+		actors.engineer
 	);
 	return { actors, stencilIds: ids };
 }
