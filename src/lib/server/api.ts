@@ -10,6 +10,7 @@ import { hasRole, type Actor } from '$lib/access';
 import { apiPolicyFor } from './api-policy';
 import { jsonTooDeep, MAX_JSON_DEPTH } from '$lib/json/json-depth';
 import { isDatabaseBusy } from './db';
+import { isRefusal } from '$lib/errors';
 
 /** An expected API failure with its status and JSON body. */
 export class ApiError extends Error {
@@ -70,6 +71,7 @@ export const publicApiRoute = (handler: Handler<Actor | null>) => wrap(handler, 
 /** Turn anything thrown by a handler into a JSON answer; unexpected errors are logged, not shown. */
 export function errorResponse(err: unknown): Response {
 	if (err instanceof ApiError) return json(err.body, { status: err.status });
+	if (isRefusal(err)) return json(err.body(), { status: err.status });
 	if (err instanceof ZodError) return json(validationBody(err), { status: 400 });
 	if (isRedirect(err)) throw err;
 	if (isHttpError(err)) return json({ error: err.body.message }, { status: err.status });

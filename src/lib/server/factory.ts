@@ -4,6 +4,7 @@ import { lines, products } from './db/schema';
 import { recordAudit } from './audit';
 import type { Actor } from '$lib/access';
 import type { CodeNameInput } from '$lib/schemas/factory';
+import { Refusal } from '$lib/errors';
 
 export type FactoryItem = { id: number; code: string; name: string; active: boolean };
 
@@ -30,7 +31,8 @@ export function findProductByCode(db: Db, code: string): FactoryItem | undefined
 	return db.select(columns(products)).from(products).where(eq(products.code, code)).get();
 }
 
-export class DuplicateCodeError extends Error {
+export class DuplicateCodeError extends Refusal {
+	readonly status = 409;
 	constructor(
 		readonly what: string,
 		readonly code: string

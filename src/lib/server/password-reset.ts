@@ -4,6 +4,7 @@ import type { Db } from './db';
 import { passwordResets, users } from './db/schema';
 import { sendMail } from './mail';
 import { changePassword } from './users';
+import { Refusal } from '$lib/errors';
 
 /** A reset link works once, for this long. */
 export const RESET_LINK_TTL_MS = 30 * 60_000;
@@ -88,7 +89,8 @@ export async function requestPasswordReset(
 	return 'sent';
 }
 
-export class ResetLinkError extends Error {
+export class ResetLinkError extends Refusal {
+	readonly status = 410;
 	constructor() {
 		super(
 			'This link is not valid any more: it was used, it expired (30 minutes) or it was never sent. Ask for a new one.'

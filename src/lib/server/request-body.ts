@@ -1,5 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { fileBodyLimitBytes, jsonBodyLimitBytes } from './env-defaults';
+import { Refusal } from '$lib/errors';
 
 /**
  * Body limits, per route. Every body is counted on the stream, whether or not the client sent a
@@ -37,8 +38,8 @@ export function describeBytes(bytes: number): string {
 	return mb >= 1 ? `${Number(mb.toFixed(1))} MB` : `${Math.round(bytes / 1024)} KB`;
 }
 
-export class BodyTooLargeError extends Error {
-	readonly status = 413;
+export class BodyTooLargeError extends Refusal {
+	readonly status = 413 as const;
 	constructor(readonly limitBytes: number) {
 		super(
 			`The request body is larger than the limit of ${describeBytes(limitBytes)} for this route.`

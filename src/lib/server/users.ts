@@ -5,6 +5,7 @@ import { hashPassword, verifyPassword } from './passwords';
 import { recordAudit } from './audit';
 import { endUserSessions, sessionTimeouts, sessionUserId } from './sessions';
 import type { Actor, Role } from '$lib/access';
+import { Refusal } from '$lib/errors';
 
 export type UserSummary = {
 	id: number;
@@ -54,7 +55,8 @@ export function userForSession(
 	return userId === undefined ? undefined : findActiveUser(db, userId);
 }
 
-export class DuplicateEmailError extends Error {
+export class DuplicateEmailError extends Refusal {
+	readonly status = 409;
 	constructor(email: string) {
 		super(`A user with the e-mail ${email} already exists.`);
 	}
@@ -87,7 +89,8 @@ export async function createUser(
 }
 
 /** Refused: the change would leave no active administrator. */
-export class LastAdminError extends Error {
+export class LastAdminError extends Refusal {
+	readonly status = 409;
 	constructor() {
 		super('This is the last active administrator; make someone else an administrator first.');
 	}
@@ -214,7 +217,8 @@ export function pruneSignInFailures(db: Db, now = Date.now()): number {
 		.run().changes;
 }
 
-export class WrongPasswordError extends Error {
+export class WrongPasswordError extends Refusal {
+	readonly status = 422;
 	constructor() {
 		super('The current password is wrong.');
 	}

@@ -62,7 +62,7 @@ export const actions = {
 			await resetPassword(getDb(), parsed.data.token, parsed.data.newPassword);
 		} catch (err) {
 			if (err instanceof ResetLinkError) {
-				return fail(410, {
+				return fail(err.status, {
 					setFields: { token: err.message } as Record<string, string>,
 					done: false
 				});
