@@ -72,6 +72,25 @@ export function thresholdErrors(
 	return errors;
 }
 
+/**
+ * Thresholds from a stored setting: each valid number kept, a missing one defaulted; a set that
+ * no longer passes `thresholdErrors` falls back to the defaults as a whole.
+ * @example thresholdsFromStored({ capable: 1.67 }).marginal // 1
+ */
+export function thresholdsFromStored(value: unknown): CapabilityThresholds {
+	const v = (value ?? {}) as Partial<Record<keyof CapabilityThresholds, unknown>>;
+	const pick = (k: keyof CapabilityThresholds) =>
+		typeof v[k] === 'number' && Number.isFinite(v[k])
+			? (v[k] as number)
+			: DEFAULT_CAPABILITY_THRESHOLDS[k];
+	const t = {
+		capable: pick('capable'),
+		marginal: pick('marginal'),
+		confidenceLevel: pick('confidenceLevel')
+	};
+	return thresholdErrors(t).length ? { ...DEFAULT_CAPABILITY_THRESHOLDS } : t;
+}
+
 function checkBoundArgs(n: number, confidenceLevel: number, fn: string): void {
 	if (!(confidenceLevel > 0.5 && confidenceLevel < 1)) {
 		throw new RangeError(`${fn}: confidence level must be in (0.5, 1), got ${confidenceLevel}`);

@@ -91,6 +91,7 @@ export {
 	cpkLowerBound,
 	cpLowerBound,
 	thresholdErrors,
+	thresholdsFromStored,
 	DEFAULT_CAPABILITY_THRESHOLDS,
 	THRESHOLD_SOURCE,
 	VERDICT_WORDS,
@@ -148,3 +149,35 @@ export {
 } from './chart-detail';
 export { pooledStats, summaryCapability, type SubgroupStats } from './summary-capability';
 export type { CapabilityView, ChartView, ChartViewPoint } from './view-types';
+export {
+	baselineLimits,
+	DEFAULT_MIN_BASELINE_SUBGROUPS,
+	exclusionReason,
+	isMinBaselineSubgroups,
+	LimitsError,
+	type BaselineLimits
+} from './limits-lifecycle';
+export { causeChoiceError, cleanList, DEFAULT_CAUSE_LISTS, type CauseLists } from './cause-lists';
+export {
+	runIdFor,
+	signalCandidates,
+	type RunMember,
+	type SignalCandidate
+} from './signal-evaluation';
+export {
+	acknowledgeBodySchema,
+	chartJson,
+	chartQuery,
+	signalJson,
+	signalQuery,
+	type ChartJsonInput,
+	type SignalJsonInput,
+	type SignalQuery
+} from './api-json';
+export { chartLine, describeSignal, ruleText, type SignalText } from './signal-text';
+export {
+	sortSummaryRows,
+	summaryRow,
+	type ChartSummaryRow,
+	type SummaryInput
+} from './chart-summary';

@@ -1,8 +1,10 @@
 import { and, eq, isNull } from 'drizzle-orm';
 import type { Actor } from '$lib/access';
 import {
-	DEFAULT_CAPABILITY_THRESHOLDS,
+	DEFAULT_MIN_BASELINE_SUBGROUPS,
+	isMinBaselineSubgroups,
 	thresholdErrors,
+	thresholdsFromStored,
 	type CapabilityThresholds
 } from '$lib/spc';
 import type { Db } from '../db';
@@ -28,18 +30,7 @@ export function getCapabilityThresholds(db: Db): CapabilityThresholds {
 		.from(settings)
 		.where(and(isNull(settings.siteId), eq(settings.key, KEY)))
 		.get();
-	const v = (row?.value ?? {}) as Partial<Record<keyof CapabilityThresholds, unknown>>;
-	const pick = (k: keyof CapabilityThresholds) =>
-		typeof v[k] === 'number' && Number.isFinite(v[k])
-			? (v[k] as number)
-			: DEFAULT_CAPABILITY_THRESHOLDS[k];
-	const t = {
-		capable: pick('capable'),
-		marginal: pick('marginal'),
-		confidenceLevel: pick('confidenceLevel')
-	};
-	// A stored value that no longer passes the checks falls back to the defaults as a whole.
-	return thresholdErrors(t).length ? { ...DEFAULT_CAPABILITY_THRESHOLDS } : t;
+	return thresholdsFromStored(row?.value);
 }
 
 /**
@@ -86,12 +77,7 @@ export function setCapabilityThresholds(
 
 const BASELINE_KEY = 'spc.minBaselineSubgroups';
 
-/**
- * Fewest subgroups a baseline needs before limits may be frozen: 20 by default (Montgomery, ISQC
- * §6.2: trial limits from 20–25 subgroups; from memory). Sites may set 10–200.
- */
-export const DEFAULT_MIN_BASELINE_SUBGROUPS = 20;
-
+/** The site's fewest baseline subgroups (`DEFAULT_MIN_BASELINE_SUBGROUPS` until changed). */
 export function getMinBaselineSubgroups(db: Db): number {
 	const row = db
 		.select({ value: settings.value })
@@ -99,14 +85,12 @@ export function getMinBaselineSubgroups(db: Db): number {
 		.where(and(isNull(settings.siteId), eq(settings.key, BASELINE_KEY)))
 		.get();
 	const v = row?.value;
-	return typeof v === 'number' && Number.isInteger(v) && v >= 10 && v <= 200
-		? v
-		: DEFAULT_MIN_BASELINE_SUBGROUPS;
+	return isMinBaselineSubgroups(v) ? v : DEFAULT_MIN_BASELINE_SUBGROUPS;
 }
 
 /** @throws ThresholdsError unless a whole number 10–200. */
 export function setMinBaselineSubgroups(db: Db, n: number, actor: Actor): number {
-	if (!Number.isInteger(n) || n < 10 || n > 200) {
+	if (!isMinBaselineSubgroups(n)) {
 		throw new ThresholdsError(
 			'minBaselineSubgroups',
 			'Subgroups to freeze limits must be a whole number from 10 to 200.'

@@ -3,39 +3,9 @@ import type { Actor } from '$lib/access';
 import type { Db } from '../db';
 import { settings } from '../db/schema';
 import { recordAudit } from '../audit';
+import { cleanList, DEFAULT_CAUSE_LISTS, type CauseLists } from '$lib/spc';
 
-/** The site-editable lists an acknowledgement chooses from. */
-export interface CauseLists {
-	causes: string[];
-	actions: string[];
-}
-
-/** Starting lists (common practice at the printer; the site edits them). */
-export const DEFAULT_CAUSE_LISTS: CauseLists = {
-	causes: [
-		'Stencil underside dirty',
-		'Paste roll too small',
-		'Paste dried or past its open time',
-		'Squeegee pressure drift',
-		'Board support or clamping',
-		'Stencil damaged or worn',
-		'Aperture clogged',
-		'New paste lot',
-		'Measurement or SPI setup',
-		'No cause found'
-	],
-	actions: [
-		'Wipe stencil',
-		'Replenish paste',
-		'Adjust pressure',
-		'Adjust speed',
-		'Replace stencil',
-		'Clean apertures',
-		'Fix board support',
-		'Recalibrate SPI',
-		'Watch, no change'
-	]
-};
+export { DEFAULT_CAUSE_LISTS, type CauseLists };
 
 const KEYS = { causes: 'spc.assignableCauses', actions: 'spc.correctiveActions' } as const;
 
@@ -54,11 +24,6 @@ export function getCauseLists(db: Db): CauseLists {
 		causes: read(db, KEYS.causes) ?? DEFAULT_CAUSE_LISTS.causes,
 		actions: read(db, KEYS.actions) ?? DEFAULT_CAUSE_LISTS.actions
 	};
-}
-
-/** Clean one list: trimmed, non-empty, unique, at most 60 entries of 80 characters. */
-export function cleanList(entries: readonly string[]): string[] {
-	return [...new Set(entries.map((e) => e.trim().slice(0, 80)).filter(Boolean))].slice(0, 60);
 }
 
 /**

@@ -1,5 +1,5 @@
 import { and, eq } from 'drizzle-orm';
-import { phaseOneLimits, pointsFor, SpcInputError, type ChartKind } from '$lib/spc';
+import { baselineLimits, exclusionReason, LimitsError } from '$lib/spc';
 import type { Actor } from '$lib/access';
 import type { Db } from '../db';
 import { spcExclusions, spcLimitVersions } from '../db/schema';
@@ -13,15 +13,7 @@ import {
 	type LimitVersionSummary
 } from './chart-service';
 
-/** A refused lifecycle step, with the field and the reason (HTTP 422 / form error). */
-export class LimitsError extends Error {
-	constructor(
-		readonly field: string,
-		message: string
-	) {
-		super(message);
-	}
-}
+export { LimitsError };
 
 /** Options of `freezeLimits`: the Phase I baseline period and a note for the history. */
 export interface FreezeOptions {
@@ -49,44 +41,13 @@ export function freezeLimits(
 ): LimitVersionSummary {
 	const c = getCharacteristic(db, id);
 	const subgroups = loadSubgroups(db, c, Math.max(1, Math.min(5000, options.limit ?? 200)));
-	const exclusions = listExclusions(db, id);
-	const excludedKeys = new Set(exclusions.map((e) => e.key));
-	const kind = c.chartKind as ChartKind;
-	let limits;
-	try {
-		const points = pointsFor(kind, subgroups);
-		limits = phaseOneLimits(
-			c,
-			subgroups,
-			points,
-			excludedKeys,
-			options.baselineFrom,
-			options.baselineTo
-		);
-	} catch (e) {
-		if (!(e instanceof SpcInputError)) throw e;
-		throw new LimitsError(
-			'baseline',
-			`Cannot compute limits from this baseline: ${e.field}: ${e.reason}.`
-		);
-	}
-	if (!(limits.sigmaWithin > 0) || !Number.isFinite(limits.location.ucl)) {
-		throw new LimitsError(
-			'baseline',
-			'Zero variation in the baseline: the limits would collapse onto the centre line.'
-		);
-	}
-	const used = limits.baselineIndices.map((i) => subgroups[i]);
-	const minimum = options.minSubgroups ?? getMinBaselineSubgroups(db);
-	if (used.length < minimum) {
-		const left = subgroups.length - used.length;
-		throw new LimitsError(
-			'baseline',
-			`The baseline has ${used.length} subgroup${used.length === 1 ? '' : 's'}${left ? ` (${left} left out: excluded or outside the period)` : ''}; at least ${minimum} are needed for limits to hold. Widen the period or wait for more data.`
-		);
-	}
-	const times = used.map((s) => s.at?.getTime()).filter((t): t is number => t !== undefined);
-	const excluded = exclusions.filter((e) => subgroups.some((s) => s.key === e.key));
+	const { limits, baselinePoints, baselineFrom, baselineTo, excluded } = baselineLimits(
+		c,
+		subgroups,
+		listExclusions(db, id),
+		options,
+		options.minSubgroups ?? getMinBaselineSubgroups(db)
+	);
 	const row = db.transaction((tx) => {
 		const next = (latestLimitVersion(tx as unknown as Db, id)?.version ?? 0) + 1;
 		const inserted = tx
@@ -95,9 +56,9 @@ export function freezeLimits(
 				characteristicId: id,
 				version: next,
 				limits: limits as unknown as Record<string, unknown>,
-				baselineFrom: times.length ? new Date(Math.min(...times)) : null,
-				baselineTo: times.length ? new Date(Math.max(...times)) : null,
-				baselinePoints: used.length,
+				baselineFrom,
+				baselineTo,
+				baselinePoints,
 				excluded,
 				note: (options.note ?? '').slice(0, 500),
 				createdByUserId: actor?.kind === 'user' ? actor.id : null
@@ -108,7 +69,7 @@ export function freezeLimits(
 			action: next === 1 ? 'freeze-limits' : 'recalculate-limits',
 			entity: 'spc-characteristic',
 			entityId: id,
-			after: { version: next, limits: { ...limits }, baselinePoints: used.length, excluded }
+			after: { version: next, limits: { ...limits }, baselinePoints, excluded }
 		});
 		return inserted;
 	});
@@ -138,11 +99,7 @@ export function excludePoint(
 	actor: Actor | null
 ): void {
 	getCharacteristic(db, id);
-	const why = reason.trim();
-	if (!why)
-		throw new LimitsError('reason', 'Say why the point is excluded (the assignable cause).');
-	if (!/^(run|board):\d+$/.test(pointKey))
-		throw new LimitsError('pointKey', `"${pointKey}" is not a point of this chart.`);
+	const why = exclusionReason(pointKey, reason);
 	db.transaction((tx) => {
 		tx.insert(spcExclusions)
 			.values({

@@ -1,9 +1,9 @@
 import { and, asc, eq, gte, inArray, like, or } from 'drizzle-orm';
-import { pointKeyWords, RULE_DESCRIPTIONS, type RuleId } from '$lib/spc';
+import { chartLine, describeSignal, ruleText } from '$lib/spc';
 import type { Db } from '../db';
 import { mailOutbox, spcMailQueue, spcSignals, users } from '../db/schema';
 import { sendMail } from '../mail';
-import { characteristicsByIds, chartDetail, type CharacteristicSummary } from './chart-service';
+import { characteristicsByIds, chartDetail } from './chart-service';
 import { listFollowers } from './characteristics';
 
 /** A stored signal (signals.ts has the same alias; not imported from there to keep one direction). */
@@ -15,24 +15,6 @@ export const DIGEST_WINDOW_MS = 5 * 60 * 1000;
 export const DIGEST_THRESHOLD = 3;
 
 const origin = () => (process.env.ORIGIN ?? '').replace(/\/$/, '');
-
-function ruleText(rule: string): string {
-	return RULE_DESCRIPTIONS[rule as RuleId] ?? rule;
-}
-
-function describeSignal(s: SignalRow, c: CharacteristicSummary | undefined): string {
-	const value =
-		s.value == null ? '' : ` value ${Number(s.value.toPrecision(6))}${c?.unit ? ' ' + c.unit : ''}`;
-	const when = s.pointAt ? ` at ${s.pointAt.toISOString().slice(0, 16).replace('T', ' ')} UTC` : '';
-	const n = s.pointKeys.length;
-	return `- ${ruleText(s.rule)} (rule ${s.rule}) on the ${s.chartPart.replace('-', ' ')} chart: ${pointKeyWords(s.pointKey)}${value}${when}; ${n} point${n === 1 ? '' : 's'} in the pattern`;
-}
-
-function chartLine(c: CharacteristicSummary | undefined, id: number): string {
-	if (!c) return `Chart #${id}`;
-	const where = c.lineCodes.length ? c.lineCodes.join(', ') : 'all lines';
-	return `${c.name} · ${c.productCode} · ${where}`;
-}
 
 /** The chart's capability assessment in one line (the same verdict the chart page shows). */
 export function assessmentLine(db: Db, chartId: number): string {

@@ -1,11 +1,10 @@
 import { and, desc, eq, gte, inArray, isNotNull, isNull, lte, sql, type SQL } from 'drizzle-orm';
 import {
-	evaluateChart,
-	pointsFor,
-	ruleList,
-	SpcInputError,
-	type ChartKind,
-	type ChartLimits
+	causeChoiceError,
+	runIdFor,
+	signalCandidates,
+	type ChartLimits,
+	type RunMember
 } from '$lib/spc';
 import type { Actor } from '$lib/access';
 import type { Db } from '../db';
@@ -39,27 +38,17 @@ export function evaluateCharacteristic(
 	const version = latestLimitVersion(db, c.id);
 	if (!version) return [];
 	const limits = version.limits as unknown as ChartLimits;
-	const kind = c.chartKind as ChartKind;
-	if (limits.kind !== kind) return [];
-	const subgroups = loadSubgroups(db, c, tail);
-	if (subgroups.length === 0) return [];
-	let points;
-	try {
-		points = pointsFor(kind, subgroups);
-	} catch (e) {
-		if (e instanceof SpcInputError) return [];
-		throw e;
-	}
-	if (points[0].size !== limits.subgroupSize) return [];
-	const after = version.baselineTo?.getTime() ?? -Infinity;
-	const violations = evaluateChart(points, limits, ruleList(c)).filter((v) => {
-		const at = subgroups[v.index].at?.getTime();
-		return at === undefined || at > after;
-	});
-	if (violations.length === 0) return [];
+	if (limits.kind !== c.chartKind) return [];
+	const candidates = signalCandidates(
+		c,
+		loadSubgroups(db, c, tail),
+		limits,
+		version.baselineTo ?? null
+	);
+	if (candidates.length === 0) return [];
 	// Most violations in the tail are stored already: find those first with one indexed query,
 	// so an import only writes what is new.
-	const tailKeys = [...new Set(violations.map((v) => subgroups[v.index].key))];
+	const tailKeys = [...new Set(candidates.map((v) => v.pointKey))];
 	const stored = db
 		.select({ rule: spcSignals.rule, part: spcSignals.chartPart, key: spcSignals.pointKey })
 		.from(spcSignals)
@@ -72,16 +61,11 @@ export function evaluateCharacteristic(
 		)
 		.all();
 	const seen = new Set(stored.map((r) => `${r.rule}|${r.part}|${r.key}`));
-	const fresh = violations.filter(
-		(v) => !seen.has(`${v.rule}|${v.chart}|${subgroups[v.index].key}`)
-	);
+	const fresh = candidates.filter((v) => !seen.has(`${v.rule}|${v.chartPart}|${v.pointKey}`));
 	if (fresh.length === 0) return [];
 	return db.transaction((tx) => {
 		// Runs continue only from the latest signals (patterns span at most 15 points).
-		const recent: Pick<
-			SignalRow,
-			'id' | 'rule' | 'chartPart' | 'pointKey' | 'pointKeys' | 'runId'
-		>[] = tx
+		const recent: RunMember[] = tx
 			.select({
 				id: spcSignals.id,
 				rule: spcSignals.rule,
@@ -97,38 +81,24 @@ export function evaluateCharacteristic(
 			.all();
 		const created: SignalRow[] = [];
 		for (const v of fresh) {
-			const s = subgroups[v.index];
-			const pointKeys = v.points.map((i) => subgroups[i].key);
-			const previousKey = v.index > 0 ? subgroups[v.index - 1].key : null;
 			const row = tx
 				.insert(spcSignals)
 				.values({
 					characteristicId: c.id,
 					limitVersionId: version.id,
 					rule: v.rule,
-					chartPart: v.chart,
-					pointKey: s.key,
-					pointKeys,
-					boardIds: [...new Set(v.points.flatMap((i) => subgroups[i].boardIds))],
-					pointAt: s.at,
-					value:
-						v.chart === 'location'
-							? points[v.index].location
-							: v.chart === 'dispersion'
-								? points[v.index].dispersion
-								: (points[v.index].movingRange ?? null)
+					chartPart: v.chartPart,
+					pointKey: v.pointKey,
+					pointKeys: v.pointKeys,
+					boardIds: v.boardIds,
+					pointAt: v.pointAt,
+					value: v.value
 				})
 				.onConflictDoNothing()
 				.returning()
 				.get();
 			if (!row) continue;
-			const continues = recent.find(
-				(r) =>
-					r.rule === row.rule &&
-					r.chartPart === row.chartPart &&
-					(r.pointKey === previousKey || r.pointKeys.some((k) => pointKeys.includes(k)))
-			);
-			const runId = continues ? (continues.runId ?? continues.id) : row.id;
+			const runId = runIdFor(recent, row, v);
 			tx.update(spcSignals).set({ runId }).where(eq(spcSignals.id, row.id)).run();
 			const stored = { ...row, runId };
 			recent.unshift(stored);
@@ -280,21 +250,8 @@ export function acknowledgeSignal(
 			409,
 			`Signal ${id} was already acknowledged by ${row.ackBy} at ${row.ackAt.toISOString()}.`
 		);
-	const lists = getCauseLists(db);
-	if (!lists.causes.includes(input.cause)) {
-		throw new AcknowledgeError(
-			422,
-			`"${input.cause}" is not in the list of assignable causes (${lists.causes.join(', ')}).`,
-			'cause'
-		);
-	}
-	if (!lists.actions.includes(input.action)) {
-		throw new AcknowledgeError(
-			422,
-			`"${input.action}" is not in the list of corrective actions (${lists.actions.join(', ')}).`,
-			'action'
-		);
-	}
+	const refused = causeChoiceError(getCauseLists(db), input.cause, input.action);
+	if (refused) throw new AcknowledgeError(422, refused.message, refused.field);
 	const now = new Date();
 	const ids = db.transaction((tx) => {
 		// The wider scope stays on this chart: the open signals of the same run of the same rule.

@@ -2,7 +2,7 @@ import { fail } from '@sveltejs/kit';
 import { hasRole, SPC_EDITORS } from '$lib/access';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
-import { signalJson, signalQuery } from '$lib/server/spc/api-shapes';
+import { signalJson, signalQuery } from '$lib/spc/api-json';
 import { getCauseLists, setCauseList } from '$lib/server/spc/cause-lists';
 import { listCharacteristics } from '$lib/server/spc/chart-service';
 import { acknowledgeSignal, AcknowledgeError, listSignals } from '$lib/server/spc/signals';

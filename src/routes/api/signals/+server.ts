@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { signalJson, signalQuery } from '$lib/server/spc/api-shapes';
+import { signalJson, signalQuery } from '$lib/spc/api-json';
 import { listSignals } from '$lib/server/spc/signals';
 
 /** Stored signals, newest first (`?status=open|acknowledged`, `chart`, `rule`, `limit`). */

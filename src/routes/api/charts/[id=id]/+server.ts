@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { ApiError, apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { chartJson, chartQuery } from '$lib/server/spc/api-shapes';
+import { chartJson, chartQuery } from '$lib/spc/api-json';
 import { chartDetail, NotFoundError } from '$lib/server/spc/chart-service';
 
 /** One chart: points, limits, violations and capability (`?limit=` newest subgroups, ≤ 5000). */

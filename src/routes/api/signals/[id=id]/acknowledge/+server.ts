@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { ApiError, apiRoute, parseJsonBody } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { acknowledgeBodySchema, signalJson } from '$lib/server/spc/api-shapes';
+import { acknowledgeBodySchema, signalJson } from '$lib/spc/api-json';
 import { acknowledgeSignal, AcknowledgeError } from '$lib/server/spc/signals';
 
 /** Acknowledge with a listed cause and action (+ note): 200, 404, 409 or 422. */
