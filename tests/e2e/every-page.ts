@@ -18,6 +18,7 @@ export const STATIC_PAGES = [
 	'/paste-lots',
 	'/recipes',
 	'/recipes/edit',
+	'/recipes/fit',
 	'/recipes/history',
 	'/print-runs',
 	'/print-runs/new',

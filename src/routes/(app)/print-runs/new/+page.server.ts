@@ -16,6 +16,7 @@ import {
 	openRuns,
 	PrintlogRequestError,
 	productByCode,
+	productFitRules,
 	startRun
 } from '$lib/server/printlog';
 import { fieldErrorsFromZod, printRunSchema } from '$lib/schemas/printlog';
@@ -58,6 +59,13 @@ function prefill(line: string, product: string, from: string): Partial<RunForm> 
 	return values as Partial<RunForm>;
 }
 
+/** The chosen product's approved stencils and allowed pastes (null: no such product). */
+function chosenFit(code: string) {
+	const db = getDb();
+	const p = code ? productByCode(db, code) : undefined;
+	return p ? productFitRules(db, p) : null;
+}
+
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const actor = requireActor(locals, PRINT_LOGGERS);
 	const db = getDb();
@@ -88,6 +96,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 			startedAt: r.startedAt
 		})),
 		mayOverride: hasRole(actor, ENGINEERING),
+		fit: chosenFit(product),
 		bladeCodes: [
 			...new Set(listRuns(db, { limit: 300 }).flatMap((r) => (r.bladeCode ? [r.bladeCode] : [])))
 		],
