@@ -11,7 +11,7 @@ import { ApiError } from '../api';
 import { checkStoredStencil } from '../stencils/evaluation';
 import { getStencil, StencilNotFoundError } from '../stencils/stencils';
 import { QueryReader } from './query';
-import { transferEfficiency } from './transfer-efficiency';
+import { transferEfficiencyOffThread } from './te-thread';
 
 /** Default TE loss since new (as a fraction, 0.05 = 5 points of TE) that raises the wear flag. */
 export const DEFAULT_WEAR_DROP = 0.05;
@@ -204,7 +204,7 @@ export async function predictedTeForStencil(
 ): Promise<PredictedTeAnswer> {
 	const check = stencilOr404(() => checkStoredStencil(db, stencilId));
 	const technology = check.stencil.technology;
-	const te = await transferEfficiency(db, {
+	const te = await transferEfficiencyOffThread(db, {
 		technology,
 		paste: null,
 		powder: null,
