@@ -46,3 +46,14 @@ export {
 	type TeHistogramRow
 } from './te-bins';
 export { runOutcome, VOLUME_WINDOW_PCT, type RunOutcome, type RunOutcomeSums } from './run-outcome';
+export {
+	failureKindOf,
+	pareto,
+	DEFAULT_FAILURE_WINDOWS,
+	FAILURE_KINDS,
+	FAILURE_KIND_LABELS,
+	type FailureKind,
+	type FailureWindows,
+	type PadMeasures,
+	type ParetoRow
+} from './failure-kind';

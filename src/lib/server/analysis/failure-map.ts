@@ -1,3 +1,11 @@
+import {
+	failureKindOf,
+	pareto,
+	DEFAULT_FAILURE_WINDOWS,
+	FAILURE_KIND_LABELS,
+	type FailureKind,
+	type FailureWindows
+} from '$lib/analysis';
 import type { Db } from '../db';
 import { checkRange, QueryReader } from './query';
 
@@ -52,6 +60,21 @@ export interface FailureMapAnswer {
 		inspected: number;
 		failRate: number;
 	}[];
+	/**
+	 * Pareto of the failed pads by kind: the measure that broke its window furthest
+	 * (`$lib/analysis/failure-kind`), largest first, with share and cumulative share.
+	 */
+	byKind: {
+		kind: FailureKind;
+		label: string;
+		fails: number;
+		share: number;
+		cumulativeShare: number;
+	}[];
+	/** Failed pads whose worst measure was inside every window (the machine's limits are tighter). */
+	failsWithinWindows: number;
+	/** The windows the kinds were judged against. */
+	windows: FailureWindows;
 	note: string | null;
 }
 
@@ -103,6 +126,58 @@ export async function padFailures(
 }
 
 /**
+ * Failed pads by kind over the given boards: each failed pad (result 2) of each board, with the
+ * foil thickness of the board's stencil for the height window, classified by `failureKindOf`.
+ * In slices like `padFailures` (only failed pads come back to JavaScript).
+ */
+export async function failureKinds(
+	db: Db,
+	boards: readonly { id: number; pad_count: number }[],
+	windows: FailureWindows = DEFAULT_FAILURE_WINDOWS
+): Promise<{ counts: Map<FailureKind, number>; withinWindows: number }> {
+	const failed = db.$client
+		.prepare(
+			`select m.volume_centi_pct as v, m.area_centi_pct as a, m.height_centi_um as h,
+			   m.offset_x_centi_um as x, m.offset_y_centi_um as y, s.thickness_um as foil
+			 from json_each(?) j cross join spi_boards b on b.id = j.value
+			 cross join spi_pad_measurements m on m.board_id = b.id
+			 left join stencils s on s.id = b.stencil_id
+			 where m.result = 2`
+		)
+		.raw();
+	const counts = new Map<FailureKind, number>();
+	let withinWindows = 0;
+	for (let i = 0; i < boards.length;) {
+		const slice: number[] = [];
+		let slicePads = 0;
+		while (
+			i < boards.length &&
+			(slice.length === 0 || slicePads + boards[i].pad_count <= MAP_PADS_PER_SLICE)
+		) {
+			slicePads += boards[i].pad_count;
+			slice.push(boards[i++].id);
+		}
+		for (const [v, a, h, x, y, foil] of failed.all(JSON.stringify(slice)) as (number | null)[][]) {
+			const r = failureKindOf(
+				{
+					volumePct: v === null ? null : v / 100,
+					areaPct: (a as number) / 100,
+					heightUm: (h as number) / 100,
+					offsetXUm: (x as number) / 100,
+					offsetYUm: (y as number) / 100,
+					foilUm: foil
+				},
+				windows
+			);
+			counts.set(r.kind, (counts.get(r.kind) ?? 0) + 1);
+			if (r.reach <= 1) withinWindows++;
+		}
+		if (i < boards.length) await new Promise((resolve) => setImmediate(resolve));
+	}
+	return { counts, withinWindows };
+}
+
+/**
  * Where SPI failures gather across many boards of one product: per pad, inspections, fails and
  * warnings, placed at its linked aperture's position; and a Pareto by pad class. The pad scan is
  * bounded (newest boards up to MAX_MAP_PADS) and runs in slices with the event loop free between.
@@ -136,6 +211,7 @@ export async function failureMap(db: Db, f: FailureMapFilters): Promise<FailureM
 		used.push(b.id);
 	}
 	const perPad = await padFailures(db, boards.slice(0, used.length));
+	const kinds = await failureKinds(db, boards.slice(0, used.length));
 	const padRows = c
 		.prepare(
 			`select p.id, p.refdes, p.pad, p.panel_index, a.x_um, a.y_um from spi_pads p
@@ -180,6 +256,15 @@ export async function failureMap(db: Db, f: FailureMapFilters): Promise<FailureM
 		byClass: [...classes.entries()]
 			.map(([padClass, v]) => ({ padClass, ...v, failRate: v.fails / v.inspected }))
 			.sort((a, b) => b.fails - a.fails || a.padClass.localeCompare(b.padClass)),
+		byKind: pareto(kinds.counts).map((r) => ({
+			kind: r.key,
+			label: FAILURE_KIND_LABELS[r.key],
+			fails: r.count,
+			share: r.share,
+			cumulativeShare: r.cumulativeShare
+		})),
+		failsWithinWindows: kinds.withinWindows,
+		windows: DEFAULT_FAILURE_WINDOWS,
 		note:
 			used.length < boards.length
 				? `Only the newest ${used.length} of ${boards.length} boards were read (at most ${MAX_MAP_PADS} pads): narrow the dates for older boards.`

@@ -7,6 +7,16 @@ export {
 	type TeFilters
 } from './transfer-efficiency';
 export { readTeFilters } from './te-query';
+export { transferEfficiencyOffThread } from './te-thread';
+export {
+	adoptLearnedLimit,
+	learnedLimit,
+	learnedLimits,
+	proposedLimit,
+	DEFAULT_TE_FLOOR,
+	type AdoptedLimit,
+	type LearnedLimit
+} from './learned-limit';
 export {
 	parameterEffect,
 	readParameterFilters,

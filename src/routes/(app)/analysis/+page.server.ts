@@ -7,10 +7,10 @@ import { requireActor } from '$lib/server/guards';
 import {
 	ANALYSIS_OUTCOMES,
 	ANALYSIS_PARAMETERS,
-	readTeFilters,
-	transferEfficiency
+	adoptLearnedLimit,
+	readTeFilters
 } from '$lib/server/analysis';
-import { saveSiteThresholds, siteThresholds } from '$lib/server/stencils';
+import { siteThresholds } from '$lib/server/stencils';
 import type { Actions, PageServerLoad } from './$types';
 
 /** Filter choices only; the figures come from the API on the client as the filters change. */
@@ -50,8 +50,8 @@ export const load: PageServerLoad = async ({ locals }) => {
 export const actions: Actions = {
 	/**
 	 * Adopt the learned limit as the site's minimum area ratio for one technology (engineers;
-	 * audited by the thresholds service). The limit is computed again here from the posted
-	 * filters, never taken from the form, and rounded up to 0.01 (the safer side).
+	 * audited). `adoptLearnedLimit` computes the limit again from the posted filters, never takes
+	 * it from the form, and rounds it up to 0.01 (the safer side).
 	 */
 	adopt: async ({ request, locals }) => {
 		const actor = requireActor(locals, ENGINEERING);
@@ -75,18 +75,23 @@ export const actions: Actions = {
 		}
 		if (filters.technology === null)
 			return fail(400, { adoptError: 'choose one stencil technology to adopt a limit for' });
-		const db = getDb();
-		const te = await transferEfficiency(db, filters);
-		if (te.learnedMinAreaRatio === null)
-			return fail(422, { adoptError: `no learned limit to adopt: ${te.reason}` });
-		const technology = filters.technology as StencilTechnology;
-		const minAreaRatio = Math.ceil(te.learnedMinAreaRatio * 100 - 1e-9) / 100;
-		const current = siteThresholds(db);
-		saveSiteThresholds(
-			db,
-			{ ...current, [technology]: { ...current[technology], minAreaRatio } },
-			actor
-		);
-		return { adopted: { technology, minAreaRatio, learned: te.learnedMinAreaRatio } };
+		try {
+			const adopted = await adoptLearnedLimit(
+				getDb(),
+				{ ...filters, technology: filters.technology as StencilTechnology },
+				actor
+			);
+			return {
+				adopted: {
+					technology: adopted.technology,
+					minAreaRatio: adopted.after,
+					learned: adopted.learnedMinAreaRatio
+				}
+			};
+		} catch (err) {
+			if (err instanceof ApiError && err.status === 422)
+				return fail(422, { adoptError: String(err.body.error) });
+			throw err;
+		}
 	}
 };
