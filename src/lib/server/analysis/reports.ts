@@ -2,24 +2,12 @@ import { runOutcome, VOLUME_WINDOW_PCT } from '$lib/analysis';
 import { ApiError } from '../api';
 import type { Db } from '../db';
 import { MAX_MAP_PADS, padClassOf, padFailures } from './failure-map';
+import { iso, runContextLookups, signalQuery, type SignalRow } from './run-context';
 
 /** Boards charted in a run report (all are counted; the newest this many are drawn). */
 export const MAX_REPORT_BOARDS = 5000;
 
-export interface ReportSignal {
-	id: number;
-	characteristic: string;
-	rule: string;
-	chartPart: string;
-	pointAt: string | null;
-	acknowledged: {
-		at: string;
-		by: string | null;
-		cause: string | null;
-		action: string | null;
-		note: string | null;
-	} | null;
-}
+export type ReportSignal = SignalRow;
 
 export interface RunReport {
 	run: {
@@ -79,46 +67,9 @@ export interface RunReport {
 	notes: string[];
 }
 
-const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
-
+/** Signals of `where` (over `s` = spc_signals), oldest first, at most 500. */
 function signalRows(db: Db, where: string, params: unknown[]): ReportSignal[] {
-	return (
-		db.$client
-			.prepare(
-				`select s.id, ch.name as characteristic, s.rule, s.chart_part, s.point_at, s.ack_at, s.ack_by,
-				   s.ack_cause, s.ack_action, s.ack_note
-				 from spc_signals s join spc_characteristics ch on ch.id = s.characteristic_id
-				 where ${where} order by s.point_at, s.id limit 500`
-			)
-			.all(...params) as {
-			id: number;
-			characteristic: string;
-			rule: string;
-			chart_part: string;
-			point_at: number | null;
-			ack_at: number | null;
-			ack_by: string | null;
-			ack_cause: string | null;
-			ack_action: string | null;
-			ack_note: string | null;
-		}[]
-	).map((s) => ({
-		id: s.id,
-		characteristic: s.characteristic,
-		rule: s.rule,
-		chartPart: s.chart_part,
-		pointAt: iso(s.point_at),
-		acknowledged:
-			s.ack_at === null
-				? null
-				: {
-						at: iso(s.ack_at)!,
-						by: s.ack_by,
-						cause: s.ack_cause,
-						action: s.ack_action,
-						note: s.ack_note
-					}
-	}));
+	return signalQuery(db, where, 'oldest first', 500)(...params);
 }
 
 /**
@@ -139,16 +90,9 @@ export async function runReport(db: Db, runId: number): Promise<RunReport> {
 		)
 		.get(runId) as Record<string, unknown> | undefined;
 	if (!r) throw new ApiError(404, { error: `No print run ${runId}.` });
-	const st = r.stencil_id
-		? (c
-				.prepare(`select id, name, revision, technology, thickness_um from stencils where id = ?`)
-				.get(r.stencil_id) as Record<string, unknown> | undefined)
-		: undefined;
-	const lot = r.paste_lot_id
-		? (c
-				.prepare(`select lot_number, alloy, powder_type from paste_lots where id = ?`)
-				.get(r.paste_lot_id) as Record<string, unknown> | undefined)
-		: undefined;
+	const lookups = runContextLookups(db);
+	const stencil = lookups.stencil(r.stencil_id as number | null);
+	const lot = lookups.lot(r.paste_lot_id as number | null);
 	const logged = JSON.parse(r.parameters as string) as Record<string, unknown>;
 	const recipe = r.recipe_parameters
 		? (JSON.parse(r.recipe_parameters as string) as Record<string, unknown>)
@@ -257,21 +201,9 @@ export async function runReport(db: Db, runId: number): Promise<RunReport> {
 			relativeHumidityPct: r.relative_humidity_pct as number | null,
 			overrideReason: r.override_reason as string | null
 		},
-		stencil: st
-			? {
-					id: st.id as number,
-					name: st.name as string,
-					revision: st.revision as string,
-					technology: st.technology as string,
-					thicknessUm: st.thickness_um as number
-				}
-			: null,
+		stencil,
 		pasteLot: lot
-			? {
-					lotNumber: lot.lot_number as string,
-					alloy: lot.alloy as string,
-					powderType: lot.powder_type as number
-				}
+			? { lotNumber: lot.lotNumber, alloy: lot.alloy, powderType: lot.powderType }
 			: null,
 		parameters,
 		deviations: JSON.parse(r.deviations as string) as unknown[],

@@ -1,5 +1,6 @@
 import type { Db } from '../db';
 import { QueryReader } from './query';
+import { iso, runContextLookups, signalQuery } from './run-context';
 
 /** Boards listed for a prefix search (each with its full trace). */
 export const MAX_TRACE_BOARDS = 20;
@@ -79,8 +80,6 @@ export interface TraceAnswer {
 	more: boolean;
 }
 
-const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
-
 /**
  * Everything known about a board by its serial: exact first (every inspection of it), else the
  * serials beginning with it. Each step is an index lookup: spi_boards by (serial, inspected_at),
@@ -104,10 +103,7 @@ export function traceBoard(db: Db, serial: string): TraceAnswer {
 	}
 	const more = rows.length > MAX_TRACE_BOARDS;
 	const runOf = c.prepare(`select * from print_runs where id = ?`);
-	const stencilOf = c.prepare(
-		`select id, name, revision, technology, thickness_um from stencils where id = ?`
-	);
-	const lotOf = c.prepare(`select id, lot_number, alloy, powder_type from paste_lots where id = ?`);
+	const lookups = runContextLookups(db);
 	const userOf = c.prepare(`select id, name from users where id = ?`);
 	const flagged = c.prepare(
 		`select d.refdes, d.pad, d.panel_index, m.result, m.volume_centi_pct
@@ -115,30 +111,27 @@ export function traceBoard(db: Db, serial: string): TraceAnswer {
 		 where m.board_id = ? and m.result > 0
 		 order by m.result desc, m.volume_centi_pct limit ${MAX_LISTED_PADS}`
 	);
-	const signalsOf = c.prepare(
-		`select s.id, ch.name as characteristic, s.rule, s.chart_part, s.point_at, s.ack_at
-		 from spc_signals s join spc_characteristics ch on ch.id = s.characteristic_id
-		 where (instr(s.board_ids, @idText) > 0
-		        and exists (select 1 from json_each(s.board_ids) j where j.value = @id))
-		    or (@runKey is not null and instr(s.point_keys, @runKey) > 0
-		        and exists (select 1 from json_each(s.point_keys) k where k.value = @runKey))
-		 order by s.id desc limit 50`
+	// A substring test first, so only signals naming the board (or run) parse their JSON lists.
+	const signalsOf = signalQuery(
+		db,
+		`(instr(s.board_ids, ?) > 0 and exists (select 1 from json_each(s.board_ids) j where j.value = ?))
+		 or (? is not null and instr(s.point_keys, ?) > 0
+		     and exists (select 1 from json_each(s.point_keys) k where k.value = ?))`,
+		'newest first',
+		50
 	);
 	const boards = rows.slice(0, MAX_TRACE_BOARDS).map((b): BoardTrace => {
 		const run = b.print_run_id
 			? (runOf.get(b.print_run_id) as Record<string, unknown> | undefined)
 			: undefined;
 		const stencilId = (b.stencil_id as number | null) ?? (run?.stencil_id as number | null) ?? null;
-		const st = stencilId
-			? (stencilOf.get(stencilId) as Record<string, unknown> | undefined)
-			: undefined;
-		const lot = run?.paste_lot_id
-			? (lotOf.get(run.paste_lot_id) as Record<string, unknown> | undefined)
-			: undefined;
+		const stencil = lookups.stencil(stencilId);
+		const lot = lookups.lot(run?.paste_lot_id as number | null | undefined);
 		const op = run?.operator_user_id
 			? (userOf.get(run.operator_user_id) as { id: number; name: string } | undefined)
 			: undefined;
 		const runId = (b.print_run_id as number | null) ?? null;
+		const runKey = runId === null ? null : `run:${runId}`;
 		return {
 			board: {
 				id: b.id as number,
@@ -168,23 +161,8 @@ export function traceBoard(db: Db, serial: string): TraceAnswer {
 						deviations: (JSON.parse(run.deviations as string) as unknown[]).length
 					}
 				: null,
-			stencil: st
-				? {
-						id: st.id as number,
-						name: st.name as string,
-						revision: st.revision as string,
-						technology: st.technology as string,
-						thicknessUm: st.thickness_um as number
-					}
-				: null,
-			pasteLot: lot
-				? {
-						id: lot.id as number,
-						lotNumber: lot.lot_number as string,
-						alloy: lot.alloy as string,
-						powderType: lot.powder_type as number
-					}
-				: null,
+			stencil,
+			pasteLot: lot,
 			recipe:
 				run && run.recipe_id
 					? { id: run.recipe_id as number, version: run.recipe_version as number }
@@ -205,26 +183,13 @@ export function traceBoard(db: Db, serial: string): TraceAnswer {
 				result: p.result === 2 ? 'fail' : 'warn',
 				volumePct: p.volume_centi_pct === null ? null : p.volume_centi_pct / 100
 			})),
-			signals: (
-				signalsOf.all({
-					idText: String(b.id),
-					id: b.id,
-					runKey: runId === null ? null : `run:${runId}`
-				}) as {
-					id: number;
-					characteristic: string;
-					rule: string;
-					chart_part: string;
-					point_at: number | null;
-					ack_at: number | null;
-				}[]
-			).map((s) => ({
+			signals: signalsOf(String(b.id), b.id, runKey, runKey, runKey).map((s) => ({
 				id: s.id,
 				characteristic: s.characteristic,
 				rule: s.rule,
-				chartPart: s.chart_part,
-				pointAt: iso(s.point_at),
-				acknowledged: s.ack_at !== null
+				chartPart: s.chartPart,
+				pointAt: s.pointAt,
+				acknowledged: s.acknowledged !== null
 			}))
 		};
 	});
