@@ -2,7 +2,7 @@
  * Import rules checked in CI (`npm run check:deps`). Kept to what the architecture promises:
  * no import cycles, and pure domain folders free of the server, the framework and the database.
  */
-const PURE = '^src/lib/(spc|stencil|ingest|printlog|analysis|floor|cfx|units|format|json|csv)/';
+const PURE = '^src/lib/(spc|stencil|ingest|printlog|analysis|floor|cfx|units|format|json|csv|spi)/';
 
 module.exports = {
 	forbidden: [

@@ -2,26 +2,12 @@
  * An inspected unit as a canonical SPI CSV (reference/ingest/canonical-layout.md), so CFX
  * measurements go through the same ingest, rules and signals as files (`ingestSpiFile`).
  */
+import { CANONICAL_FIELDS } from '../ingest/canonical-fields';
+import { PAD_MEASURE_KEYS } from '../spi/measures';
 import type { InspectedUnit } from './map';
 
-export const CANONICAL_SPI_HEADER = [
-	'board_serial',
-	'inspected_at',
-	'line',
-	'product',
-	'panel_index',
-	'refdes',
-	'pad',
-	'volume_pct',
-	'area_pct',
-	'height_um',
-	'offset_x_um',
-	'offset_y_um',
-	'result',
-	'volume_um3',
-	'stencil',
-	'print_run'
-] as const;
+/** The canonical header (`CANONICAL_FIELDS`), in layout order: this CSV is read by the same parser. */
+export const CANONICAL_SPI_HEADER = CANONICAL_FIELDS;
 
 /** RFC 4180 text cell, always quoted: sender text is never read as a number or a formula. */
 function quoted(value: string): string {
@@ -65,11 +51,7 @@ export function spiCsvForUnits(units: readonly InspectedUnit[], ctx: SpiCsvConte
 					String(unit.positionNumber),
 					quoted(p.refdes),
 					quoted(p.pad),
-					centis(p.volumePct),
-					centis(p.areaPct),
-					centis(p.heightUm),
-					centis(p.offsetXUm),
-					centis(p.offsetYUm),
+					...PAD_MEASURE_KEYS.map((key) => centis(p[key])),
 					p.result,
 					p.volumeUm3 === null ? '' : String(p.volumeUm3),
 					ctx.stencilName === null ? '' : quoted(ctx.stencilName),

@@ -7,18 +7,13 @@ import {
 	type MeasureState,
 	type MeasureSummary
 } from './measure-stats';
+import { PAD_MEASURE_KEYS, type PadMeasureKey } from '../spi/measures';
 
-/** The measures kept per board, named as in the parsed row. */
-export const AGGREGATED_MEASURES = [
-	'volumePct',
-	'areaPct',
-	'heightUm',
-	'offsetXUm',
-	'offsetYUm'
-] as const;
+/** The measures kept per board, named as in the parsed row (the catalogue's pad measures). */
+export const AGGREGATED_MEASURES = PAD_MEASURE_KEYS;
 
 /** One aggregated measure name. */
-export type AggregatedMeasure = (typeof AGGREGATED_MEASURES)[number];
+export type AggregatedMeasure = PadMeasureKey;
 
 /** Result codes as stored: 0 pass, 1 warn, 2 fail. */
 export type ResultCode = 0 | 1 | 2;

@@ -2,6 +2,7 @@
  * The canonical Rollbead SPI layout: one row per pad deposit. Every other export is mapped onto
  * these field names by a mapping profile. See `reference/ingest/canonical-layout.md`.
  */
+import { PAD_MEASURE_RANGES } from '../spi/measures';
 
 /** Canonical columns that every file must supply (directly or through the profile). */
 export const REQUIRED_FIELDS = [
@@ -38,19 +39,12 @@ export function isCanonicalField(name: string): name is CanonicalField {
 }
 
 /**
- * Inclusive plausibility ranges checked on every row, after unit conversion. They are wide on
- * purpose: a value outside them is a mapping or unit mistake, not a bad print.
- * Why these numbers: SPI reports volume/area/height as % of the aperture's nominal value, and
- * 100 % is the target with 50–150 % specs (REFERENCE-FACTS §e), so 10× nominal is never real;
- * stencil foils are 75–200 µm (common practice), so 2000 µm of height is impossible; an offset
- * of 5 mm is larger than any SMT pad. Rollbead's own choices, not from a standard.
+ * Inclusive plausibility ranges checked on every row, after unit conversion: the pad measures'
+ * from the measure catalogue (`$lib/spi/measures`, where the numbers are argued), plus absolute
+ * volume (10¹² µm³ is 1 cm³, far past any deposit) and the panel index (16 bits).
  */
 export const FIELD_RANGES = {
-	volume_pct: { min: 0, max: 1000 },
-	area_pct: { min: 0, max: 1000 },
-	height_um: { min: 0, max: 2000 },
-	offset_x_um: { min: -5000, max: 5000 },
-	offset_y_um: { min: -5000, max: 5000 },
+	...PAD_MEASURE_RANGES,
 	volume_um3: { min: 0, max: 1e12 },
 	panel_index: { min: 0, max: 65535 }
 } as const;

@@ -10,6 +10,7 @@ import { FIELD_RANGES, MAX_TEXT_LENGTH, type CanonicalField } from './canonical-
 import type { IssueCollector } from './ingest-issue';
 import type { MappingProfile } from './mapping-profile';
 import { parseDecimal } from './parse-decimal';
+import { PAD_MEASURES } from '../spi/measures';
 import type { SpiColumns } from './spi-field-map';
 import type { SpiCells } from './spi-tokenizer';
 
@@ -131,6 +132,11 @@ function rangeText(field: keyof typeof FIELD_RANGES, unit: string): string {
 }
 
 const RESULT_CODES = { pass: 0, warn: 1, fail: 2 } as const;
+/** Unit of each pad measure in range messages (' %', ' µm'), from the measure catalogue. */
+const UNIT = Object.fromEntries(PAD_MEASURES.map((m) => [m.field, ` ${m.unit}`])) as Record<
+	(typeof PAD_MEASURES)[number]['field'],
+	string
+>;
 const VOLUME_MIN = FIELD_RANGES.volume_pct.min;
 const VOLUME_MAX = FIELD_RANGES.volume_pct.max;
 const AREA_MIN = FIELD_RANGES.area_pct.min;
@@ -365,15 +371,24 @@ export function createRowValidator(options: RowValidatorOptions): RowValidator {
 					: text(row, iPad, 'pad', false, '');
 			out.volumePct =
 				iVolume >= 0
-					? measure(row, iVolume, 'volume_pct', 1, ' %', volumePctOptional, VOLUME_MIN, VOLUME_MAX)
+					? measure(
+							row,
+							iVolume,
+							'volume_pct',
+							1,
+							UNIT.volume_pct,
+							volumePctOptional,
+							VOLUME_MIN,
+							VOLUME_MAX
+						)
 					: NaN;
-			out.areaPct = measure(row, iArea, 'area_pct', 1, ' %', false, AREA_MIN, AREA_MAX);
+			out.areaPct = measure(row, iArea, 'area_pct', 1, UNIT.area_pct, false, AREA_MIN, AREA_MAX);
 			out.heightUm = measure(
 				row,
 				iHeight,
 				'height_um',
 				lengthFactor,
-				' µm',
+				UNIT.height_um,
 				false,
 				HEIGHT_MIN,
 				HEIGHT_MAX
@@ -383,7 +398,7 @@ export function createRowValidator(options: RowValidatorOptions): RowValidator {
 				iOffsetX,
 				'offset_x_um',
 				lengthFactor,
-				' µm',
+				UNIT.offset_x_um,
 				false,
 				OFFSET_MIN,
 				OFFSET_MAX
@@ -393,7 +408,7 @@ export function createRowValidator(options: RowValidatorOptions): RowValidator {
 				iOffsetY,
 				'offset_y_um',
 				lengthFactor,
-				' µm',
+				UNIT.offset_y_um,
 				false,
 				OFFSET_MIN,
 				OFFSET_MAX

@@ -1,4 +1,5 @@
-import { and, eq, inArray, isNotNull } from 'drizzle-orm';
+import { and, eq, getTableColumns, inArray, isNotNull } from 'drizzle-orm';
+import { SPI_MEASURES, type SpiMeasureId } from '$lib/spi/measures';
 import { apertureGeometry, areaRatio, type ApertureInput } from '$lib/stencil';
 import {
 	groupBoards,
@@ -19,92 +20,37 @@ import {
 } from '../db/schema';
 import type { CharacteristicRow } from './source-types';
 
-/** Per-board aggregate columns and pad-measurement column of each SPI measure. */
-const COLUMNS = {
-	'volume-pct': {
-		count: spiBoards.volumePctCount,
-		mean: spiBoards.volumePctMean,
-		sd: spiBoards.volumePctSd,
-		range: spiBoards.volumePctRange,
-		min: spiBoards.volumePctMin,
-		max: spiBoards.volumePctMax,
-		pad: spiPadMeasurements.volumeCentiPct,
-		scale: 1
-	},
-	'area-pct': {
-		count: spiBoards.areaPctCount,
-		mean: spiBoards.areaPctMean,
-		sd: spiBoards.areaPctSd,
-		range: spiBoards.areaPctRange,
-		min: spiBoards.areaPctMin,
-		max: spiBoards.areaPctMax,
-		pad: spiPadMeasurements.areaCentiPct,
-		scale: 1
-	},
-	'height-um': {
-		count: spiBoards.heightUmCount,
-		mean: spiBoards.heightUmMean,
-		sd: spiBoards.heightUmSd,
-		range: spiBoards.heightUmRange,
-		min: spiBoards.heightUmMin,
-		max: spiBoards.heightUmMax,
-		pad: spiPadMeasurements.heightCentiUm,
-		scale: 1
-	},
-	'offset-x-um': {
-		count: spiBoards.offsetXUmCount,
-		mean: spiBoards.offsetXUmMean,
-		sd: spiBoards.offsetXUmSd,
-		range: spiBoards.offsetXUmRange,
-		min: spiBoards.offsetXUmMin,
-		max: spiBoards.offsetXUmMax,
-		pad: spiPadMeasurements.offsetXCentiUm,
-		scale: 1
-	},
-	'offset-y-um': {
-		count: spiBoards.offsetYUmCount,
-		mean: spiBoards.offsetYUmMean,
-		sd: spiBoards.offsetYUmSd,
-		range: spiBoards.offsetYUmRange,
-		min: spiBoards.offsetYUmMin,
-		max: spiBoards.offsetYUmMax,
-		pad: spiPadMeasurements.offsetYCentiUm,
-		scale: 1
-	},
-	// Stored as a fraction; charted in % (× 100). Pad-level TE needs aperture volumes: all pads only.
-	'transfer-efficiency-pct': {
-		count: spiBoards.teCount,
-		mean: spiBoards.teMean,
-		sd: spiBoards.teSd,
-		range: spiBoards.teRange,
-		min: spiBoards.teMin,
-		max: spiBoards.teMax,
-		pad: null,
-		scale: 100
-	}
-} as const;
+type SpiMeasure = SpiMeasureId;
 
-type SpiMeasure = keyof typeof COLUMNS;
+const padMeasurementColumns = Object.values(getTableColumns(spiPadMeasurements));
+
+/**
+ * Per SPI measure (from the catalogue): its pad-measurement column, or null (transfer efficiency
+ * has none: pad-level TE needs aperture volumes, so all pads only), and the factor from stored
+ * board figures to charted values (TE is stored as a fraction, charted in %).
+ */
+const COLUMNS = Object.fromEntries(
+	SPI_MEASURES.map((m) => [
+		m.id,
+		{
+			pad: (padMeasurementColumns.find((c) => c.name === m.padColumn) ?? null) as
+				typeof spiPadMeasurements.volumeCentiPct | null,
+			scale: m.chartScale
+		}
+	])
+) as Record<SpiMeasure, { pad: typeof spiPadMeasurements.volumeCentiPct | null; scale: number }>;
 
 /** SQL column prefix of each measure's aggregates in spi_boards. */
-const PREFIX: Record<SpiMeasure, string> = {
-	'volume-pct': 'volume_pct',
-	'area-pct': 'area_pct',
-	'height-um': 'height_um',
-	'offset-x-um': 'offset_x_um',
-	'offset-y-um': 'offset_y_um',
-	'transfer-efficiency-pct': 'te'
-};
+const PREFIX = Object.fromEntries(SPI_MEASURES.map((m) => [m.id, m.column])) as Record<
+	SpiMeasure,
+	string
+>;
 
 /** Pad-measurement column (hundredths) of each measure; TE has none. */
-const PAD_COLUMN: Record<SpiMeasure, string | null> = {
-	'volume-pct': 'volume_centi_pct',
-	'area-pct': 'area_centi_pct',
-	'height-um': 'height_centi_um',
-	'offset-x-um': 'offset_x_centi_um',
-	'offset-y-um': 'offset_y_centi_um',
-	'transfer-efficiency-pct': null
-};
+const PAD_COLUMN = Object.fromEntries(SPI_MEASURES.map((m) => [m.id, m.padColumn])) as Record<
+	SpiMeasure,
+	string | null
+>;
 
 type BoardRow = {
 	id: number;
