@@ -25,6 +25,11 @@ export const SPC_EDITORS: readonly Role[] = ['quality', 'engineer', 'admin'];
 export const AUDIT_READERS: readonly Role[] = ['quality', 'admin'];
 /** Who may take or hand on a signal on the floor (everyone who works there; viewers read). */
 export const SIGNAL_ASSIGNERS: readonly Role[] = ['technician', 'quality', 'engineer', 'admin'];
+/**
+ * Who may acknowledge signals from a line's view: the SPC editors, and technicians, who may
+ * acknowledge the open signals of that line only (never edit charts, limits or the cause lists).
+ */
+export const LINE_ACKNOWLEDGERS: readonly Role[] = ['technician', ...SPC_EDITORS];
 
 export function isRole(value: unknown): value is Role {
 	return typeof value === 'string' && (ROLES as readonly string[]).includes(value);

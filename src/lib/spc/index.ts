@@ -181,3 +181,9 @@ export {
 	type ChartSummaryRow,
 	type SummaryInput
 } from './chart-summary';
+export {
+	readAcknowledgeForm,
+	type AcknowledgeFormRead,
+	type AcknowledgeRequest
+} from './acknowledge-form';
+export { widerScopeIds, type BoardSide, type ScopeMember } from './ack-scope';

@@ -49,6 +49,8 @@ export interface ChartDetail extends ComputedChart {
 	characteristic: CharacteristicSummary;
 	versions: LimitVersionSummary[];
 	exclusions: { key: string; reason: string }[];
+	/** The open signals (oldest first), loaded once for the assessment and the page's list. */
+	openSignals: OpenChartSignal[];
 }
 
 /** Options of `chartDetail`. */
@@ -144,18 +146,25 @@ export function listExclusions(db: Db, characteristicId: number) {
 		.all();
 }
 
-/** Open (unacknowledged) signals of a characteristic, named as the user knows the points. */
+/** An open signal of the chart: what the assessment names and the page lists. */
+export interface OpenChartSignal extends OpenSignalRef {
+	pointKey: string;
+	pointAt: Date | null;
+}
+
+/** Open (unacknowledged) signals of a characteristic, oldest first, named as the user knows the points. */
 export function openSignalRefs(
 	db: Db,
 	characteristicId: number,
 	labels: Map<string, string> = new Map()
-): OpenSignalRef[] {
+): OpenChartSignal[] {
 	return db
 		.select({
 			id: spcSignals.id,
 			rule: spcSignals.rule,
 			chartPart: spcSignals.chartPart,
-			pointKey: spcSignals.pointKey
+			pointKey: spcSignals.pointKey,
+			pointAt: spcSignals.pointAt
 		})
 		.from(spcSignals)
 		.where(and(eq(spcSignals.characteristicId, characteristicId), isNull(spcSignals.ackAt)))
@@ -166,7 +175,9 @@ export function openSignalRefs(
 			id: s.id,
 			rule: s.rule,
 			chartPart: s.chartPart,
-			point: labels.get(s.pointKey) ?? pointKeyWords(s.pointKey)
+			point: labels.get(s.pointKey) ?? pointKeyWords(s.pointKey),
+			pointKey: s.pointKey,
+			pointAt: s.pointAt
 		}));
 }
 
@@ -184,6 +195,7 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 	const exclusions = listExclusions(db, id);
 	const versions = listLimitVersions(db, id);
 	const labels = new Map(subgroups.map((s) => [s.key, s.label]));
+	const openSignals = openSignalRefs(db, id, labels);
 	const computed = computeChart({
 		characteristic: c,
 		subgroups,
@@ -191,11 +203,17 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 		exclusions,
 		baselineFrom: options.baselineFrom,
 		baselineTo: options.baselineTo,
-		openSignals: openSignalRefs(db, id, labels),
+		// The assessment names the signals only (its JSON is part of the API answer).
+		openSignals: openSignals.map(({ id, rule, chartPart, point }) => ({
+			id,
+			rule,
+			chartPart,
+			point
+		})),
 		thresholds: getCapabilityThresholds(db),
 		pads: needsPadEvidence(c, subgroups) ? padEvidence(db, c, subgroups) : null
 	});
-	return { characteristic: c, versions, exclusions, ...computed };
+	return { characteristic: c, versions, exclusions, openSignals, ...computed };
 }
 
 /** Characteristic ids by id list (helper for signals and summary). */

@@ -5,7 +5,8 @@ import { requireActor } from '$lib/server/guards';
 import { signalJson, signalQuery } from '$lib/spc/api-json';
 import { getCauseLists, setCauseList } from '$lib/server/spc/cause-lists';
 import { listCharacteristics } from '$lib/server/spc/chart-service';
-import { acknowledgeSignal, AcknowledgeError, listSignals } from '$lib/server/spc/signals';
+import { listSignals } from '$lib/server/spc/signals';
+import { acknowledgeFromForm } from '$lib/server/spc/acknowledge';
 import { patternScopeCounts } from '$lib/server/spc/ack-scope';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -36,50 +37,8 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 export const actions = {
 	acknowledge: async ({ locals, request }) => {
 		const actor = requireActor(locals, SPC_EDITORS);
-		const form = await request.formData();
-		const id = Number(form.get('id'));
-		const wholeRun = form.get('scope') === 'pattern';
-		const count = Number(form.get('count'));
-		const input = {
-			cause: String(form.get('cause') ?? '').trim(),
-			action: String(form.get('action') ?? '').trim(),
-			note: String(form.get('note') ?? ''),
-			wholeRun,
-			expectedCount: wholeRun && Number.isInteger(count) && count > 0 ? count : undefined
-		};
-		// Nothing is chosen for the person: an empty cause or action is named, not defaulted.
-		if (!input.cause)
-			return fail(422, {
-				action: 'acknowledge',
-				id,
-				field: 'cause',
-				error: 'Choose the assignable cause.'
-			});
-		if (!input.action)
-			return fail(422, {
-				action: 'acknowledge',
-				id,
-				field: 'action',
-				error: 'Choose the corrective action taken.'
-			});
-		try {
-			const done = acknowledgeSignal(getDb(), id, input, actor);
-			return {
-				action: 'acknowledge',
-				id,
-				ok: `Acknowledged ${done.length} signal${done.length === 1 ? '' : 's'}.`
-			};
-		} catch (err) {
-			if (err instanceof AcknowledgeError) {
-				return fail(err.status, {
-					action: 'acknowledge',
-					id,
-					field: err.field ?? 'cause',
-					error: err.message
-				});
-			}
-			throw err;
-		}
+		const out = acknowledgeFromForm(getDb(), await request.formData(), actor);
+		return out.ok ? out.body : fail(out.status, out.body);
 	},
 	lists: async ({ locals, request }) => {
 		const actor = requireActor(locals, SPC_EDITORS);

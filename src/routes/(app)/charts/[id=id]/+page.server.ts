@@ -10,7 +10,6 @@ import {
 	includePoint,
 	LimitsError
 } from '$lib/server/spc/limits-lifecycle';
-import { listSignals } from '$lib/server/spc/signals';
 import { getMinBaselineSubgroups } from '$lib/server/spc/capability-settings';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -35,20 +34,25 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	const to = dateParam(url.searchParams.get('to'));
 	const limit = pointCount(url.searchParams.get('n'));
 	try {
+		// The one chart path (as GET /api/charts/{id}): loaded once, computed once.
 		const detail = chartDetail(db, id, {
 			limit,
 			baselineFrom: from === 'invalid' ? null : from,
 			baselineTo: to === 'invalid' ? null : to
 		});
+		const followers = listFollowers(db, id);
+		const point = url.searchParams.get('point');
 		return {
 			detail,
 			limit,
 			baseline: { from: url.searchParams.get('from') ?? '', to: url.searchParams.get('to') ?? '' },
-			openSignals: listSignals(db, { status: 'open', characteristicId: id, limit: 50 }),
-			following: actor.kind === 'user' && listFollowers(db, id).some((f) => f.userId === actor.id),
-			followers: listFollowers(db, id).map((f) => f.name),
+			openSignals: detail.openSignals.slice(-50).reverse(),
+			following: actor.kind === 'user' && followers.some((f) => f.userId === actor.id),
+			followers: followers.map((f) => f.name),
 			canEdit: hasRole(actor, SPC_EDITORS),
-			minBaseline: getMinBaselineSubgroups(db)
+			minBaseline: getMinBaselineSubgroups(db),
+			/** A point to mark (a signal's link): shown only when it is on the chart. */
+			highlight: point && detail.chart?.points.some((p) => p.key === point) ? point : null
 		};
 	} catch (err) {
 		if (err instanceof NotFoundError) error(404, err.message);

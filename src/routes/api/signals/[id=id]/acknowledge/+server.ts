@@ -2,19 +2,15 @@ import { json } from '@sveltejs/kit';
 import { ApiError, apiRoute, parseJsonBody } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import { acknowledgeBodySchema, signalJson } from '$lib/spc/api-json';
-import { acknowledgeSignal, AcknowledgeError } from '$lib/server/spc/signals';
+import { tryAcknowledge } from '$lib/server/spc/acknowledge';
 
 /** Acknowledge with a listed cause and action (+ note): 200, 404, 409 or 422. */
 export const POST = apiRoute(async ({ params, request }, actor) => {
 	const id = Number(params.id);
 	const body = await parseJsonBody(request, acknowledgeBodySchema);
-	try {
-		return json({ signals: acknowledgeSignal(getDb(), id, body, actor).map(signalJson) });
-	} catch (err) {
-		if (!(err instanceof AcknowledgeError)) throw err;
-		if (err.status === 422) {
-			throw new ApiError(422, { errors: [{ field: err.field ?? 'body', message: err.message }] });
-		}
-		throw new ApiError(err.status, { error: err.message });
-	}
+	const out = tryAcknowledge(getDb(), id, body, actor);
+	if (out.ok) return json({ signals: out.signals.map(signalJson) });
+	if (out.status === 422)
+		throw new ApiError(422, { errors: [{ field: out.field ?? 'body', message: out.message }] });
+	throw new ApiError(out.status, { error: out.message });
 });
