@@ -46,7 +46,15 @@ export interface StencilCheck {
 export function checkStoredStencil(db: Db, stencilId: number): StencilCheck {
 	const stencil = getStencil(db, stencilId);
 	const thresholds = siteThresholds(db)[stencil.technology];
-	const stored = loadApertures(db, stencilId);
+	return evaluateStoredApertures(stencil, thresholds, loadApertures(db, stencilId));
+}
+
+/** `checkStoredStencil` on a stencil, thresholds and apertures already read. */
+export function evaluateStoredApertures(
+	stencil: StencilRecord,
+	thresholds: PrintThresholds,
+	stored: StoredAperture[]
+): StencilCheck {
 	const results = evaluateStencil(stored, {
 		thicknessUm: stencil.thicknessUm,
 		thresholds,

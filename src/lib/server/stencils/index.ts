@@ -9,3 +9,5 @@ export * from './demo';
 export * from './api-errors';
 export * from './limits-env';
 export * from './parse-thread';
+export * from './page-cache';
+export * from './site-te-model';

@@ -6,7 +6,7 @@ import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
 import {
 	ApertureImportError,
-	checkStoredStencil,
+	cachedStencil,
 	createRevision,
 	deleteAperture,
 	DuplicateStencilError,
@@ -14,8 +14,9 @@ import {
 	importApertures,
 	listImports,
 	listRevisions,
-	stencilAdvice
+	siteTeModelFor
 } from '$lib/server/stencils';
+import { teCoverage } from '$lib/stencil/te-prediction';
 import {
 	apertureFormSchema,
 	parseStepRegionsText,
@@ -29,8 +30,9 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const db = getDb();
 	const id = Number(params.id);
 	if (!findStencil(db, id)) error(404, 'No such stencil.');
-	const check = checkStoredStencil(db, id);
-	const advice = stencilAdvice(check);
+	const cached = cachedStencil(db, id);
+	const check = cached.check;
+	const advice = cached.advice();
 	return {
 		stencil: check.stencil,
 		thresholds: check.thresholds,
@@ -38,6 +40,23 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		sweep: advice.sweep,
 		powder: advice.powder,
 		overlaps: advice.overlaps,
+		// Streamed: the page and its map do not wait for the site's TE model (a pad scan when the
+		// SPI data changed since it was last fitted).
+		te: siteTeModelFor(db, check.stencil.technology)
+			.then((answer) => ({
+				...answer,
+				coverage: answer.model
+					? teCoverage(
+							answer.model,
+							check.apertures.map((a) => a.areaRatio)
+						)
+					: null
+			}))
+			.catch(() => ({
+				model: null,
+				reason: 'the site model could not be computed just now',
+				coverage: null
+			})),
 		revisions: listRevisions(db, check.stencil.name),
 		imports: listImports(db, id),
 		canEdit: hasRole(actor, ENGINEERING),

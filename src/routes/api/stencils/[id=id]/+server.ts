@@ -1,12 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import {
-	checkStoredStencil,
-	listImports,
-	stencilAdvice,
-	withStencilErrors
-} from '$lib/server/stencils';
+import { cachedStencil, listImports, withStencilErrors } from '$lib/server/stencils';
 
 /**
  * The stencil with its thresholds, summary, thickness sweep, powder advice, overlapping openings
@@ -16,8 +11,10 @@ export const GET = apiRoute(async ({ params }) => {
 	const id = Number(params.id);
 	return withStencilErrors(() => {
 		const db = getDb();
-		const check = checkStoredStencil(db, id);
-		const advice = stencilAdvice(check);
+		// Kept per stencil revision, as the stencil page reads it (see `cachedStencil`).
+		const cached = cachedStencil(db, id);
+		const check = cached.check;
+		const advice = cached.advice();
 		return json({
 			...check.stencil,
 			thresholds: check.thresholds,

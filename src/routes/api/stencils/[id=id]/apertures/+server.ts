@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import { ApiError, apiRoute, readJson } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import {
-	checkStoredStencil,
+	cachedStencil,
 	getStencil,
 	importAperturesStaged,
 	parseApertureUploadOffThread,
@@ -15,10 +15,27 @@ import type { Actor } from '$lib/access';
 import { formatCount, type StencilLimits } from '$lib/stencil/limits';
 import { aperturesPayloadSchema, formatIssuePath } from '$lib/schemas/stencil';
 
-/** Every aperture with its figures (unrounded): `{ "apertures": [...] }`. */
-export const GET = apiRoute(async ({ params }) => {
+/**
+ * Every aperture with its figures (unrounded): `{ "apertures": [...] }`, or with
+ * `?layout=columns` one array per field plus the map's status paths (the stencil page's form,
+ * a fraction of the size). Both are kept per stencil revision (see `cachedStencil`).
+ */
+export const GET = apiRoute(async ({ params, url }) => {
 	const id = Number(params.id);
-	return withStencilErrors(() => json({ apertures: checkStoredStencil(getDb(), id).apertures }));
+	const layout = url.searchParams.get('layout');
+	if (layout !== null && layout !== 'rows' && layout !== 'columns')
+		throw new ApiError(400, {
+			error: 'The request has invalid fields.',
+			fields: [
+				{
+					field: 'layout',
+					message: `must be "rows" or "columns" (got ${JSON.stringify(layout.slice(0, 40))})`
+				}
+			]
+		});
+	const cached = await withStencilErrors(() => cachedStencil(getDb(), id));
+	const body = layout === 'columns' ? cached.columnsJson() : cached.rowsJson();
+	return new Response(body, { headers: { 'content-type': 'application/json' } });
 });
 
 function modeOf(value: unknown): ImportMode {
