@@ -190,6 +190,14 @@ export const PAD_MEASURE_KEYS: readonly PadMeasureKey[] = PAD_MEASURES.map((m) =
 export const SPI_MEASURE_IDS = SPI_MEASURES.map((m) => m.id) as readonly SpiMeasureId[];
 
 /**
+ * Catalogue entries by chart measure id.
+ * @example SPI_MEASURE_BY_ID['volume-pct'].defaults.target // 100
+ */
+export const SPI_MEASURE_BY_ID = Object.fromEntries(SPI_MEASURES.map((m) => [m.id, m])) as {
+	[I in SpiMeasureId]: Extract<SpiMeasure, { id: I }>;
+};
+
+/**
  * The catalogue entry of a chart measure id, or undefined (e.g. `print-parameter`).
  * @example spiMeasureById('height-um')?.unit // 'µm'
  */

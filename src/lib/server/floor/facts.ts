@@ -3,6 +3,7 @@ import { checkTensionReadings, lotExpiresAtMs, replayPasteEvents } from '$lib/pr
 import type { BoardFact, CharacteristicFact, LineFacts, SignalFact } from '$lib/floor/tile';
 import type { Db } from '../db';
 import { capabilityStates } from './capability-cache';
+import { SPI_MEASURE_BY_ID } from '$lib/spi/measures';
 
 /**
  * The facts of the line tiles, read with one set of prepared statements, each on an index:
@@ -14,6 +15,11 @@ import { capabilityStates } from './capability-cache';
 
 type Statements = ReturnType<typeof prepare>;
 const cache = new WeakMap<Database.Database, Statements>();
+
+// Board-mean targets when no key characteristic sets one: the measure catalogue's (volume is % of
+// the aperture's nominal volume, offsets aim at 0).
+const VOLUME_TARGET = SPI_MEASURE_BY_ID['volume-pct'].defaults.target;
+const OFFSET_TARGET = SPI_MEASURE_BY_ID['offset-x-um'].defaults.target;
 
 function prepare(conn: Database.Database) {
 	return {
@@ -309,7 +315,7 @@ export function loadLineFacts(db: Db, nowMs: number, lineIds?: readonly number[]
 				stencil: null,
 				pasteLot: null,
 				boards,
-				targets: { volumePct: 100, heightUm: null, offsetUm: 0 },
+				targets: { volumePct: VOLUME_TARGET, heightUm: null, offsetUm: OFFSET_TARGET },
 				characteristics: [],
 				signals: (signals.get(line.id) ?? []).map(stripSignal)
 			};
@@ -337,9 +343,9 @@ export function loadLineFacts(db: Db, nowMs: number, lineIds?: readonly number[]
 			// SPI volume is % of the aperture's nominal volume (target 100); the nominal height is
 			// the foil thickness; offsets aim at 0. A key characteristic's own target wins.
 			targets: {
-				volumePct: targetOf('volume-pct') ?? 100,
+				volumePct: targetOf('volume-pct') ?? VOLUME_TARGET,
 				heightUm: targetOf('height-um') ?? stencil?.thicknessUm ?? null,
-				offsetUm: 0
+				offsetUm: OFFSET_TARGET
 			},
 			characteristics: chars.map(({ target: _t, ...c }) => c),
 			signals: (signals.get(line.id) ?? []).map(stripSignal)

@@ -16,6 +16,7 @@ import {
 	type SpiParseSummary,
 	type SpiRowBatch
 } from '$lib/ingest';
+import { SPI_MEASURES } from '$lib/spi/measures';
 import type { Db } from '../db';
 import { cached, createBoardResolver, type ApertureMap } from './board-resolver';
 import type { IngestRequest } from './ingest-types';
@@ -42,6 +43,10 @@ interface BoardSlot {
 type PadMap = Map<string, Map<string, number>>;
 
 const ROWS_PER_INSERT = 64;
+/** The per-board figures of each SPI measure in spi_boards, in catalogue order. */
+const BOARD_FIGURE_COLUMNS = SPI_MEASURES.flatMap((m) =>
+	['count', 'mean', 'sd', 'min', 'max', 'range'].map((stat) => `${m.column}_${stat}`)
+);
 
 /** What the final transaction stored. */
 export interface StoredImport {
@@ -334,13 +339,8 @@ export function createBatchWriter(
 				`insert into spi_boards (id, serial, inspected_at, line_code, product_code, line_id,
 				 product_id, import_id, print_run_id, stencil_id, stencil_name, print_run_ref,
 				 pad_count, pass_count, warn_count, fail_count,
-				 volume_pct_count, volume_pct_mean, volume_pct_sd, volume_pct_min, volume_pct_max, volume_pct_range,
-				 area_pct_count, area_pct_mean, area_pct_sd, area_pct_min, area_pct_max, area_pct_range,
-				 height_um_count, height_um_mean, height_um_sd, height_um_min, height_um_max, height_um_range,
-				 offset_x_um_count, offset_x_um_mean, offset_x_um_sd, offset_x_um_min, offset_x_um_max, offset_x_um_range,
-				 offset_y_um_count, offset_y_um_mean, offset_y_um_sd, offset_y_um_min, offset_y_um_max, offset_y_um_range,
-				 te_count, te_mean, te_sd, te_min, te_max, te_range)
-				 values (${new Array(52).fill('?').join(', ')})`
+				 ${BOARD_FIGURE_COLUMNS.join(', ')})
+				 values (${new Array(16 + BOARD_FIGURE_COLUMNS.length).fill('?').join(', ')})`
 			);
 			const exists = (table: string) => {
 				const stmt = conn.prepare(`select 1 from ${table} where id = ?`).pluck();
@@ -370,7 +370,7 @@ export function createBatchWriter(
 				const a = aggregates.get(index);
 				if (!a) {
 					// A board whose every row was skipped: stored with no figures, as it always was.
-					insertBoard.run(...row, 0, 0, 0, 0, ...[0, 1, 2, 3, 4, 5].flatMap(() => cols(none)));
+					insertBoard.run(...row, 0, 0, 0, 0, ...SPI_MEASURES.flatMap(() => cols(none)));
 					continue;
 				}
 				boardIds.push(slot.id);
@@ -381,12 +381,11 @@ export function createBatchWriter(
 					a.results.pass,
 					a.results.warn,
 					a.results.fail,
-					...cols(volume),
-					...cols(a.areaPct),
-					...cols(a.heightUm),
-					...cols(a.offsetXUm),
-					...cols(a.offsetYUm),
-					...cols(summariseMeasure(slot.te))
+					...SPI_MEASURES.flatMap((m) =>
+						cols(
+							m.key === 'te' ? summariseMeasure(slot.te) : m.key === 'volumePct' ? volume : a[m.key]
+						)
+					)
 				);
 			}
 			for (const [padId, apertureId] of linkedPads)

@@ -1,4 +1,5 @@
 import { decodeCentis, type IngestIssue, type MeasureSummary } from '$lib/ingest';
+import { SPI_MEASURES } from '$lib/spi/measures';
 import type { ApertureInput } from '$lib/stencil';
 import type { Db } from '../db';
 import { checkStoredStencil } from '../stencils/evaluation';
@@ -100,7 +101,7 @@ export function getImport(db: Db, id: number): SpiImportRecord | undefined {
 }
 
 /** A board inspection with its per-board figures (values in %, µm; TE as a fraction). */
-export interface SpiBoardRecord {
+export interface SpiBoardRecord extends Record<SpiMeasureKey, MeasureSummary> {
 	id: number;
 	serial: string;
 	inspectedAt: Date;
@@ -116,22 +117,10 @@ export interface SpiBoardRecord {
 	passCount: number;
 	warnCount: number;
 	failCount: number;
-	volumePct: MeasureSummary;
-	areaPct: MeasureSummary;
-	heightUm: MeasureSummary;
-	offsetXUm: MeasureSummary;
-	offsetYUm: MeasureSummary;
-	te: MeasureSummary;
 }
 
-const MEASURE_PREFIXES = {
-	volumePct: 'volume_pct',
-	areaPct: 'area_pct',
-	heightUm: 'height_um',
-	offsetXUm: 'offset_x_um',
-	offsetYUm: 'offset_y_um',
-	te: 'te'
-} as const;
+/** Per-board figures of each SPI measure (pad measures and transfer efficiency), by key. */
+type SpiMeasureKey = (typeof SPI_MEASURES)[number]['key'];
 
 function boardFromRow(r: Record<string, unknown>): SpiBoardRecord {
 	const measure = (p: string): MeasureSummary => ({
@@ -158,12 +147,10 @@ function boardFromRow(r: Record<string, unknown>): SpiBoardRecord {
 		passCount: r.pass_count as number,
 		warnCount: r.warn_count as number,
 		failCount: r.fail_count as number,
-		volumePct: measure(MEASURE_PREFIXES.volumePct),
-		areaPct: measure(MEASURE_PREFIXES.areaPct),
-		heightUm: measure(MEASURE_PREFIXES.heightUm),
-		offsetXUm: measure(MEASURE_PREFIXES.offsetXUm),
-		offsetYUm: measure(MEASURE_PREFIXES.offsetYUm),
-		te: measure(MEASURE_PREFIXES.te)
+		...(Object.fromEntries(SPI_MEASURES.map((m) => [m.key, measure(m.column)])) as Record<
+			SpiMeasureKey,
+			MeasureSummary
+		>)
 	};
 }
 
