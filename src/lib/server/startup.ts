@@ -6,6 +6,8 @@ import { startLiveOverview } from './floor/live';
 import { startSignalEscalation } from './floor/signal-owners';
 import { startCfxFromEnv } from './cfx/receiver';
 import { backupScheduleFrom, startBackupSchedule } from './backup';
+import { siteFloorSettings } from './floor/floor-settings';
+import { siteShiftSettings } from './floor/shift-settings';
 
 /**
  * Everything the server needs before it answers: the database (migrations applied), the rows of
@@ -13,6 +15,7 @@ import { backupScheduleFrom, startBackupSchedule } from './backup';
  * background services.
  */
 export async function startServices(): Promise<void> {
+	checkSiteSettings();
 	let db;
 	try {
 		db = getDb();
@@ -82,4 +85,15 @@ function startSpiServices(db: ReturnType<typeof getDb>): void {
 	const watcher = startSpiWatcher(db, { dir, profile: process.env.SPI_WATCH_PROFILE ?? null });
 	console.log(`[rollbead] watching ${dir} for SPI exports (done/ and rejected/ beside them)`);
 	process.once('sveltekit:shutdown', () => void watcher.close());
+}
+
+/** A malformed site setting stops the start with the variable named, before anything answers. */
+function checkSiteSettings(): void {
+	try {
+		siteFloorSettings();
+		siteShiftSettings();
+	} catch (err) {
+		console.error(`[rollbead] ${err instanceof Error ? err.message : String(err)}`);
+		process.exit(1);
+	}
 }

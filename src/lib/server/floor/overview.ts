@@ -1,9 +1,10 @@
 import type Database from 'better-sqlite3';
-import { FLOOR_DEFAULTS, lineTile, type LineFacts, type LineTile } from '$lib/floor/tile';
+import { lineTile, type LineFacts, type LineTile } from '$lib/floor/tile';
 import type { Db } from '../db';
 import { takePublishedEvents } from './events';
 import { loadLineFacts } from './facts';
 import { linesOfEvent } from './lines-of';
+import { siteFloorSettings } from './floor-settings';
 
 /**
  * Tiles of every active line (or of `lineIds`), in line code order: what `GET /api/lines/overview`
@@ -71,7 +72,7 @@ export function lineTiles(db: Db, nowMs = Date.now(), lineIds?: readonly number[
 	const tiles: LineTile[] = [];
 	for (const id of wanted) {
 		const entry = cache.facts.get(id);
-		if (entry) tiles.push(lineTile(entry.facts, nowMs, FLOOR_DEFAULTS));
+		if (entry) tiles.push(lineTile(entry.facts, nowMs, siteFloorSettings()));
 	}
 	return tiles;
 }
