@@ -1,11 +1,17 @@
 import { error, fail } from '@sveltejs/kit';
-import { hasRole, SIGNAL_ASSIGNERS, SPC_EDITORS, PRINT_LOGGERS } from '$lib/access';
+import {
+	hasRole,
+	LINE_ACKNOWLEDGERS,
+	SIGNAL_ASSIGNERS,
+	SPC_EDITORS,
+	PRINT_LOGGERS
+} from '$lib/access';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
 import { openSignalsByLine } from '$lib/server/floor/facts';
 import { assignableUsers, assignSignal, AssignError } from '$lib/server/floor/signal-owners';
 import { getCauseLists } from '$lib/server/spc/cause-lists';
-import { acknowledgeSignal, AcknowledgeError } from '$lib/server/spc/signals';
+import { acknowledgeFromForm } from '$lib/server/spc/acknowledge';
 import type { Actions, PageServerLoad } from './$types';
 
 /** The technician's line view: the line, its last boards and open signals (the tile comes live). */
@@ -45,51 +51,21 @@ export const load: PageServerLoad = ({ locals, params, depends }) => {
 		lists: getCauseLists(db),
 		people: hasRole(actor, SIGNAL_ASSIGNERS) ? assignableUsers(db) : [],
 		me: actor.kind === 'user' ? actor.id : null,
-		canAcknowledge: hasRole(actor, SPC_EDITORS),
+		canAcknowledge: hasRole(actor, LINE_ACKNOWLEDGERS),
 		canAssign: hasRole(actor, SIGNAL_ASSIGNERS),
 		canCorrect: hasRole(actor, PRINT_LOGGERS)
 	};
 };
 
 export const actions = {
-	acknowledge: async ({ locals, request }) => {
-		const actor = requireActor(locals, SPC_EDITORS);
-		const form = await request.formData();
-		const id = Number(form.get('id'));
-		const input = {
-			cause: String(form.get('cause') ?? ''),
-			action: String(form.get('action') ?? ''),
-			note: String(form.get('note') ?? '')
-		};
-		// Chosen by the person, never defaulted: an empty choice is refused here, not guessed.
-		if (!input.cause)
-			return fail(422, {
-				action: 'acknowledge',
-				id,
-				field: 'cause',
-				error: 'Choose the assignable cause.'
-			});
-		if (!input.action)
-			return fail(422, {
-				action: 'acknowledge',
-				id,
-				field: 'action',
-				error: 'Choose the corrective action.'
-			});
-		try {
-			acknowledgeSignal(getDb(), id, input, actor);
-			return { action: 'acknowledge', id, ok: `Signal ${id} acknowledged.` };
-		} catch (err) {
-			if (err instanceof AcknowledgeError) {
-				return fail(err.status, {
-					action: 'acknowledge',
-					id,
-					field: err.field ?? 'cause',
-					error: err.message
-				});
-			}
-			throw err;
-		}
+	acknowledge: async ({ locals, params, request }) => {
+		const actor = requireActor(locals, LINE_ACKNOWLEDGERS);
+		const db = getDb();
+		// A technician acknowledges what is open on the line in front of them; editors anything.
+		const onLine = new Set((openSignalsByLine(db).get(Number(params.id)) ?? []).map((s) => s.id));
+		const allowed = hasRole(actor, SPC_EDITORS) ? undefined : (id: number) => onLine.has(id);
+		const out = acknowledgeFromForm(db, await request.formData(), actor, allowed);
+		return out.ok ? out.body : fail(out.status, out.body);
 	},
 	assign: async ({ locals, request }) => {
 		const actor = requireActor(locals, SIGNAL_ASSIGNERS);
