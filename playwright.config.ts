@@ -1,19 +1,7 @@
 import { defineConfig, devices } from '@playwright/test';
-import { createServer } from 'node:net';
+import { freePort } from './scripts/lib/own-server';
 
-/** A free port, chosen once by the runner and inherited by its workers through the env. */
-async function freePort(): Promise<number> {
-	return new Promise((resolve, reject) => {
-		const server = createServer();
-		server.unref();
-		server.on('error', reject);
-		server.listen(0, '127.0.0.1', () => {
-			const address = server.address();
-			server.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
-		});
-	});
-}
-
+// A free port, chosen once by the runner and inherited by its workers through the env.
 process.env.E2E_PORT ??= String(await freePort());
 const port = Number(process.env.E2E_PORT);
 const baseURL = `http://localhost:${port}`;
@@ -59,8 +47,8 @@ export default defineConfig({
 		}
 	],
 	webServer: {
-		// A throw-away database on every run; the real app, built and started with `node build`.
-		command: 'rm -rf .e2e && node scripts/ensure-build.js && node build',
+		// A throw-away database on every run; the real app, built and started as `npm start` does.
+		command: 'rm -rf .e2e && node scripts/ensure-build.js && node server.js',
 		url: `${baseURL}/api/health`,
 		timeout: 300_000,
 		reuseExistingServer: false,

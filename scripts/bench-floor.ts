@@ -1,7 +1,7 @@
 /**
  * Floor load benchmark (figures printed, never asserted): `npm run bench:floor [-- --lines 100 --minutes 10]`.
  *
- * Builds when sources changed (under the e2e lock), starts `node build` on its own free port with a
+ * Builds when sources changed (under the e2e lock), starts `server.js` on its own free port with a
  * throw-away database (no demo data), makes an engineer token, listens to `GET /api/lines/stream`
  * and runs the line simulator (scripts/simulate.ts) against it at production pace. Meanwhile it
  * samples `GET /api/lines/overview` once a second and the server's RSS every 10 s, and prints:
@@ -11,15 +11,15 @@
  * - ingest backlog: SPI files sent but not yet answered, sampled every 5 s (kept up = stays flat);
  * - server RSS over time (flat = no growth).
  */
-import { execFileSync, spawn } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { request as httpRequest } from 'node:http';
-import { createServer } from 'node:net';
-import { tmpdir } from 'node:os';
+import { cpus, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parseArgs } from 'node:util';
 import { performance } from 'node:perf_hooks';
 import { runSimulation } from './simulate';
+import { ensureBuild, freePort, makeTokenIn, startServer } from './lib/own-server';
+import { quantile } from './lib/figures';
 
 const { values } = parseArgs({
 	options: { lines: { type: 'string', default: '100' }, minutes: { type: 'string', default: '10' } }
@@ -29,80 +29,25 @@ const MINUTES = Number(values.minutes);
 if (!Number.isInteger(LINES) || LINES < 1 || !(MINUTES > 0))
 	throw new Error('--lines N (whole) and --minutes M (> 0)');
 
-async function freePort(): Promise<number> {
-	return new Promise((resolve, reject) => {
-		const server = createServer();
-		server.on('error', reject);
-		server.listen(0, '127.0.0.1', () => {
-			const address = server.address();
-			server.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
-		});
-	});
-}
-
-const quantile = (xs: number[], q: number) => {
-	if (xs.length === 0) return NaN;
-	const s = [...xs].sort((a, b) => a - b);
-	return s[Math.min(s.length - 1, Math.floor(q * s.length))];
-};
 const fmt = (v: number, unit = 'ms') =>
 	Number.isFinite(v) ? `${v.toFixed(v < 10 ? 1 : 0)} ${unit}` : '–';
 
 console.log('[bench:floor] building when sources changed (under the e2e lock)…');
-execFileSync('flock', ['/tmp/rollbead-e2e.lock', 'node', 'scripts/ensure-build.js'], {
-	stdio: 'inherit'
-});
+ensureBuild();
 
 const dir = mkdtempSync(join(tmpdir(), 'rollbead-bench-floor-'));
+process.on('exit', () => rmSync(dir, { recursive: true, force: true }));
 const database = join(dir, 'floor.db');
-const port = await freePort();
-const base = `http://127.0.0.1:${port}`;
-const env = {
-	...process.env,
-	DATABASE_URL: database,
-	PORT: String(port),
-	HOST: '127.0.0.1',
-	ORIGIN: base,
-	ROLLBEAD_DEMO: '0',
-	SIGNAL_ESCALATE_MINUTES: '0'
-};
-const token = execFileSync(
-	'npx',
-	['tsx', 'scripts/token.ts', 'create', '--name', 'bench floor', '--role', 'engineer'],
-	{
-		env,
-		encoding: 'utf8'
-	}
-)
-	.trim()
-	.split('\n')
-	.pop()!;
-
-const server = spawn('node', ['build'], { env, stdio: ['ignore', 'pipe', 'pipe'] });
-let serverLog = '';
-server.stdout.on('data', (d) => (serverLog += d));
-server.stderr.on('data', (d) => (serverLog += d));
-const stopServer = () => {
-	if (server.exitCode === null) server.kill('SIGTERM');
-};
-process.on('exit', () => {
-	stopServer();
-	rmSync(dir, { recursive: true, force: true });
+const token = makeTokenIn(database, 'engineer', 'bench floor');
+const server = await startServer({
+	databaseFile: database,
+	port: await freePort(),
+	demo: false,
+	env: { SIGNAL_ESCALATE_MINUTES: '0' }
 });
-
-for (let i = 0; ; i++) {
-	try {
-		const r = await fetch(`${base}/api/health`);
-		if (r.ok) break;
-	} catch {
-		/* not listening yet */
-	}
-	if (i > 300) throw new Error(`the server did not start:\n${serverLog}`);
-	await new Promise((r) => setTimeout(r, 200));
-}
-console.log(
-	`[bench:floor] server on ${base} (pid ${server.pid}); ${LINES} lines for ${MINUTES} min`
-);
+const base = server.url;
+const pid = server.child.pid;
+console.log(`[bench:floor] server on ${base} (pid ${pid}); ${LINES} lines for ${MINUTES} min`);
 
 // Stream: each `line` event closes the oldest unanswered-by-event POST of its line.
 const pendingSends = new Map<string, number[]>();
@@ -147,7 +92,7 @@ const t0 = performance.now();
 const elapsedS = () => Math.round((performance.now() - t0) / 1000);
 const readRssMb = () => {
 	try {
-		const status = execFileSync('cat', [`/proc/${server.pid}/status`], { encoding: 'utf8' });
+		const status = readFileSync(`/proc/${pid}/status`, 'utf8');
 		return Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? NaN) / 1024;
 	} catch {
 		return NaN;
@@ -202,9 +147,7 @@ const overviewBody = await (
 	await fetch(`${base}/api/lines/overview`, { headers: { authorization: `Bearer ${token}` } })
 ).json();
 console.log('\n== bench:floor ==');
-console.log(
-	`lines ${LINES}, ${MINUTES} min, machine: ${(await import('node:os')).cpus().length} cores`
-);
+console.log(`lines ${LINES}, ${MINUTES} min, machine: ${cpus().length} cores`);
 console.log(`simulated: ${JSON.stringify(result)}`);
 console.log(`overview tiles at the end: ${overviewBody.lines.length}`);
 console.log(
@@ -220,5 +163,5 @@ console.log(
 	`ingest backlog (files sent, not answered) every 5 s: ${backlog.map((b) => b.inFlight).join(' ')}`
 );
 console.log(`server RSS (MB) every 10 s: ${rss.map((r) => r.mb.toFixed(0)).join(' ')}`);
-stopServer();
+await server.stop();
 process.exit(0);

@@ -81,5 +81,4 @@ export function sqliteImportSeconds(csv: string, dir: string): number {
 	return seconds;
 }
 
-export const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 export const listSeconds = (xs: number[]) => xs.map((x) => x.toFixed(2)).join(', ');

@@ -3,7 +3,7 @@
  * `npm run bench:ingest:http` or `npm run bench:ingest -- --http`.
  *
  * Builds when sources changed (under the shared e2e lock) and copies the build to a temp folder,
- * so another build cannot change it underneath; starts `node build` on a free port with its own
+ * so another build cannot change it underneath; starts it (`server.js`) on a free port with its own
  * temp database (ROLLBEAD_DEMO=0) and an API token made by scripts/token.ts; then uploads the
  * canonical 1,000,000-row file (bench-ingest-file.ts) with node's http client streaming it from
  * disk, once as multipart/form-data and once as a raw text/csv body per round (`--mode chunked`:
@@ -21,8 +21,6 @@
  * changes the size as for the in-process benchmark; BENCH_HTTP_BUILD=dir runs that build folder
  * instead (an older commit's, for before/after). The server is stopped on every way out.
  */
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { once } from 'node:events';
 import {
 	cpSync,
 	createReadStream,
@@ -36,9 +34,8 @@ import {
 } from 'node:fs';
 import { request as httpRequest } from 'node:http';
 import { Session } from 'node:inspector/promises';
-import { createServer } from 'node:net';
 import { cpus, loadavg, tmpdir, totalmem } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import { parseArgs } from 'node:util';
 import { openDatabase, type Db } from '../src/lib/server/db';
 import { ingestSpiFile } from '../src/lib/server/ingest/ingest-service';
@@ -47,39 +44,24 @@ import {
 	NO_SQLITE3,
 	hasSqlite3,
 	listSeconds,
-	median,
 	rowsWanted,
 	sqliteImportSeconds,
 	writeBenchFile
 } from './bench-ingest-file';
+import {
+	ROOT,
+	ensureBuild,
+	freePort,
+	makeTokenIn,
+	startServer,
+	type OwnServer
+} from './lib/own-server';
+import { median } from './lib/figures';
 
-const ROOT = resolve(import.meta.dirname, '..');
-const LOCK = '/tmp/rollbead-e2e.lock';
 type Mode = 'multipart' | 'raw' | 'chunked';
 
-let server: ChildProcess | null = null;
-
-/** Last resort on any way out: never leave the server running. */
-function killServer(): void {
-	if (server && server.exitCode === null && server.signalCode === null) server.kill('SIGKILL');
-}
-process.on('exit', killServer);
-for (const signal of ['SIGINT', 'SIGTERM'] as const)
-	process.on(signal, () => {
-		killServer();
-		process.exit(130);
-	});
-
-function freePort(): Promise<number> {
-	return new Promise((res, rej) => {
-		const probe = createServer();
-		probe.once('error', rej);
-		probe.listen(0, '127.0.0.1', () => {
-			const port = (probe.address() as { port: number }).port;
-			probe.close(() => res(port));
-		});
-	});
-}
+// Interrupted: exit, so startServer's exit hook stops the server.
+for (const signal of ['SIGINT', 'SIGTERM'] as const) process.on(signal, () => process.exit(130));
 
 /**
  * Build if needed and copy the build aside, both under the shared lock; or copy the build folder
@@ -88,90 +70,10 @@ function freePort(): Promise<number> {
 function prepareBuild(appDir: string): void {
 	const given = process.env.BENCH_HTTP_BUILD;
 	if (given) cpSync(given, join(appDir, 'build'), { recursive: true });
-	const built = given
-		? { status: 0, stdout: '' }
-		: spawnSync(
-				'flock',
-				[LOCK, 'sh', '-c', `node scripts/ensure-build.js 2>&1 && cp -r build "${appDir}/build"`],
-				{ cwd: ROOT, encoding: 'utf8', maxBuffer: 64 << 20 }
-			);
-	if (built.status !== 0) throw new Error(`the build failed:\n${built.stdout.slice(-4000)}`);
+	else ensureBuild(join(appDir, 'build'));
 	// The copy resolves its packages and module type through these.
 	symlinkSync(join(ROOT, 'node_modules'), join(appDir, 'node_modules'));
 	cpSync(join(ROOT, 'package.json'), join(appDir, 'package.json'));
-}
-
-function createToken(databaseUrl: string): string {
-	const out = spawnSync(
-		process.execPath,
-		['--import', 'tsx', 'scripts/token.ts', 'create', '--name', 'bench', '--role', 'quality'],
-		{ cwd: ROOT, env: { ...process.env, DATABASE_URL: databaseUrl }, encoding: 'utf8' }
-	);
-	if (out.status !== 0) throw new Error(`token creation failed: ${out.stderr}`);
-	return out.stdout.trim().split('\n').at(-1) as string;
-}
-
-function get(port: number, path: string): Promise<number> {
-	return new Promise((res, rej) => {
-		const req = httpRequest({ host: '127.0.0.1', port, path }, (r) => {
-			r.resume();
-			r.on('end', () => res(r.statusCode ?? 0));
-		});
-		req.on('error', rej);
-		req.end();
-	});
-}
-
-async function startServer(opts: {
-	appDir: string;
-	port: number;
-	databaseUrl: string;
-	profileDir: string | null;
-}): Promise<ChildProcess> {
-	const args = opts.profileDir ? ['--cpu-prof', '--cpu-prof-dir', opts.profileDir] : [];
-	const child = spawn(process.execPath, [...args, join(opts.appDir, 'build', 'index.js')], {
-		cwd: ROOT,
-		env: {
-			...process.env,
-			NODE_OPTIONS: '',
-			HOST: '127.0.0.1',
-			PORT: String(opts.port),
-			ORIGIN: `http://127.0.0.1:${opts.port}`,
-			DATABASE_URL: opts.databaseUrl,
-			ROLLBEAD_DEMO: '0',
-			ROLLBEAD_MIGRATIONS_DIR: join(ROOT, 'drizzle'),
-			SPI_WATCH_DIR: ''
-		},
-		stdio: ['ignore', 'pipe', 'pipe']
-	});
-	server = child;
-	let log = '';
-	const keep = (b: Buffer) => {
-		log = (log + b.toString()).slice(-4000);
-	};
-	child.stdout?.on('data', keep);
-	child.stderr?.on('data', keep);
-	const deadline = Date.now() + 60_000;
-	for (;;) {
-		if (child.exitCode !== null) throw new Error(`the server stopped at start-up:\n${log}`);
-		try {
-			if ((await get(opts.port, '/api/health')) === 200) return child;
-		} catch {
-			// not listening yet
-		}
-		if (Date.now() > deadline) throw new Error(`the server did not answer within 60 s:\n${log}`);
-		await new Promise((r) => setTimeout(r, 100));
-	}
-}
-
-/** Stop the server the way an operator does (SIGTERM), so a CPU profile is written; then kill. */
-async function stopServer(child: ChildProcess): Promise<void> {
-	if (child.exitCode !== null || child.signalCode !== null) return;
-	const exited = once(child, 'exit');
-	child.kill('SIGTERM');
-	const timer = setTimeout(() => child.kill('SIGKILL'), 15_000);
-	await exited;
-	clearTimeout(timer);
 }
 
 /** kB figures from /proc/<pid>/status (VmHWM: peak RSS; VmRSS: now). */
@@ -397,27 +299,33 @@ export async function runHttpBench(): Promise<void> {
 	const quiet = async () => {
 		if (quietSeconds > 0) busyAtStart.push(await waitForQuiet(quietSeconds));
 	};
-	let child: ChildProcess | null = null;
+	let server: OwnServer | null = null;
 	let local: Db | null = null;
 	try {
 		const appDir = join(dir, 'app');
 		mkdirSync(appDir);
-		process.stdout.write(
+		console.log(
 			process.env.BENCH_HTTP_BUILD
-				? `build from ${process.env.BENCH_HTTP_BUILD} … `
-				: 'build (under the e2e lock) … '
+				? `build from ${process.env.BENCH_HTTP_BUILD}`
+				: 'build when sources changed (under the e2e lock), then a copy of it'
 		);
 		prepareBuild(appDir);
-		console.log('copied');
 		const databaseUrl = join(dir, 'db', 'bench.db');
 		mkdirSync(join(dir, 'db'));
-		const token = createToken(databaseUrl);
+		const token = makeTokenIn(databaseUrl, 'quality', 'bench');
 		const port = await freePort();
-		child = await startServer({ appDir, port, databaseUrl, profileDir });
-		const pid = child.pid as number;
+		server = await startServer({
+			databaseFile: databaseUrl,
+			port,
+			demo: false,
+			buildFolder: join(appDir, 'build'),
+			nodeArgs: profileDir ? ['--cpu-prof', '--cpu-prof-dir', profileDir] : [],
+			env: { ROLLBEAD_MIGRATIONS_DIR: join(ROOT, 'drizzle') }
+		});
+		const pid = server.child.pid as number;
 		const atStart = procStatus(pid);
 		console.log(
-			`server: node build, pid ${pid}, port ${port}, RSS after start ${(atStart.rssKb / 1024).toFixed(0)} MiB${profileDir ? `, CPU profile to ${profileDir}` : ''}`
+			`server: server.js with the copied build, pid ${pid}, port ${port}, RSS after start ${(atStart.rssKb / 1024).toFixed(0)} MiB${profileDir ? `, CPU profile to ${profileDir}` : ''}`
 		);
 
 		if (withInProcess) {
@@ -526,8 +434,7 @@ export async function runHttpBench(): Promise<void> {
 		);
 	} finally {
 		local?.$client.close();
-		if (child) await stopServer(child);
-		server = null;
+		await server?.stop();
 		rmSync(dir, { recursive: true, force: true });
 	}
 	if (profileDir) {

@@ -23,11 +23,11 @@ import {
 	NO_SQLITE3,
 	hasSqlite3,
 	listSeconds,
-	median,
 	rowsWanted,
 	sqliteImportSeconds,
 	writeBenchFile
 } from './bench-ingest-file';
+import { median } from './lib/figures';
 
 async function main() {
 	const rows = rowsWanted();

@@ -1,24 +1,18 @@
 /**
  * `npm run bench:responsive`: does Rollbead keep answering while heavy work runs? Starts the
- * built app (`node build`) with the demo data on its own port and database, then times
+ * built app (`server.js`) with the demo data on its own port and database, then times
  * `GET /api/health` and a chart request (`GET /api/charts/{id}`) every 50 ms through four phases:
  * idle, a large SPI upload (BENCH_RESPONSIVE_ROWS pad rows, default 1,000,000), a heavy legal
  * Gerber layer (BENCH_RESPONSIVE_FLASHES flashes, default 40,000) and both at once. Prints
  * p50 / p95 / max per phase and endpoint against the target (p95 < 200 ms). Figures only: it
  * asserts nothing. The machine is shared: read the ratios of one run, not absolute times.
  */
-import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import {
-	freePort,
-	makeTokenIn,
-	startServer,
-	uploadPaced,
-	writeSpiFile,
-	type OwnServer
-} from '../tests/e2e/own-server';
+import { ensureBuild, freePort, makeTokenIn, startServer, type OwnServer } from './lib/own-server';
+import { uploadPaced, writeSpiFile } from './lib/spi-load';
+import { quantile } from './lib/figures';
 
 const PADS_PER_BOARD = 5000;
 const rows = Number(process.env.BENCH_RESPONSIVE_ROWS ?? 1_000_000);
@@ -45,11 +39,6 @@ interface Sample {
 	ms: number;
 	status: number;
 }
-
-const percentile = (xs: number[], p: number) => {
-	const s = [...xs].sort((a, b) => a - b);
-	return s[Math.min(s.length - 1, Math.floor(s.length * p))];
-};
 
 async function timed(url: string, token: string): Promise<{ ms: number; status: number }> {
 	const start = performance.now();
@@ -102,9 +91,7 @@ async function main() {
 	const databaseFile = join(dir, 'rollbead.db');
 	let server: OwnServer | undefined;
 	try {
-		execFileSync('flock', ['/tmp/rollbead-e2e.lock', 'node', 'scripts/ensure-build.js'], {
-			stdio: 'inherit'
-		});
+		ensureBuild();
 		const spiFile = join(dir, 'bench.csv');
 		const boards = Math.max(1, Math.round(rows / PADS_PER_BOARD));
 		const spiBytes = await writeSpiFile(spiFile, boards, PADS_PER_BOARD, 'RSP');
@@ -189,10 +176,10 @@ async function main() {
 				const these = samples.filter((s) => s.phase === phase && s.endpoint === endpoint);
 				if (these.length === 0) continue;
 				const ms = these.map((s) => s.ms);
-				const p95 = percentile(ms, 0.95);
+				const p95 = quantile(ms, 0.95);
 				const bad = these.filter((s) => s.status !== 200).length;
 				console.log(
-					`| ${phase} | ${endpoint} | ${these.length} | ${percentile(ms, 0.5).toFixed(0)} | ${p95.toFixed(0)} | ${Math.max(...ms).toFixed(0)} | ${bad} | ${p95 < TARGET_P95_MS ? 'met' : 'missed'} |`
+					`| ${phase} | ${endpoint} | ${these.length} | ${quantile(ms, 0.5).toFixed(0)} | ${p95.toFixed(0)} | ${Math.max(...ms).toFixed(0)} | ${bad} | ${p95 < TARGET_P95_MS ? 'met' : 'missed'} |`
 				);
 			}
 		}

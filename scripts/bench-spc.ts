@@ -24,6 +24,7 @@ import { freezeLimits } from '../src/lib/server/spc/limits-lifecycle';
 import { evaluateSignalsAfterIngest } from '../src/lib/server/spc/signals';
 import { analyzeStudy, RULE_IDS } from '../src/lib/spc';
 import { MAX_STUDY_VALUES } from '../src/lib/spc/analyze';
+import { median, quantile } from './lib/figures';
 
 const PADS = Math.max(2, Number(process.env.BENCH_SPC_PADS ?? 5000));
 const BOARDS = Math.max(1100, Number(process.env.BENCH_SPC_BOARDS ?? 2000));
@@ -37,7 +38,6 @@ let seed = 20261202;
 const rand = () => (seed = (seed * 48271) % 2147483647) / 2147483647;
 const gauss = () => Math.sqrt(-2 * Math.log(rand() || 1e-12)) * Math.cos(2 * Math.PI * rand());
 
-const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const ms = (v: number) => `${v.toFixed(2)} ms`;
 
 const product = db.insert(products).values({ code: 'BX-1', name: 'Bench board' }).returning().get();
@@ -177,7 +177,7 @@ for (let r = 0; r < 40; r++) {
 	evalTimes.push(performance.now() - a);
 	evalCpuTotal += cpuMs(cpu);
 }
-const p90 = [...evalTimes].sort((a, b) => a - b)[Math.floor(evalTimes.length * 0.9)];
+const p90 = quantile(evalTimes, 0.9);
 console.log(
 	`rule evaluation for one new board (evaluateSignalsAfterIngest): median ${ms(median(evalTimes))}, 90th percentile ${ms(p90)}, max ${ms(Math.max(...evalTimes))}, CPU ${ms(evalCpuTotal / evalTimes.length)} per board on average (target < 5 ms); ${signals} signals stored (boards 10, 20, 30 and 40 of the 40 are shifted by +40 %)`
 );

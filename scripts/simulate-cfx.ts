@@ -23,6 +23,7 @@ import { parseArgs } from 'node:util';
 import { gzipSync } from 'node:zlib';
 import rhea from 'rhea';
 import type { ConnectionOptions, Sender } from 'rhea';
+import { quantile } from './lib/figures';
 
 export interface CfxSimulationOptions {
 	broker: string;
@@ -292,11 +293,6 @@ export async function runCfxSimulation(
 	return result;
 }
 
-function percentile(sorted: number[], p: number): number {
-	if (sorted.length === 0) return NaN;
-	return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)];
-}
-
 /** The bench: a receiver in this process on a throw-away database, the simulator publishing. */
 async function bench(options: CfxSimulationOptions) {
 	const { openDatabase } = await import('../src/lib/server/db');
@@ -344,7 +340,7 @@ async function bench(options: CfxSimulationOptions) {
 			`published ${sim.messages} messages (${sim.boards} boards, ${sim.pads} pads, ${sim.faults} faults, ${sim.cleanings} cleanings) in ${((published - started) / 1000).toFixed(0)} s`,
 			`stored ${status.stored}, duplicates ${status.duplicates}, quarantined ${status.quarantined}, lost ${lost}; SPI boards ${boards}, printed boards ${units}`,
 			`drained ${((drained - published) / 1000).toFixed(1)} s after the last publish`,
-			`ingest lag (commit − envelope TimeStamp) over ${lags.length} messages: p50 ${percentile(lags, 50)} ms, p95 ${percentile(lags, 95)} ms, max ${lags[lags.length - 1]} ms`
+			`ingest lag (commit − envelope TimeStamp) over ${lags.length} messages: p50 ${quantile(lags, 0.5)} ms, p95 ${quantile(lags, 0.95)} ms, max ${lags[lags.length - 1]} ms`
 		].join('\n')
 	);
 	db.$client.close();

@@ -1,7 +1,7 @@
 import { expect, type APIRequestContext, type Page } from '@playwright/test';
-import { execFileSync } from 'node:child_process';
 import { DEMO_USERS } from '../../src/lib/server/demo-accounts';
 import type { Role } from '../../src/lib/access';
+import { makeTokenIn } from '../../scripts/lib/own-server';
 
 export const E2E_DATABASE = '.e2e/rollbead.db';
 
@@ -26,13 +26,7 @@ export async function signInAs(page: Page, role: Role): Promise<void> {
 
 /** Make an API token through the real command-line tool, against the e2e database. */
 export function makeToken(role: Role, name = `e2e ${role} ${Date.now()}`): string {
-	const output = execFileSync(
-		'npx',
-		['tsx', 'scripts/token.ts', 'create', '--name', name, '--role', role],
-		{ env: { ...process.env, DATABASE_URL: E2E_DATABASE }, encoding: 'utf8' }
-	);
-	const lines = output.trim().split('\n');
-	return lines[lines.length - 1];
+	return makeTokenIn(E2E_DATABASE, role, name);
 }
 
 export const bearer = (token: string) => ({ Authorization: `Bearer ${token}` });

@@ -1,18 +1,11 @@
 import { expect, test } from '@playwright/test';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { demoUser } from './helpers';
-import {
-	freePort,
-	makeTokenIn,
-	spiCounts,
-	startServer,
-	uploadPaced,
-	writeSpiFile,
-	type OwnServer
-} from './own-server';
+import { freePort, makeTokenIn } from '../../scripts/lib/own-server';
+import { spiCounts, uploadPaced, writeSpiFile } from '../../scripts/lib/spi-load';
+import { ownServersPerTest } from './own-servers';
 
 // Finding: while a large SPI import ran, token requests waited 5 s and answered 500 ("database is
 // locked"), and sign-ins failed. Other writers must not wait for an import: every request below,
@@ -21,13 +14,7 @@ import {
 // chunks and holds no lock between them).
 test.describe.configure({ timeout: 300_000 });
 
-let dir = '';
-let server: OwnServer | null = null;
-test.afterEach(async () => {
-	await server?.stop();
-	server = null;
-	if (dir) rmSync(dir, { recursive: true, force: true });
-});
+const own = ownServersPerTest('rollbead-concurrency-');
 
 interface Sample {
 	kind: string;
@@ -37,7 +24,7 @@ interface Sample {
 }
 
 test('token requests, sign-ins and writes during a large import: no 500, none waits 1 s', async () => {
-	dir = mkdtempSync(join(tmpdir(), 'rollbead-concurrency-'));
+	const dir = own.folder();
 	const databaseFile = join(dir, 'rollbead.db');
 	const port = await freePort();
 	const quality = makeTokenIn(databaseFile, 'quality');
@@ -46,8 +33,7 @@ test('token requests, sign-ins and writes during a large import: no 500, none wa
 	await writeSpiFile(bigFile, 1_500, 200, 'FW-CONC');
 	const bytes = readFileSync(bigFile);
 
-	server = await startServer({ databaseFile, port, demo: true });
-	const url = server.url;
+	const { url } = await own.start({ databaseFile, port, demo: true });
 	const before = spiCounts(databaseFile);
 	const openSignals = (
 		(await (
@@ -166,11 +152,9 @@ test('token requests, sign-ins and writes during a large import: no 500, none wa
 });
 
 test('a write that finds the database locked by another process is answered 503 with Retry-After', async () => {
-	dir = mkdtempSync(join(tmpdir(), 'rollbead-busy-'));
-	const databaseFile = join(dir, 'rollbead.db');
+	const databaseFile = join(own.folder(), 'rollbead.db');
 	const engineer = makeTokenIn(databaseFile, 'engineer');
-	server = await startServer({ databaseFile, port: await freePort(), demo: false });
-	const url = server.url;
+	const { url } = await own.start({ databaseFile, port: await freePort(), demo: false });
 	// Another process (here: this one) holds the write lock longer than the server's busy timeout.
 	const other = new Database(databaseFile);
 	other.exec('BEGIN IMMEDIATE');

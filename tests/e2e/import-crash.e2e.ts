@@ -1,33 +1,19 @@
 import { expect, test } from '@playwright/test';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { once } from 'node:events';
-import {
-	freePort,
-	integrityCheck,
-	makeTokenIn,
-	spiCounts,
-	startServer,
-	uploadPaced,
-	writeSpiFile,
-	type OwnServer
-} from './own-server';
+import { freePort, makeTokenIn } from '../../scripts/lib/own-server';
+import { integrityCheck, spiCounts, uploadPaced, writeSpiFile } from '../../scripts/lib/spi-load';
+import { ownServersPerTest } from './own-servers';
 
 // `kill -9` of a server in the middle of a large SPI import: nothing of it may show, the database
 // stays sound, and the same file imports whole afterwards (README, SPI inspection data).
 test.describe.configure({ timeout: 300_000 });
 
-let dir = '';
-let server: OwnServer | null = null;
-test.afterEach(async () => {
-	await server?.stop();
-	server = null;
-	if (dir) rmSync(dir, { recursive: true, force: true });
-});
+const own = ownServersPerTest('rollbead-crash-');
 
 test('a server killed mid-import comes back with no partial import; the file then imports whole', async () => {
-	dir = mkdtempSync(join(tmpdir(), 'rollbead-crash-'));
+	const dir = own.folder();
 	const databaseFile = join(dir, 'rollbead.db');
 	const port = await freePort();
 	const token = makeTokenIn(databaseFile, 'quality');
@@ -39,7 +25,7 @@ test('a server killed mid-import comes back with no partial import; the file the
 	const smallFile = join(dir, 'earlier.csv');
 	await writeSpiFile(smallFile, 4, 50, 'FW-EARLIER');
 
-	server = await startServer({ databaseFile, port, demo: false });
+	let server = await own.start({ databaseFile, port, demo: false });
 	const earlier = await fetch(`${server.url}/api/spi/imports?fileName=earlier.csv`, {
 		method: 'POST',
 		headers: { authorization: `Bearer ${token}`, 'content-type': 'text/csv' },
@@ -81,10 +67,9 @@ test('a server killed mid-import comes back with no partial import; the file the
 	if (live.child.exitCode === null && live.child.signalCode === null)
 		await once(live.child, 'exit');
 	expect(live.child.signalCode).toBe('SIGKILL');
-	server = null;
 
 	// Restart on the same database: start-up removes what the killed import left.
-	server = await startServer({ databaseFile, port, demo: false });
+	server = await own.start({ databaseFile, port, demo: false });
 	expect(integrityCheck(databaseFile)).toBe('ok');
 	expect(spiCounts(databaseFile)).toEqual({ ...before, importing: 0 });
 	const listed = await fetch(`${server.url}/api/spi/imports`, {

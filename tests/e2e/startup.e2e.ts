@@ -3,13 +3,14 @@ import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { SERVER_ENTRY } from '../../scripts/lib/own-server';
 
 // Runs the same build the other specs use (the web server built it before any spec started).
-test('node build with a database that cannot be opened exits 1 with a clear message', async () => {
+test('a server with a database that cannot be opened exits 1 with a clear message', async () => {
 	const dir = mkdtempSync(join(tmpdir(), 'rollbead-start-'));
 	const blocker = join(dir, 'not-a-folder');
 	writeFileSync(blocker, 'x');
-	const child = spawn('node', ['build'], {
+	const child = spawn(process.execPath, [SERVER_ENTRY], {
 		env: { ...process.env, PORT: '0', DATABASE_URL: join(blocker, 'rollbead.db') },
 		stdio: ['ignore', 'pipe', 'pipe']
 	});

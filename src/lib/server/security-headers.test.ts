@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { applySecurityHeaders, hstsFor } from './security-headers';
+import { baseSecurityHeaders, hstsFor } from './base-headers.js';
+import { applySecurityHeaders } from './security-headers';
 
 describe('security headers', () => {
 	it('sets framing, sniffing, referrer and a strict fallback CSP on every answer', () => {
@@ -37,5 +38,22 @@ describe('security headers', () => {
 		expect(hstsFor('HTTPS://rollbead.fenmoor.example')).toBe('max-age=31536000');
 		expect(hstsFor('http://10.0.0.5:3000')).toBeNull();
 		expect(hstsFor(undefined)).toBeNull();
+
+		const page = new Headers();
+		applySecurityHeaders(page, { path: '/', signedIn: true, origin: 'https://rb.example' });
+		expect(page.get('strict-transport-security')).toBe('max-age=31536000');
+	});
+
+	it('gives static files (server.js) the same base headers as SvelteKit answers', () => {
+		for (const origin of ['http://10.0.0.5:3000', 'https://rollbead.fenmoor.example']) {
+			const page = new Headers();
+			applySecurityHeaders(page, { path: '/signin', signedIn: false, origin });
+			const base = new Map(baseSecurityHeaders(origin));
+			expect(base.get('x-frame-options')).toBe('DENY');
+			expect(base.get('x-content-type-options')).toBe('nosniff');
+			expect(base.get('referrer-policy')).toBe('same-origin');
+			expect(base.get('strict-transport-security') ?? null).toBe(hstsFor(origin));
+			for (const [name, value] of base) expect(page.get(name), name).toBe(value);
+		}
 	});
 });

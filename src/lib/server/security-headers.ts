@@ -1,4 +1,5 @@
 import { isRedirect, type Handle } from '@sveltejs/kit';
+import { baseSecurityHeaders } from './base-headers.js';
 
 const isApi = (path: string) => path === '/api' || path.startsWith('/api/');
 
@@ -9,28 +10,20 @@ const isApi = (path: string) => path === '/api' || path.startsWith('/api/');
 const FALLBACK_CSP =
 	"default-src 'none'; frame-ancestors 'none'; base-uri 'none'; form-action 'none'";
 
-/** HSTS only when Rollbead is reached over https (ORIGIN), never on a plain-http floor network. */
-export function hstsFor(origin: string | undefined): string | null {
-	return origin?.trim().toLowerCase().startsWith('https://') ? 'max-age=31536000' : null;
-}
-
 /**
- * The headers every answer carries. `private` answers (signed-in pages, the API, downloads) are
- * never stored by a browser or proxy: a shared shop-floor PC must not show the last person's page
- * from its cache.
+ * The headers every SvelteKit answer carries: the base ones (server.js also puts them on the
+ * static files adapter-node serves before hooks run), a CSP and Cache-Control. `private` answers
+ * (signed-in pages, the API, downloads) are never stored by a browser or proxy: a shared
+ * shop-floor PC must not show the last person's page from its cache.
  */
 export function applySecurityHeaders(
 	headers: Headers,
 	opts: { path: string; signedIn: boolean; origin: string | undefined }
 ): void {
-	headers.set('x-frame-options', 'DENY');
-	headers.set('x-content-type-options', 'nosniff');
-	headers.set('referrer-policy', 'same-origin');
+	for (const [name, value] of baseSecurityHeaders(opts.origin)) headers.set(name, value);
 	if (!headers.has('content-security-policy')) headers.set('content-security-policy', FALLBACK_CSP);
 	const download = /attachment/i.test(headers.get('content-disposition') ?? '');
 	if (opts.signedIn || isApi(opts.path) || download) headers.set('cache-control', 'no-store');
-	const hsts = hstsFor(opts.origin);
-	if (hsts) headers.set('strict-transport-security', hsts);
 }
 
 /** First in the hooks sequence, so refusals and redirects made by later handles get them too. */

@@ -174,14 +174,7 @@ export {
 	type SignalJsonInput,
 	type SignalQuery
 } from './api-json';
-export {
-	chartLine,
-	describeSignal,
-	digestMail,
-	ruleText,
-	signalMail,
-	type SignalText
-} from './signal-text';
+export { chartLine, describeSignal, ruleText, type SignalText } from './signal-text';
 export {
 	sortSummaryRows,
 	summaryRow,
@@ -194,4 +187,3 @@ export {
 	type AcknowledgeRequest
 } from './acknowledge-form';
 export { widerScopeIds, type BoardSide, type ScopeMember } from './ack-scope';
-export { inAreaRatioBand, type AreaRatioBand } from './pad-selection';

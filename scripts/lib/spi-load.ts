@@ -1,95 +1,12 @@
-import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
 import { createWriteStream, statSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { once } from 'node:events';
 import { request as httpRequest } from 'node:http';
 import Database from 'better-sqlite3';
-import type { Role } from '../../src/lib/access';
 
 /**
- * A Rollbead server of a spec's own (`node build`, the build the Playwright web server made), on
- * its own port and database, for specs that stop, kill or load a server. Not a spec itself.
+ * SPI load for a server of one's own (./own-server.ts): canonical files of any size, uploads over
+ * a slow link, and row counts read from the database file as another process would.
  */
-
-export async function freePort(): Promise<number> {
-	return new Promise((resolve, reject) => {
-		const server = createServer();
-		server.unref();
-		server.on('error', reject);
-		server.listen(0, '127.0.0.1', () => {
-			const address = server.address();
-			server.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
-		});
-	});
-}
-
-export interface OwnServer {
-	url: string;
-	child: ChildProcess;
-	/** Everything the server printed. */
-	output(): string;
-	/** SIGTERM and wait for the exit. */
-	stop(): Promise<void>;
-}
-
-export async function startServer(options: {
-	databaseFile: string;
-	port: number;
-	demo: boolean;
-	env?: Record<string, string>;
-}): Promise<OwnServer> {
-	const url = `http://127.0.0.1:${options.port}`;
-	const child = spawn('node', ['build'], {
-		env: {
-			...process.env,
-			PORT: String(options.port),
-			HOST: '127.0.0.1',
-			ORIGIN: url,
-			DATABASE_URL: options.databaseFile,
-			ROLLBEAD_DEMO: options.demo ? '1' : '0',
-			SPI_WATCH_DIR: '',
-			...options.env
-		},
-		stdio: ['ignore', 'pipe', 'pipe']
-	});
-	let output = '';
-	child.stdout?.on('data', (c) => (output += c));
-	child.stderr?.on('data', (c) => (output += c));
-	const exited = once(child, 'exit');
-	const deadline = Date.now() + 120_000;
-	for (;;) {
-		if (child.exitCode !== null) throw new Error(`server exited ${child.exitCode}:\n${output}`);
-		try {
-			const res = await fetch(`${url}/api/health`);
-			if (res.ok) break;
-		} catch {
-			// not listening yet
-		}
-		if (Date.now() > deadline) throw new Error(`server did not start:\n${output}`);
-		await new Promise((r) => setTimeout(r, 200));
-	}
-	return {
-		url,
-		child,
-		output: () => output,
-		async stop() {
-			if (child.exitCode !== null || child.signalCode !== null) return;
-			child.kill('SIGTERM');
-			await exited;
-		}
-	};
-}
-
-/** An API token made by the command-line tool against `databaseFile` (it migrates the file). */
-export function makeTokenIn(databaseFile: string, role: Role): string {
-	const output = execFileSync(
-		'npx',
-		['tsx', 'scripts/token.ts', 'create', '--name', `e2e ${role}`, '--role', role],
-		{ env: { ...process.env, DATABASE_URL: databaseFile }, encoding: 'utf8' }
-	);
-	const lines = output.trim().split('\n');
-	return lines[lines.length - 1];
-}
 
 const HEADER =
 	'board_serial,inspected_at,line,product,panel_index,refdes,pad,volume_pct,area_pct,height_um,offset_x_um,offset_y_um,result\n';
