@@ -174,7 +174,14 @@ export {
 	type SignalJsonInput,
 	type SignalQuery
 } from './api-json';
-export { chartLine, describeSignal, ruleText, type SignalText } from './signal-text';
+export {
+	chartLine,
+	describeSignal,
+	digestMail,
+	ruleText,
+	signalMail,
+	type SignalText
+} from './signal-text';
 export {
 	sortSummaryRows,
 	summaryRow,
@@ -187,3 +194,4 @@ export {
 	type AcknowledgeRequest
 } from './acknowledge-form';
 export { widerScopeIds, type BoardSide, type ScopeMember } from './ack-scope';
+export { inAreaRatioBand, type AreaRatioBand } from './pad-selection';

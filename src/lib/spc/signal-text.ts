@@ -34,3 +34,58 @@ export function chartLine(
 	const where = c.lineCodes.length ? c.lineCodes.join(', ') : 'all lines';
 	return `${c.name} · ${c.productCode} · ${where}`;
 }
+
+/** The chart a mail is about, with the names a reader knows it by. */
+type MailChart = { name: string; productCode: string; lineCodes: string[]; unit: string };
+
+/**
+ * The mail to a chart's follower about its new signal runs: what fired where, the capability
+ * line, and links to the chart and to acknowledge (`origin` is the app's configured ORIGIN).
+ */
+export function signalMail(
+	origin: string,
+	chartId: number,
+	c: MailChart | undefined,
+	signals: SignalText[],
+	assessment: string
+): { subject: string; text: string } {
+	const subject = `[Rollbead] ${signals.length === 1 ? 'Signal' : `${signals.length} signals`} on ${c?.name ?? `chart #${chartId}`}: ${ruleText(signals[0].rule)}`;
+	const text = [
+		`New run-rule signal${signals.length === 1 ? '' : 's'} on ${chartLine(c, chartId)}:`,
+		'',
+		...signals.map((s) => describeSignal(s, c)),
+		'',
+		assessment,
+		'',
+		`Open the chart: ${origin}/charts/${chartId}`,
+		`Acknowledge with the cause and action: ${origin}/signals?status=open&chart=${chartId}`,
+		'',
+		'You get this because you follow this chart in Rollbead.'
+	].join('\n');
+	return { subject, text };
+}
+
+/** One digest of the signal runs that waited, chart by chart. */
+export function digestMail(
+	origin: string,
+	charts: {
+		chartId: number;
+		chart: MailChart | undefined;
+		signals: SignalText[];
+		assessment: string;
+	}[]
+): { subject: string; text: string } {
+	const runs = charts.reduce((n, c) => n + c.signals.length, 0);
+	const text = [
+		`${runs} new signal run${runs === 1 ? '' : 's'} on ${charts.length} chart${charts.length === 1 ? '' : 's'} in the last few minutes:`,
+		...charts.flatMap(({ chartId, chart, signals, assessment }) => [
+			'',
+			`${chartLine(chart, chartId)} — ${origin}/charts/${chartId}`,
+			...signals.map((s) => describeSignal(s, chart)),
+			assessment
+		]),
+		'',
+		`Open signals: ${origin}/signals?status=open`
+	].join('\n');
+	return { subject: `[Rollbead] Digest: ${runs} new signal run${runs === 1 ? '' : 's'}`, text };
+}

@@ -1,5 +1,5 @@
 import { and, asc, eq, gte, inArray, like, or } from 'drizzle-orm';
-import { chartLine, describeSignal, ruleText } from '$lib/spc';
+import { digestMail, signalMail } from '$lib/spc';
 import type { Db } from '../db';
 import { mailOutbox, spcMailQueue, spcSignals, users } from '../db/schema';
 import { sendMail } from '../mail';
@@ -87,19 +87,7 @@ export async function notifyFollowers(
 				scheduleFlush(db);
 				continue;
 			}
-			const subject = `[Rollbead] ${signals.length === 1 ? 'Signal' : `${signals.length} signals`} on ${c?.name ?? `chart #${chartId}`}: ${ruleText(signals[0].rule)}`;
-			const text = [
-				`New run-rule signal${signals.length === 1 ? '' : 's'} on ${chartLine(c, chartId)}:`,
-				'',
-				...signals.map((s) => describeSignal(s, c)),
-				'',
-				assessment,
-				'',
-				`Open the chart: ${origin()}/charts/${chartId}`,
-				`Acknowledge with the cause and action: ${origin()}/signals?status=open&chart=${chartId}`,
-				'',
-				'You get this because you follow this chart in Rollbead.'
-			].join('\n');
+			const { subject, text } = signalMail(origin(), chartId, c, signals, assessment);
 			sent.push(await sendMail(db, { to: [follower.email], subject, text, kind: 'signal' }));
 		}
 	}
@@ -137,21 +125,19 @@ export async function flushDigests(db: Db, now = new Date(), force = false): Pro
 			const byChart = new Map<number, SignalRow[]>();
 			for (const r of rows)
 				byChart.set(r.s.characteristicId, [...(byChart.get(r.s.characteristicId) ?? []), r.s]);
-			const text = [
-				`${rows.length} new signal run${rows.length === 1 ? '' : 's'} on ${byChart.size} chart${byChart.size === 1 ? '' : 's'} in the last few minutes:`,
-				...[...byChart].flatMap(([chartId, signals]) => [
-					'',
-					`${chartLine(chars.get(chartId), chartId)} — ${origin()}/charts/${chartId}`,
-					...signals.map((s) => describeSignal(s, chars.get(chartId))),
-					assessmentLine(db, chartId)
-				]),
-				'',
-				`Open signals: ${origin()}/signals?status=open`
-			].join('\n');
+			const { subject, text } = digestMail(
+				origin(),
+				[...byChart].map(([chartId, signals]) => ({
+					chartId,
+					chart: chars.get(chartId),
+					signals,
+					assessment: assessmentLine(db, chartId)
+				}))
+			);
 			sent.push(
 				await sendMail(db, {
 					to: [rows[0].email],
-					subject: `[Rollbead] Digest: ${rows.length} new signal run${rows.length === 1 ? '' : 's'}`,
+					subject,
 					text,
 					kind: 'signal-digest'
 				})

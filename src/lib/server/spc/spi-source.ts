@@ -1,8 +1,9 @@
 import { and, eq, getTableColumns, inArray, isNotNull } from 'drizzle-orm';
 import { SPI_MEASURES, type SpiMeasureId } from '$lib/spi/measures';
-import { apertureGeometry, areaRatio, type ApertureInput } from '$lib/stencil';
+import type { ApertureInput } from '$lib/stencil';
 import {
 	groupBoards,
+	inAreaRatioBand,
 	valuesPerPoint,
 	type BoardValues,
 	type ObservedOutOfSpec,
@@ -146,17 +147,9 @@ export function selectedPadIds(db: Db, c: CharacteristicRow): number[] | null {
 		.innerJoin(stencils, eq(stencils.id, apertures.stencilId))
 		.where(and(eq(spiPads.productCode, code), isNotNull(spiPads.apertureId)))
 		.all();
-	const out: number[] = [];
-	for (const r of rows) {
-		try {
-			const g = apertureGeometry(r.a as unknown as ApertureInput);
-			const ar = areaRatio(g.areaUm2, g.perimeterUm, r.thicknessUm);
-			if ((sel.min == null || ar >= sel.min) && (sel.max == null || ar <= sel.max)) out.push(r.id);
-		} catch {
-			// An aperture the stencil module cannot read is left out of the band.
-		}
-	}
-	return out;
+	return rows
+		.filter((r) => inAreaRatioBand(r.a as unknown as ApertureInput, r.thicknessUm, sel))
+		.map((r) => r.id);
 }
 
 /**
