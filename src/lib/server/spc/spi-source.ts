@@ -70,18 +70,25 @@ type BoardRow = {
 // (an index range scan on product + time, newest first).
 const statements = new WeakMap<object, Map<string, import('better-sqlite3').Statement>>();
 
-function newestBoards(
-	db: Db,
-	c: CharacteristicRow,
-	measure: SpiMeasure,
-	minCount: number,
-	limit: number
-): BoardRow[] {
+/** The product code the SPI rows carry: the chart's own when loaded with it, else read once. */
+function productCodeOf(db: Db, c: CharacteristicRow & { productCode?: string }): string {
+	if (c.productCode !== undefined) return c.productCode;
 	const product = db
 		.select({ code: products.code })
 		.from(products)
 		.where(eq(products.id, c.productId))
 		.get();
+	return product?.code ?? '';
+}
+
+function newestBoards(
+	db: Db,
+	c: CharacteristicRow,
+	productCode: string,
+	measure: SpiMeasure,
+	minCount: number,
+	limit: number
+): BoardRow[] {
 	const p = PREFIX[measure];
 	const key = `${p}:${c.lineIds.length}`;
 	let cache = statements.get(db.$client);
@@ -99,10 +106,9 @@ function newestBoards(
 		);
 		cache.set(key, stmt);
 	}
-	const rows = stmt.all(product?.code ?? '', ...c.lineIds, minCount, limit) as (Omit<
-		BoardRow,
-		'at'
-	> & { at: number })[];
+	const rows = stmt.all(productCode, ...c.lineIds, minCount, limit) as (Omit<BoardRow, 'at'> & {
+		at: number;
+	})[];
 	const out: BoardRow[] = new Array(rows.length);
 	for (let i = 0; i < rows.length; i++) {
 		const r = rows[i];
@@ -123,15 +129,13 @@ function newestBoards(
 }
 
 /** Pad ids of the characteristic's pad selection (null = all pads). */
-export function selectedPadIds(db: Db, c: CharacteristicRow): number[] | null {
+export function selectedPadIds(
+	db: Db,
+	c: CharacteristicRow,
+	code = productCodeOf(db, c)
+): number[] | null {
 	const sel = c.padSelection;
 	if (sel.kind === 'all') return null;
-	const product = db
-		.select({ code: products.code })
-		.from(products)
-		.where(eq(products.id, c.productId))
-		.get();
-	const code = product?.code ?? '';
 	if (sel.kind === 'refdes') {
 		return db
 			.select({ id: spiPads.id })
@@ -165,10 +169,13 @@ export function loadSpiSubgroups(
 	const col = COLUMNS[c.measure as SpiMeasure];
 	if (!col) return [];
 	const perPoint = valuesPerPoint(c);
-	const padIds = selectedPadIds(db, c);
+	// The product code once for the pad selection and the board query.
+	const code = productCodeOf(db, c);
+	const padIds = selectedPadIds(db, c, code);
 	const boards = newestBoards(
 		db,
 		c,
+		code,
 		c.measure as SpiMeasure,
 		padIds ? 1 : 2,
 		Math.min(200_000, limitSubgroups * perPoint)
