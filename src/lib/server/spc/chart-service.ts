@@ -3,6 +3,7 @@ import {
 	computeChart,
 	needsPadEvidence,
 	pointKeyWords,
+	type CapabilityThresholds,
 	type ChartLimits,
 	type ComputedChart,
 	type OpenSignalRef
@@ -60,6 +61,8 @@ export interface ChartDetailOptions {
 	/** Phase I baseline period: only points in [from, to] feed the computed limits. */
 	baselineFrom?: Date | null;
 	baselineTo?: Date | null;
+	/** The site's verdict thresholds when already read (a list of charts reads them once). */
+	thresholds?: CapabilityThresholds;
 }
 
 export class NotFoundError extends Error {}
@@ -210,7 +213,7 @@ export function chartDetail(db: Db, id: number, options: ChartDetailOptions = {}
 			chartPart,
 			point
 		})),
-		thresholds: getCapabilityThresholds(db),
+		thresholds: options.thresholds ?? getCapabilityThresholds(db),
 		pads: needsPadEvidence(c, subgroups) ? padEvidence(db, c, subgroups) : null
 	});
 	return { characteristic: c, versions, exclusions, openSignals, ...computed };
