@@ -140,6 +140,22 @@ try {
 		`transferEfficiency over ${answer!.n + answer!.trimmed} pads (${answer!.bins.length} bins, learned limit ${answer!.learnedMinAreaRatio?.toFixed(3)}): median ${median(times).toFixed(0)} ms, runs ${times.map((x) => x.toFixed(0)).join(' / ')} ms; longest event-loop stall ${longestGap.toFixed(0)} ms`
 	);
 
+	// The timer's largest gap with nothing running, for as long as one scan: what the machine's
+	// own load costs (the stalls above and below include it).
+	let idleGap = 0;
+	{
+		let last = performance.now();
+		const timer = setInterval(() => {
+			const now = performance.now();
+			idleGap = Math.max(idleGap, now - last);
+			last = now;
+		}, 5);
+		await new Promise((resolve) => setTimeout(resolve, median(times)));
+		clearInterval(timer);
+	}
+	console.log(
+		`idle for ${median(times).toFixed(0)} ms: longest event-loop gap ${idleGap.toFixed(0)} ms`
+	);
 	// The same scan as GET /api/analysis/transfer-efficiency runs it: on the analysis thread.
 	// A 5 ms timer here stands for the other requests; its largest gap is their longest wait.
 	await teThread.transferEfficiencyOffThread(db, filters); // starts the thread (tsx: seconds)
