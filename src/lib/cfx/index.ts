@@ -3,3 +3,4 @@ export * from './decode';
 export * from './map';
 export * from './spi-csv';
 export * from './oee';
+export * from './event-words';

@@ -79,6 +79,8 @@ export interface RunValue {
 	startedAt: Date;
 	lineCode: string;
 	value: number;
+	/** A point that is not a print run (a board a printer reported over CFX): its key and label. */
+	point?: { key: string; label: string };
 }
 
 /**
@@ -94,10 +96,10 @@ export function groupRuns(runs: readonly RunValue[], perPoint: number, limit: nu
 		const first = group[0];
 		const last = group[group.length - 1];
 		out.push({
-			key: `run:${first.id}`,
+			key: first.point?.key ?? `run:${first.id}`,
 			label:
 				perPoint === 1
-					? `run ${first.id} · ${first.lineCode}`
+					? (first.point?.label ?? `run ${first.id}`) + ` · ${first.lineCode}`
 					: `runs ${first.id}–${last.id} · ${first.lineCode}`,
 			boardId: null,
 			boardIds: [],

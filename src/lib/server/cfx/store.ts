@@ -10,6 +10,7 @@
 import { createHash } from 'node:crypto';
 import {
 	decodeAmqpBody,
+	machineEventWords,
 	mapEnvelope,
 	spiCsvForUnits,
 	type CfxRecord,
@@ -23,6 +24,7 @@ import { publishFloorEvent, type FloorEvent } from '../floor/events';
 import { ingestSpiFile, type IngestSource } from '../ingest/ingest-service';
 import { currentRecipeFor } from '../printlog/recipes';
 import { evaluateChartsForRun } from '../printlog/run-signals';
+import { evaluateSignalsAfterPrintRun } from '../spc/signals';
 import { productByCode, stencilByName } from '../printlog/lookups';
 
 /** The spi_imports.source of CFX measurements (the column is free text; the type names the file routes). */
@@ -241,7 +243,11 @@ function productFor(
 	return product ? { productId: product.id, productCode: product.code, run: null } : null;
 }
 
-type Pending = { events: FloorEvent[] };
+type Pending = {
+	events: FloorEvent[];
+	/** Products and lines that got a board printed outside the recipe window (charts to judge). */
+	deviating?: Map<string, { productId: number; lineId: number }>;
+};
 
 /**
  * Open a print run from the printer's messages (no run open on the line, the recipe names a
@@ -419,6 +425,13 @@ function applyRecord(
 							}
 						).deviations;
 					}
+				}
+				if (product && deviations.some((d) => d.kind === 'numeric')) {
+					out.deviating ??= new Map();
+					out.deviating.set(`${product.productId}:${ep.lineId}`, {
+						productId: product.productId,
+						lineId: ep.lineId
+					});
 				}
 				const row = unitRow(
 					db,
@@ -737,6 +750,20 @@ async function storeInspections(
  * server fault (disk full) throws and the receiver leaves the message unsettled.
  * `retryOf`: the quarantine row being retried (skips the redelivery check).
  */
+/** Record kinds that add a line event (cfx_line_events). */
+const LINE_EVENT_KINDS: ReadonlySet<CfxRecord['kind']> = new Set([
+	'work-started',
+	'work-completed',
+	'stencil-changed',
+	'squeegee-changed',
+	'tool-changed',
+	'stencil-cleaned',
+	'squeegee-cleaned',
+	'fault-occurred',
+	'fault-cleared',
+	'station-state-changed'
+]);
+
 export async function storeCfxMessage(
 	db: Db,
 	msg: IncomingCfxMessage,
@@ -839,9 +866,17 @@ export async function storeCfxMessage(
 		}
 	});
 	for (const event of out.events) publishFloorEvent(event);
+	// The line view lists machine events live: its tile is sent again, and the page reads them.
+	const machineLines = [
+		...new Set(records.filter((r) => LINE_EVENT_KINDS.has(r.rec.kind)).map((r) => r.ep.lineId))
+	];
+	if (machineLines.length) publishFloorEvent({ kind: 'machine', lineIds: machineLines });
 	// Print-parameter charts judge runs opened or ended by machines as they judge typed ones.
 	for (const event of out.events)
 		if (event.kind === 'run') await evaluateChartsForRun(db, event.runId);
+	// A board printed outside the recipe window is a point of the print-parameter charts
+	// (./board-points): judged, signalled and mailed as a print run's value is.
+	for (const scope of out.deviating?.values() ?? []) await evaluateSignalsAfterPrintRun(db, scope);
 	if (records.length === 0) return { status: 'ignored', reason: ignored[0] ?? 'nothing to store' };
 	return { status: 'stored', records: records.length, sentAtMs: first.timeStampMs };
 }
@@ -1068,6 +1103,21 @@ export async function assignPendingInspection(
 }
 
 /** Recent line events (faults, tool changes, cleaning) of a line, newest first. */
+/** Most line events read for one page or answer. */
+export const MAX_LINE_EVENTS = 200;
+
+/**
+ * A line's machine events, newest first, each with its words (`$lib/cfx/event-words`).
+ * @param limit 1–MAX_LINE_EVENTS
+ */
+export function lineMachineEvents(db: Db, lineId: number | null, limit = 15) {
+	const n = Math.min(MAX_LINE_EVENTS, Math.max(1, Math.trunc(limit)));
+	return recentLineEvents(db, lineId, n).map((e) => ({
+		...e,
+		...machineEventWords(e.kind, e.detail)
+	}));
+}
+
 export function recentLineEvents(db: Db, lineId: number | null, limit = 50) {
 	const rows = db.$client
 		.prepare(

@@ -15,7 +15,9 @@ export type FloorEvent =
 			signalIds: readonly number[];
 	  }
 	| { kind: 'paste-lot'; lotId: number }
-	| { kind: 'stencil'; stencilId: number };
+	| { kind: 'stencil'; stencilId: number }
+	/** Machines reported line events over CFX (a fault, a stencil change, work started…). */
+	| { kind: 'machine'; lineIds: readonly number[] };
 
 /** An event with the time it was published (epoch ms), for the delay figures. */
 export type PublishedFloorEvent = FloorEvent & { publishedAtMs: number };

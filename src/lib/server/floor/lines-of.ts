@@ -29,6 +29,8 @@ export function linesOfEvent(db: Db, e: PublishedFloorEvent): number[] {
 				.all(e.stencilId) as number[];
 		case 'signal':
 			return signalLines(db, e.signalIds);
+		case 'machine':
+			return [...e.lineIds];
 	}
 }
 
@@ -39,12 +41,15 @@ function signalLines(db: Db, ids: readonly number[]): number[] {
 	);
 	const runLine = db.$client.prepare(`select line_id from print_runs where id = ?`).pluck();
 	const boardLine = db.$client.prepare(`select line_id from spi_boards where id = ?`).pluck();
+	const cfxUnitLine = db.$client.prepare(`select line_id from cfx_units where id = ?`).pluck();
 	for (const id of ids.slice(0, 500)) {
 		const row = sig.get(id) as { pointKey: string; boardIds: string } | undefined;
 		if (!row) continue;
 		const run = /^run:(\d+)$/.exec(row.pointKey);
 		let line: number | null | undefined;
+		const cfxUnit = /^cfx-unit:(\d+)$/.exec(row.pointKey);
 		if (run) line = runLine.get(Number(run[1])) as number | undefined;
+		else if (cfxUnit) line = cfxUnitLine.get(Number(cfxUnit[1])) as number | undefined;
 		else {
 			try {
 				const boards = JSON.parse(row.boardIds) as number[];

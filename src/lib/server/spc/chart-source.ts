@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '../db';
 import { lines, printRuns, spcCharacteristics } from '../db/schema';
+import { cfxDeviatingBoardValues } from '../cfx/board-points';
 import { isSpiMeasure } from './measures';
 import { loadSpiSubgroups } from './spi-source';
 
@@ -52,6 +53,12 @@ export function loadSubgroups(
 			value: printParameterValue(r, key)
 		}))
 		.filter((r): r is typeof r & { value: number } => r.value !== null);
+	// Boards a printer reported over CFX outside the recipe window are points too, like runs.
+	const boards = cfxDeviatingBoardValues(db, c.productId, c.lineIds, key, limitSubgroups * per);
+	if (boards.length) {
+		usable.push(...boards);
+		usable.sort((a, b) => a.startedAt.getTime() - b.startedAt.getTime() || a.id - b.id);
+	}
 	return groupRuns(usable, per, limitSubgroups);
 }
 

@@ -110,7 +110,11 @@ export const cfxUnits = sqliteTable(
 	(t) => [
 		index('cfx_units_unit_idx').on(t.endpointId, t.unitIdentifier, t.positionNumber),
 		index('cfx_units_line_time_idx').on(t.lineId, t.processedAt),
-		index('cfx_units_run_idx').on(t.printRunId)
+		index('cfx_units_run_idx').on(t.printRunId),
+		// Boards printed outside the recipe window, read as print-parameter chart points (few).
+		index('cfx_units_deviating_idx')
+			.on(t.productId, t.processedAt)
+			.where(sql`${t.deviations} != '[]'`)
 	]
 );
 

@@ -1,0 +1,1 @@
+CREATE INDEX `cfx_units_deviating_idx` ON `cfx_units` (`product_id`,`processed_at`) WHERE "cfx_units"."deviations" != '[]';
