@@ -46,7 +46,9 @@ export function sampleStandardDeviation(values: readonly number[]): number {
  * @example quantile([1, 2, 3, 4], 0.5) // 2.5
  */
 export function quantile(values: readonly number[], p: number): number {
-	const sorted = [...values].sort((a, b) => a - b);
+	// A typed array sorts numerically without a comparator call per step: several times faster on
+	// the chart histogram's 5,000 pad values (read on every chart request).
+	const sorted = Float64Array.from(values).sort();
 	const h = (sorted.length - 1) * p;
 	const lo = Math.floor(h);
 	const hi = Math.min(lo + 1, sorted.length - 1);
