@@ -5,6 +5,7 @@ import {
 	FLOOR_DEFAULTS,
 	lineTile,
 	passRatePct,
+	runSide,
 	sortTiles,
 	stencilSide,
 	wordsForMinutes,
@@ -300,6 +301,21 @@ describe('line state', () => {
 		expect(tile.spi.offsetXUm).toEqual({ mean: -2, target: 0, boards: 20 });
 		expect(tile.run).toMatchObject({ boardsPrinted: 300, minutesSinceLastBoard: 0 });
 		expect(tile.side).toBe('top');
+	});
+
+	it('takes the side from the stencil approval for the product before the stencil name', () => {
+		const stencil = facts().stencil!;
+		const bottom = lineTile(facts({ stencil: { ...stencil, approvedSides: ['bottom'] } }), NOW);
+		expect(bottom.side).toBe('bottom');
+		// Approved for both sides: the approval does not tell, the name does.
+		const both = lineTile(
+			facts({ stencil: { ...stencil, approvedSides: ['bottom', 'top'] } }),
+			NOW
+		);
+		expect(both.side).toBe('top');
+		expect(runSide({ name: 'ST-X', approvedSides: [] })).toBeNull();
+		expect(runSide({ name: 'ST-X', approvedSides: ['top'] })).toBe('top');
+		expect(runSide(null)).toBeNull();
 	});
 });
 

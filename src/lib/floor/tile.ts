@@ -119,6 +119,8 @@ export interface LineFacts {
 		/** Last clean, else when the stencil came into use (its first run), else null. */
 		lastCleanAtMs: number | null;
 		lastTension: { atMs: number; pass: boolean; minimumNPerCm: number } | null;
+		/** Sides this stencil is approved to print for the run's product (product fit). */
+		approvedSides?: readonly ('top' | 'bottom')[];
 	} | null;
 	pasteLot: {
 		id: number;
@@ -268,6 +270,18 @@ export function stencilSide(name: string | null | undefined): 'top' | 'bottom' |
 	if (/[-_ ](T|TOP)$/i.test(name.trim())) return 'top';
 	if (/[-_ ](B|BOT|BOTTOM)$/i.test(name.trim())) return 'bottom';
 	return null;
+}
+
+/**
+ * The side being printed: the one side the stencil is approved for on this product, else the
+ * side its name says (a stencil approved for both sides, or not approved yet, falls back to it).
+ */
+export function runSide(
+	stencil: Pick<NonNullable<LineFacts['stencil']>, 'name' | 'approvedSides'> | null
+): 'top' | 'bottom' | null {
+	const sides = stencil?.approvedSides ?? [];
+	if (sides.length === 1) return sides[0];
+	return stencilSide(stencil?.name);
 }
 
 /** Status of a remaining amount: below 0 late, 0 due, within `soon` soon, else ok. */
@@ -569,7 +583,7 @@ export function lineTile(
 		stateWord: LINE_STATE_WORDS[state],
 		reasons: reasons.map((r) => r.text),
 		product: run ? { code: run.productCode, name: run.productName } : null,
-		side: run ? stencilSide(stencil?.name) : null,
+		side: run ? runSide(stencil) : null,
 		run: run
 			? {
 					id: run.id,

@@ -47,6 +47,12 @@ function prepare(conn: Database.Database) {
 			`select id, name, revision, state, thickness_um as thicknessUm, rated_life_prints as ratedLifePrints
 			   from stencils where id = ?`
 		),
+		approvedSides: conn
+			.prepare(
+				`select distinct side from product_stencil_approvals
+				  where product_id = ? and stencil_name = ? order by side`
+			)
+			.pluck(),
 		stencilRuns: conn.prepare(
 			`select id, started_at as startedAt, boards_printed as boardsPrinted
 			   from print_runs where stencil_id = ?`
@@ -226,12 +232,16 @@ function stencilFacts(
 			lastTension = { atMs: tension.at, pass: check.pass, minimumNPerCm: check.minimumNPerCm };
 		}
 	}
+	const approvedSides = (s.approvedSides.all(run.productId, row.name) as string[]).filter(
+		(side): side is 'top' | 'bottom' => side === 'top' || side === 'bottom'
+	);
 	return {
 		...row,
 		printCount,
 		printsSinceClean: sinceClean,
 		lastCleanAtMs: cleanedAt,
-		lastTension
+		lastTension,
+		approvedSides
 	};
 }
 

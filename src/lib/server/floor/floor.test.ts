@@ -101,6 +101,8 @@ describe('line overview from the database', () => {
 		const tile = tileOf('L1', now);
 		expect(tile.state).toBe('attention');
 		expect(tile.product).toEqual({ code: 'P1', name: 'Board 1' });
+		// ST-GOOD's name tells no side; its approval for P1 says top.
+		expect(tile.side).toBe('top');
 		expect(tile.run).toMatchObject({ id: run.id, boardsPrinted: 10 });
 		// The three newest boards fail: 7 of 10 pass.
 		expect(tile.spi).toMatchObject({ boards: 10, passRateLast10Pct: 70, passRateLast100Pct: 70 });
