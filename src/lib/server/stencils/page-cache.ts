@@ -85,3 +85,21 @@ export function cachedStencil(db: Db, stencilId: number): CachedStencil {
 	while (cache.size > KEPT) cache.delete(cache.keys().next().value!);
 	return entry;
 }
+
+/**
+ * Compute a stencil's page figures soon after its apertures changed (an import or a removal), so
+ * the first view afterwards finds them ready. Runs after the current answer is sent; a stencil
+ * that cannot be read is left for the page to report.
+ */
+export function warmStencilCache(db: Db, stencilId: number): void {
+	const timer = setTimeout(() => {
+		try {
+			const cached = cachedStencil(db, stencilId);
+			cached.advice();
+			cached.columnsJson();
+		} catch {
+			// the page shows the error when it is opened
+		}
+	}, 0);
+	timer.unref?.();
+}

@@ -2,7 +2,8 @@
  * The site's TE model for a stencil technology, as the stencil page shows it beside each
  * aperture: the one analysis of `GET /api/analysis/transfer-efficiency` (all pastes and dates,
  * default floor), computed once per technology and kept until the SPI data or any stencil's
- * apertures change (board count and largest id, aperture count and largest id), since the scan
+ * apertures change (smallest and largest board id: new boards and purged old ones, read from the
+ * rowid index without counting millions of boards; aperture count and largest id), since the scan
  * reads up to two million pads.
  */
 import { siteTeModel, type SiteTeModel } from '$lib/stencil/te-prediction';
@@ -26,7 +27,7 @@ const caches = new WeakMap<
 function dataVersion(db: Db): string {
 	const row = db.$client
 		.prepare(
-			`select (select count(*) from spi_boards) as boards, (select max(id) from spi_boards) as lastBoard,
+			`select (select min(id) from spi_boards) as firstBoard, (select max(id) from spi_boards) as lastBoard,
 			   (select count(*) from apertures) as apertures, (select max(id) from apertures) as lastAperture`
 		)
 		.get();

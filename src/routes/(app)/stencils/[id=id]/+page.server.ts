@@ -14,7 +14,8 @@ import {
 	importApertures,
 	listImports,
 	listRevisions,
-	siteTeModelFor
+	siteTeModelFor,
+	warmStencilCache
 } from '$lib/server/stencils';
 import { teCoverage } from '$lib/stencil/te-prediction';
 import {
@@ -175,6 +176,7 @@ export const actions = {
 			}
 			return fail(422, { apertureForm: form });
 		}
+		warmStencilCache(getDb(), Number(params.id));
 		return message(form, `Aperture ${d.refdes || '(no refdes)'}.${d.pad} added.`);
 	},
 	deleteAperture: async ({ locals, request, params }) => {
@@ -182,6 +184,7 @@ export const actions = {
 		const apertureId = Number((await request.formData()).get('apertureId'));
 		if (!Number.isSafeInteger(apertureId)) return fail(400, { rowError: 'No aperture named.' });
 		const removed = deleteAperture(getDb(), Number(params.id), apertureId, actor);
+		if (removed) warmStencilCache(getDb(), Number(params.id));
 		return removed
 			? { rowMessage: 'Aperture removed.' }
 			: fail(404, { rowError: 'No such aperture.' });

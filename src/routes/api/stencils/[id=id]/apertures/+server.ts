@@ -3,6 +3,7 @@ import { ApiError, apiRoute, readJson } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import {
 	cachedStencil,
+	warmStencilCache,
 	getStencil,
 	importAperturesStaged,
 	parseApertureUploadOffThread,
@@ -111,6 +112,7 @@ async function importUploadedFile(
 			limits
 		)
 	);
+	warmStencilCache(db, stencilId);
 	return json(summary, { status: 201 });
 }
 
@@ -196,5 +198,6 @@ export const POST = apiRoute(async ({ params, request, url }, actor) => {
 	const summary = await withStencilErrors(() =>
 		importAperturesStaged(db, id, result.data.apertures, { source: 'json', mode }, actor)
 	);
+	warmStencilCache(db, id);
 	return json(summary, { status: 201 });
 });
