@@ -1,17 +1,19 @@
 import { and, eq, inArray, isNull } from 'drizzle-orm';
-import { stencilSide } from '$lib/floor/tile';
+import { runSide } from '$lib/floor/tile';
 import { widerScopeIds, type BoardSide, type ScopeMember } from '$lib/spc';
 import type { Db } from '../db';
-import { printRuns, spcSignals, spiBoards, stencils } from '../db/schema';
+import { printRuns, productStencilApprovals, spcSignals, spiBoards, stencils } from '../db/schema';
 
 type Reader = Pick<Db, 'select'>;
 
 const CHUNK = 500;
 
 /**
- * The board side of each signal's completing point, from the stencil that printed it (its name,
- * `stencilSide`): a print-run point ("run:12") by the run's stencil, an SPI point ("board:88") by
- * the board's stencil, else the stencil of the run the board came from. Null when not recorded.
+ * The board side of each signal's completing point, as the line tile names the side printed
+ * (`runSide`): the one side the stencil that printed it is approved for on the product, else the
+ * side its name says. A print-run point ("run:12") by the run's stencil, an SPI point
+ * ("board:88") by the board's stencil, else the stencil of the run the board came from. Null when
+ * not recorded.
  */
 export function signalSides(db: Reader, signals: { id: number; pointKey: string }[]) {
 	const runIds = new Set<number>();
@@ -20,23 +22,24 @@ export function signalSides(db: Reader, signals: { id: number; pointKey: string 
 		const m = /^(run|board):(\d+)$/.exec(s.pointKey);
 		if (m) (m[1] === 'run' ? runIds : boardIds).add(Number(m[2]));
 	}
-	const runSide = new Map<number, BoardSide | null>();
+	/** Product and stencil name of each point, before the approvals are read. */
+	const printedWith = new Map<string, { productId: number | null; stencil: string | null }>();
 	const runs = [...runIds];
 	for (let i = 0; i < runs.length; i += CHUNK) {
 		for (const r of db
-			.select({ id: printRuns.id, name: stencils.name })
+			.select({ id: printRuns.id, productId: printRuns.productId, name: stencils.name })
 			.from(printRuns)
 			.leftJoin(stencils, eq(stencils.id, printRuns.stencilId))
 			.where(inArray(printRuns.id, runs.slice(i, i + CHUNK)))
 			.all())
-			runSide.set(r.id, stencilSide(r.name));
+			printedWith.set(`run:${r.id}`, { productId: r.productId, stencil: r.name });
 	}
-	const boardSide = new Map<number, BoardSide | null>();
 	const boards = [...boardIds];
 	for (let i = 0; i < boards.length; i += CHUNK) {
 		for (const b of db
 			.select({
 				id: spiBoards.id,
+				productId: spiBoards.productId,
 				stencil: stencils.name,
 				stencilName: spiBoards.stencilName,
 				runStencilId: printRuns.stencilId
@@ -46,23 +49,48 @@ export function signalSides(db: Reader, signals: { id: number; pointKey: string 
 			.leftJoin(printRuns, eq(printRuns.id, spiBoards.printRunId))
 			.where(inArray(spiBoards.id, boards.slice(i, i + CHUNK)))
 			.all()) {
-			let side = stencilSide(b.stencil) ?? stencilSide(b.stencilName);
-			if (side === null && b.runStencilId !== null) {
-				const run = db
-					.select({ name: stencils.name })
-					.from(stencils)
-					.where(eq(stencils.id, b.runStencilId))
-					.get();
-				side = stencilSide(run?.name);
-			}
-			boardSide.set(b.id, side);
+			let stencil = b.stencil ?? b.stencilName;
+			if (stencil === null && b.runStencilId !== null)
+				stencil =
+					db
+						.select({ name: stencils.name })
+						.from(stencils)
+						.where(eq(stencils.id, b.runStencilId))
+						.get()?.name ?? null;
+			printedWith.set(`board:${b.id}`, { productId: b.productId, stencil });
 		}
 	}
+	const approved = new Map<string, BoardSide[]>();
+	const sideOf = (p: { productId: number | null; stencil: string | null }): BoardSide | null => {
+		if (p.stencil === null) return null;
+		const key = `${p.productId}|${p.stencil}`;
+		let sides = approved.get(key);
+		if (!sides) {
+			sides =
+				p.productId === null
+					? []
+					: db
+							.select({ side: productStencilApprovals.side })
+							.from(productStencilApprovals)
+							.where(
+								and(
+									eq(productStencilApprovals.productId, p.productId),
+									eq(productStencilApprovals.stencilName, p.stencil)
+								)
+							)
+							.all()
+							.map((r) => r.side)
+							.filter((side): side is BoardSide => side === 'top' || side === 'bottom')
+							// One row per side (the approval is unique by product, stencil and side).
+							.filter((side, i, all) => all.indexOf(side) === i);
+			approved.set(key, sides);
+		}
+		return runSide({ name: p.stencil, approvedSides: sides });
+	};
 	const out = new Map<number, BoardSide | null>();
 	for (const s of signals) {
-		const m = /^(run|board):(\d+)$/.exec(s.pointKey);
-		const side = m ? (m[1] === 'run' ? runSide : boardSide).get(Number(m[2])) : null;
-		out.set(s.id, side ?? null);
+		const p = printedWith.get(s.pointKey);
+		out.set(s.id, p ? sideOf(p) : null);
 	}
 	return out;
 }

@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { eq } from 'drizzle-orm';
 import { openTestDatabase } from '../testing';
 import type { Db } from '../db';
-import { printRuns, stencils } from '../db/schema';
+import { printRuns, productStencilApprovals, stencils } from '../db/schema';
 import type { Actor } from '$lib/access';
 import { addRuns, seedFactory } from './test-fixtures';
 import { createCharacteristic } from './characteristics';
@@ -83,6 +83,25 @@ describe('acknowledgement scope and board side (issue 13)', () => {
 		printedWith(b, 'ST-PB100-BOT');
 		const sides = signalSides(db, [a, b, { id: 0, pointKey: 'run:999999' }]);
 		expect([sides.get(a.id), sides.get(b.id), sides.get(0)]).toEqual(['top', 'bottom', null]);
+	});
+
+	it('the stencil approval for the product names the side first, as on the line tile', async () => {
+		const [a, b] = await twoSignalsInOneRun();
+		printedWith(a, 'ST-PB100-T');
+		printedWith(b, 'ST-PB100');
+		const approve = (stencilName: string, side: string) =>
+			db
+				.insert(productStencilApprovals)
+				.values({ productId: f.product.id, stencilName, side })
+				.run();
+		// A name telling no side, approved for the bottom of this product: bottom.
+		approve('ST-PB100', 'bottom');
+		// Approved for both sides, the approval does not tell: the name does.
+		approve('ST-PB100-T', 'top');
+		approve('ST-PB100-T', 'bottom');
+		const sides = signalSides(db, [a, b]);
+		expect([sides.get(a.id), sides.get(b.id)]).toEqual(['top', 'bottom']);
+		expect(patternTargets(db, a)).toEqual([a.id]);
 	});
 
 	it('a whole-run acknowledgement never closes a signal of the other board side', async () => {
