@@ -5,7 +5,6 @@
  */
 import type Database from 'better-sqlite3';
 import {
-	CANONICAL_PROFILE,
 	addMeasureValue,
 	emptyMeasureState,
 	summariseMeasure,
@@ -19,7 +18,7 @@ import {
 import { SPI_MEASURES } from '$lib/spi/measures';
 import type { Db } from '../db';
 import { cached, createBoardResolver, type ApertureMap } from './board-resolver';
-import type { IngestRequest } from './ingest-types';
+import type { ImportRow } from './import-row';
 
 /** Per-board facts resolved when the board first appears in a file. */
 interface BoardSlot {
@@ -63,62 +62,10 @@ export type BatchWriter = ReturnType<typeof createBatchWriter>;
  * against board ids reserved for this import, pad dictionary ids taken in memory (new entries
  * are written at the end); `reserve` records the ids handed out; `finish` (in the final
  * transaction) writes the pad dictionary entries, the board rows with their aggregates and the
- * pad-aperture links. Call first inside a write transaction: it writes the 'importing' row.
+ * pad-aperture links, on the import row `ids` opened (`openImportRow`).
  */
-export function createBatchWriter(
-	db: Db,
-	conn: Database.Database,
-	request: IngestRequest,
-	startedAt: number
-) {
-	// AUTOINCREMENT tables: the next id is past both the largest id and sqlite_sequence, so raising
-	// sqlite_sequence reserves ids (nothing else can take them, even if this import never finishes).
-	const nextIdOf = (table: string) =>
-		Math.max(
-			(conn.prepare(`select max(id) from ${table}`).pluck().get() as number | null) ?? 0,
-			(conn.prepare(`select seq from sqlite_sequence where name = ?`).pluck().get(table) as
-				number | undefined) ?? 0
-		) + 1;
-	const raiseSequence = (table: string, seq: number) => {
-		const changed = conn
-			.prepare(`update sqlite_sequence set seq = ? where name = ? and seq < ?`)
-			.run(seq, table, seq).changes;
-		if (changed === 0)
-			conn
-				.prepare(
-					`insert into sqlite_sequence (name, seq) select ?, ? where not exists
-					 (select 1 from sqlite_sequence where name = ?)`
-				)
-				.run(table, seq, table);
-	};
-	const firstBoardId = nextIdOf('spi_boards');
-	let nextBoardId = firstBoardId;
-	let reservedBoardId = firstBoardId - 1;
-	let nextPadId = nextIdOf('spi_pads');
-	let reservedPadId = nextPadId - 1;
-	const importId = (
-		conn
-			.prepare(
-				`insert into spi_imports (source, file_name, sha256, size_bytes, status, profile_id,
-				 profile_name, created_by, user_id, source_path, started_at, finished_at,
-				 board_id_from, board_id_to)
-				 values (?, ?, '', 0, 'importing', ?, ?, ?, ?, ?, ?, ?, ?, ?) returning id`
-			)
-			.get(
-				request.source,
-				request.fileName,
-				request.profileId ?? null,
-				(request.profile ?? CANONICAL_PROFILE).name,
-				request.createdBy,
-				request.userId ?? null,
-				request.sourcePath ?? null,
-				startedAt,
-				startedAt,
-				firstBoardId,
-				firstBoardId - 1
-			) as { id: number }
-	).id;
-	const recordReservedBoards = conn.prepare(`update spi_imports set board_id_to = ? where id = ?`);
+export function createBatchWriter(db: Db, conn: Database.Database, ids: ImportRow) {
+	const importId = ids.importId;
 
 	const boards = createBoardResolver(db, conn);
 	/** New pad dictionary entries [id, product, panel, refdes, pad], written at the end. */
@@ -201,7 +148,7 @@ export function createBatchWriter(
 	function openBoard(b: BoardHeader): BoardSlot {
 		const r = boards.resolve(b);
 		if (r.stored) duplicateBoards++;
-		const id = r.stored ? 0 : nextBoardId++;
+		const id = r.stored ? 0 : ids.takeBoardId();
 		return {
 			id,
 			row: [
@@ -265,7 +212,7 @@ export function createBatchWriter(
 				}
 				let padId = lastPads.get(padKey);
 				if (padId === undefined) {
-					padId = nextPadId++;
+					padId = ids.takePadId();
 					newPads.push([padId, slot.productCode, panel, r, pad[i]]);
 					lastPads.set(padKey, padId);
 				}
@@ -309,21 +256,8 @@ export function createBatchWriter(
 		},
 		/** Write rows still buffered (call before reading `failure()`). */
 		flush,
-		/**
-		 * Reserve the board and pad ids handed out so far (in the open chunk transaction, with the
-		 * rows that use them): raise sqlite_sequence and record the board range on the import row.
-		 */
-		reserve(): void {
-			if (nextBoardId - 1 > reservedBoardId) {
-				reservedBoardId = nextBoardId - 1;
-				raiseSequence('spi_boards', reservedBoardId);
-				recordReservedBoards.run(reservedBoardId, importId);
-			}
-			if (nextPadId - 1 > reservedPadId) {
-				reservedPadId = nextPadId - 1;
-				raiseSequence('spi_pads', reservedPadId);
-			}
-		},
+		/** Reserve the ids handed out so far (in the open chunk transaction, with their rows). */
+		reserve: ids.reserve,
 		/**
 		 * In the final transaction: the new pad dictionary entries, the board rows with their
 		 * aggregates, and the pad-aperture links; returns what was stored. References that went

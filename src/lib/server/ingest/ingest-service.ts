@@ -3,8 +3,8 @@
  * An import is a pipeline of stages, each in a module of its own:
  *
  * 1. parse on the thread (`stage-parse.ts`, the parser in `parse-driver.ts`);
- * 2. open the import row and its writer (`batch-writer.ts`; each board resolved against lines,
- *    print runs and stencils by `board-resolver.ts`);
+ * 2. open the import row (`import-row.ts`) and its writer (`batch-writer.ts`; each board resolved
+ *    against lines, print runs and stencils by `board-resolver.ts`);
  * 3. receive the bytes and store the rows in short chunk transactions (`stage-receive.ts`);
  * 4. commit a good, new file in one short transaction (`stage-commit.ts`);
  * 5. evaluate the charts over its boards (`stage-evaluate.ts`), or record why it was refused
@@ -16,6 +16,7 @@ import { openArchiveWriter } from './archive';
 import { createBatchWriter, type BatchWriter } from './batch-writer';
 import { checkpointAndClose, inWriteTransaction, openIngestConnection } from './import-connection';
 import { discardImportRows } from './import-rollback';
+import { openImportRow } from './import-row';
 import type { IngestOutcome, IngestRequest } from './ingest-types';
 import { commitImport } from './stage-commit';
 import { evaluateImport } from './stage-evaluate';
@@ -65,7 +66,7 @@ async function ingestNow(db: Db, request: IngestRequest): Promise<IngestOutcome>
 		const parser = await startParser(request, archive.fd);
 		closeParser = parser.close;
 		const w = (writer = await inWriteTransaction(conn, () =>
-			createBatchWriter(db, conn, request, startedAt)
+			createBatchWriter(db, conn, openImportRow(conn, request, startedAt))
 		));
 		const file = await receiveFile(request, parser, conn, w);
 		const { stored, duplicateOf } = await commitImport(conn, w, file, archive);
