@@ -4,6 +4,8 @@
  * is wrong with the offending value, e.g. `parameters.squeegeeAngleDeg.max: must be ≥ target (60)`.
  */
 
+import { Refusal } from '../errors';
+
 /** One problem with one field. `field` is the path in the payload, as the API and forms use it. */
 export interface FieldError {
 	/** Path of the field, e.g. `parameters.squeegeeSpeedMmS` or `events[2].at`. */
@@ -26,13 +28,18 @@ export function formatFieldError(error: FieldError): string {
  * @example
  * try { toEpochMs('yesterday', 'at'); } catch (e) { if (e instanceof PrintlogInputError) show(e.errors); }
  */
-export class PrintlogInputError extends Error {
+export class PrintlogInputError extends Refusal {
+	readonly status = 422;
 	readonly errors: FieldError[];
 
 	constructor(errors: FieldError[]) {
 		super(errors.map(formatFieldError).join('; '));
 		this.name = 'PrintlogInputError';
 		this.errors = errors;
+	}
+
+	override get fieldProblems(): readonly FieldError[] {
+		return this.errors;
 	}
 }
 

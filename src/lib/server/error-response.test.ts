@@ -2,6 +2,8 @@ import { describe, expect, it, vi } from 'vitest';
 import { z } from 'zod';
 import { ApiError, errorResponse } from './api';
 import { DuplicateCodeError } from './factory';
+import { PrintlogRequestError } from './printlog/request-error';
+import { PrintlogInputError } from '$lib/printlog';
 import { BodyTooLargeError } from './request-body';
 import { LastAdminError } from './users';
 
@@ -17,6 +19,25 @@ describe('errorResponse', () => {
 		const tooLarge = errorResponse(new BodyTooLargeError(1024 * 1024));
 		expect(tooLarge.status).toBe(413);
 		expect((await tooLarge.json()).error).toMatch(/larger than the limit of 1 MB/);
+	});
+	it('answers print-log refusals with their fields and extra parts', async () => {
+		const refused = errorResponse(
+			new PrintlogRequestError(
+				422,
+				[{ field: 'stencil', message: 'is not approved for PB-100' }],
+				undefined,
+				{ refusals: [{ field: 'stencil', reason: 'stencil-not-approved' }] }
+			)
+		);
+		expect(refused.status).toBe(422);
+		expect(await refused.json()).toEqual({
+			error: 'stencil: is not approved for PB-100',
+			fields: [{ field: 'stencil', message: 'is not approved for PB-100' }],
+			refusals: [{ field: 'stencil', reason: 'stencil-not-approved' }]
+		});
+		const input = errorResponse(new PrintlogInputError([{ field: 'at', message: 'not a time' }]));
+		expect(input.status).toBe(422);
+		expect((await input.json()).fields).toEqual([{ field: 'at', message: 'not a time' }]);
 	});
 	it('keeps the body an ApiError was given', async () => {
 		const answer = errorResponse(new ApiError(404, { error: 'No such stencil.' }));

@@ -9,7 +9,7 @@ export * from './paste-lots';
 export * from './stencil-life';
 export * from './print-runs';
 export * from './trends';
-export { printlogApiRoute, queryObject } from './api-route';
+export { queryObject } from './query-object';
 export {
 	stencilLifeApiView,
 	stencilEntryErrors,

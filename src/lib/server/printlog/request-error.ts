@@ -1,5 +1,6 @@
 import type { FieldError } from '$lib/printlog';
 import { formatFieldError } from '$lib/printlog';
+import { Refusal } from '$lib/errors';
 
 /**
  * An expected refusal of a print-log request, with the HTTP status the API answers and the
@@ -7,7 +8,7 @@ import { formatFieldError } from '$lib/printlog';
  * 404 unknown item, 409 conflict (an open run on the line, a run already ended), 422 a rule
  * refused the values (deviation without a reason, expired lot, quarantined stencil).
  */
-export class PrintlogRequestError extends Error {
+export class PrintlogRequestError extends Refusal {
 	constructor(
 		readonly status: 404 | 409 | 422,
 		readonly fields: FieldError[],
@@ -18,8 +19,12 @@ export class PrintlogRequestError extends Error {
 		this.name = 'PrintlogRequestError';
 	}
 
+	override get fieldProblems(): readonly FieldError[] {
+		return this.fields;
+	}
+
 	/** The JSON body of the API answer: `{ error, fields, …extra }`. */
-	body(): Record<string, unknown> {
+	override body(): Record<string, unknown> {
 		return { error: this.message, fields: this.fields, ...this.extra };
 	}
 }

@@ -1,8 +1,9 @@
 import { json } from '@sveltejs/kit';
+import { apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { listStencilLife, printlogApiRoute, stencilLifeApiView } from '$lib/server/printlog';
+import { listStencilLife, stencilLifeApiView } from '$lib/server/printlog';
 
 /** Every stencil with its print count, rated life, share used, state and latest tension. */
-export const GET = printlogApiRoute(() =>
+export const GET = apiRoute(() =>
 	json({ stencils: listStencilLife(getDb()).map(stencilLifeApiView) })
 );

@@ -1,10 +1,10 @@
 import { json } from '@sveltejs/kit';
-import { ApiError } from '$lib/server/api';
+import { ApiError, apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { printlogApiRoute, queryObject, runTrends } from '$lib/server/printlog';
+import { queryObject, runTrends } from '$lib/server/printlog';
 
 /** I-MR series of every logged numeric parameter for ?line=&product=, with the recipe window. */
-export const GET = printlogApiRoute(({ url }) => {
+export const GET = apiRoute(({ url }) => {
 	const { line, product } = queryObject(url);
 	if (!line || !product) {
 		throw new ApiError(400, {

@@ -1,6 +1,7 @@
 import { json } from '@sveltejs/kit';
+import { apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { listProductFit, printlogApiRoute } from '$lib/server/printlog';
+import { listProductFit } from '$lib/server/printlog';
 
 /** Every product's approved stencils and allowed pastes, by product code. */
-export const GET = printlogApiRoute(() => json({ products: listProductFit(getDb()) }));
+export const GET = apiRoute(() => json({ products: listProductFit(getDb()) }));

@@ -1,11 +1,11 @@
 import { json } from '@sveltejs/kit';
-import { parseJsonText } from '$lib/server/api';
+import { apiRoute, parseJsonText } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { endRun, printlogApiRoute } from '$lib/server/printlog';
+import { endRun } from '$lib/server/printlog';
 import { endRunSchema } from '$lib/schemas/printlog-forms';
 
 /** End an open run; the body is optional: { endedAt?, boardsPrinted? }. */
-export const POST = printlogApiRoute(async ({ params, request }, actor) => {
+export const POST = apiRoute(async ({ params, request }, actor) => {
 	const id = Number(params.id);
 	const text = await request.text();
 	let body: unknown = {};

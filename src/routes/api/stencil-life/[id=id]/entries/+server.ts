@@ -1,9 +1,8 @@
 import { json } from '@sveltejs/kit';
-import { readJson } from '$lib/server/api';
+import { apiRoute, readJson } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import {
 	addStencilLifeEntry,
-	printlogApiRoute,
 	PrintlogRequestError,
 	stencilEntryErrors,
 	stencilLifeApiView
@@ -15,7 +14,7 @@ import { stencilLifeEntrySchema } from '$lib/schemas/printlog-forms';
  * Add a state change, tension readings (N/cm) or a cleaning / inspection entry to a stencil's
  * life log: 201 `{ entry, stencil, tension }`; 422 `{ errors: [{ field, message }] }`; 404.
  */
-export const POST = printlogApiRoute(async ({ params, request }, actor) => {
+export const POST = apiRoute(async ({ params, request }, actor) => {
 	const id = Number(params.id);
 	let body: unknown;
 	try {
