@@ -6,6 +6,13 @@ import { PrintlogRequestError } from './printlog/request-error';
 import { PrintlogInputError } from '$lib/printlog';
 import { BodyTooLargeError } from './request-body';
 import { LastAdminError } from './users';
+import { SpcInputError, LimitsError } from '$lib/spc';
+import { StencilInputError } from '$lib/stencil';
+import { StencilBudgetError } from '$lib/stencil/limits';
+import { AcknowledgeError } from './spc/signals';
+import { NotFoundError } from './spc/chart-service';
+import { AssignError } from './floor/signal-owners';
+import { ApertureImportError, DuplicateStencilError, StencilNotFoundError } from './stencils';
 
 /** errorResponse is the one mapping from a thrown error to the API's JSON answer. */
 describe('errorResponse', () => {
@@ -38,6 +45,57 @@ describe('errorResponse', () => {
 		const input = errorResponse(new PrintlogInputError([{ field: 'at', message: 'not a time' }]));
 		expect(input.status).toBe(422);
 		expect((await input.json()).fields).toEqual([{ field: 'at', message: 'not a time' }]);
+	});
+	it('answers SPC refusals 404 / 422 naming the field', async () => {
+		const input = errorResponse(new SpcInputError('lsl', 'LSL 5 must be below USL 4'));
+		expect(input.status).toBe(422);
+		expect(await input.json()).toEqual({
+			error: 'lsl: LSL 5 must be below USL 4',
+			fields: [{ field: 'lsl', message: 'LSL 5 must be below USL 4' }]
+		});
+		const limits = errorResponse(new LimitsError('reason', 'Say why.'));
+		expect(limits.status).toBe(422);
+		expect((await limits.json()).fields).toEqual([{ field: 'reason', message: 'Say why.' }]);
+		const missing = errorResponse(new NotFoundError('No chart with id 9.'));
+		expect(missing.status).toBe(404);
+		expect(await missing.json()).toEqual({ error: 'No chart with id 9.' });
+	});
+	it('answers signal refusals 422 as `{ errors }` (their API contract), others `{ error }`', async () => {
+		const ack = errorResponse(new AcknowledgeError(422, 'not a listed cause', 'cause'));
+		expect(ack.status).toBe(422);
+		expect(await ack.json()).toEqual({
+			errors: [{ field: 'cause', message: 'not a listed cause' }]
+		});
+		const done = errorResponse(new AcknowledgeError(409, 'Signal 3 is acknowledged already.'));
+		expect(done.status).toBe(409);
+		expect(await done.json()).toEqual({ error: 'Signal 3 is acknowledged already.' });
+		const assign = errorResponse(new AssignError(422, 'No person with id 9.'));
+		expect(await assign.json()).toEqual({
+			errors: [{ field: 'userId', message: 'No person with id 9.' }]
+		});
+		expect(errorResponse(new AssignError(404, 'No signal with id 9.')).status).toBe(404);
+	});
+	it('answers stencil refusals in the stencil API shapes', async () => {
+		const missing = errorResponse(new StencilNotFoundError(7));
+		expect(missing.status).toBe(404);
+		expect(await missing.json()).toEqual({ error: 'No stencil with id 7.' });
+		expect(errorResponse(new DuplicateStencilError('ST-1', 'A')).status).toBe(409);
+		const problem = { where: 'U1.3', field: 'widthUm', message: 'must be greater than 0' };
+		const refused = errorResponse(new ApertureImportError([problem]));
+		expect(refused.status).toBe(422);
+		expect(await refused.json()).toEqual({
+			error: 'The apertures were refused; nothing was imported.',
+			errors: [{ ...problem, message: 'U1.3, widthUm: must be greater than 0' }]
+		});
+		const invalid = errorResponse(new StencilInputError([problem]));
+		expect(invalid.status).toBe(400);
+		expect(await invalid.json()).toEqual({
+			error: 'U1.3, widthUm: must be greater than 0',
+			fields: [{ field: 'widthUm', message: 'U1.3, widthUm: must be greater than 0' }]
+		});
+		const budget = errorResponse(new StencilBudgetError('too many vertices', 413));
+		expect(budget.status).toBe(413);
+		expect(await budget.json()).toEqual({ error: 'too many vertices' });
 	});
 	it('keeps the body an ApiError was given', async () => {
 		const answer = errorResponse(new ApiError(404, { error: 'No such stencil.' }));

@@ -2,14 +2,20 @@ import type { ChartCharacteristic, SourceSubgroup } from './chart-input';
 import { phaseOneLimits, pointsFor } from './chart-detail';
 import type { ChartKind, ChartLimits } from './chart-types';
 import { SpcInputError } from './spc-input-error';
+import { Refusal, type FieldProblem } from '../errors';
 
 /** A refused lifecycle step, with the field and the reason (HTTP 422 / form error). */
-export class LimitsError extends Error {
+export class LimitsError extends Refusal {
+	readonly status = 422;
 	constructor(
 		readonly field: string,
 		message: string
 	) {
 		super(message);
+	}
+
+	override get fieldProblems(): FieldProblem[] {
+		return [{ field: this.field, message: this.message }];
 	}
 }
 

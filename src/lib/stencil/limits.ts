@@ -1,3 +1,5 @@
+import { Refusal } from '../errors';
+
 /**
  * Work budgets of the stencil parsers and computations, in one place. Every input that can make
  * work grow (Gerber step-and-repeat, macros, regions, arcs, polygon outlines, CSV rows) is
@@ -106,7 +108,7 @@ export function withLimits(overrides: Partial<StencilLimits> = {}): StencilLimit
 }
 
 /** Thrown by a computation that would exceed a budget; `status` 413 or 422 for the answer. */
-export class StencilBudgetError extends Error {
+export class StencilBudgetError extends Refusal {
 	constructor(
 		message: string,
 		readonly status: 413 | 422 = 422

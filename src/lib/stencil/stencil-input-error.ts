@@ -1,3 +1,5 @@
+import { Refusal, type FieldProblem } from '../errors';
+
 /**
  * One error format for bad stencil input: every problem names where (aperture, row, index) and
  * which field, then says what is wrong, e.g. `U1.3, widthUm: must be greater than 0 (got -5)`.
@@ -23,17 +25,23 @@ export function formatProblem(problem: InputProblem): string {
 
 /**
  * Thrown by the computation functions when their input is invalid. `problems` lists every
- * problem found (not only the first) so a UI can show them all.
+ * problem found (not only the first) so a UI can show them all. Answered 400 (invalid fields, as
+ * the stencil API documents) with `fields: [{ field, message: "<where>, <field>: <what>" }]`.
  * @example
  * try { apertureGeometry(bad); } catch (e) { if (e instanceof StencilInputError) show(e.problems); }
  */
-export class StencilInputError extends Error {
+export class StencilInputError extends Refusal {
+	readonly status = 400;
 	readonly problems: InputProblem[];
 
 	constructor(problems: InputProblem[]) {
 		super(problems.map(formatProblem).join('; '));
 		this.name = 'StencilInputError';
 		this.problems = problems;
+	}
+
+	override get fieldProblems(): FieldProblem[] {
+		return this.problems.map((p) => ({ field: p.field, message: formatProblem(p) }));
 	}
 }
 

@@ -1,19 +1,32 @@
 import { and, eq, inArray, isNull, lte } from 'drizzle-orm';
 import type { Actor } from '$lib/access';
+import { Refusal, type FieldProblem } from '$lib/errors';
 import { recordAudit } from '../audit';
 import type { Db } from '../db';
 import { spcCharacteristics, spcFollowers, spcSignals, users } from '../db/schema';
 import { sendMail } from '../mail';
 import { publishFloorEvent } from './events';
 
-/** A refused assignment: unknown signal 404, acknowledged 409, unknown or inactive person 422. */
-export class AssignError extends Error {
+/**
+ * A refused assignment: unknown signal 404, acknowledged 409, unknown or inactive person 422. The
+ * API's 422 answer is `{ errors: [{ field, message }] }` (its documented contract), others `{ error }`.
+ */
+export class AssignError extends Refusal {
 	constructor(
 		readonly status: 404 | 409 | 422,
 		message: string,
 		readonly field?: string
 	) {
 		super(message);
+	}
+
+	override get fieldProblems(): FieldProblem[] {
+		return this.field ? [{ field: this.field, message: this.message }] : [];
+	}
+
+	override body(): Record<string, unknown> {
+		if (this.status !== 422) return { error: this.message };
+		return { errors: [{ field: this.field ?? 'userId', message: this.message }] };
 	}
 }
 

@@ -1,5 +1,6 @@
 import { and, eq, isNull } from 'drizzle-orm';
 import type { Actor } from '$lib/access';
+import { Refusal, type FieldProblem } from '$lib/errors';
 import {
 	DEFAULT_MIN_BASELINE_SUBGROUPS,
 	isMinBaselineSubgroups,
@@ -14,12 +15,17 @@ import { recordAudit } from '../audit';
 const KEY = 'spc.capabilityThresholds';
 
 /** A refused thresholds change, naming the field. */
-export class ThresholdsError extends Error {
+export class ThresholdsError extends Refusal {
+	readonly status = 422;
 	constructor(
 		readonly field: string,
 		message: string
 	) {
 		super(message);
+	}
+
+	override get fieldProblems(): FieldProblem[] {
+		return [{ field: this.field, message: this.message }];
 	}
 }
 

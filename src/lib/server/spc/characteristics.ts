@@ -1,5 +1,6 @@
 import { and, eq } from 'drizzle-orm';
 import type { Actor } from '$lib/access';
+import { Refusal, type FieldProblem } from '$lib/errors';
 import type { Db } from '../db';
 import {
 	lines,
@@ -20,9 +21,14 @@ import {
 import { CHARTABLE_PARAMETERS, MEASURE_DEFAULTS, parameterUnit, type Measure } from './measures';
 
 /** Invalid characteristic input: the problems by field (HTTP 422 / form errors). */
-export class CharacteristicInputError extends Error {
+export class CharacteristicInputError extends Refusal {
+	readonly status = 422;
 	constructor(readonly problems: InputProblem[]) {
 		super(problems.map((p) => `${p.field}: ${p.message}`).join('; '));
+	}
+
+	override get fieldProblems(): FieldProblem[] {
+		return this.problems;
 	}
 }
 

@@ -9,6 +9,7 @@ import {
 	type OpenSignalRef
 } from '$lib/spc';
 import { parameterLabel } from '$lib/printlog';
+import { Refusal } from '$lib/errors';
 import { padEvidence } from './spi-source';
 import { getCapabilityThresholds } from './capability-settings';
 import type { Db } from '../db';
@@ -65,7 +66,10 @@ export interface ChartDetailOptions {
 	thresholds?: CapabilityThresholds;
 }
 
-export class NotFoundError extends Error {}
+/** A chart (characteristic) that does not exist: 404. */
+export class NotFoundError extends Refusal {
+	readonly status = 404;
+}
 
 export function summarize(db: Db, rows: CharacteristicRow[]): CharacteristicSummary[] {
 	if (rows.length === 0) return [];

@@ -7,6 +7,7 @@ import {
 	type RunMember
 } from '$lib/spc';
 import type { Actor } from '$lib/access';
+import { Refusal, type FieldProblem } from '$lib/errors';
 import type { Db } from '../db';
 import { spcSignals } from '../db/schema';
 import { recordAudit } from '../audit';
@@ -210,14 +211,26 @@ export function openSignalCounts(db: Db): Map<number, number> {
 	);
 }
 
-/** A refused acknowledgement (unknown signal 404, already done 409, bad field 422). */
-export class AcknowledgeError extends Error {
+/**
+ * A refused acknowledgement (unknown signal 404, already done 409, bad field 422). The API's 422
+ * answer is `{ errors: [{ field, message }] }` (its documented contract), the others `{ error }`.
+ */
+export class AcknowledgeError extends Refusal {
 	constructor(
 		readonly status: 404 | 409 | 422,
 		message: string,
 		readonly field?: string
 	) {
 		super(message);
+	}
+
+	override get fieldProblems(): FieldProblem[] {
+		return this.field ? [{ field: this.field, message: this.message }] : [];
+	}
+
+	override body(): Record<string, unknown> {
+		if (this.status !== 422) return { error: this.message };
+		return { errors: [{ field: this.field ?? 'body', message: this.message }] };
 	}
 }
 

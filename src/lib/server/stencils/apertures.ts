@@ -3,6 +3,7 @@ import type { Db } from '../db';
 import { apertureImports, apertures } from '../db/schema';
 import { actorLabel, recordAudit } from '../audit';
 import type { Actor } from '$lib/access';
+import { Refusal, type FieldProblem } from '$lib/errors';
 import {
 	checkAperture,
 	formatProblem,
@@ -42,10 +43,29 @@ export interface ImportSummary {
 	createdAt: Date;
 }
 
-/** An import refused as a whole; `problems` name the aperture and field. */
-export class ApertureImportError extends Error {
+/**
+ * An import refused as a whole; `problems` name the aperture and field. Answered 422
+ * `{ error, errors: [{ where, field, message }] }` (the stencil API's documented shape).
+ */
+export class ApertureImportError extends Refusal {
+	readonly status = 422;
 	constructor(readonly problems: InputProblem[]) {
 		super(problems.map(formatProblem).join('; '));
+	}
+
+	override get fieldProblems(): FieldProblem[] {
+		return this.problems.map((p) => ({ field: p.field, message: formatProblem(p) }));
+	}
+
+	override body(): Record<string, unknown> {
+		return {
+			error: 'The apertures were refused; nothing was imported.',
+			errors: this.problems.map((p) => ({
+				where: p.where,
+				field: p.field,
+				message: formatProblem(p)
+			}))
+		};
 	}
 }
 

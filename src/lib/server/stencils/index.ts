@@ -6,7 +6,6 @@ export * from './evaluation';
 export * from './upload';
 export * from './compare';
 export * from './demo';
-export * from './api-errors';
 export * from './limits-env';
 export * from './parse-thread';
 export * from './page-cache';

@@ -3,6 +3,7 @@ import type { Db } from '../db';
 import { apertureImports, apertures, stencilStepRegions, stencils } from '../db/schema';
 import { actorLabel, recordAudit } from '../audit';
 import type { Actor } from '$lib/access';
+import { Refusal } from '$lib/errors';
 import type { StepRegion, StencilTechnology } from '$lib/stencil';
 import type { StencilCreateInput } from '$lib/schemas/stencil';
 
@@ -22,14 +23,17 @@ export interface StencilRecord {
 	apertureCount: number;
 }
 
-/** Expected stencil failures the routes turn into 404 / 409 answers. */
-export class StencilNotFoundError extends Error {
+/** An unknown stencil id: 404. */
+export class StencilNotFoundError extends Refusal {
+	readonly status = 404;
 	constructor(readonly stencilId: number) {
 		super(`No stencil with id ${stencilId}.`);
 	}
 }
 
-export class DuplicateStencilError extends Error {
+/** A name that already has that revision: 409. */
+export class DuplicateStencilError extends Refusal {
+	readonly status = 409;
 	constructor(
 		readonly name: string,
 		readonly revision: string

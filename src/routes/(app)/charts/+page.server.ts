@@ -1,4 +1,3 @@
-import { fail } from '@sveltejs/kit';
 import { hasRole, SPC_EDITORS } from '$lib/access';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
@@ -6,9 +5,9 @@ import {
 	getCapabilityThresholds,
 	getMinBaselineSubgroups,
 	setCapabilityThresholds,
-	setMinBaselineSubgroups,
-	ThresholdsError
+	setMinBaselineSubgroups
 } from '$lib/server/spc/capability-settings';
+import { refusalToFail } from '$lib/server/refusals';
 import { chartSummary } from '$lib/server/spc/summary';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -42,9 +41,7 @@ export const actions = {
 			setCapabilityThresholds(getDb(), input, actor);
 			setMinBaselineSubgroups(getDb(), decimal(form.get('minBaseline')), actor);
 		} catch (err) {
-			if (err instanceof ThresholdsError)
-				return fail(422, { action: 'thresholds', field: err.field, error: err.message });
-			throw err;
+			return refusalToFail(err, { action: 'thresholds' });
 		}
 		return { action: 'thresholds', ok: 'Thresholds saved: every chart is judged with them now.' };
 	}

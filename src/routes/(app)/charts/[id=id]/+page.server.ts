@@ -1,15 +1,11 @@
-import { error, fail } from '@sveltejs/kit';
+import { fail } from '@sveltejs/kit';
 import { hasRole, SPC_EDITORS } from '$lib/access';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
-import { chartDetail, NotFoundError } from '$lib/server/spc/chart-service';
+import { chartDetail } from '$lib/server/spc/chart-service';
 import { listFollowers, setFollowing } from '$lib/server/spc/characteristics';
-import {
-	excludePoint,
-	freezeLimits,
-	includePoint,
-	LimitsError
-} from '$lib/server/spc/limits-lifecycle';
+import { excludePoint, freezeLimits, includePoint } from '$lib/server/spc/limits-lifecycle';
+import { refusalToError, refusalToFail } from '$lib/server/refusals';
 import { getMinBaselineSubgroups } from '$lib/server/spc/capability-settings';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -55,8 +51,7 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 			highlight: point && detail.chart?.points.some((p) => p.key === point) ? point : null
 		};
 	} catch (err) {
-		if (err instanceof NotFoundError) error(404, err.message);
-		throw err;
+		refusalToError(err);
 	}
 };
 
@@ -73,9 +68,7 @@ export const actions = {
 				actor
 			);
 		} catch (err) {
-			if (err instanceof LimitsError)
-				return fail(422, { action: 'exclude', field: err.field, error: err.message });
-			throw err;
+			return refusalToFail(err, { action: 'exclude' });
 		}
 		return { action: 'exclude', ok: 'Point excluded from the baseline.' };
 	},
@@ -114,9 +107,7 @@ export const actions = {
 				ok: `Limits version ${v.version} frozen from ${v.baselinePoints} points.`
 			};
 		} catch (err) {
-			if (err instanceof LimitsError)
-				return fail(422, { action: 'freeze', field: err.field, error: err.message });
-			throw err;
+			return refusalToFail(err, { action: 'freeze' });
 		}
 	},
 	follow: async ({ locals, params, request }) => {

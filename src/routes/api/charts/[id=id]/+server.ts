@@ -1,16 +1,17 @@
-import { json } from '@sveltejs/kit';
-import { ApiError, apiRoute } from '$lib/server/api';
+import { apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import { chartJson, chartQuery } from '$lib/spc/api-json';
-import { chartDetail, NotFoundError } from '$lib/server/spc/chart-service';
+import { chartDetail } from '$lib/server/spc/chart-service';
+import { cachedChartJson } from '$lib/server/spc/chart-json-cache';
 
 /** One chart: points, limits, violations and capability (`?limit=` newest subgroups, ≤ 5000). */
 export const GET = apiRoute(({ params, url }) => {
+	const db = getDb();
 	const id = Number(params.id);
-	try {
-		return json(chartJson(chartDetail(getDb(), id, chartQuery(url))));
-	} catch (err) {
-		if (err instanceof NotFoundError) throw new ApiError(404, { error: err.message });
-		throw err;
-	}
+	const query = chartQuery(url);
+	// Kept until anyone commits a change (see chart-json-cache.ts): a repeated view is not computed again.
+	const body = cachedChartJson(db, `${id}:${query.limit}`, () =>
+		chartJson(chartDetail(db, id, query))
+	);
+	return new Response(body, { headers: { 'content-type': 'application/json' } });
 });

@@ -1,9 +1,10 @@
-import { error, fail, redirect } from '@sveltejs/kit';
+import { fail, redirect } from '@sveltejs/kit';
 import { SPC_EDITORS } from '$lib/access';
 import { getDb } from '$lib/server/db';
 import { listLines, listProducts } from '$lib/server/factory';
 import { requireActor } from '$lib/server/guards';
-import { getCharacteristic, NotFoundError } from '$lib/server/spc/chart-service';
+import { getCharacteristic } from '$lib/server/spc/chart-service';
+import { refusalToError } from '$lib/server/refusals';
 import { characteristicFromForm } from '$lib/spc/characteristic-form';
 import { CharacteristicInputError, updateCharacteristic } from '$lib/server/spc/characteristics';
 import { CHARTABLE_PARAMETERS, MEASURE_DEFAULTS } from '$lib/server/spc/measures';
@@ -21,8 +22,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 			defaults: MEASURE_DEFAULTS
 		};
 	} catch (err) {
-		if (err instanceof NotFoundError) error(404, err.message);
-		throw err;
+		refusalToError(err);
 	}
 };
 
@@ -34,8 +34,7 @@ export const actions = {
 			updateCharacteristic(getDb(), id, characteristicFromForm(await request.formData()), actor);
 		} catch (err) {
 			if (err instanceof CharacteristicInputError) return fail(422, { errors: err.problems });
-			if (err instanceof NotFoundError) error(404, err.message);
-			throw err;
+			refusalToError(err);
 		}
 		redirect(303, `/charts/${id}`);
 	}

@@ -8,7 +8,6 @@ import {
 	importAperturesStaged,
 	parseApertureUploadOffThread,
 	stencilLimitsFromEnv,
-	withStencilErrors,
 	type ImportMode,
 	type UploadResult
 } from '$lib/server/stencils';
@@ -34,7 +33,7 @@ export const GET = apiRoute(async ({ params, url }) => {
 				}
 			]
 		});
-	const cached = await withStencilErrors(() => cachedStencil(getDb(), id));
+	const cached = cachedStencil(getDb(), id);
 	const body = layout === 'columns' ? cached.columnsJson() : cached.rowsJson();
 	return new Response(body, { headers: { 'content-type': 'application/json' } });
 });
@@ -96,21 +95,19 @@ async function importUploadedFile(
 	limits: StencilLimits
 ): Promise<Response> {
 	if (!parsed.ok) throw new ApiError(parsed.status, { error: parsed.error, errors: parsed.errors });
-	const summary = await withStencilErrors(() =>
-		importAperturesStaged(
-			db,
-			stencilId,
-			parsed.apertures,
-			{
-				source: parsed.format,
-				mode: options.mode,
-				fileName: options.fileName,
-				unit: parsed.unit,
-				warnings: parsed.warnings
-			},
-			actor,
-			limits
-		)
+	const summary = await importAperturesStaged(
+		db,
+		stencilId,
+		parsed.apertures,
+		{
+			source: parsed.format,
+			mode: options.mode,
+			fileName: options.fileName,
+			unit: parsed.unit,
+			warnings: parsed.warnings
+		},
+		actor,
+		limits
 	);
 	warmStencilCache(db, stencilId);
 	return json(summary, { status: 201 });
@@ -126,7 +123,7 @@ async function importUploadedFile(
 export const POST = apiRoute(async ({ params, request, url }, actor) => {
 	const id = Number(params.id);
 	const db = getDb();
-	await withStencilErrors(() => getStencil(db, id));
+	getStencil(db, id); // 404 before the body is read
 	const type = request.headers.get('content-type') ?? '';
 	if (type.includes('multipart/form-data')) {
 		let form: FormData;
@@ -195,8 +192,12 @@ export const POST = apiRoute(async ({ params, request, url }, actor) => {
 				message: i.message
 			}))
 		});
-	const summary = await withStencilErrors(() =>
-		importAperturesStaged(db, id, result.data.apertures, { source: 'json', mode }, actor)
+	const summary = await importAperturesStaged(
+		db,
+		id,
+		result.data.apertures,
+		{ source: 'json', mode },
+		actor
 	);
 	warmStencilCache(db, id);
 	return json(summary, { status: 201 });
