@@ -17,7 +17,7 @@ import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { openDatabase } from '../src/lib/server/db';
 import { lines, products, spiImports } from '../src/lib/server/db/schema';
-import { chartJson } from '../src/lib/server/spc/api-shapes';
+import { chartJson } from '../src/lib/spc/api-json';
 import { chartDetail } from '../src/lib/server/spc/chart-service';
 import { createCharacteristic } from '../src/lib/server/spc/characteristics';
 import { freezeLimits } from '../src/lib/server/spc/limits-lifecycle';

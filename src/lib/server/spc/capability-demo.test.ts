@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openTestDatabase } from '../testing';
 import type { Db } from '../db';
 import { seedDemoData } from '../seed';
-import { chartJson } from './api-shapes';
+import { chartJson } from '$lib/spc/api-json';
 import { chartDetail } from './chart-service';
 import { chartSummary } from './summary';
 import {

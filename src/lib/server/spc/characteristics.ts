@@ -2,23 +2,17 @@ import { and, eq } from 'drizzle-orm';
 import type { Actor } from '$lib/access';
 import { Refusal, type FieldProblem } from '$lib/errors';
 import type { Db } from '../db';
-import {
-	lines,
-	products,
-	spcCharacteristics,
-	spcFollowers,
-	users,
-	type PadSelection
-} from '../db/schema';
+import { lines, products, spcCharacteristics, spcFollowers, users } from '../db/schema';
 import { recordAudit } from '../audit';
 import { getCharacteristic, type CharacteristicSummary } from './chart-service';
 import {
 	characteristicInputSchema,
+	characteristicValues,
 	checkCharacteristic,
 	type CharacteristicInput,
 	type InputProblem
-} from './characteristic-input';
-import { CHARTABLE_PARAMETERS, MEASURE_DEFAULTS, parameterUnit, type Measure } from './measures';
+} from '$lib/spc/characteristic-input';
+import { CHARTABLE_PARAMETERS } from '$lib/spc/chart-measures';
 
 /** Invalid characteristic input: the problems by field (HTTP 422 / form errors). */
 export class CharacteristicInputError extends Refusal {
@@ -63,40 +57,6 @@ function validate(db: Db, raw: unknown): CharacteristicInput {
 	return input;
 }
 
-function unitFor(input: CharacteristicInput): string {
-	if (input.unit) return input.unit;
-	if (input.measure === 'print-parameter') return parameterUnit(input.parameterKey ?? '');
-	return MEASURE_DEFAULTS[input.measure as Measure].unit;
-}
-
-function padSelection(p: CharacteristicInput['padSelection']): PadSelection {
-	if (p.kind === 'area-ratio')
-		return { kind: 'area-ratio', min: p.min ?? null, max: p.max ?? null };
-	return p;
-}
-
-function values(input: CharacteristicInput) {
-	const defaults = MEASURE_DEFAULTS[input.measure as Measure];
-	// Specs not given at all take the measure's defaults; an explicit null clears them.
-	const spec = (v: number | null | undefined, d: number | null) => (v === undefined ? d : v);
-	return {
-		name: input.name,
-		productId: input.productId,
-		lineIds: [...new Set(input.lineIds)].sort((a, b) => a - b),
-		measure: input.measure,
-		parameterKey: input.measure === 'print-parameter' ? (input.parameterKey ?? null) : null,
-		padSelection: padSelection(input.padSelection),
-		subgroupMode: input.subgroupMode,
-		subgroupSize: input.subgroupMode === 'consecutive' ? input.subgroupSize : 1,
-		chartKind: input.chartKind,
-		lsl: spec(input.lsl, defaults.lsl),
-		target: spec(input.target, defaults.target),
-		usl: spec(input.usl, defaults.usl),
-		unit: unitFor(input),
-		rules: [...new Set(input.rules)]
-	};
-}
-
 /**
  * Create a characteristic (audited); unset specs take the measure's defaults.
  * @throws CharacteristicInputError with the problems by field.
@@ -110,7 +70,10 @@ export function createCharacteristic(
 	const id = db.transaction((tx) => {
 		const row = tx
 			.insert(spcCharacteristics)
-			.values({ ...values(input), createdByUserId: actor?.kind === 'user' ? actor.id : null })
+			.values({
+				...characteristicValues(input),
+				createdByUserId: actor?.kind === 'user' ? actor.id : null
+			})
 			.returning()
 			.get();
 		recordAudit(tx, actor, {
@@ -140,7 +103,7 @@ export function updateCharacteristic(
 	db.transaction((tx) => {
 		const row = tx
 			.update(spcCharacteristics)
-			.set(values(input))
+			.set(characteristicValues(input))
 			.where(eq(spcCharacteristics.id, id))
 			.returning()
 			.get();

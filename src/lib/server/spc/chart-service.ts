@@ -23,7 +23,7 @@ import {
 	users
 } from '../db/schema';
 import { loadSubgroups, type CharacteristicRow } from './chart-source';
-import { MEASURE_DEFAULTS, type Measure } from './measures';
+import { MEASURE_DEFAULTS, type Measure } from '$lib/spc/chart-measures';
 
 /** A characteristic with the names the pages show. */
 export interface CharacteristicSummary extends CharacteristicRow {

@@ -2,7 +2,7 @@ import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '../db';
 import { lines, printRuns, spcCharacteristics } from '../db/schema';
 import { cfxDeviatingBoardValues } from '../cfx/board-points';
-import { isSpiMeasure } from './measures';
+import { isSpiMeasure } from '$lib/spc/chart-measures';
 import { loadSpiSubgroups } from './spi-source';
 
 import { groupRuns, printParameterValue, valuesPerPoint } from '$lib/spc';

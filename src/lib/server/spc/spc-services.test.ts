@@ -19,7 +19,7 @@ import { DIGEST_THRESHOLD, DIGEST_WINDOW_MS, flushDigests, notifyFollowers } fro
 import { getCauseLists, setCauseList } from './cause-lists';
 import { patternScopeCounts } from './ack-scope';
 import { getMinBaselineSubgroups, setMinBaselineSubgroups } from './capability-settings';
-import { acknowledgeBodySchema } from './api-shapes';
+import { acknowledgeBodySchema } from '$lib/spc/api-json';
 
 // NIST/SEMATECH e-Handbook §6.3.2.2 individuals example (reference/spc/worked-examples.json).
 const examples = JSON.parse(readFileSync('reference/spc/worked-examples.json', 'utf8'));

@@ -5,7 +5,7 @@ import { listLines, listProducts } from '$lib/server/factory';
 import { requireActor } from '$lib/server/guards';
 import { characteristicFromForm } from '$lib/spc/characteristic-form';
 import { createCharacteristic, CharacteristicInputError } from '$lib/server/spc/characteristics';
-import { CHARTABLE_PARAMETERS, MEASURE_DEFAULTS } from '$lib/server/spc/measures';
+import { CHARTABLE_PARAMETERS, MEASURE_DEFAULTS } from '$lib/spc/chart-measures';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals }) => {

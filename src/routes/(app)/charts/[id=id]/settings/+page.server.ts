@@ -7,7 +7,7 @@ import { getCharacteristic } from '$lib/server/spc/chart-service';
 import { refusalToError } from '$lib/server/refusals';
 import { characteristicFromForm } from '$lib/spc/characteristic-form';
 import { CharacteristicInputError, updateCharacteristic } from '$lib/server/spc/characteristics';
-import { CHARTABLE_PARAMETERS, MEASURE_DEFAULTS } from '$lib/server/spc/measures';
+import { CHARTABLE_PARAMETERS, MEASURE_DEFAULTS } from '$lib/spc/chart-measures';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params }) => {

@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { RULE_IDS } from '$lib/spc';
-import { MEASURES } from './measures';
+import { RULE_IDS } from './run-rules';
+import { MEASURE_DEFAULTS, MEASURES, parameterUnit, type Measure } from './chart-measures';
 
 const optionalNumber = z
 	.union([z.number(), z.null()])
@@ -84,4 +84,50 @@ export function checkCharacteristic(
 		}
 	}
 	return out;
+}
+
+/** Which pads feed an SPI characteristic, as stored (open area-ratio bounds are null). */
+export type StoredPadSelection =
+	| { kind: 'all' }
+	| { kind: 'refdes'; refdes: string[] }
+	| { kind: 'area-ratio'; min: number | null; max: number | null };
+
+function storedPadSelection(p: CharacteristicInput['padSelection']): StoredPadSelection {
+	if (p.kind === 'area-ratio')
+		return { kind: 'area-ratio', min: p.min ?? null, max: p.max ?? null };
+	return p;
+}
+
+/** The unit a characteristic is charted in: as given, else the parameter's or the measure's. */
+export function characteristicUnit(input: CharacteristicInput): string {
+	if (input.unit) return input.unit;
+	if (input.measure === 'print-parameter') return parameterUnit(input.parameterKey ?? '');
+	return MEASURE_DEFAULTS[input.measure as Measure].unit;
+}
+
+/**
+ * The stored settings of a valid characteristic: specs not given at all take the measure's
+ * defaults (an explicit null clears them), lines and rules without repeats, one value per point
+ * unless subgroups are consecutive.
+ * @example characteristicValues({ ...input, measure: 'volume-pct', lsl: undefined }).lsl // the default LSL
+ */
+export function characteristicValues(input: CharacteristicInput) {
+	const defaults = MEASURE_DEFAULTS[input.measure as Measure];
+	const spec = (v: number | null | undefined, d: number | null) => (v === undefined ? d : v);
+	return {
+		name: input.name,
+		productId: input.productId,
+		lineIds: [...new Set(input.lineIds)].sort((a, b) => a - b),
+		measure: input.measure,
+		parameterKey: input.measure === 'print-parameter' ? (input.parameterKey ?? null) : null,
+		padSelection: storedPadSelection(input.padSelection),
+		subgroupMode: input.subgroupMode,
+		subgroupSize: input.subgroupMode === 'consecutive' ? input.subgroupSize : 1,
+		chartKind: input.chartKind,
+		lsl: spec(input.lsl, defaults.lsl),
+		target: spec(input.target, defaults.target),
+		usl: spec(input.usl, defaults.usl),
+		unit: characteristicUnit(input),
+		rules: [...new Set(input.rules)]
+	};
 }

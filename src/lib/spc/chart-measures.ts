@@ -1,10 +1,10 @@
-import { NUMERIC_PARAMETER_KEYS, AMBIENT_PARAMETER_KEYS } from '$lib/printlog/parameters';
+import { NUMERIC_PARAMETER_KEYS, AMBIENT_PARAMETER_KEYS } from '../printlog/parameters';
 import {
 	SPI_MEASURE_IDS,
 	SPI_MEASURES,
 	type MeasureDefaults,
 	type SpiMeasureId
-} from '$lib/spi/measures';
+} from '../spi/measures';
 
 /** What a characteristic charts: the SPI measures of the catalogue, or a print parameter. */
 export const MEASURES = [...SPI_MEASURE_IDS, 'print-parameter'] as unknown as readonly [
