@@ -7,18 +7,14 @@
 import gerberParser from 'gerber-parser';
 import type { ApertureInput, PointUm } from './aperture';
 import { MICROMETRES_PER } from '../units';
-import {
-	findSelfIntersection,
-	polygonAreaUm2,
-	polygonCentroid,
-	polygonSignedArea
-} from './polygon';
+import { polygonAreaUm2, polygonCentroid, polygonSignedArea } from './polygon';
 import { clippedArea, openRing, subtract, type ClippedPolygon } from './polygon-union';
 import { gerberProblem, type GerberProblem } from './gerber-message';
 import { checkGerberText } from './gerber-text-check';
 import { readGerberImage, type GerberImage } from './gerber-image';
 import { boxesOverlap, gerberOutlineBox, gerberOutlineToAperture } from './gerber-outline-aperture';
 import { flattenGerberPath } from './gerber-path';
+import { CUT_IN_SLIT_UM, repairRegionContour } from './gerber-contour-repair';
 import { macroShapeOutline } from './gerber-macro-outline';
 import { nameGerberApertures } from './gerber-naming';
 import { classifyGerberParserWarning } from './gerber-parser-warning';
@@ -302,33 +298,74 @@ function placeRegions(
 				warnings.push(gerberProblem(region.line, what, message));
 			}
 			const vertices = contour.vertices as PointUm[];
-			if (vertices.length < 3 || polygonSignedArea(vertices) === 0) {
+			// Crossing or touching contours are repaired into simple polygons or refused (see
+			// gerber-contour-repair.ts: Gerber specification 4.10.3, nonzero winding); a bow-tie's
+			// net area can be zero, so this comes before the zero-area test.
+			const repair = vertices.length < 3 ? null : repairRegionContour(vertices, f);
+			const empty = repair?.kind === 'repaired' && repair.pieces.length === 0;
+			if (!repair || empty || (repair.kind === 'simple' && polygonSignedArea(vertices) === 0)) {
 				warnings.push(gerberProblem(region.line, what, 'the contour has zero area; skipped'));
 				return;
 			}
-			// O(n²): only for outlines of ordinary size.
-			if (vertices.length <= 2000 && findSelfIntersection(vertices)) {
-				const message = 'the contour crosses or touches itself (e.g. a cut-in); it may be rejected';
+			let polygons: PointUm[][] = [vertices];
+			if (repair.kind !== 'simple') {
+				const where = `(${formatMm(repair.at[0] * f)}, ${formatMm(repair.at[1] * f)}) mm`;
+				if (repair.kind === 'refused') {
+					const message =
+						`the contour crosses itself at ${where}: ${repair.reason}; contour skipped. ` +
+						'List its vertices in order around the pad, or draw each pad as its own contour';
+					warnings.push(gerberProblem(region.line, what, message));
+					return;
+				}
+				polygons = repair.pieces;
+				const n = polygons.length;
+				const holes =
+					repair.holesJoined > 0
+						? `; ${repair.holesJoined} hole(s) kept, each joined to the outside by a ` +
+							`${CUT_IN_SLIT_UM * 1000} nm slit (an opening is one simple polygon)`
+						: '';
+				const dropped =
+					repair.dropped > 0 ? `; ${repair.dropped} piece(s) under 1 µm² left out` : '';
+				const message = repair.crossed
+					? `contour crossed itself at ${where}; repaired into ${n} opening(s) by the ` +
+						`nonzero winding rule (overlapping loops united)${holes}${dropped}`
+					: `contour touches itself at ${where} (a cut-in or touching loops); made into ` +
+						`${n} simple opening(s)${holes}${dropped}`;
 				warnings.push(gerberProblem(region.line, what, message));
 			}
-			if (!region.clear && !budget.take(vertices.length * region.offsets.length, region.line, what))
-				return;
-			const [cx, cy] = polygonCentroid(vertices);
-			const outline: GerberOutline = {
-				kind: 'polygon',
-				vertices: vertices.map(([x, y]) => [x - cx, y - cy]),
-				cx,
-				cy,
-				rotationDeg: 0
-			};
-			for (const [ox, oy] of region.offsets) {
-				const box = gerberOutlineBox(outline, ox, oy);
-				const aperture = gerberOutlineToAperture(outline, ox, oy, f);
-				(region.clear ? clear : dark).push({ aperture, box, seq: region.seq, line: region.line });
+			for (const polygon of polygons) {
+				if (polygon.length > limits.maxOutlineVertices) {
+					const message =
+						`the repaired contour has ${formatCount(polygon.length)} vertices; the limit is ` +
+						`${formatCount(limits.maxOutlineVertices)} per outline`;
+					errors.push({ ...gerberProblem(region.line, what, message), budget: true });
+					return;
+				}
+				const n = polygon.length * region.offsets.length;
+				if (!region.clear && !budget.take(n, region.line, what)) return;
+				const [cx, cy] = polygonCentroid(polygon);
+				const outline: GerberOutline = {
+					kind: 'polygon',
+					vertices: polygon.map(([x, y]) => [x - cx, y - cy]),
+					cx,
+					cy,
+					rotationDeg: 0
+				};
+				for (const [ox, oy] of region.offsets) {
+					const box = gerberOutlineBox(outline, ox, oy);
+					const aperture = gerberOutlineToAperture(outline, ox, oy, f);
+					const placed = { aperture, box, seq: region.seq, line: region.line };
+					(region.clear ? clear : dark).push(placed);
+				}
 			}
 		});
 	}
 	return { dark, clear };
+}
+
+/** A length in µm as mm for messages, to the µm (`1.5`, `-0.012`). */
+function formatMm(um: number): string {
+	return String(Number((um / 1000).toFixed(3)));
 }
 
 /** Most box tests spent relating clear objects to dark ones; past it the check stops (warned). */
