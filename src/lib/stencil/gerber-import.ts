@@ -558,7 +558,10 @@ function relateOpenings(
  *   rectangle, other convex combinations → convex hull polygon, non-convex → skipped).
  * - Regions (G36/G37): each contour becomes a polygon placed at its area centroid; arcs are cut
  *   into chords within `arcToleranceUm` (see `flattenGerberPath`); a contour that does not end
- *   where it started is closed with a straight edge, with a warning naming its line.
+ *   where it started is closed with a straight edge, with a warning naming its line. A contour
+ *   that crosses or touches itself is filled by the nonzero winding rule into simple polygons
+ *   (cut-in holes kept with a slit) or, when its loops turn both ways, left out with a warning
+ *   (`repairRegionContour`; Gerber specification 4.10.3).
  * - Step-repeat (%SR) copies are expanded. Draws (D01 outside a region), clear-polarity
  *   objects, moiré/thermal macros and apertures with holes are skipped with a warning.
  * - Names: refdes `@0001`, `@0002`, … sorted by y then x, pad `1` (`nameGerberApertures`).
