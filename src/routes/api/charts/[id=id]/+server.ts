@@ -9,7 +9,7 @@ export const GET = apiRoute(({ params, url }) => {
 	const db = getDb();
 	const id = Number(params.id);
 	const query = chartQuery(url);
-	// Kept until anyone commits a change (see chart-json-cache.ts): a repeated view is not computed again.
+	// Kept until anyone commits a change (chart-json-cache.ts): a repeat is not computed again.
 	const body = cachedChartJson(db, `${id}:${query.limit}`, () =>
 		chartJson(chartDetail(db, id, query))
 	);
