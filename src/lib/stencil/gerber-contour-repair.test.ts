@@ -183,3 +183,50 @@ describe('importGerberPasteLayer: self-crossing contours of any size', () => {
 		);
 	});
 });
+
+describe('self-crossing contours: work counted before the repair', () => {
+	/** A star polygon {n/k} of radius 5 mm about (cx, 0) as a G36 region (n(k − 1) crossings). */
+	const star = (n: number, k: number, cx: number) => {
+		const pts = Array.from({ length: n }, (_, i) => {
+			const a = (2 * Math.PI * ((i * k) % n)) / n;
+			return `X${Math.round((cx + 5 * Math.cos(a)) * 1e6)}Y${Math.round(5 * Math.sin(a) * 1e6)}`;
+		});
+		return [
+			'G36*',
+			`${pts[0]}D02*`,
+			...pts.slice(1).map((p) => `${p}D01*`),
+			`${pts[0]}D01*`,
+			'G37*'
+		];
+	};
+	const layer = (...regions: string[][]) =>
+		[
+			'%FSLAX36Y36*%',
+			'%MOMM*%',
+			'%ADD10C,0.5*%',
+			'G01*',
+			...regions.flat(),
+			'D10*',
+			'X0Y20000000D03*',
+			'M02*'
+		].join('\n');
+
+	it('refuses a contour crossing itself more than 1,000 times (a 999-point star {999/499}: 999 × 498 = 497,502), not the file', () => {
+		const result = importGerberPasteLayer(layer(star(999, 499, 0)));
+		expect('errors' in result ? result.errors : []).toEqual([]);
+		if ('errors' in result) return;
+		expect(result.apertures).toHaveLength(1); // the flash
+		expect(result.warnings.join('\n')).toContain('its edges cross or touch more than 1,000 times');
+	});
+
+	it('refuses the layer (413) past 10,000 repaired crossings: 11 stars {499/3} of 499 × 2 = 998 each', () => {
+		const regions = Array.from({ length: 11 }, (_, i) => star(499, 3, i * 20));
+		const result = importGerberPasteLayer(layer(...regions));
+		expect('errors' in result).toBe(true);
+		if (!('errors' in result)) return;
+		expect(result.overBudget).toBe(true);
+		expect(result.errors.map((e) => e.message).join('\n')).toContain(
+			'cross themselves more than 10,000 times; the limit is 10,000 repaired crossings per layer'
+		);
+	});
+});

@@ -26,6 +26,16 @@ import { NUMBER_RANGES, RELATIVE_TOLERANCE } from './limits';
 /** Width of the slit joining a cut-in hole to the outside, µm: 10 nm, on the 1 nm snapping grid. */
 export const CUT_IN_SLIT_UM = 0.01;
 
+/**
+ * Most edge pairs of one contour that may cross or touch before it is refused: the repair's cost
+ * grows with the crossings (about 0.1 ms each; a 999-point star with 250,000 took 52 s), and a
+ * real pad crosses itself a few times at most.
+ */
+export const MAX_CONTOUR_CROSSINGS = 1_000;
+
+/** Most crossings repaired in one layer, all contours together (about a second of work). */
+export const MAX_LAYER_CROSSINGS = 10_000;
+
 /** Smallest piece kept as an opening, µm²: a square of the smallest aperture size. */
 const MIN_PIECE_AREA_UM2 = NUMBER_RANGES.minApertureSizeUm ** 2;
 
@@ -44,8 +54,70 @@ export type ContourRepair =
 			holesJoined: number;
 			/** Pieces below pad size (under 1 µm²) left out. */
 			dropped: number;
+			/** Pairs of edges that cross or touch. */
+			crossings: number;
 	  }
-	| { kind: 'refused'; at: PointUm; reason: string };
+	| {
+			kind: 'refused';
+			at: PointUm;
+			reason: string;
+			/** Crossings counted, up to one more than the cap (over it, nothing was repaired). */
+			crossings: number;
+	  };
+
+function cross(o: PointUm, a: PointUm, b: PointUm): number {
+	return (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
+}
+
+/** Whether segments ab and cd share a point (a crossing, a touch or an overlap). */
+function segmentsMeet(a: PointUm, b: PointUm, c: PointUm, d: PointUm): boolean {
+	const d1 = Math.sign(cross(c, d, a));
+	const d2 = Math.sign(cross(c, d, b));
+	const d3 = Math.sign(cross(a, b, c));
+	const d4 = Math.sign(cross(a, b, d));
+	if (d1 * d2 < 0 && d3 * d4 < 0) return true;
+	const inBox = (p: PointUm, q: PointUm, r: PointUm) =>
+		Math.min(q[0], r[0]) <= p[0] &&
+		p[0] <= Math.max(q[0], r[0]) &&
+		Math.min(q[1], r[1]) <= p[1] &&
+		p[1] <= Math.max(q[1], r[1]);
+	return (
+		(d1 === 0 && inBox(a, c, d)) ||
+		(d2 === 0 && inBox(b, c, d)) ||
+		(d3 === 0 && inBox(c, a, b)) ||
+		(d4 === 0 && inBox(d, a, b))
+	);
+}
+
+/**
+ * Count the pairs of non-neighbouring edges that meet, stopping past `cap`: the same sweep as
+ * `findSelfIntersection` (edges by smallest x, only pairs whose boxes overlap tested exactly).
+ */
+export function countSelfCrossings(v: readonly PointUm[], cap: number): number {
+	const n = v.length;
+	const minX = new Float64Array(n);
+	const maxX = new Float64Array(n);
+	const minY = new Float64Array(n);
+	const maxY = new Float64Array(n);
+	for (let i = 0; i < n; i++) {
+		const [a, b] = [v[i], v[(i + 1) % n]];
+		[minX[i], maxX[i]] = [Math.min(a[0], b[0]), Math.max(a[0], b[0])];
+		[minY[i], maxY[i]] = [Math.min(a[1], b[1]), Math.max(a[1], b[1])];
+	}
+	const order = Array.from({ length: n }, (_, i) => i).sort((p, q) => minX[p] - minX[q]);
+	let count = 0;
+	for (let k = 0; k < n && count <= cap; k++) {
+		const i = order[k];
+		for (let m = k + 1; m < n && minX[order[m]] <= maxX[i] && count <= cap; m++) {
+			const j = order[m];
+			const [lo, hi] = [Math.min(i, j), Math.max(i, j)];
+			if (hi - lo === 1 || (lo === 0 && hi === n - 1)) continue; // neighbours
+			if (minY[j] > maxY[i] || maxY[j] < minY[i]) continue;
+			if (segmentsMeet(v[lo], v[(lo + 1) % n], v[hi], v[(hi + 1) % n])) count++;
+		}
+	}
+	return count;
+}
 
 /** The point where edges i and j of a closed polygon first meet (a crossing or a touch). */
 function meetingPoint(v: readonly PointUm[], i: number, j: number): PointUm {
@@ -107,10 +179,22 @@ function joinHoles(poly: ClippedPolygon, slitUm: number): ClippedPolygon[] | nul
  * runs only for the contours it flags.
  * @example repairRegionContour([[0,0],[4,0],[4,3],[1,3],[1,1],[3,1],[3,2],[0,2]], 1000).kind // 'repaired'
  */
-export function repairRegionContour(vertices: readonly PointUm[], f: number): ContourRepair {
+export function repairRegionContour(
+	vertices: readonly PointUm[],
+	f: number,
+	maxCrossings = MAX_CONTOUR_CROSSINGS
+): ContourRepair {
 	const hit = findSelfIntersection(vertices);
 	if (!hit) return { kind: 'simple' };
 	const at = meetingPoint(vertices, hit[0], hit[1]);
+	// Counted before the repair, whose work grows with them.
+	const crossings = countSelfCrossings(vertices, maxCrossings);
+	if (crossings > maxCrossings) {
+		const reason =
+			`its edges cross or touch more than ${maxCrossings.toLocaleString('en-US')} times, ` +
+			'more than a pad outline has; not repaired';
+		return { kind: 'refused', at, reason, crossings };
+	}
 	// In µm so the 1 nm snapping of polygon-union applies as meant.
 	const um = vertices.map(([x, y]) => [x * f, y * f] as PointUm);
 	const netUm2 = Math.abs(polygonSignedArea(um));
@@ -119,7 +203,7 @@ export function repairRegionContour(vertices: readonly PointUm[], f: number): Co
 		filled = unite([um]);
 	} catch {
 		const reason = 'the polygon library could not untangle it';
-		return { kind: 'refused', at, reason };
+		return { kind: 'refused', at, reason, crossings };
 	}
 	const fillUm2 = clippedArea(filled);
 	const tol = RELATIVE_TOLERANCE * Math.max(fillUm2, netUm2) + 1;
@@ -129,7 +213,7 @@ export function repairRegionContour(vertices: readonly PointUm[], f: number): Co
 			`its loops turn both ways (net area ${(netUm2 / 1e6).toFixed(4)} mm² against ` +
 			`${(fillUm2 / 1e6).toFixed(4)} mm² enclosed), so no side is inside throughout and ` +
 			'which loops are the pad is not defined (Gerber specification 4.10.3)';
-		return { kind: 'refused', at, reason };
+		return { kind: 'refused', at, reason, crossings };
 	}
 	// More net area than filled: loops lie over one another, so edges cross (a cut-in only touches).
 	const crossed = netUm2 - fillUm2 > tol;
@@ -148,7 +232,7 @@ export function repairRegionContour(vertices: readonly PointUm[], f: number): Co
 		}
 		if (!joined) {
 			const reason = 'a hole it encloses could not be joined to the outside';
-			return { kind: 'refused', at, reason };
+			return { kind: 'refused', at, reason, crossings };
 		}
 		simple.push(...joined);
 	}
@@ -161,6 +245,7 @@ export function repairRegionContour(vertices: readonly PointUm[], f: number): Co
 		crossed,
 		pieces,
 		holesJoined,
-		dropped: rings.length - kept.length
+		dropped: rings.length - kept.length,
+		crossings
 	};
 }

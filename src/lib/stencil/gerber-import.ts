@@ -14,7 +14,12 @@ import { checkGerberText } from './gerber-text-check';
 import { readGerberImage, type GerberImage } from './gerber-image';
 import { boxesOverlap, gerberOutlineBox, gerberOutlineToAperture } from './gerber-outline-aperture';
 import { flattenGerberPath } from './gerber-path';
-import { CUT_IN_SLIT_UM, repairRegionContour } from './gerber-contour-repair';
+import {
+	CUT_IN_SLIT_UM,
+	MAX_CONTOUR_CROSSINGS,
+	MAX_LAYER_CROSSINGS,
+	repairRegionContour
+} from './gerber-contour-repair';
 import { macroShapeOutline } from './gerber-macro-outline';
 import { nameGerberApertures } from './gerber-naming';
 import { classifyGerberParserWarning } from './gerber-parser-warning';
@@ -276,6 +281,8 @@ function placeRegions(
 	budget: VertexBudget
 ) {
 	const dark: Placed[] = [];
+	let crossingsLeft = MAX_LAYER_CROSSINGS;
+	let crossingBudgetHit = false;
 	const clear: Placed[] = [];
 	for (const region of image.regions) {
 		let contours;
@@ -288,7 +295,7 @@ function placeRegions(
 		}
 		if (budget.exceeded) break;
 		contours.forEach((contour, k) => {
-			if (budget.exceeded) return;
+			if (budget.exceeded || crossingBudgetHit) return;
 			const what = `G36 contour ${k + 1}`;
 			if (!contour.closed) {
 				// Many exporters leave out the last edge back to the start; the polygon closes it.
@@ -301,7 +308,20 @@ function placeRegions(
 			// Crossing or touching contours are repaired into simple polygons or refused (see
 			// gerber-contour-repair.ts: Gerber specification 4.10.3, nonzero winding); a bow-tie's
 			// net area can be zero, so this comes before the zero-area test.
-			const repair = vertices.length < 3 ? null : repairRegionContour(vertices, f);
+			const cap = Math.min(MAX_CONTOUR_CROSSINGS, crossingsLeft);
+			const repair = vertices.length < 3 ? null : repairRegionContour(vertices, f, cap);
+			if (repair && repair.kind !== 'simple') {
+				if (repair.crossings > cap && cap < MAX_CONTOUR_CROSSINGS) {
+					const message =
+						`the layer's region contours cross themselves more than ` +
+						`${formatCount(MAX_LAYER_CROSSINGS)} times; the limit is ` +
+						`${formatCount(MAX_LAYER_CROSSINGS)} repaired crossings per layer`;
+					errors.push({ ...gerberProblem(region.line, what, message), budget: true });
+					crossingBudgetHit = true;
+					return;
+				}
+				crossingsLeft -= Math.min(repair.crossings, cap);
+			}
 			const empty = repair?.kind === 'repaired' && repair.pieces.length === 0;
 			if (!repair || empty || (repair.kind === 'simple' && polygonSignedArea(vertices) === 0)) {
 				warnings.push(gerberProblem(region.line, what, 'the contour has zero area; skipped'));
