@@ -33,7 +33,7 @@ export const actions = {
 		} catch (err) {
 			if (!(err instanceof DuplicateStencilError)) throw err;
 			form.errors.revision = [err.message];
-			return fail(409, { form });
+			return fail(err.status, { form });
 		}
 		redirect(303, `/stencils/${id}`);
 	}

@@ -129,7 +129,7 @@ export const actions = {
 		} catch (err) {
 			if (!(err instanceof DuplicateStencilError)) throw err;
 			form.errors.revision = [err.message];
-			return fail(409, { revisionForm: form });
+			return fail(err.status, { revisionForm: form });
 		}
 		redirect(303, `/stencils/${id}`);
 	},
@@ -174,7 +174,7 @@ export const actions = {
 				const field = FIELD_OF[p.field.replace(/\[.*$/, '')] ?? p.field.replace(/\[.*$/, '');
 				errors[field] = [...(errors[field] ?? []), p.message];
 			}
-			return fail(422, { apertureForm: form });
+			return fail(err.status, { apertureForm: form });
 		}
 		warmStencilCache(getDb(), Number(params.id));
 		return message(form, `Aperture ${d.refdes || '(no refdes)'}.${d.pad} added.`);
