@@ -9,9 +9,9 @@ export type AcknowledgeOutcome =
 	| { ok: false; status: 403 | 404 | 409 | 422; field?: string; message: string };
 
 /**
- * Acknowledge through `acknowledgeSignal`, with its refusals as a value (for the API route and
- * the form actions alike). `allowed`, when given, limits which signals this caller may
- * acknowledge (a technician: the open signals of the line in front of them): others get 403.
+ * Acknowledge through `acknowledgeSignal`, with its refusals as a value (for the form actions; the
+ * API route lets `errorResponse` answer them). `allowed`, when given, limits which signals this
+ * caller may acknowledge (a technician: the open signals of the line in front of them): 403.
  */
 export function tryAcknowledge(
 	db: Db,
