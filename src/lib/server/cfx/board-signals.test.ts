@@ -4,6 +4,7 @@ import type { Actor } from '$lib/access';
 import type { Db } from '../db';
 import { printRuns } from '../db/schema';
 import { subscribeFloorEvents, type PublishedFloorEvent } from '../floor/events';
+import { openSignalsByLine } from '../floor/facts';
 import { linesOfEvent } from '../floor/lines-of';
 import { seedPrintlogFixture } from '../printlog/test-fixtures';
 import { createCharacteristic } from '../spc/characteristics';
@@ -124,6 +125,14 @@ describe('boards printed outside the recipe window raise signals like print runs
 		const raised = published.filter((e) => e.kind === 'signal' && e.what === 'raised');
 		expect(raised).toHaveLength(1);
 		expect(linesOfEvent(db, raised[0])).toEqual([ids.line]);
+		// The line view and its tile list it on the line, with the run the board belongs to.
+		const openRun = db.$client
+			.prepare(`select id from print_runs where ended_at is null`)
+			.pluck()
+			.get() as number;
+		expect(openSignalsByLine(db).get(ids.line)).toContainEqual(
+			expect.objectContaining({ pointKey: `cfx-unit:${unitId}`, printRunId: openRun })
+		);
 	});
 
 	it('without a chart of the parameter the deviation stays recorded with the board only', async () => {

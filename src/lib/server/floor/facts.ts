@@ -80,7 +80,11 @@ function prepare(conn: Database.Database) {
 		boardLineRun: conn.prepare(
 			`select line_id as lineId, print_run_id as runId from spi_boards where id = ?`
 		),
-		runLine: conn.prepare(`select line_id from print_runs where id = ?`).pluck()
+		runLine: conn.prepare(`select line_id from print_runs where id = ?`).pluck(),
+		// A board a printer reported over CFX (chart point `cfx-unit:ID`, see ../cfx/board-points).
+		cfxUnitLineRun: conn.prepare(
+			`select line_id as lineId, print_run_id as runId from cfx_units where id = ?`
+		)
 	};
 }
 
@@ -100,9 +104,14 @@ function placeOfSignal(s: Statements, id: number, pointKey: string, boardIds: nu
 	let place = signalPlace.get(id);
 	if (place) return place;
 	const run = /^run:(\d+)$/.exec(pointKey);
+	const cfxUnit = /^cfx-unit:(\d+)$/.exec(pointKey);
 	if (run) {
 		const runId = Number(run[1]);
 		place = { lineId: (s.runLine.get(runId) as number | undefined) ?? null, runId };
+	} else if (cfxUnit) {
+		const unit = s.cfxUnitLineRun.get(Number(cfxUnit[1])) as
+			{ lineId: number; runId: number | null } | undefined;
+		place = { lineId: unit?.lineId ?? null, runId: unit?.runId ?? null };
 	} else {
 		const board = boardIds.length
 			? (s.boardLineRun.get(boardIds[boardIds.length - 1]) as
