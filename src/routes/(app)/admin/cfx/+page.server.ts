@@ -13,9 +13,9 @@ import {
 	discardQuarantined,
 	listEndpoints,
 	listPendingInspections,
+	lineMachineEvents,
 	listQuarantine,
 	printerOee,
-	recentLineEvents,
 	retryQuarantined,
 	saveEndpoint
 } from '$lib/server/cfx';
@@ -30,7 +30,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 		endpoints: listEndpoints(db),
 		quarantine: listQuarantine(db, { limit: 100 }),
 		pending: listPendingInspections(db, 100),
-		events: recentLineEvents(db, null, 30),
+		events: lineMachineEvents(db, null, 30),
 		// Today's shifts on the site clock; OeeRequestError past the read budget shows as no table.
 		shiftSettings: siteShiftSettings(),
 		oee: (() => {

@@ -8,11 +8,15 @@ import {
 } from '$lib/access';
 import { getDb } from '$lib/server/db';
 import { requireActor } from '$lib/server/guards';
+import { lineMachineEvents } from '$lib/server/cfx';
 import { openSignalsByLine } from '$lib/server/floor/facts';
 import { assignableUsers, assignSignal, AssignError } from '$lib/server/floor/signal-owners';
 import { getCauseLists } from '$lib/server/spc/cause-lists';
 import { acknowledgeFromForm } from '$lib/server/spc/acknowledge';
 import type { Actions, PageServerLoad } from './$types';
+
+/** Machine events listed on the line view (the newest; `GET /api/cfx/events` gives more). */
+const MACHINE_EVENTS_SHOWN = 15;
 
 /** The technician's line view: the line, its last boards and open signals (the tile comes live). */
 export const load: PageServerLoad = ({ locals, params, depends }) => {
@@ -48,6 +52,8 @@ export const load: PageServerLoad = ({ locals, params, depends }) => {
 		line,
 		boards: boards.map((b) => ({ ...b, inspectedAt: new Date(b.inspectedAt).toISOString() })),
 		signals,
+		// What the machines reported over CFX (faults, stencil changes, cleaning…), newest first.
+		machineEvents: lineMachineEvents(db, id, MACHINE_EVENTS_SHOWN),
 		lists: getCauseLists(db),
 		people: hasRole(actor, SIGNAL_ASSIGNERS) ? assignableUsers(db) : [],
 		me: actor.kind === 'user' ? actor.id : null,
