@@ -1,6 +1,7 @@
 import Database from 'better-sqlite3';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
-import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
+import { parentPort, type Worker } from 'node:worker_threads';
+import { isModuleThread, startModuleThread } from '../module-thread';
 import type { Db } from '../db';
 import * as schema from '../db/schema';
 import { transferEfficiency, type TeAnswer, type TeFilters } from './transfer-efficiency';
@@ -52,38 +53,13 @@ async function slot(): Promise<() => void> {
 }
 
 async function startThread(): Promise<Worker | null> {
-	let worker: Worker;
-	try {
-		const self = import.meta.url;
-		const options = {
-			workerData: { [WORKER_FLAG]: true },
-			resourceLimits: { maxOldGenerationSizeMb: HEAP_MB }
-		};
-		worker = self.endsWith('.ts')
-			? new Worker(
-					`import('tsx/esm/api').then((m) => { m.register(); return import(${JSON.stringify(self)}); });`,
-					{ ...options, eval: true }
-				)
-			: new Worker(new URL(self), options);
-	} catch {
-		return null;
-	}
-	const started = await new Promise<boolean>((resolve) => {
-		const timer = setTimeout(() => resolve(false), START_TIMEOUT_MS);
-		worker.once('message', (m: Reply) => {
-			clearTimeout(timer);
-			resolve(m.type === 'ready');
-		});
-		worker.once('error', () => {
-			clearTimeout(timer);
-			resolve(false);
-		});
+	const worker = await startModuleThread({
+		moduleUrl: import.meta.url,
+		flag: WORKER_FLAG,
+		resourceLimits: { maxOldGenerationSizeMb: HEAP_MB },
+		startTimeoutMs: START_TIMEOUT_MS
 	});
-	if (!started) {
-		void worker.terminate();
-		return null;
-	}
-	worker.on('error', () => undefined);
+	if (!worker) return null;
 	worker.on('exit', () => {
 		if (thread === worker) thread = null;
 	});
@@ -192,6 +168,6 @@ function runScanThread(): void {
 	port.postMessage({ type: 'ready' });
 }
 
-if (!isMainThread && (workerData as Record<string, unknown> | null)?.[WORKER_FLAG] === true) {
+if (isModuleThread(WORKER_FLAG)) {
 	runScanThread();
 }

@@ -1,7 +1,8 @@
 import { createHash } from 'node:crypto';
 import { read, writeSync } from 'node:fs';
 import { promisify } from 'node:util';
-import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
+import { parentPort, type Worker } from 'node:worker_threads';
+import { isModuleThread, startModuleThread } from '../module-thread';
 import {
 	createSpiRowParser,
 	spiParseLimitsFromEnv,
@@ -128,45 +129,18 @@ let spareMemoryMb = 0;
 
 /** Start a parser thread and wait for it to be ready; null when it cannot start in time. */
 async function startParserThread(timeoutMs: number, memoryMb: number): Promise<Worker | null> {
-	let worker: Worker;
-	try {
-		const self = import.meta.url;
-		const data = {
-			workerData: { [WORKER_FLAG]: true },
-			// A runaway file ends this thread (ERR_WORKER_OUT_OF_MEMORY), not the server.
-			resourceLimits: { maxOldGenerationSizeMb: memoryMb }
-		};
-		// From TypeScript sources (tsx, vitest) the worker loads this file through tsx's loader,
-		// which a worker does not inherit; the built app runs its own .js chunk directly.
-		worker = self.endsWith('.ts')
-			? new Worker(
-					`import('tsx/esm/api').then((m) => { m.register(); return import(${JSON.stringify(self)}); });`,
-					{ ...data, eval: true }
-				)
-			: new Worker(new URL(self), data);
-	} catch {
-		return null;
-	}
-	const started = await new Promise<boolean>((resolve) => {
-		const timer = setTimeout(() => resolve(false), timeoutMs);
-		worker.once('message', (m: Reply) => {
-			clearTimeout(timer);
-			resolve(m.type === 'ready');
-		});
-		worker.once('error', () => {
-			clearTimeout(timer);
-			resolve(false);
-		});
+	const worker = await startModuleThread({
+		moduleUrl: import.meta.url,
+		flag: WORKER_FLAG,
+		// A runaway file ends this thread (ERR_WORKER_OUT_OF_MEMORY), not the server.
+		resourceLimits: { maxOldGenerationSizeMb: memoryMb },
+		startTimeoutMs: timeoutMs
 	});
-	if (!started) {
-		void worker.terminate();
-		return null;
-	}
+	if (!worker) return null;
 	// A spare that stops on its own is simply forgotten.
 	worker.on('exit', () => {
 		if (spareWorker === worker) spareWorker = null;
 	});
-	worker.on('error', () => undefined);
 	return worker;
 }
 
@@ -440,6 +414,6 @@ function runParseWorker(): void {
 	port.postMessage({ type: 'ready' });
 }
 
-if (!isMainThread && (workerData as Record<string, unknown> | null)?.[WORKER_FLAG] === true) {
+if (isModuleThread(WORKER_FLAG)) {
 	runParseWorker();
 }

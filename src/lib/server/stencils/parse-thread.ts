@@ -1,4 +1,5 @@
-import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
+import { parentPort, type Worker } from 'node:worker_threads';
+import { isModuleThread, startModuleThread } from '../module-thread';
 import type { StencilLimits } from '$lib/stencil/limits';
 import { parseApertureUpload, type UploadInput, type UploadResult } from './upload';
 
@@ -51,35 +52,13 @@ function heapOptions(limits: StencilLimits) {
 
 /** Start a parser thread and wait until it has loaded; null when it cannot (dev server). */
 async function startThread(limits: StencilLimits): Promise<Worker | null> {
-	let worker: Worker;
-	try {
-		const self = import.meta.url;
-		const options = { workerData: { [WORKER_FLAG]: true }, ...heapOptions(limits) };
-		worker = self.endsWith('.ts')
-			? new Worker(
-					`import('tsx/esm/api').then((m) => { m.register(); return import(${JSON.stringify(self)}); });`,
-					{ ...options, eval: true }
-				)
-			: new Worker(new URL(self), options);
-	} catch {
-		return null;
-	}
-	const started = await new Promise<boolean>((resolve) => {
-		const timer = setTimeout(() => resolve(false), START_TIMEOUT_MS);
-		worker.once('message', (m: Reply) => {
-			clearTimeout(timer);
-			resolve(m.type === 'ready');
-		});
-		worker.once('error', () => {
-			clearTimeout(timer);
-			resolve(false);
-		});
+	const worker = await startModuleThread({
+		moduleUrl: import.meta.url,
+		flag: WORKER_FLAG,
+		resourceLimits: heapOptions(limits).resourceLimits,
+		startTimeoutMs: START_TIMEOUT_MS
 	});
-	if (!started) {
-		void worker.terminate();
-		return null;
-	}
-	worker.on('error', () => undefined);
+	if (!worker) return null;
 	worker.on('exit', () => {
 		if (spare === worker) spare = null;
 	});
@@ -194,6 +173,6 @@ function runParseThread(): void {
 	port.postMessage({ type: 'ready' });
 }
 
-if (!isMainThread && (workerData as Record<string, unknown> | null)?.[WORKER_FLAG] === true) {
+if (isModuleThread(WORKER_FLAG)) {
 	runParseThread();
 }
