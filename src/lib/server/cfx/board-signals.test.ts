@@ -120,7 +120,7 @@ describe('boards printed outside the recipe window raise signals like print runs
 		]);
 		const points = chartDetail(db, chart.id).chart!.points;
 		expect(points.at(-1)).toMatchObject({ key: `cfx-unit:${unitId}` });
-		expect(points.filter((p) => p.key.startsWith('cfx-unit:'))).toHaveLength(1);
+		expect(points.filter((p) => p.key?.startsWith('cfx-unit:'))).toHaveLength(1);
 		// The floor hears of it, on the board's line (the tile and the line view show it).
 		const raised = published.filter((e) => e.kind === 'signal' && e.what === 'raised');
 		expect(raised).toHaveLength(1);
