@@ -76,9 +76,8 @@ test.describe('chart labels do not overlap at 1280, 1024 and 820 px', () => {
 	});
 
 	// Found by this check (3 December): on /charts/1 at 1280 px the zone letters A, B and C of the
-	// location chart print over each other where the zones are thinner than a line of text. The
-	// control-chart pane is being reworked elsewhere; enable this once its zone letters make room.
-	test.fixme('a control chart', async ({ page, request }) => {
+	// location chart printed over each other where the zones are thinner than a line of text.
+	test('a control chart', async ({ page, request }) => {
 		const { charts } = (await apiJson(request, '/api/charts', 'viewer')) as {
 			charts: { id: number; name: string }[];
 		};
