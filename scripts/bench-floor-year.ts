@@ -24,8 +24,8 @@
  *    product on the U1 pads (refdes selection, read from pad rows), limits frozen on days
  *    −60…−14, the last 14 days judged (`evaluateCharacteristic`) and the signals older than a
  *    day acknowledged.
- * 2. Starts `node build` on it (own free port), built when sources changed, both under the e2e
- *    lock, held while the server runs (build/ is shared). Measures over HTTP with an engineer
+ * 2. Starts the server on it (`server.js` through ./lib/own-server.ts, own free port), built when
+ *    sources changed, both under the e2e lock, held while the server runs (build/ is shared). Measures over HTTP with an engineer
  *    token, one request at a time: `GET /api/me` as the floor (HTTP and token check only);
  *    `GET /api/charts/{id}` of six charts (the first request of each reported apart as cold, then
  *    `--requests` warm ones in turn, each after a one-row commit by another connection so every
@@ -37,13 +37,13 @@
  */
 import Database from 'better-sqlite3';
 import { createHash } from 'node:crypto';
-import { spawn } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, existsSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { performance } from 'node:perf_hooks';
+import { buildAndHoldLock, freePort, startServer, type HeldBuild } from './lib/own-server';
+import { median, quantile } from './lib/figures';
 import { openDatabase, type Db } from '../src/lib/server/db';
 import { createApiToken } from '../src/lib/server/tokens';
 import { createCharacteristic } from '../src/lib/server/spc/characteristics';
@@ -89,7 +89,7 @@ mkdirSync(dir, { recursive: true });
 const file = join(dir, 'year.db');
 /** `--keep DIR` holding a database from an earlier run: measure it again without generating. */
 const reuse = Boolean(args.keep) && existsSync(file);
-let cleanUp = () => {
+const cleanUp = () => {
 	if (!args.keep) rmSync(dir, { recursive: true, force: true });
 };
 process.on('exit', () => cleanUp());
@@ -622,116 +622,33 @@ for (const [what, plan] of Object.entries(plans))
 	log(`plan, ${what}: ${(plan as { detail: string }[]).map((p) => p.detail).join(' · ')}`);
 
 // ── 2. Measure over HTTP ───────────────────────────────────────────────────────────────────────
-async function freePort(): Promise<number> {
-	return new Promise((resolvePort, reject) => {
-		const server = createServer();
-		server.on('error', reject);
-		server.listen(0, '127.0.0.1', () => {
-			const address = server.address();
-			server.close(() => resolvePort(typeof address === 'object' && address ? address.port : 0));
-		});
-	});
-}
-const quantile = (xs: number[], q: number) => {
-	if (xs.length === 0) return NaN;
-	const s = [...xs].sort((a, b) => a - b);
-	return s[Math.min(s.length - 1, Math.floor(q * s.length))];
-};
 const fmt = (v: number) => (Number.isFinite(v) ? `${v.toFixed(v < 10 ? 1 : 0)} ms` : '–');
 const stats = (xs: number[]) =>
-	`n ${xs.length}, p50 ${fmt(quantile(xs, 0.5))}, p95 ${fmt(quantile(xs, 0.95))}, max ${fmt(Math.max(...xs))}`;
+	`n ${xs.length}, p50 ${fmt(median(xs))}, p95 ${fmt(quantile(xs, 0.95))}, max ${fmt(Math.max(...xs))}`;
 
-// Build and serve under the e2e lock: build/ is shared, and another helper's build must not
-// replace it under the running server. A build that fails (someone mid-edit) is tried again.
-const port = await freePort();
-const base = `http://127.0.0.1:${port}`;
-let server: ReturnType<typeof spawn> | null = null;
-let serverPid = 0;
-let serverLog = '';
-let serverStart = 0;
-const stopServer = () => {
-	// The group: flock, its shell and the server.
-	if (server?.pid && server.exitCode === null) {
-		try {
-			process.kill(-server.pid, 'SIGTERM');
-		} catch {
-			/* gone already */
-		}
-	}
-};
-const previousCleanUp = cleanUp;
-cleanUp = () => {
-	stopServer();
-	previousCleanUp();
-};
+// Build and serve under the e2e lock, held while the server runs: build/ is shared, and another
+// helper's build must not replace it underneath. A build that fails (someone mid-edit) is tried again.
+let held: HeldBuild | null = null;
 for (let attempt = 1; ; attempt++) {
-	log(
-		`building when sources changed, then starting node build (under the e2e lock, try ${attempt})…`
-	);
-	serverLog = '';
-	serverPid = 0;
-	const child = spawn(
-		'flock',
-		[
-			'/tmp/rollbead-e2e.lock',
-			'sh',
-			'-c',
-			'node scripts/ensure-build.js >&2 || exit 3; echo "server pid $$"; exec node build'
-		],
-		{
-			detached: true,
-			env: {
-				...process.env,
-				DATABASE_URL: file,
-				PORT: String(port),
-				HOST: '127.0.0.1',
-				ORIGIN: base,
-				ROLLBEAD_DEMO: '0',
-				SPI_WATCH_DIR: '',
-				SIGNAL_ESCALATE_MINUTES: '0'
-			},
-			stdio: ['ignore', 'pipe', 'pipe']
-		}
-	);
-	server = child;
-	child.stdout!.on('data', (d) => {
-		serverLog += d;
-		const m = /server pid (\d+)/.exec(serverLog);
-		if (m && !serverPid) {
-			serverPid = Number(m[1]);
-			serverStart = performance.now();
-		}
-	});
-	child.stderr!.on('data', (d) => (serverLog += d));
-	let up = false;
-	while (child.exitCode === null) {
-		if (serverPid) {
-			try {
-				if ((await fetch(`${base}/api/health`)).ok) {
-					up = true;
-					break;
-				}
-			} catch {
-				/* not listening yet */
-			}
-		}
-		await new Promise((r) => setTimeout(r, 200));
-	}
-	if (up) break;
-	if (child.exitCode === 3 && attempt < 6) {
+	log(`building when sources changed (under the e2e lock, try ${attempt})…`);
+	try {
+		held = await buildAndHoldLock();
+		break;
+	} catch (err) {
+		if (!(err as { buildFailed?: boolean }).buildFailed || attempt >= 6) throw err;
 		log('the build failed (sources mid-edit?); trying again in 60 s');
-		console.log(
-			serverLog
-				.split('\n')
-				.filter((l) => /error|Error/.test(l))
-				.slice(0, 5)
-				.join('\n')
-		);
 		await new Promise((r) => setTimeout(r, 60_000));
-		continue;
 	}
-	throw new Error(`the server did not start (exit ${child.exitCode}):\n${serverLog.slice(-3000)}`);
 }
+const serverStart = performance.now();
+const server = await startServer({
+	databaseFile: file,
+	port: await freePort(),
+	demo: false,
+	env: { SIGNAL_ESCALATE_MINUTES: '0' }
+});
+const base = server.url;
+const serverPid = server.child.pid!;
 const startS = (performance.now() - serverStart) / 1000;
 const rssMb = (field = 'VmRSS') => {
 	try {
@@ -864,4 +781,6 @@ console.log(
 	`server RSS: ${rss.started.toFixed(0)} MB started, ${rss.afterCharts.toFixed(0)} MB after the charts, ${rss.afterOverview.toFixed(0)} MB after the overview, peak ${rss.peak.toFixed(0)} MB`
 );
 if (args.keep) console.log(`database kept: ${file} (token ${token})`);
+await server.stop();
+held.release();
 process.exit(0);

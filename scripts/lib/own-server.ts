@@ -41,6 +41,38 @@ export function ensureBuild(copyTo?: string): void {
 	});
 }
 
+/** The e2e lock, held by a child process until `release()` or until this process ends. */
+export interface HeldBuild {
+	release(): void;
+}
+
+/**
+ * Build when sources changed and keep holding the e2e lock, so a server run on the shared build/
+ * for a long time is not rebuilt underneath. The holder waits on its stdin: when this process
+ * ends, however it ends, the pipe closes and the lock is freed. Rejects with `buildFailed` set
+ * when the build failed (another helper mid-edit: worth trying again later).
+ */
+export async function buildAndHoldLock(): Promise<HeldBuild> {
+	const holder = spawn(
+		'flock',
+		[E2E_LOCK, 'sh', '-c', 'node scripts/ensure-build.js >&2 || exit 3; echo held; exec cat'],
+		{ cwd: ROOT, stdio: ['pipe', 'pipe', 'inherit'] }
+	);
+	holder.stdout?.resume();
+	await new Promise<void>((resolveHeld, reject) => {
+		holder.stdout?.once('data', () => resolveHeld());
+		holder.once('exit', (code) =>
+			reject(
+				Object.assign(new Error(`building under the e2e lock failed (exit ${code})`), {
+					buildFailed: code === 3
+				})
+			)
+		);
+	});
+	holder.unref();
+	return { release: () => holder.stdin?.end() };
+}
+
 export interface OwnServer {
 	url: string;
 	child: ChildProcess;
