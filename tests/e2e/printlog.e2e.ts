@@ -1,5 +1,5 @@
 import { expect, test, type APIRequestContext } from '@playwright/test';
-import { bearer, tokenFor } from './helpers';
+import { bearer, signInAs, tokenFor } from './helpers';
 
 const WINDOWS = {
 	squeegeeAngleDeg: { min: 45, target: 60, max: 60 },
@@ -556,5 +556,61 @@ test.describe('print-log pages without JavaScript', () => {
 		await page.locator('#end-boards').fill('25');
 		await page.getByRole('button', { name: 'End run now' }).click();
 		await expect(page.getByText('Run ended.')).toBeVisible();
+	});
+});
+
+test.describe('recipe edit page', () => {
+	test('the ideal cycle time is shown in seconds, saved, refused when out of range, kept when blank', async ({
+		page,
+		request
+	}) => {
+		const n = Date.now() % 100000;
+		const line = `CT-L${n}`;
+		const product = `CT-P${n}`;
+		const engineer = bearer(tokenFor('engineer'));
+		for (const [path, code] of [
+			['/api/lines', line],
+			['/api/products', product]
+		]) {
+			const made = await request.post(path, { headers: engineer, data: { code, name: 'e2e' } });
+			expect(made.status()).toBe(201);
+		}
+		const v1 = await request.post('/api/recipes', {
+			headers: engineer,
+			data: { line, product, idealCycleTimeS: 20, parameters: WINDOWS }
+		});
+		expect(v1.status()).toBe(201);
+		const current = async () => {
+			const res = await request.get(`/api/recipes?line=${line}&product=${product}`, {
+				headers: engineer
+			});
+			return (await res.json()).recipes[0] as { version: number; idealCycleTimeS: number | null };
+		};
+
+		await signInAs(page, 'engineer');
+		await page.goto(`/recipes/edit?line=${line}&product=${product}`);
+		const field = page.getByLabel('Ideal cycle time (s per board)');
+		await expect(field).toHaveValue('20');
+
+		// Zero passes the browser's min but not the recipe schema: named at the field, nothing saved.
+		await field.fill('0');
+		await page.getByRole('button', { name: 'Save as new version' }).click();
+		await expect(page.locator('#idealCycleTimeS-error')).toBeVisible();
+		await expect(field).toHaveAttribute('aria-invalid', 'true');
+		expect(await current()).toMatchObject({ version: 1, idealCycleTimeS: 20 });
+
+		await field.fill('24.5');
+		await page.getByRole('button', { name: 'Save as new version' }).click();
+		await expect(page).toHaveURL(/\/recipes\/history\?.*saved=2/);
+		expect(await current()).toMatchObject({ version: 2, idealCycleTimeS: 24.5 });
+
+		// Blank keeps the current version's value, as POST /api/recipes does when it is left out.
+		await page.goto(`/recipes/edit?line=${line}&product=${product}`);
+		await expect(field).toHaveValue('24.5');
+		await field.fill('');
+		await page.getByLabel('Squeegee speed max').fill('90');
+		await page.getByRole('button', { name: 'Save as new version' }).click();
+		await expect(page).toHaveURL(/\/recipes\/history\?.*saved=3/);
+		expect(await current()).toMatchObject({ version: 3, idealCycleTimeS: 24.5 });
 	});
 });

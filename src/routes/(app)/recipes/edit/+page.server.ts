@@ -6,6 +6,7 @@ import {
 	NUMERIC_PARAMETER_KEYS,
 	NUMERIC_PARAMETERS
 } from '$lib/printlog';
+import { readIdealCycleTimeS } from '$lib/printlog/ideal-cycle-time';
 import { getDb } from '$lib/server/db';
 import { listLines, listProducts } from '$lib/server/factory';
 import { requireActor } from '$lib/server/guards';
@@ -81,9 +82,13 @@ export const actions = {
 		const data = await request.formData();
 		const { parameters, errors } = parametersFrom(data);
 		const values = Object.fromEntries([...data].map(([k, v]) => [k, String(v)]));
+		const cycle = readIdealCycleTimeS(String(data.get('idealCycleTimeS') ?? ''));
+		if (!cycle.ok) errors.idealCycleTimeS = cycle.message;
 		const input = {
 			line: String(data.get('line') ?? ''),
 			product: String(data.get('product') ?? ''),
+			// Blank: left out, so the current version's value is kept (as POST /api/recipes does).
+			...(cycle.ok && cycle.value !== undefined ? { idealCycleTimeS: cycle.value } : {}),
 			parameters
 		};
 		if (Object.keys(errors).length) return fail(400, { errors, values });
