@@ -19,6 +19,16 @@ describe('signal mails', () => {
 		expect(line).toContain(' at 2026-11-02 06:05 UTC; 1 point in the pattern');
 	});
 
+	it('a CFX board is named by its serial when known, else as the machine board, never by its key', () => {
+		const cfx = { ...signal, pointKey: 'cfx-unit:12', pointKeys: ['cfx-unit:12'] };
+		expect(describeSignal({ ...cfx, pointSerial: 'FW-LM48-000777' }, chart)).toContain(
+			'on the location chart: board FW-LM48-000777 value'
+		);
+		const unknown = describeSignal(cfx, chart);
+		expect(unknown).toContain('on the location chart: machine board #12 value');
+		expect(unknown).not.toContain('cfx-unit');
+	});
+
 	it('the follower mail names the chart, links to it and to acknowledge', () => {
 		const mail = signalMail(
 			'https://rollbead.example',

@@ -6,6 +6,8 @@ export interface SignalText {
 	rule: string;
 	chartPart: string;
 	pointKey: string;
+	/** The board serial of the point, when the caller knows it (named instead of the key). */
+	pointSerial?: string | null;
 	pointKeys: string[];
 	pointAt: Date | null;
 	value: number | null;
@@ -22,7 +24,7 @@ export function describeSignal(s: SignalText, c: { unit: string } | undefined): 
 		s.value == null ? '' : ` value ${Number(s.value.toPrecision(6))}${c?.unit ? ' ' + c.unit : ''}`;
 	const when = s.pointAt ? ` at ${s.pointAt.toISOString().slice(0, 16).replace('T', ' ')} UTC` : '';
 	const n = s.pointKeys.length;
-	return `- ${ruleText(s.rule)} (rule ${s.rule}) on the ${s.chartPart.replace('-', ' ')} chart: ${pointKeyWords(s.pointKey)}${value}${when}; ${n} point${n === 1 ? '' : 's'} in the pattern`;
+	return `- ${ruleText(s.rule)} (rule ${s.rule}) on the ${s.chartPart.replace('-', ' ')} chart: ${pointKeyWords(s.pointKey, s.pointSerial)}${value}${when}; ${n} point${n === 1 ? '' : 's'} in the pattern`;
 }
 
 /** A chart named for a mail: name, product and lines. */
