@@ -5,6 +5,12 @@ import { chartCsv, CHART_CSV_HEADER } from './chart-csv';
 import { aperturesCsv, APERTURE_CSV_HEADER } from './apertures-csv';
 import { readCsvRows } from '$lib/stencil/csv-rows';
 import { runsToCsv, type RunView } from '$lib/server/printlog/print-runs';
+import {
+	csvTable,
+	kindColumns,
+	wipeColumns,
+	worstPadColumns
+} from '../../routes/(app)/analysis/export-columns';
 
 /**
  * Cells an attacker would type into a name, serial or note (OWASP "CSV Injection": formulas start
@@ -185,5 +191,64 @@ describe('every export goes through it', () => {
 			expect(row[at('squeegeeAngleDeg')]).toBe('-60');
 			expect(row[at('deviations')]).toBe(`squeegeeAngleDeg=65 (${cell})`);
 		});
+	});
+
+	it('analysis CSV, failures by kind: hostile kinds read back as text, shares as numbers', () => {
+		const kinds = HOSTILE_CELLS.map((kind, i) => ({
+			kind,
+			label: `=${kind}`,
+			fails: i,
+			share: -0.5 + i / 100,
+			cumulativeShare: i / 100
+		}));
+		const table = csvTable(kindColumns, kinds);
+		const rows = readBack(writeCsv([table.header, ...table.rows]));
+		expect(rows[0]).toEqual(['kind', 'fails', 'share', 'cumulative_share']);
+		HOSTILE_CELLS.forEach((kind, i) => {
+			const row = rows[i + 1];
+			expect(row[0], JSON.stringify(kind)).toBe(escapedText(kind));
+			expect(row.slice(1).map(Number)).toEqual([i, -0.5 + i / 100, i / 100]);
+		});
+	});
+
+	it('analysis CSV, pads failing most: hostile refdes and pad names stay in their cells', () => {
+		const pads = HOSTILE_CELLS.map((cell, i) => ({
+			refdes: cell,
+			pad: `-${cell}`,
+			panelIndex: i,
+			xUm: 0,
+			yUm: 0,
+			inspected: 100,
+			fails: 100 - i,
+			warns: 0,
+			failRate: (100 - i) / 100
+		}));
+		const table = csvTable(worstPadColumns, pads);
+		const rows = readBack(writeCsv([table.header, ...table.rows]));
+		expect(rows[0]).toEqual(['refdes', 'pad', 'panel', 'fails', 'fail_rate']);
+		expect(rows).toHaveLength(HOSTILE_CELLS.length + 1);
+		HOSTILE_CELLS.forEach((cell, i) => {
+			const row = rows[i + 1];
+			expect(row[0], JSON.stringify(cell)).toBe(escapedText(cell));
+			expect(row[1], JSON.stringify(cell)).toBe(escapedText(`-${cell}`));
+			expect(row.slice(2).map(Number)).toEqual([i, 100 - i, (100 - i) / 100]);
+		});
+	});
+
+	it('analysis CSV, prints since wipe: numbers only; negative means stay numbers, missing ones blank', () => {
+		const groups = [
+			{ printsSinceWipe: 0, boards: 12, teMean: 0.93, volumeMean: 101.25 },
+			{ printsSinceWipe: 1, boards: 3, teMean: -0.01, volumeMean: -1e-3 },
+			{ printsSinceWipe: 2, boards: 1, teMean: null, volumeMean: null }
+		];
+		const table = csvTable(wipeColumns, groups);
+		const csv = writeCsv([table.header, ...table.rows]);
+		expect(readBack(csv)).toEqual([
+			['prints_since_wipe', 'boards', 'te_mean', 'volume_mean_pct'],
+			['0', '12', '0.93', '101.25'],
+			['1', '3', '-0.01', '-0.001'],
+			['2', '1', '', '']
+		]);
+		expect(csv).not.toContain("'");
 	});
 });
