@@ -1,6 +1,8 @@
 import { describe, expect, it, vi } from 'vitest';
 import { z } from 'zod';
 import { ApiError, errorResponse } from './api';
+import { CfxInputError } from './cfx/store';
+import { OeeRequestError } from './cfx/oee';
 import { DuplicateCodeError } from './factory';
 import { PrintlogRequestError } from './printlog/request-error';
 import { PrintlogInputError } from '$lib/printlog';
@@ -96,6 +98,17 @@ describe('errorResponse', () => {
 		const budget = errorResponse(new StencilBudgetError('too many vertices', 413));
 		expect(budget.status).toBe(413);
 		expect(await budget.json()).toEqual({ error: 'too many vertices' });
+	});
+	it('answers machine-message refusals naming the field', async () => {
+		const held = errorResponse(new CfxInputError(409, 'id', 'message #4 is already stored'));
+		expect(held.status).toBe(409);
+		expect(await held.json()).toEqual({
+			error: 'message #4 is already stored',
+			fields: [{ field: 'id', message: 'message #4 is already stored' }]
+		});
+		const oee = errorResponse(new OeeRequestError('too many boards in one shift'));
+		expect(oee.status).toBe(422);
+		expect(await oee.json()).toEqual({ error: 'too many boards in one shift' });
 	});
 	it('keeps the body an ApiError was given', async () => {
 		const answer = errorResponse(new ApiError(404, { error: 'No such stencil.' }));

@@ -13,6 +13,7 @@ import {
 import { shiftsOfDay as siteShiftsOfDay, type ShiftSettings } from '$lib/floor/shifts';
 import type { Db } from '../db';
 import { siteShiftSettings } from '../floor/shift-settings';
+import { Refusal } from '$lib/errors';
 
 /** Shift starts used when neither the request nor SHIFT_STARTS names any. */
 export const DEFAULT_SHIFT_STARTS = ['06:00', '14:00', '22:00'];
@@ -37,7 +38,10 @@ export function shiftsOfDay(
 	return siteShiftsOfDay(day, { starts, timeZone });
 }
 
-export class OeeRequestError extends Error {}
+/** A request OEE cannot answer (a shift with more boards than it reads): 422. */
+export class OeeRequestError extends Refusal {
+	readonly status = 422;
+}
 
 function countBoards(
 	db: Db,

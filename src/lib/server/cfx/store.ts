@@ -26,6 +26,7 @@ import { currentRecipeFor } from '../printlog/recipes';
 import { evaluateChartsForRun } from '../printlog/run-signals';
 import { evaluateSignalsAfterPrintRun } from '../spc/signals';
 import { productByCode, stencilByName } from '../printlog/lookups';
+import { Refusal } from '$lib/errors';
 
 /** The spi_imports.source of CFX measurements (the column is free text; the type names the file routes). */
 const CFX_SOURCE = 'cfx' as IngestSource;
@@ -102,13 +103,18 @@ function endpointByHandle(db: Db, handle: string): CfxEndpoint | undefined {
 		.get(handle) as CfxEndpoint | undefined;
 }
 
-export class CfxInputError extends Error {
+export class CfxInputError extends Refusal {
 	constructor(
-		readonly status: number,
+		readonly status: 404 | 409 | 422,
 		readonly field: string,
 		message: string
 	) {
 		super(message);
+	}
+
+	/** Answered `{ error, fields: [{ field, message }] }` by errorResponse. */
+	override get fieldProblems() {
+		return [{ field: this.field, message: this.message }];
 	}
 }
 

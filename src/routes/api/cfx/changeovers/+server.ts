@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import { parseInstant } from '$lib/cfx/query-params';
 import { ApiError, apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { OeeRequestError, lineChangeovers } from '$lib/server/cfx';
+import { lineChangeovers } from '$lib/server/cfx';
 
 const KNOWN = new Set(['line', 'from', 'to']);
 const MAX_SPAN_MS = 31 * 24 * 3_600_000;
@@ -29,28 +29,23 @@ export const GET = apiRoute(({ url }) => {
 			fields: [{ field: 'to', message: 'must be after from, at most 31 days later' }]
 		});
 	}
-	try {
-		const found = lineChangeovers(getDb(), {
-			fromMs: from.value,
-			toMs: to.value,
-			line: url.searchParams.get('line')
-		});
-		return json({
-			changeovers: found.map((c) => ({
-				line: c.line,
-				kind: c.kind,
-				at: new Date(c.atMs).toISOString(),
-				from: c.from,
-				to: c.to,
-				lastBoardBefore:
-					c.lastBoardBeforeMs === null ? null : new Date(c.lastBoardBeforeMs).toISOString(),
-				firstBoardAfter:
-					c.firstBoardAfterMs === null ? null : new Date(c.firstBoardAfterMs).toISOString(),
-				durationMs: c.durationMs
-			}))
-		});
-	} catch (err) {
-		if (err instanceof OeeRequestError) throw new ApiError(422, { error: err.message });
-		throw err;
-	}
+	const found = lineChangeovers(getDb(), {
+		fromMs: from.value,
+		toMs: to.value,
+		line: url.searchParams.get('line')
+	});
+	return json({
+		changeovers: found.map((c) => ({
+			line: c.line,
+			kind: c.kind,
+			at: new Date(c.atMs).toISOString(),
+			from: c.from,
+			to: c.to,
+			lastBoardBefore:
+				c.lastBoardBeforeMs === null ? null : new Date(c.lastBoardBeforeMs).toISOString(),
+			firstBoardAfter:
+				c.firstBoardAfterMs === null ? null : new Date(c.firstBoardAfterMs).toISOString(),
+			durationMs: c.durationMs
+		}))
+	});
 });

@@ -3,7 +3,6 @@ import { cfxEndpointSchema } from '$lib/cfx/endpoint-schema';
 import { apiRoute, parseJsonBody } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import { listEndpoints, saveEndpoint } from '$lib/server/cfx';
-import { cfxCall } from '$lib/server/cfx/api-errors';
 
 /** Each machine's CFX handle with its line and kind. */
 export const GET = apiRoute(() => json({ endpoints: listEndpoints(getDb()) }));
@@ -11,6 +10,6 @@ export const GET = apiRoute(() => json({ endpoints: listEndpoints(getDb()) }));
 /** Map a handle to a line (201 new, 200 when an existing handle is moved); 422 unknown line. */
 export const POST = apiRoute(async ({ request }, actor) => {
 	const input = await parseJsonBody(request, cfxEndpointSchema);
-	const { endpoint, created } = await cfxCall(() => saveEndpoint(getDb(), input, actor));
+	const { endpoint, created } = saveEndpoint(getDb(), input, actor);
 	return json(endpoint, { status: created ? 201 : 200 });
 });

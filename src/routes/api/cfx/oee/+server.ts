@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import { parseDay, parseMinutes, parseShiftStarts } from '$lib/cfx/query-params';
 import { ApiError, apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
-import { OeeRequestError, printerOee } from '$lib/server/cfx';
+import { printerOee } from '$lib/server/cfx';
 import { siteShiftSettings } from '$lib/server/floor/shift-settings';
 
 const KNOWN = new Set(['day', 'line', 'shifts', 'idleMinutes']);
@@ -32,23 +32,18 @@ export const GET = apiRoute(({ url }) => {
 	];
 	if (fields.length || !day.ok || !shifts.ok || !idle.ok)
 		throw new ApiError(400, { error: 'The query has invalid parameters.', fields });
-	try {
-		const printers = printerOee(getDb(), {
-			day: day.value,
-			shiftStarts: shifts.value,
-			timeZone: site.timeZone,
-			line: url.searchParams.get('line'),
-			idleAfterMs: idle.value * 60_000
-		});
-		return json({
-			day: day.value,
-			shifts: shifts.value,
-			timeZone: site.timeZone,
-			idleMinutes: idle.value,
-			printers
-		});
-	} catch (err) {
-		if (err instanceof OeeRequestError) throw new ApiError(422, { error: err.message });
-		throw err;
-	}
+	const printers = printerOee(getDb(), {
+		day: day.value,
+		shiftStarts: shifts.value,
+		timeZone: site.timeZone,
+		line: url.searchParams.get('line'),
+		idleAfterMs: idle.value * 60_000
+	});
+	return json({
+		day: day.value,
+		shifts: shifts.value,
+		timeZone: site.timeZone,
+		idleMinutes: idle.value,
+		printers
+	});
 });

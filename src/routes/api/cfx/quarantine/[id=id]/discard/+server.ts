@@ -2,11 +2,10 @@ import { json } from '@sveltejs/kit';
 import { apiRoute } from '$lib/server/api';
 import { getDb } from '$lib/server/db';
 import { discardQuarantined } from '$lib/server/cfx';
-import { cfxCall } from '$lib/server/cfx/api-errors';
 
 /** Discard a held message (audited; its body is dropped). */
 export const POST = apiRoute(async ({ params }, actor) => {
 	const id = Number(params.id);
-	await cfxCall(() => discardQuarantined(getDb(), id, actor));
+	discardQuarantined(getDb(), id, actor);
 	return json({ id, status: 'discarded' });
 });
