@@ -10,15 +10,30 @@ import { hasRole, type Actor } from '$lib/access';
 import { apiPolicyFor } from './api-policy';
 import { jsonTooDeep, MAX_JSON_DEPTH } from '$lib/json/json-depth';
 import { isDatabaseBusy } from './db';
-import { isRefusal } from '$lib/errors';
+import { isRefusal, Refusal, type FieldProblem, type RefusalStatus } from '$lib/errors';
 
-/** An expected API failure with its status and JSON body. */
-export class ApiError extends Error {
-	constructor(
-		readonly status: number,
-		readonly body: Record<string, unknown>
-	) {
+/**
+ * A refusal whose answer a route words on the spot: its status and the JSON body as given (for a
+ * refusal with a name of its own, extend `Refusal` instead). The message is the body's `error`.
+ */
+export class ApiError extends Refusal {
+	readonly status: RefusalStatus;
+	readonly #body: Record<string, unknown>;
+
+	constructor(status: RefusalStatus, body: Record<string, unknown>) {
 		super(String(body.error ?? body.message ?? status));
+		this.status = status;
+		this.#body = body;
+	}
+
+	/** The body's `fields`, when it lists them in the `{ field, message }` shape. */
+	override get fieldProblems(): readonly FieldProblem[] {
+		const fields = this.#body.fields;
+		return Array.isArray(fields) ? (fields as FieldProblem[]) : [];
+	}
+
+	override body(): Record<string, unknown> {
+		return this.#body;
 	}
 }
 
@@ -70,7 +85,6 @@ export const publicApiRoute = (handler: Handler<Actor | null>) => wrap(handler, 
 
 /** Turn anything thrown by a handler into a JSON answer; unexpected errors are logged, not shown. */
 export function errorResponse(err: unknown): Response {
-	if (err instanceof ApiError) return json(err.body, { status: err.status });
 	if (isRefusal(err)) return json(err.body(), { status: err.status });
 	if (err instanceof ZodError) return json(validationBody(err), { status: 400 });
 	if (isRedirect(err)) throw err;

@@ -1,6 +1,7 @@
 import { describe, expect, it, vi } from 'vitest';
 import { z } from 'zod';
 import { ApiError, errorResponse } from './api';
+import { Refusal } from '$lib/errors';
 import { CfxInputError } from './cfx/store';
 import { OeeRequestError } from './cfx/oee';
 import { DuplicateCodeError } from './factory';
@@ -114,6 +115,16 @@ describe('errorResponse', () => {
 		const answer = errorResponse(new ApiError(404, { error: 'No such stencil.' }));
 		expect(answer.status).toBe(404);
 		expect(await answer.json()).toEqual({ error: 'No such stencil.' });
+		const invalid = new ApiError(400, {
+			error: 'The request has invalid fields.',
+			fields: [{ field: 'layout', message: 'must be "rows" or "columns"' }]
+		});
+		expect(invalid).toBeInstanceOf(Refusal);
+		expect(invalid.message).toBe('The request has invalid fields.');
+		expect(invalid.fieldProblems).toEqual([
+			{ field: 'layout', message: 'must be "rows" or "columns"' }
+		]);
+		expect(await errorResponse(invalid).json()).toEqual(invalid.body());
 	});
 	it('answers invalid fields 400 naming each field', async () => {
 		const parsed = z.object({ code: z.string().min(1) }).safeParse({ code: '' });

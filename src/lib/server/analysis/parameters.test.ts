@@ -3,6 +3,7 @@ import { linearRegression, pearsonCorrelation } from '$lib/analysis';
 import { openTestDatabase } from '../testing';
 import { seedDemoData } from '../seed';
 import { parameterEffect, readParameterFilters } from './parameters';
+import { ApiError } from '../api';
 
 let t: ReturnType<typeof openTestDatabase>;
 beforeAll(async () => {
@@ -52,9 +53,7 @@ describe('parameterEffect on the demo', () => {
 		try {
 			readParameterFilters(url('parameter=colour&outcome=volumeMean&from=2026-02-30&extra=1'));
 		} catch (err) {
-			const fields = (err as { body: { fields: { field: string }[] } }).body.fields.map(
-				(f) => f.field
-			);
+			const fields = (err as ApiError).fieldProblems.map((f) => f.field);
 			expect(fields.sort()).toEqual(['extra', 'from', 'parameter']);
 			return;
 		}

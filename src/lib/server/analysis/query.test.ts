@@ -10,7 +10,7 @@ function fieldsOf(r: QueryReader): string[] {
 		r.finish();
 	} catch (err) {
 		expect(err).toBeInstanceOf(ApiError);
-		return ((err as ApiError).body.fields as { field: string }[]).map((f) => f.field);
+		return (err as ApiError).fieldProblems.map((f) => f.field);
 	}
 	return [];
 }

@@ -19,7 +19,7 @@ function statusOf(fn: () => void): { status: number; error: string } {
 	try {
 		fn();
 	} catch (e) {
-		if (e instanceof ApiError) return { status: e.status, error: String(e.body.error) };
+		if (e instanceof ApiError) return { status: e.status, error: String(e.body().error) };
 		throw e;
 	}
 	throw new Error('expected an ApiError');

@@ -29,7 +29,7 @@ describe('multipartFile', () => {
 		const err = await multipartFile(multipart(form)).catch((e) => e);
 		expect(err).toBeInstanceOf(ApiError);
 		expect(err.status).toBe(400);
-		expect(err.body.error).toContain('"file"');
+		expect(err.body().error).toContain('"file"');
 	});
 });
 
@@ -55,7 +55,9 @@ describe('size limits', () => {
 			expect.unreachable();
 		} catch (err) {
 			expect((err as ApiError).status).toBe(413);
-			expect((err as ApiError).body.error).toMatch(/2048 MB; the largest accepted file is 1024 MB/);
+			expect((err as ApiError).body().error).toMatch(
+				/2048 MB; the largest accepted file is 1024 MB/
+			);
 		}
 	});
 
@@ -71,7 +73,7 @@ describe('size limits', () => {
 		}
 		const cut = await text(limitBytes(broken(), 100)).catch((e) => e);
 		expect(cut.status).toBe(400);
-		expect(cut.body.error).toContain('interrupted');
+		expect(cut.body().error).toContain('interrupted');
 	});
 });
 

@@ -67,9 +67,7 @@ export const actions: Actions = {
 		} catch (err) {
 			if (err instanceof ApiError)
 				return fail(400, {
-					adoptError: ((err.body.fields as { field: string; message: string }[]) ?? [])
-						.map((f) => `${f.field} ${f.message}`)
-						.join('; ')
+					adoptError: err.fieldProblems.map((f) => `${f.field} ${f.message}`).join('; ')
 				});
 			throw err;
 		}
@@ -90,7 +88,7 @@ export const actions: Actions = {
 			};
 		} catch (err) {
 			if (err instanceof ApiError && err.status === 422)
-				return fail(422, { adoptError: String(err.body.error) });
+				return fail(422, { adoptError: err.message });
 			throw err;
 		}
 	}

@@ -24,7 +24,7 @@ export const actions = {
 			deleteProfile(getDb(), id, actor, process.env.SPI_WATCH_PROFILE ?? null);
 		} catch (e) {
 			if (!(e instanceof ApiError)) throw e;
-			return fail(e.status, { deleteId: id, deleteError: String(e.body.error) });
+			return fail(e.status, { deleteId: id, deleteError: e.message });
 		}
 		return { deleted: String(form.get('name') ?? id) };
 	}

@@ -93,7 +93,7 @@ export const actions = {
 			return { adopted: { technology: t, before: adopted.before, after: adopted.after } };
 		} catch (err) {
 			if (err instanceof ApiError && (err.status === 422 || err.status === 409))
-				return fail(err.status, { adoptError: String(err.body.error) });
+				return fail(err.status, { adoptError: err.message });
 			throw err;
 		}
 	}

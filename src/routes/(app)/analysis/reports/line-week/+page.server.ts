@@ -16,7 +16,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 		if (err instanceof ApiError)
 			error(
 				err.status,
-				String(err.body.fields ? 'week must be an ISO week such as 2026-W09' : err.body.error)
+				err.fieldProblems.length > 0 ? 'week must be an ISO week such as 2026-W09' : err.message
 			);
 		throw err;
 	}

@@ -11,7 +11,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	try {
 		return { report: await runReport(getDb(), id) };
 	} catch (err) {
-		if (err instanceof ApiError && err.status === 404) error(404, String(err.body.error));
+		if (err instanceof ApiError && err.status === 404) error(404, err.message);
 		throw err;
 	}
 };
