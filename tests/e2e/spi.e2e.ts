@@ -179,6 +179,8 @@ test.describe('SPI pages', () => {
 	}) => {
 		await signInAs(page, 'quality');
 		await page.goto('/spi/upload');
+		// A file chosen before the page has hydrated is not seen by it.
+		await expect(page.getByTestId('drop-zone')).toHaveAttribute('data-hydrated', 'true');
 		await page.locator('#files').setInputFiles([
 			{
 				name: 'page-good.csv',

@@ -189,12 +189,12 @@ test.describe('stencil design check', () => {
 		await expect(page.locator('#electroformed-minAreaRatio-error')).toContainText('greater than 0');
 		await area.fill('0.55');
 		await page.getByRole('button', { name: 'Save thresholds' }).click();
-		await expect(page.getByRole('status')).toContainText('Thresholds saved');
+		await expect(page.getByRole('status').filter({ hasText: 'Thresholds saved' })).toBeVisible();
 		await page.reload();
 		await expect(page.getByLabel('Minimum area ratio, Electroformed')).toHaveValue('0.55');
 		await page.getByLabel('Minimum area ratio, Electroformed').fill('0.66');
 		await page.getByRole('button', { name: 'Save thresholds' }).click();
-		await expect(page.getByRole('status')).toContainText('Thresholds saved');
+		await expect(page.getByRole('status').filter({ hasText: 'Thresholds saved' })).toBeVisible();
 	});
 
 	test('API contract: create, import JSON, read figures; bad CSV names row and column and stores nothing', async ({
