@@ -1,53 +1,14 @@
 import { expect, test } from '@playwright/test';
-import { bearer, demoUser, signInAs, tokenFor } from './helpers';
-
-/** The SMT-1 / PB-100 demo recipe's values, on target. */
-const ON_TARGET = {
-	squeegeeAngleDeg: 60,
-	squeegeeSpeedMmS: 40,
-	squeegeePressureKg: 7,
-	separationSpeedMmS: 1,
-	separationDistanceMm: 2,
-	printGapMm: 0,
-	bladeLengthMm: 300,
-	wipeIntervalPrints: 3,
-	printStroke: 'alternating',
-	bladeType: 'metal',
-	wipeMode: 'wet-vacuum-dry',
-	boardSupport: 'pins'
-};
+import { demoUser, signInAs } from './helpers';
+import { signalOfRun, startSignallingRun } from './signal-run';
 
 test('a technician follows a signal to its marked chart point and acknowledges it at the line', async ({
 	page,
 	request
 }) => {
-	const technician = bearer(tokenFor('technician'));
-	const open = await (
-		await request.get('/api/print-runs?line=SMT-1&open=true', { headers: technician })
-	).json();
-	for (const run of open.runs)
-		await request.post(`/api/print-runs/${run.id}/end`, { headers: technician, data: {} });
-	// 59 mm/s: inside the recipe window, far above the frozen squeegee-speed limits (a signal).
-	const started = await request.post('/api/print-runs', {
-		headers: technician,
-		data: {
-			line: 'SMT-1',
-			product: 'PB-100',
-			stencil: 'ST-PB100',
-			pasteLot: 'PL-2026-0412',
-			parameters: { ...ON_TARGET, squeegeeSpeedMmS: 59 }
-		}
-	});
-	expect(started.status(), await started.text()).toBe(201);
-	const runId = (await started.json()).id as number;
+	const { runId, technician, endRun } = await startSignallingRun(request, 59);
 	try {
-		const signals = (
-			await (await request.get('/api/signals?status=open', { headers: technician })).json()
-		).signals;
-		const signal = signals.find((s: { pointKey: string }) => s.pointKey === `run:${runId}`);
-		expect(signal, 'a signal for the new run').toBeTruthy();
-		const lines = (await (await request.get('/api/lines', { headers: technician })).json()).lines;
-		const smt1 = lines.find((l: { code: string }) => l.code === 'SMT-1');
+		const { signal, lineId } = await signalOfRun(request, runId);
 
 		// The API stays with the SPC editors: technicians acknowledge at their line only.
 		const lists = { cause: 'Squeegee pressure drift', action: 'Adjust speed' };
@@ -74,7 +35,7 @@ test('a technician follows a signal to its marked chart point and acknowledges i
 		await expect(page.getByTestId('location-pane').getByTestId('marked-point')).toBeInViewport();
 
 		// From the line view: the same link, then the acknowledgement with chosen cause and action.
-		await page.goto(`/lines/${smt1.id}`);
+		await page.goto(`/lines/${lineId}`);
 		const card = page.getByTestId(`line-signal-${signal.id}`);
 		await expect(card.getByRole('link', { name: /chart point/ })).toHaveAttribute(
 			'href',
@@ -99,6 +60,6 @@ test('a technician follows a signal to its marked chart point and acknowledges i
 			by: demoUser('technician').name
 		});
 	} finally {
-		await request.post(`/api/print-runs/${runId}/end`, { headers: technician, data: {} });
+		await endRun();
 	}
 });

@@ -1,58 +1,17 @@
 import { expect, test } from '@playwright/test';
-import { bearer, demoUser, signInAs, tokenFor } from './helpers';
-
-/** The SMT-1 / PB-100 demo recipe's values, on target. */
-const ON_TARGET = {
-	squeegeeAngleDeg: 60,
-	squeegeeSpeedMmS: 40,
-	squeegeePressureKg: 7,
-	separationSpeedMmS: 1,
-	separationDistanceMm: 2,
-	printGapMm: 0,
-	bladeLengthMm: 300,
-	wipeIntervalPrints: 3,
-	printStroke: 'alternating',
-	bladeType: 'metal',
-	wipeMode: 'wet-vacuum-dry',
-	boardSupport: 'pins'
-};
+import { demoUser, signInAs } from './helpers';
+import { signalOfRun, startSignallingRun } from './signal-run';
 
 test('line view on a tablet: a new signal from a run, taken and acknowledged with chosen cause and action', async ({
 	page,
 	request
 }) => {
-	const technician = bearer(tokenFor('technician'));
-	// SMT-1 must be free: end a run another test left open.
-	const open = await (
-		await request.get('/api/print-runs?line=SMT-1&open=true', { headers: technician })
-	).json();
-	for (const run of open.runs)
-		await request.post(`/api/print-runs/${run.id}/end`, { headers: technician, data: {} });
-	// 58 mm/s is inside the recipe window (30–60) but far above the frozen squeegee-speed chart's
-	// limits (the demo's runs at about 40 mm/s): the chart stores a signal for this run.
-	const started = await request.post('/api/print-runs', {
-		headers: technician,
-		data: {
-			line: 'SMT-1',
-			product: 'PB-100',
-			stencil: 'ST-PB100',
-			pasteLot: 'PL-2026-0412',
-			parameters: { ...ON_TARGET, squeegeeSpeedMmS: 58 }
-		}
-	});
-	expect(started.status(), await started.text()).toBe(201);
-	const runId = (await started.json()).id as number;
+	const { runId, technician, endRun } = await startSignallingRun(request, 58);
 	try {
-		const signals = (
-			await (await request.get('/api/signals?status=open', { headers: technician })).json()
-		).signals;
-		const signal = signals.find((s: { pointKey: string }) => s.pointKey === `run:${runId}`);
-		expect(signal, 'a signal for the new run').toBeTruthy();
-		const lines = (await (await request.get('/api/lines', { headers: technician })).json()).lines;
-		const smt1 = lines.find((l: { code: string }) => l.code === 'SMT-1');
+		const { signal, lineId } = await signalOfRun(request, runId);
 
 		await signInAs(page, 'quality');
-		await page.goto(`/lines/${smt1.id}`);
+		await page.goto(`/lines/${lineId}`);
 		await expect(page.getByTestId('line-state')).toHaveText('attention');
 		const card = page.getByTestId(`line-signal-${signal.id}`);
 		await expect(card).toContainText('no owner');
@@ -105,6 +64,6 @@ test('line view on a tablet: a new signal from a run, taken and acknowledged wit
 			action: actions[0]
 		});
 	} finally {
-		await request.post(`/api/print-runs/${runId}/end`, { headers: technician, data: {} });
+		await endRun();
 	}
 });
