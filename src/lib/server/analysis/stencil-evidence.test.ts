@@ -45,6 +45,15 @@ describe('stencilWear', () => {
 		const second = w.sinceWipe[1].teMean!;
 		expect(second).toBeGreaterThan(first);
 	});
+	it('refuses an unknown stencil with 404 and its message (the API answers it as it is)', async () => {
+		expect(() => stencilWear(t.db, 999_999, 0.05)).toThrow(
+			expect.objectContaining({ status: 404, message: 'No stencil with id 999999.' })
+		);
+		await expect(predictedTeForStencil(t.db, 999_999, 0.7)).rejects.toMatchObject({
+			status: 404,
+			message: 'No stencil with id 999999.'
+		});
+	});
 	it('needs three runs with TE', () => {
 		const pb = t.db.$client
 			.prepare(`select id from stencils where name = 'ST-PB100' and revision = 'A'`)

@@ -7,9 +7,8 @@ import {
 	teBandAt
 } from '$lib/analysis';
 import type { Db } from '../db';
-import { ApiError } from '../api';
 import { checkStoredStencil } from '../stencils/evaluation';
-import { getStencil, StencilNotFoundError } from '../stencils/stencils';
+import { getStencil } from '../stencils/stencils';
 import { QueryReader } from './query';
 import { transferEfficiencyOffThread } from './te-thread';
 
@@ -32,16 +31,6 @@ export function readStencilQuery(
 	const floor = withDrop ? 0.7 : q.decimal('floor', 0, 1.5, 0.7);
 	q.finish();
 	return { stencilId: stencilId as number, drop, floor };
-}
-
-/** 404 for an unknown stencil id (the API answer), other errors unchanged. */
-function stencilOr404<T>(work: () => T): T {
-	try {
-		return work();
-	} catch (err) {
-		if (err instanceof StencilNotFoundError) throw new ApiError(404, { error: err.message });
-		throw err;
-	}
 }
 
 export interface WearAnswer {
@@ -85,7 +74,7 @@ export const MAX_WIPE_BOARDS = 200_000;
  * slope whose 95 % confidence interval lies below zero, so noise alone does not raise it.
  */
 export function stencilWear(db: Db, stencilId: number, drop: number): WearAnswer {
-	stencilOr404(() => getStencil(db, stencilId));
+	getStencil(db, stencilId); // an unknown id is a StencilNotFoundError: 404 with { error }
 	const rows = db.$client
 		.prepare(
 			`select r.id, r.started_at, r.boards_printed,
@@ -202,7 +191,7 @@ export async function predictedTeForStencil(
 	stencilId: number,
 	floor: number
 ): Promise<PredictedTeAnswer> {
-	const check = stencilOr404(() => checkStoredStencil(db, stencilId));
+	const check = checkStoredStencil(db, stencilId);
 	const technology = check.stencil.technology;
 	const te = await transferEfficiencyOffThread(db, {
 		technology,
